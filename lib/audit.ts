@@ -1,0 +1,29 @@
+import type { Transaction } from "sequelize";
+import { AuditEvent, models } from "@/models";
+
+export type AuditInput = {
+  actorId: string | null;
+  actorLabel?: string;
+  groupId?: string | null;
+  action: string;
+  targetType?: string;
+  targetId?: string;
+  details?: Record<string, unknown>;
+};
+
+/** Appends one event to the audit trail; there is no edit or delete path. */
+export async function recordAudit(input: AuditInput, transaction?: Transaction): Promise<void> {
+  models();
+  await AuditEvent.create(
+    {
+      actorId: input.actorId,
+      actorLabel: input.actorLabel ?? "",
+      groupId: input.groupId ?? null,
+      action: input.action,
+      targetType: input.targetType ?? null,
+      targetId: input.targetId ?? null,
+      details: input.details ?? {},
+    },
+    { transaction },
+  );
+}

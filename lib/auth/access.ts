@@ -1,0 +1,81 @@
+import { Op } from "sequelize";
+import { Project, Series, Share, Spectrum, models } from "@/models";
+import type { Role } from "@/models/Membership";
+import type { Actor } from "./actor";
+
+// Every permission question the app asks, answered on the server from the actor's
+// memberships and shares. Pages, route handlers and server actions all come here.
+
+export const WRITER_ROLES: readonly Role[] = ["spectroscopist", "lead"];
+export const MEMBER_ROLES: readonly Role[] = ["spectroscopist", "lead", "steward"];
+
+export function roleIn(actor: Actor, groupId: string): Role | null {
+  return actor.memberships.find((m) => m.groupId === groupId)?.role ?? null;
+}
+
+export function hasRole(actor: Actor, groupId: string, roles: readonly Role[]): boolean {
+  const role = roleIn(actor, groupId);
+  return role !== null && roles.includes(role);
+}
+
+/** Groups whose data the actor reads as a member (collaborators read only shares). */
+export function memberGroupIds(actor: Actor): string[] {
+  return actor.memberships.filter((m) => MEMBER_ROLES.includes(m.role)).map((m) => m.groupId);
+}
+
+export function canWrite(actor: Actor, groupId: string): boolean {
+  return hasRole(actor, groupId, WRITER_ROLES);
+}
+export function canReview(actor: Actor, groupId: string): boolean {
+  return hasRole(actor, groupId, ["lead"]);
+}
+export function canSteward(actor: Actor, groupId: string): boolean {
+  return hasRole(actor, groupId, ["steward"]);
+}
+
+export type SharedTargets = { projectIds: string[]; seriesIds: string[] };
+
+/** Projects and series shared with this person directly and still in force. */
+export async function sharedTargets(actor: Actor): Promise<SharedTargets> {
+  models();
+  const rows = await Share.findAll({
+    where: {
+      granteeUserId: actor.id,
+      revokedAt: null,
+      [Op.or]: [{ expiresAt: null }, { expiresAt: { [Op.gt]: new Date() } }],
+    },
+    attributes: ["targetType", "targetId"],
+  });
+  return {
+    projectIds: rows.filter((r) => r.targetType === "project").map((r) => r.targetId),
+    seriesIds: rows.filter((r) => r.targetType === "series").map((r) => r.targetId),
+  };
+}
+
+export async function canReadProject(actor: Actor, project: Project): Promise<boolean> {
+  if (memberGroupIds(actor).includes(project.groupId)) return true;
+  return (await sharedTargets(actor)).projectIds.includes(project.id);
+}
+
+export async function canReadSeries(actor: Actor, series: Series): Promise<boolean> {
+  models();
+  const project = await Project.findByPk(series.projectId);
+  if (project && (await canReadProject(actor, project))) return true;
+  return (await sharedTargets(actor)).seriesIds.includes(series.id);
+}
+
+export async function canReadSpectrum(actor: Actor, spectrum: Spectrum): Promise<boolean> {
+  models();
+  const project = await Project.findByPk(spectrum.projectId);
+  if (!project) return false;
+  if (memberGroupIds(actor).includes(project.groupId)) return true;
+  const shared = await sharedTargets(actor);
+  return shared.projectIds.includes(project.id) || (spectrum.seriesId !== null && shared.seriesIds.includes(spectrum.seriesId));
+}
+
+/** The group a spectrum belongs to, for write and review checks. */
+export async function groupOfSpectrum(spectrum: Spectrum): Promise<string | null> {
+  models();
+  const project = await Project.findByPk(spectrum.projectId, { attributes: ["groupId"] });
+  return project?.groupId ?? null;
+}

@@ -1,0 +1,55 @@
+import { NextResponse } from "next/server";
+import { ZodError } from "zod";
+import type { Actor } from "@/lib/auth/actor";
+import { actorFromRequest } from "@/lib/auth/actor";
+
+// One error shape for the whole HTTP API:
+// { "error": { "code": "not-found", "message": "…", "field": "sampleId" } }
+export class ApiError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly field?: string,
+  ) {
+    super(message);
+  }
+}
+
+export const unauthenticated = () => new ApiError(401, "unauthenticated", "Sign in or send a Bearer API token.");
+export const forbidden = (what = "this") => new ApiError(403, "forbidden", `You do not have access to ${what}.`);
+export const notFound = (what: string) => new ApiError(404, "not-found", `${what} was not found.`);
+
+export function errorResponse(error: unknown): NextResponse {
+  if (error instanceof ApiError) {
+    return NextResponse.json(
+      { error: { code: error.code, message: error.message, ...(error.field ? { field: error.field } : {}) } },
+      { status: error.status },
+    );
+  }
+  if (error instanceof ZodError) {
+    const first = error.issues[0];
+    const field = first?.path.join(".") || undefined;
+    return NextResponse.json(
+      { error: { code: "invalid", message: first ? `${field ? `${field}: ` : ""}${first.message}` : "Invalid input.", field } },
+      { status: 400 },
+    );
+  }
+  console.error(error);
+  return NextResponse.json({ error: { code: "internal", message: "Something went wrong on our side. Try again." } }, { status: 500 });
+}
+
+type Handler<C> = (request: Request, context: C & { actor: Actor }) => Promise<Response>;
+
+/** Wraps a route handler: resolves the caller first, refuses anonymous calls, maps errors. */
+export function withActor<C>(handler: Handler<C>) {
+  return async (request: Request, context: C): Promise<Response> => {
+    try {
+      const actor = await actorFromRequest(request);
+      if (!actor) throw unauthenticated();
+      return await handler(request, { ...context, actor });
+    } catch (error) {
+      return errorResponse(error);
+    }
+  };
+}

@@ -1,0 +1,41 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
+
+export const SIGNATURE_KINDS = ["bleach", "new-band", "pl-quench", "shift", "broadening"] as const;
+export type SignatureKind = (typeof SIGNATURE_KINDS)[number];
+export const REVIEW_STATES = ["awaiting", "confirmed", "dismissed"] as const;
+export type ReviewState = (typeof REVIEW_STATES)[number];
+
+export class Signature extends Model<InferAttributes<Signature>, InferCreationAttributes<Signature>> {
+  declare id: CreationOptional<string>;
+  declare runId: string;
+  declare spectrumId: string;
+  declare kind: SignatureKind;
+  declare energyEv: number | null;
+  declare fraction: number | null;
+  declare shiftMeV: number | null;
+  declare significance: number;
+  declare details: CreationOptional<Record<string, unknown>>;
+  declare reviewState: CreationOptional<ReviewState>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+
+  static initialize(sequelize: Sequelize) {
+    Signature.init(
+      {
+        id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
+        runId: { type: DataTypes.UUID, allowNull: false },
+        spectrumId: { type: DataTypes.UUID, allowNull: false },
+        kind: { type: DataTypes.ENUM(...SIGNATURE_KINDS), allowNull: false },
+        energyEv: { type: DataTypes.DOUBLE, allowNull: true },
+        fraction: { type: DataTypes.DOUBLE, allowNull: true },
+        shiftMeV: { type: DataTypes.DOUBLE, allowNull: true, field: "shift_mev" },
+        significance: { type: DataTypes.DOUBLE, allowNull: false },
+        details: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
+        reviewState: { type: DataTypes.ENUM(...REVIEW_STATES), allowNull: false, defaultValue: "awaiting" },
+        createdAt: DataTypes.DATE,
+        updatedAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: "signatures" },
+    );
+  }
+}

@@ -1,0 +1,72 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
+
+export const TECHNIQUES = ["absorption", "pl", "ir"] as const;
+export type Technique = (typeof TECHNIQUES)[number];
+export const SPECTRUM_STATUSES = ["received", "queued", "analysing", "analysed", "failed"] as const;
+export type SpectrumStatus = (typeof SPECTRUM_STATUSES)[number];
+
+export class Spectrum extends Model<InferAttributes<Spectrum>, InferCreationAttributes<Spectrum>> {
+  declare id: CreationOptional<string>;
+  declare projectId: string;
+  declare sampleId: string | null;
+  declare seriesId: string | null;
+  declare seriesValue: number | null;
+  declare referenceSpectrumId: string | null;
+  declare technique: Technique;
+  declare fileName: string;
+  declare objectKey: string;
+  declare sha256: string;
+  declare sizeBytes: number;
+  declare contentType: CreationOptional<string>;
+  declare columnChoice: string | null;
+  declare axisUnit: string | null;
+  declare valueUnit: string | null;
+  declare pathLengthCm: number | null;
+  declare excitationNm: number | null;
+  declare slitNm: number | null;
+  declare integrationMs: number | null;
+  declare solvent: CreationOptional<string>;
+  declare material: string | null;
+  declare metadata: CreationOptional<Record<string, unknown>>;
+  declare status: CreationOptional<SpectrumStatus>;
+  declare errorMessage: string | null;
+  declare uploadedBy: string | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+
+  static initialize(sequelize: Sequelize) {
+    const optionalNumber = { type: DataTypes.DOUBLE, allowNull: true };
+    Spectrum.init(
+      {
+        id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
+        projectId: { type: DataTypes.UUID, allowNull: false },
+        sampleId: { type: DataTypes.UUID, allowNull: true },
+        seriesId: { type: DataTypes.UUID, allowNull: true },
+        seriesValue: optionalNumber,
+        referenceSpectrumId: { type: DataTypes.UUID, allowNull: true },
+        technique: { type: DataTypes.ENUM(...TECHNIQUES), allowNull: false },
+        fileName: { type: DataTypes.TEXT, allowNull: false },
+        objectKey: { type: DataTypes.TEXT, allowNull: false, unique: true },
+        sha256: { type: DataTypes.CHAR(64), allowNull: false },
+        sizeBytes: { type: DataTypes.BIGINT, allowNull: false, get() { return Number(this.getDataValue("sizeBytes")); } },
+        contentType: { type: DataTypes.TEXT, allowNull: false, defaultValue: "application/octet-stream" },
+        columnChoice: { type: DataTypes.TEXT, allowNull: true },
+        axisUnit: { type: DataTypes.TEXT, allowNull: true },
+        valueUnit: { type: DataTypes.TEXT, allowNull: true },
+        pathLengthCm: optionalNumber,
+        excitationNm: optionalNumber,
+        slitNm: optionalNumber,
+        integrationMs: optionalNumber,
+        solvent: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+        material: { type: DataTypes.TEXT, allowNull: true },
+        metadata: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
+        status: { type: DataTypes.ENUM(...SPECTRUM_STATUSES), allowNull: false, defaultValue: "received" },
+        errorMessage: { type: DataTypes.TEXT, allowNull: true },
+        uploadedBy: { type: DataTypes.UUID, allowNull: true },
+        createdAt: DataTypes.DATE,
+        updatedAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: "spectra" },
+    );
+  }
+}

@@ -1,0 +1,172 @@
+# Functions that install (when missing), start and stop the local services.
+# Sourced after scripts/env.sh.
+
+log() { printf '\033[36m[bandkeep]\033[0m %s\n' "$*"; }
+die() { printf '\033[31m[bandkeep] %s\033[0m\n' "$*" >&2; exit 1; }
+
+apt_ready=0
+apt_install() {
+  command -v apt-get >/dev/null || die "apt-get not found: install $* by hand"
+  [ "$(id -u)" = 0 ] || die "installing $* needs root (run: sudo apt-get install -y $*)"
+  if [ "$apt_ready" = 0 ]; then
+    log "apt-get update"
+    apt-get update -qq >/dev/null
+    apt_ready=1
+  fi
+  log "apt-get install $*"
+  DEBIAN_FRONTEND=noninteractive apt-get install -y -qq "$@" >/dev/null
+}
+
+pg_bin() {
+  local d
+  d=$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -n 1)
+  echo "$d"
+}
+
+ensure_system_packages() {
+  [ -n "$(pg_bin)" ] || apt_install postgresql
+  command -v redis-server >/dev/null || apt_install redis-server
+}
+
+ensure_chromium() {
+  command -v chromium >/dev/null || apt_install chromium
+}
+
+ensure_node_modules() {
+  if [ ! -d "$ROOT/node_modules/next" ] || [ "$ROOT/package-lock.json" -nt "$ROOT/node_modules/.package-lock.json" ]; then
+    log "npm ci"
+    (cd "$ROOT" && npm ci --no-audit --no-fund) || die "npm ci failed"
+  fi
+}
+
+# Run a command as the unprivileged postgres user when we are root (initdb refuses root).
+as_pg() {
+  if [ "$(id -u)" = 0 ]; then runuser -u postgres -- "$@"; else "$@"; fi
+}
+
+start_postgres() {
+  local bin data sock
+  bin=$(pg_bin); data="$BANDKEEP_DATA_DIR/pg"; sock="$BANDKEEP_DATA_DIR/pgsock"
+  mkdir -p "$data" "$sock"
+  [ "$(id -u)" = 0 ] && chown postgres:postgres "$data" "$sock"
+  chmod 700 "$data"
+  if [ ! -f "$data/PG_VERSION" ]; then
+    log "initdb $data"
+    as_pg "$bin/initdb" -D "$data" -U postgres --auth=trust -E UTF8 --locale=C.UTF-8 >"$LOG_DIR/initdb.log" 2>&1 \
+      || die "initdb failed, see $LOG_DIR/initdb.log"
+  fi
+  if as_pg "$bin/pg_ctl" -D "$data" status >/dev/null 2>&1; then
+    log "PostgreSQL already running on $PGPORT_LOCAL"
+  else
+    touch "$LOG_DIR/postgres.log"; [ "$(id -u)" = 0 ] && chown postgres "$LOG_DIR/postgres.log"
+    as_pg "$bin/pg_ctl" -D "$data" -l "$LOG_DIR/postgres.log" -w \
+      -o "-k $sock -h 127.0.0.1 -p $PGPORT_LOCAL" start >/dev/null || die "PostgreSQL did not start, see $LOG_DIR/postgres.log"
+    log "PostgreSQL on 127.0.0.1:$PGPORT_LOCAL"
+  fi
+  local db
+  db="${DATABASE_URL##*/}"; db="${db%%\?*}"
+  if ! psql -h 127.0.0.1 -p "$PGPORT_LOCAL" -U postgres -tAc "select 1 from pg_database where datname='$db'" postgres | grep -q 1; then
+    psql -h 127.0.0.1 -p "$PGPORT_LOCAL" -U postgres -qc "create database \"$db\"" postgres >/dev/null || die "could not create database $db"
+  fi
+}
+
+stop_postgres() {
+  local bin data
+  bin=$(pg_bin); data="$BANDKEEP_DATA_DIR/pg"
+  [ -f "$data/PG_VERSION" ] || return 0
+  as_pg "$bin/pg_ctl" -D "$data" -m fast stop >/dev/null 2>&1 || true
+}
+
+start_redis() {
+  local dir="$BANDKEEP_DATA_DIR/redis"
+  mkdir -p "$dir"
+  if redis-cli -p "$REDIS_PORT_LOCAL" ping >/dev/null 2>&1; then
+    log "Redis already running on $REDIS_PORT_LOCAL"; return 0
+  fi
+  redis-server --bind 127.0.0.1 --port "$REDIS_PORT_LOCAL" --dir "$dir" --appendonly yes \
+    --daemonize yes --pidfile "$RUN_DIR/redis.pid" --logfile "$LOG_DIR/redis.log" --save "" >/dev/null \
+    || die "Redis did not start, see $LOG_DIR/redis.log"
+  for _ in $(seq 1 50); do redis-cli -p "$REDIS_PORT_LOCAL" ping >/dev/null 2>&1 && break; sleep 0.1; done
+  log "Redis on 127.0.0.1:$REDIS_PORT_LOCAL (append-only)"
+}
+
+stop_redis() {
+  redis-cli -p "$REDIS_PORT_LOCAL" shutdown >/dev/null 2>&1 || true
+}
+
+# Start a long-running node process in its own process group, remembering its pid.
+start_bg() {
+  local name="$1"; shift
+  if [ -f "$RUN_DIR/$name.pid" ] && kill -0 "$(cat "$RUN_DIR/$name.pid")" 2>/dev/null; then
+    log "$name already running"; return 0
+  fi
+  setsid "$@" >>"$LOG_DIR/$name.log" 2>&1 < /dev/null &
+  echo $! > "$RUN_DIR/$name.pid"
+}
+
+stop_bg() {
+  local name="$1" pid
+  [ -f "$RUN_DIR/$name.pid" ] || return 0
+  pid=$(cat "$RUN_DIR/$name.pid")
+  if kill -0 "$pid" 2>/dev/null; then
+    kill -TERM -- "-$pid" 2>/dev/null || kill -TERM "$pid" 2>/dev/null
+    for _ in $(seq 1 50); do kill -0 "$pid" 2>/dev/null || break; sleep 0.1; done
+    kill -KILL -- "-$pid" 2>/dev/null || true
+  fi
+  rm -f "$RUN_DIR/$name.pid"
+}
+
+wait_http() {
+  local url="$1" name="$2" tries="${3:-150}"
+  for _ in $(seq 1 "$tries"); do
+    curl -s -o /dev/null "$url" && return 0
+    sleep 0.2
+  done
+  die "$name did not answer at $url, see $LOG_DIR/$name.log"
+}
+
+start_fakes() {
+  mkdir -p "$S3_LOCAL_DIR"
+  start_bg storage node --import tsx "$ROOT/scripts/services/storage-fake.ts"
+  start_bg mail node --import tsx "$ROOT/scripts/services/mail-fake.ts"
+  wait_http "$S3_ENDPOINT" storage
+  wait_http "$MAIL_VIEW_URL/messages" mail
+  log "storage fake on $S3_ENDPOINT (objects under ${S3_LOCAL_DIR#$ROOT/})"
+  log "mail fake: SMTP on $SMTP_PORT_LOCAL, captured mail at $MAIL_VIEW_URL"
+}
+
+start_services() {
+  ensure_system_packages
+  start_postgres
+  start_redis
+  start_fakes
+}
+
+stop_all() {
+  stop_bg app
+  stop_bg worker
+  stop_bg mail
+  stop_bg storage
+  stop_redis
+  stop_postgres
+}
+
+needs_build() {
+  [ -f "$ROOT/.next/BUILD_ID" ] || return 0
+  [ -n "$(find "$ROOT/app" "$ROOT/components" "$ROOT/lib" "$ROOT/models" "$ROOT/next.config.mjs" "$ROOT/package-lock.json" \
+    -newer "$ROOT/.next/BUILD_ID" -type f 2>/dev/null | head -n 1)" ]
+}
+
+build_app() {
+  if needs_build; then
+    log "building the app (next build)"
+    (cd "$ROOT" && node node_modules/next/dist/bin/next build >"$LOG_DIR/build.log" 2>&1) \
+      || { tail -n 40 "$LOG_DIR/build.log"; die "next build failed, see $LOG_DIR/build.log"; }
+  fi
+}
+
+start_app_and_worker() {
+  start_bg worker node --import tsx "$ROOT/workers/index.ts"
+  start_bg app node "$ROOT/node_modules/next/dist/bin/next" start -H 127.0.0.1 -p "$PORT"
+  wait_http "http://127.0.0.1:$PORT/api/health" app 300
+}

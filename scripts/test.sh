@@ -1,0 +1,28 @@
+#!/usr/bin/env bash
+# npm test: type-check, lint, then start fresh services on the test ports and run
+# every test (unit, engine, integration, browser). Exits non-zero on any failure.
+set -euo pipefail
+export BANDKEEP_PROFILE=test
+source "$(dirname "$0")/env.sh"
+source "$ROOT/scripts/services.sh"
+cd "$ROOT"
+
+ensure_node_modules
+ensure_chromium
+
+log "type-check"
+node node_modules/typescript/bin/tsc --noEmit -p .
+log "lint"
+node node_modules/eslint/bin/eslint.js --max-warnings=0 .
+
+stop_all
+rm -rf "$BANDKEEP_DATA_DIR/pg" "$BANDKEEP_DATA_DIR/redis" "$S3_LOCAL_DIR" "$LOG_DIR"/*.log
+trap 'stop_all' EXIT
+start_services
+node --import tsx scripts/migrate.ts up
+node --import tsx scripts/seed.ts
+build_app
+start_app_and_worker
+
+log "running tests"
+node node_modules/vitest/vitest.mjs run "$@"
