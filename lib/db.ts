@@ -1,5 +1,5 @@
 import pg from "pg";
-import { Sequelize } from "sequelize";
+import { QueryTypes, Sequelize } from "sequelize";
 import { config } from "./config";
 
 // The one Sequelize instance of a process. Created lazily so that importing a model
@@ -24,4 +24,9 @@ export async function closeDb(): Promise<void> {
     await globalForDb.bandkeepSequelize.close();
     globalForDb.bandkeepSequelize = undefined;
   }
+}
+
+/** Runs a read-only SQL query with named replacements and returns its rows. */
+export async function selectRows<T extends object>(sql: string, replacements: Record<string, unknown> = {}): Promise<T[]> {
+  return sequelize().query<T>(sql, { replacements, type: QueryTypes.SELECT });
 }

@@ -1,0 +1,40 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { z } from "zod";
+import { ActionRefused, protectedAction } from "@/lib/actions/protected";
+import { issueApiToken } from "@/lib/api-tokens";
+import { recordAudit } from "@/lib/audit";
+import { ApiToken, User, models } from "@/models";
+
+export const createApiToken = protectedAction(
+  z.object({ name: z.string().trim().min(1, "Name the token after the script that uses it.").max(100, "At most 100 characters.") }),
+  async ({ name }, actor) => {
+    const { id, secret } = await issueApiToken(actor.id, name);
+    await recordAudit({ actorId: actor.id, actorLabel: actor.email, action: "api-token-created", targetType: "api-token", targetId: id, details: { name } });
+    revalidatePath("/settings");
+    return { ok: true, message: secret };
+  },
+);
+
+export const revokeApiToken = protectedAction(z.object({ id: z.string().uuid() }), async ({ id }, actor) => {
+  models();
+  const token = await ApiToken.findByPk(id);
+  if (!token || token.userId !== actor.id) throw new ActionRefused("That token is not yours.");
+  if (!token.revokedAt) await token.update({ revokedAt: new Date() });
+  await recordAudit({ actorId: actor.id, actorLabel: actor.email, action: "api-token-revoked", targetType: "api-token", targetId: id });
+  revalidatePath("/settings");
+  return { ok: true, message: "Token revoked: scripts using it are refused from now on." };
+});
+
+const checkbox = z.union([z.literal("on"), z.undefined()]).transform((v) => v === "on");
+
+export const saveNotifications = protectedAction(
+  z.object({ notifyDigest: checkbox, notifyDecisions: checkbox }),
+  async (input, actor) => {
+    models();
+    await User.update(input, { where: { id: actor.id } });
+    revalidatePath("/settings");
+    return { ok: true, message: "Saved." };
+  },
+);

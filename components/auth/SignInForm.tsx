@@ -1,0 +1,53 @@
+"use client";
+
+import { signIn } from "next-auth/react";
+import { useState, type FormEvent } from "react";
+
+export function SignInForm({ returnTo }: { returnTo: string }) {
+  const [error, setError] = useState<string | null>(null);
+  const [pending, setPending] = useState(false);
+
+  async function onSubmit(event: FormEvent<HTMLFormElement>) {
+    event.preventDefault();
+    const form = new FormData(event.currentTarget);
+    setPending(true);
+    setError(null);
+    const result = await signIn("credentials", {
+      email: String(form.get("email") ?? ""),
+      password: String(form.get("password") ?? ""),
+      redirect: false,
+    });
+    setPending(false);
+    if (!result || result.error) {
+      setError(
+        result?.error && result.error !== "CredentialsSignin"
+          ? result.error
+          : "That e-mail and password do not match an account.",
+      );
+      return;
+    }
+    window.location.assign(returnTo);
+  }
+
+  return (
+    <form onSubmit={onSubmit} className="space-y-4" noValidate>
+      <label className="block">
+        <span className="text-sm font-medium">E-mail</span>
+        <input name="email" type="email" autoComplete="username" required
+          className="mt-1 w-full rounded-md border border-stone-300 px-3 py-2 focus:border-glow focus:outline-none focus:ring-2 focus:ring-glow/30" />
+      </label>
+      <label className="block">
+        <span className="text-sm font-medium">Password</span>
+        <input name="password" type="password" autoComplete="current-password" required
+          className="mt-1 w-full rounded-md border border-stone-300 px-3 py-2 focus:border-glow focus:outline-none focus:ring-2 focus:ring-glow/30" />
+      </label>
+      {error && (
+        <p role="alert" className="rounded-md bg-red-50 px-3 py-2 text-sm text-red-800">{error}</p>
+      )}
+      <button type="submit" disabled={pending}
+        className="w-full rounded-md bg-glow px-4 py-2 font-medium text-white hover:bg-glow-deep disabled:opacity-60">
+        {pending ? "Signing in…" : "Sign in"}
+      </button>
+    </form>
+  );
+}

@@ -1,0 +1,29 @@
+"use client";
+
+import Link from "next/link";
+import { usePathname } from "next/navigation";
+import type { NavItem } from "@/lib/navigation";
+
+export function NavRail({ items }: { items: NavItem[] }) {
+  const pathname = usePathname();
+  return (
+    <nav aria-label="Main" className="flex flex-col gap-0.5">
+      {items.map((item) => {
+        const active = item.href === "/" ? pathname === "/" : pathname.startsWith(item.href);
+        return (
+          <Link
+            key={item.href}
+            href={item.href}
+            aria-current={active ? "page" : undefined}
+            className={`group rounded-md px-3 py-2 transition-colors ${
+              active ? "bg-dusk-light text-white" : "text-stone-300 hover:bg-dusk-light/60 hover:text-white"
+            }`}
+          >
+            <span className="block text-sm font-medium">{item.label}</span>
+            <span className={`block text-xs ${active ? "text-stone-300" : "text-stone-500 group-hover:text-stone-400"}`}>{item.hint}</span>
+          </Link>
+        );
+      })}
+    </nav>
+  );
+}

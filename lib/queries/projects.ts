@@ -1,0 +1,24 @@
+import { Op } from "sequelize";
+import type { Actor } from "@/lib/auth/actor";
+import { memberGroupIds, WRITER_ROLES } from "@/lib/auth/access";
+import { Project, models } from "@/models";
+
+export type ProjectChoice = { id: string; name: string; groupId: string; groupName: string };
+
+/** Projects in groups where the actor may add data. */
+export async function listProjectChoices(actor: Actor): Promise<ProjectChoice[]> {
+  models();
+  const writable = actor.memberships.filter((m) => WRITER_ROLES.includes(m.role));
+  if (writable.length === 0) return [];
+  const rows = await Project.findAll({ where: { groupId: { [Op.in]: writable.map((m) => m.groupId) } }, order: [["name", "ASC"]] });
+  const groupName = new Map(writable.map((m) => [m.groupId, m.groupName]));
+  return rows.map((p) => ({ id: p.id, name: p.name, groupId: p.groupId, groupName: groupName.get(p.groupId) ?? "" }));
+}
+
+/** Projects the actor reads as a member. */
+export async function listMemberProjects(actor: Actor): Promise<Project[]> {
+  models();
+  const groupIds = memberGroupIds(actor);
+  if (groupIds.length === 0) return [];
+  return Project.findAll({ where: { groupId: { [Op.in]: groupIds } }, order: [["name", "ASC"]] });
+}

@@ -1,0 +1,60 @@
+import { Op, type WhereOptions } from "sequelize";
+import type { Actor } from "@/lib/auth/actor";
+import { memberGroupIds, sharedTargets } from "@/lib/auth/access";
+import { Project, Sample, Spectrum, models } from "@/models";
+
+export type SpectrumRow = {
+  id: string;
+  fileName: string;
+  technique: string;
+  status: string;
+  errorMessage: string | null;
+  sampleName: string | null;
+  projectName: string;
+  createdAt: string;
+};
+
+export const PAGE_SIZE = 50;
+
+/** Spectra the actor reads: members see their groups' projects; collaborators what is shared. */
+export async function readableSpectrumScope(actor: Actor): Promise<WhereOptions<Spectrum> | null> {
+  models();
+  const groupIds = memberGroupIds(actor);
+  const shared = await sharedTargets(actor);
+  const projectIds = groupIds.length
+    ? (await Project.findAll({ where: { groupId: { [Op.in]: groupIds } }, attributes: ["id"] })).map((p) => p.id)
+    : [];
+  const allProjects = [...projectIds, ...shared.projectIds];
+  const or: WhereOptions<Spectrum>[] = [];
+  if (allProjects.length) or.push({ projectId: { [Op.in]: allProjects } });
+  if (shared.seriesIds.length) or.push({ seriesId: { [Op.in]: shared.seriesIds } });
+  return or.length ? { [Op.or]: or } : null;
+}
+
+export async function listSpectra(actor: Actor, options: { page?: number; q?: string; status?: string } = {}) {
+  const scope = await readableSpectrumScope(actor);
+  if (!scope) return { rows: [] as SpectrumRow[], total: 0, page: 1, pages: 1 };
+  const page = Math.max(1, options.page ?? 1);
+  const where: WhereOptions<Spectrum>[] = [scope];
+  if (options.q) where.push({ fileName: { [Op.iLike]: `%${options.q}%` } });
+  if (options.status) where.push({ status: options.status as Spectrum["status"] });
+  const { rows, count } = await Spectrum.findAndCountAll({
+    where: { [Op.and]: where },
+    include: [{ model: Sample, attributes: ["name"] }, { model: Project, attributes: ["name"] }],
+    order: [["createdAt", "DESC"]],
+    limit: PAGE_SIZE,
+    offset: (page - 1) * PAGE_SIZE,
+  });
+  return {
+    rows: rows.map((s) => {
+      const joined = s as Spectrum & { Sample?: Sample | null; Project?: Project | null };
+      return {
+        id: s.id, fileName: s.fileName, technique: s.technique, status: s.status, errorMessage: s.errorMessage,
+        sampleName: joined.Sample?.name ?? null, projectName: joined.Project?.name ?? "", createdAt: s.createdAt.toISOString(),
+      };
+    }),
+    total: count,
+    page,
+    pages: Math.max(1, Math.ceil(count / PAGE_SIZE)),
+  };
+}
