@@ -27,6 +27,8 @@ export MAIL_VIEW_URL="${MAIL_VIEW_URL:-http://127.0.0.1:$MAIL_VIEW_PORT_LOCAL}"
 export NEXTAUTH_URL="${NEXTAUTH_URL:-http://127.0.0.1:$PORT}"
 export APP_URL="${APP_URL:-$NEXTAUTH_URL}"
 export NEXT_TELEMETRY_DISABLED=1
+# The SDK version is pinned for Node 20 (see README); its Node 22 notice is noise here.
+export AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED=true
 export BANDKEEP_QUEUE="${BANDKEEP_QUEUE:-bandkeep-analysis}"
 
 RUN_DIR="$BANDKEEP_DATA_DIR/run"

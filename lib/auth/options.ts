@@ -1,10 +1,13 @@
 import bcrypt from "bcryptjs";
 import type { NextAuthOptions } from "next-auth";
-import Credentials from "next-auth/providers/credentials";
+import CredentialsImport from "next-auth/providers/credentials";
 import { z } from "zod";
 import { User, models } from "@/models";
 import { recordAudit } from "@/lib/audit";
 import { consumeSignInAttempt } from "./rate-limit";
+
+// Under plain Node ESM (scripts, tests) the CommonJS default arrives wrapped.
+const Credentials = (CredentialsImport as unknown as { default?: typeof CredentialsImport }).default ?? CredentialsImport;
 
 const credentialsSchema = z.object({
   email: z.string().trim().toLowerCase().email(),

@@ -1,8 +1,12 @@
 import { redis } from "@/lib/redis";
 
 const WINDOW_SECONDS = 15 * 60;
-const MAX_PER_ACCOUNT = 10;
-const MAX_PER_ADDRESS = 50;
+const limitFromEnv = (name: string, fallback: number) => {
+  const n = Number(process.env[name]);
+  return Number.isInteger(n) && n > 0 ? n : fallback;
+};
+const MAX_PER_ACCOUNT = limitFromEnv("SIGNIN_MAX_PER_ACCOUNT", 10);
+const MAX_PER_ADDRESS = limitFromEnv("SIGNIN_MAX_PER_ADDRESS", 100);
 
 /**
  * Counts a sign-in attempt against both the account and the client address in a

@@ -1,0 +1,80 @@
+// Synthetic spectra with known features for the demo scenario. Bands are Gaussians on
+// an energy axis; exports are written the way instruments do (a header block, then
+// wavelength or wavenumber against signal), so the demo goes through the real parser.
+
+const HC_EV_NM = 1239.841984; // CODATA 2018
+
+/** Deterministic noise (mulberry32 + Box–Muller), so the demo is the same on every machine. */
+export function gaussianNoise(seed: number): () => number {
+  let a = seed >>> 0;
+  const uniform = () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+  return () => Math.sqrt(-2 * Math.log(uniform() || 1e-12)) * Math.cos(2 * Math.PI * uniform());
+}
+
+const gauss = (e: number, centre: number, sigma: number) => Math.exp(-0.5 * ((e - centre) / sigma) ** 2);
+
+export type AbsorptionModel = {
+  firstExcitonEv: number;
+  /** Fraction of the first-exciton band removed (state filling). */
+  bleach?: number;
+  /** Extra band below the gap: centre (eV), height (absorbance), sigma (eV). */
+  newBand?: { centreEv: number; height: number; sigmaEv: number };
+  /** Rigid shift of the excitonic bands, meV (negative = red). */
+  shiftMeV?: number;
+  noise?: number;
+  seed?: number;
+  scale?: number;
+};
+
+/** Absorbance of a CdSe-like dispersion from 400 to 750 nm in 0.5 nm steps. */
+export function absorptionCsv(model: AbsorptionModel, sampleLabel: string): string {
+  const noise = gaussianNoise(model.seed ?? 1);
+  const e1 = model.firstExcitonEv + (model.shiftMeV ?? 0) / 1000;
+  const scale = model.scale ?? 1;
+  const lines = [`Sample,${sampleLabel}`, "Instrument,demo double-beam spectrophotometer", "Path length (cm),1", "", "Wavelength (nm),Absorbance"];
+  for (let nm = 400; nm <= 750; nm += 0.5) {
+    const e = HC_EV_NM / nm;
+    const exciton = 0.3 * (1 - (model.bleach ?? 0)) * gauss(e, e1, 0.045);
+    const second = 0.18 * (1 - 0.6 * (model.bleach ?? 0)) * gauss(e, e1 + 0.2, 0.06);
+    const continuum = 0.55 / (1 + Math.exp(-(e - (model.firstExcitonEv + 0.5)) / 0.12));
+    const band = model.newBand ? model.newBand.height * gauss(e, model.newBand.centreEv, model.newBand.sigmaEv) : 0;
+    const value = scale * (exciton + second + continuum + band) + (model.noise ?? 0.0015) * noise();
+    lines.push(`${nm.toFixed(1)},${value.toFixed(5)}`);
+  }
+  return lines.join("\r\n") + "\r\n";
+}
+
+export type EmissionModel = { peakEv: number; sigmaEv?: number; intensity: number; excitationNm?: number; noise?: number; seed?: number };
+
+/** PL emission counts from 450 to 750 nm, 1 nm steps. */
+export function emissionCsv(model: EmissionModel, sampleLabel: string): string {
+  const noise = gaussianNoise(model.seed ?? 2);
+  const lines = [`Sample,${sampleLabel}`, `Excitation (nm),${model.excitationNm ?? 405}`, "Slit (nm),2", "", "Wavelength (nm),Intensity (counts)"];
+  for (let nm = 450; nm <= 750; nm += 1) {
+    const e = HC_EV_NM / nm;
+    const value = model.intensity * gauss(e, model.peakEv, model.sigmaEv ?? 0.05) + 40 + (model.noise ?? 15) * noise();
+    lines.push(`${nm},${value.toFixed(1)}`);
+  }
+  return lines.join("\n") + "\n";
+}
+
+export type MidIrModel = { intrabandEv?: number; height?: number; noise?: number; seed?: number };
+
+/** Mid-IR absorbance from 4000 to 1000 cm⁻¹ in 2 cm⁻¹ steps (ligand C–H bands included). */
+export function midIrCsv(model: MidIrModel, sampleLabel: string): string {
+  const noise = gaussianNoise(model.seed ?? 3);
+  const lines = [`Sample,${sampleLabel}`, "Mode,transmission through film", "", "Wavenumber (cm-1),Absorbance"];
+  for (let k = 4000; k >= 1000; k -= 2) {
+    const e = k / 8065.54394; // 1 eV = 8065.54394 cm⁻¹ (CODATA 2018)
+    const ligand = 0.25 * gauss(k, 2925, 18) + 0.18 * gauss(k, 2855, 15) + 0.06 * gauss(k, 1460, 20);
+    const band = model.intrabandEv ? (model.height ?? 0.12) * gauss(e, model.intrabandEv, 0.04) : 0;
+    lines.push(`${k},${(0.02 + ligand + band + (model.noise ?? 0.0015) * noise()).toFixed(5)}`);
+  }
+  return lines.join("\n") + "\n";
+}
