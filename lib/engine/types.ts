@@ -57,7 +57,7 @@ export interface AnalysisThresholds {
   minQuenchFraction: number;
   /** Smallest |shift| flagged, meV. Default 3. */
   minShiftMeV: number;
-  /** Smallest relative FWHM change flagged. Default 0.05. */
+  /** Smallest relative FWHM change flagged. Default 0.10. */
   minBroadeningFraction: number;
   /** Smallest new-band height, as a fraction of the reference's first-exciton (or maximum) signal. Default 0.03. */
   minNewBandFraction: number;
@@ -77,6 +77,8 @@ export interface AnalysisOptions {
   excitationNm?: number;
   /** Savitzky–Golay window (odd, ≥ 5). Default chosen from the data. */
   smoothingWindow?: number;
+  /** Savitzky–Golay window for first and second derivatives (odd, ≥ 5). Default chosen from the data (spans ~80 meV; ~8 meV for IR). */
+  derivativeWindow?: number;
   /** Savitzky–Golay polynomial order. Default 2. */
   smoothingPolynomial?: number;
   /** Baseline treatment. Default 'offset' for absorption, 'none' otherwise. */
@@ -156,7 +158,7 @@ export interface AnalysisReport {
   reference: SpectrumSummary | null;
   parameters: {
     grid: { points: number; minEv: number; maxEv: number; stepMeV: number };
-    smoothing: { method: 'savitzky-golay'; windowSize: number; polynomial: number; edges: 'polynomial-fit' };
+    smoothing: { method: 'savitzky-golay'; windowSize: number; derivativeWindowSize: number; polynomial: number; edges: 'polynomial-fit' };
     baseline: { mode: 'none' | 'offset' | 'scatter'; applied: boolean };
     normalization: Normalization & { factor: number };
     thresholds: AnalysisThresholds;

@@ -50,7 +50,7 @@ export function parseJcampText(fileName: string, text: string, options: ParseOpt
   }
   const block = blocks[index]!;
   const spectrum = block.spectra[0]!;
-  const data = spectrum.data as { x: ArrayLike<number>; y: ArrayLike<number> };
+  const data = spectrum.data as unknown as { x: ArrayLike<number>; y: ArrayLike<number> };
   const info = (block.info ?? {}) as Record<string, unknown>;
   const metadata: Record<string, string> = {};
   for (const [k, v] of Object.entries(info)) {

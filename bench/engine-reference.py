@@ -1,0 +1,27 @@
+"""SciPy pipeline for the engine benchmark: reads float64 arrays (N spectra x 4096 + reference)
+from a binary file, runs savgol_filter, find_peaks, peak_widths and the difference vs reference
+for each, and prints spectra/second as JSON."""
+import json
+import sys
+import time
+
+import numpy as np
+from scipy.signal import find_peaks, peak_widths, savgol_filter
+
+path, n, m, window = sys.argv[1], int(sys.argv[2]), int(sys.argv[3]), int(sys.argv[4])
+data = np.fromfile(path, dtype=np.float64).reshape(n + 1, m)
+ref = data[0]
+t0 = time.perf_counter()
+rs = savgol_filter(ref, window, 2, mode="interp")
+count = 0
+for k in range(1, n + 1):
+    y = data[k]
+    s = savgol_filter(y, window, 2, mode="interp")
+    d2 = savgol_filter(y, window * 3 | 1, 2, deriv=2, mode="interp")
+    peaks, props = find_peaks(s, prominence=0.01)
+    w = peak_widths(s, peaks, rel_height=0.5)
+    diff = s - rs
+    dpeaks, _ = find_peaks(diff, prominence=0.01)
+    count += len(peaks) + len(dpeaks) + int(d2.argmin() > 0)
+dt = time.perf_counter() - t0
+print(json.dumps({"seconds": dt, "spectraPerSecond": n / dt, "check": count}))

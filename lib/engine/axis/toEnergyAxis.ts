@@ -1,0 +1,37 @@
+import { CM1_PER_EV, HC_EV_NM } from '../constants';
+import type { XUnit } from '../types';
+import { xToEv } from './convertUnits';
+
+/**
+ * Converts a spectrum to an ascending energy axis (eV). For emission (a density per unit of x),
+ * the Jacobian is applied so that integrated areas are preserved: I(E) = I(λ)·λ²/hc for λ in nm
+ * (Mooney & Kambhampati, J. Phys. Chem. Lett. 2013, 4, 3316), I(E) = I(ν̃)·8065.54394 for
+ * cm⁻¹. Absorbance and transmittance are not densities: only the axis changes.
+ * Returns new arrays; inputs are not modified.
+ */
+export function toEnergyAxis(
+  x: ArrayLike<number>,
+  y: ArrayLike<number>,
+  unit: XUnit,
+  options: { emission?: boolean } = {},
+): { energy: Float64Array; signal: Float64Array } {
+  if (x.length !== y.length) throw new RangeError('x and y must have the same length');
+  const n = x.length;
+  const e = new Float64Array(n);
+  const s = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    e[i] = xToEv(x[i]!, unit);
+    let v = y[i]!;
+    if (options.emission) {
+      if (unit === 'nm') v *= (x[i]! * x[i]!) / HC_EV_NM;
+      else if (unit === 'um') v *= (x[i]! * x[i]! * 1000) / HC_EV_NM;
+      else if (unit === 'cm-1') v *= CM1_PER_EV;
+    }
+    s[i] = v;
+  }
+  if (n > 1 && e[0]! > e[n - 1]!) {
+    e.reverse();
+    s.reverse();
+  }
+  return { energy: e, signal: s };
+}

@@ -1,0 +1,131 @@
+/**
+ * Fits, in a window around a band, the sample as a scaled, shifted and broadened copy of the
+ * reference plus an offset: S(E) ≈ (1+α)·R(E−δ) + γ·R''(E−δ) + b. For a small Gaussian
+ * broadening of variance s², R ⊗ G ≈ R + (s²/2)·R'' (Taylor expansion), so s² = 2γ/(1+α).
+ * δ is found by iterating the linearisation R(E−δ−ε) ≈ R(E−δ) − ε·R'(E−δ) (Gauss–Newton).
+ * Uncertainties come from ordinary least squares with the noise σ of S − R.
+ */
+export interface ShiftFit {
+  alpha: number;
+  sigmaAlpha: number;
+  shiftEv: number;
+  sigmaShiftEv: number;
+  broadeningVarianceEv2: number;
+  sigmaBroadeningVarianceEv2: number;
+  offset: number;
+  /** Model prediction on the window indices [from, to). */
+  model: Float64Array;
+  from: number;
+  to: number;
+}
+
+export function fitShiftBroadening(
+  energy: Float64Array,
+  sample: Float64Array,
+  refSmoothed: Float64Array,
+  refD1: Float64Array,
+  refD2: Float64Array,
+  from: number,
+  to: number,
+  noiseSigma: number,
+): ShiftFit | null {
+  const m = to - from;
+  if (m < 8) return null;
+  const n = energy.length;
+  const step = (energy[n - 1]! - energy[0]!) / (n - 1);
+  let delta = 0;
+  const R = new Float64Array(m);
+  const R1 = new Float64Array(m);
+  const R2 = new Float64Array(m);
+  let coef: Float64Array = new Float64Array(5);
+  let cov: Float64Array = new Float64Array(25);
+  for (let iter = 0; iter < 8; iter++) {
+    // reference shifted by delta, by linear interpolation on the grid
+    for (let k = 0; k < m; k++) {
+      const t = (from + k) - delta / step;
+      const j = Math.min(Math.max(Math.floor(t), 0), n - 2);
+      const f = t - j;
+      R[k] = refSmoothed[j]! + f * (refSmoothed[j + 1]! - refSmoothed[j]!);
+      R1[k] = refD1[j]! + f * (refD1[j + 1]! - refD1[j]!);
+      R2[k] = refD2[j]! + f * (refD2[j + 1]! - refD2[j]!);
+    }
+    // regress S − R on [R, R', R'', 1]
+    const p = 4;
+    const ata = new Float64Array(p * p);
+    const atb = new Float64Array(p);
+    const row = new Float64Array(p);
+    for (let k = 0; k < m; k++) {
+      row[0] = R[k]!;
+      row[1] = R1[k]!;
+      row[2] = R2[k]!;
+      row[3] = 1;
+      const d = sample[from + k]! - R[k]!;
+      for (let a = 0; a < p; a++) {
+        atb[a] = atb[a]! + row[a]! * d;
+        for (let b = 0; b < p; b++) ata[a * p + b] = ata[a * p + b]! + row[a]! * row[b]!;
+      }
+    }
+    const inv = invert(ata, p);
+    if (!inv) return null;
+    coef = new Float64Array(p);
+    for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) coef[a] = coef[a]! + inv[a * p + b]! * atb[b]!;
+    cov = inv;
+    const scale = 1 + coef[0]!;
+    if (!(scale > 0.05)) return null;
+    const eps = -coef[1]! / scale;
+    delta += eps;
+    if (Math.abs(delta) > 0.5 * (energy[to - 1]! - energy[from]!)) return null;
+    if (Math.abs(eps) < 1e-7) break;
+  }
+  const s2 = noiseSigma * noiseSigma;
+  const alpha = coef[0]!;
+  const scale = 1 + alpha;
+  const model = new Float64Array(m);
+  for (let k = 0; k < m; k++) model[k] = scale * R[k]! + coef[2]! * R2[k]! + coef[3]!;
+  return {
+    alpha,
+    sigmaAlpha: Math.sqrt(s2 * cov[0]!),
+    shiftEv: delta,
+    sigmaShiftEv: Math.sqrt(s2 * cov[1 * 4 + 1]!) / scale,
+    broadeningVarianceEv2: (2 * coef[2]!) / scale,
+    sigmaBroadeningVarianceEv2: (2 * Math.sqrt(s2 * cov[2 * 4 + 2]!)) / scale,
+    offset: coef[3]!,
+    model,
+    from,
+    to,
+  };
+}
+
+function invert(a: Float64Array, p: number): Float64Array | null {
+  const A = Float64Array.from(a);
+  const I = new Float64Array(p * p);
+  for (let i = 0; i < p; i++) I[i * p + i] = 1;
+  for (let c = 0; c < p; c++) {
+    let piv = c;
+    for (let r = c + 1; r < p; r++) if (Math.abs(A[r * p + c]!) > Math.abs(A[piv * p + c]!)) piv = r;
+    if (Math.abs(A[piv * p + c]!) < 1e-300) return null;
+    for (let k = 0; k < p; k++) {
+      let t = A[c * p + k]!;
+      A[c * p + k] = A[piv * p + k]!;
+      A[piv * p + k] = t;
+      t = I[c * p + k]!;
+      I[c * p + k] = I[piv * p + k]!;
+      I[piv * p + k] = t;
+    }
+    const d = A[c * p + c]!;
+    for (let k = 0; k < p; k++) {
+      A[c * p + k] = A[c * p + k]! / d;
+      I[c * p + k] = I[c * p + k]! / d;
+    }
+    for (let r = 0; r < p; r++) {
+      if (r === c) continue;
+      const f = A[r * p + c]!;
+      if (f === 0) continue;
+      for (let k = 0; k < p; k++) {
+        A[r * p + k] = A[r * p + k]! - f * A[c * p + k]!;
+        I[r * p + k] = I[r * p + k]! - f * I[c * p + k]!;
+      }
+    }
+  }
+  return I;
+}

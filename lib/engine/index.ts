@@ -1,0 +1,15 @@
+export { ENGINE_VERSION } from './version';
+export { SpectrumFileError } from './errors';
+export { parseSpectrumFile, DEFAULT_MAX_BYTES, DEFAULT_MAX_LINE_LENGTH, DEFAULT_MIN_POINTS } from './parse/parseSpectrumFile';
+export { analyzeSpectrum, DEFAULT_THRESHOLDS } from './analyzeSpectrum';
+export { MATERIALS, isMaterialName } from './derived/materials';
+export { SIZING_CURVES } from './derived/sizingCurves';
+export { beerLambertConcentration, particleMolarMass } from './derived/concentration';
+export { relativeQuantumYield } from './derived/relativeQuantumYield';
+export { innerFilterFactor } from './derived/innerFilterFactor';
+export { nmToEv, evToNm, wavenumberToEv, evToWavenumber } from './axis/convertUnits';
+export { toEnergyAxis } from './axis/toEnergyAxis';
+export { savitzkyGolayFilter } from './signal/savitzkyGolayFilter';
+export { estimateNoise } from './signal/estimateNoise';
+export { HC_EV_NM, CM1_PER_EV, AVOGADRO } from './constants';
+export type * from './types';

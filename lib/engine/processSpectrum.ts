@@ -1,0 +1,160 @@
+import { HC_EV_NM } from './constants';
+import { toEnergyAxis } from './axis/toEnergyAxis';
+import { resampleUniform } from './axis/resampleUniform';
+import { savitzkyGolayFilter } from './signal/savitzkyGolayFilter';
+import { savitzkyGolayWeights } from './signal/savitzkyGolayWeights';
+import { filterNoiseGain } from './signal/filterNoiseGain';
+import { estimateNoise } from './signal/estimateNoise';
+import { fitBaseline } from './signal/fitBaseline';
+import { findExcitonicPeaks, type ExcitonicPeak } from './peaks/findExcitonicPeaks';
+import type { ParsedSpectrum, Technique } from './types';
+
+export interface ProcessedSpectrum {
+  energy: Float64Array;
+  step: number;
+  /** Signal on the grid (Jacobian applied for PL, %T turned into absorbance), baseline removed. */
+  raw: Float64Array;
+  smoothed: Float64Array;
+  firstDerivative: Float64Array;
+  secondDerivative: Float64Array;
+  sigma: number;
+  sigmaSmoothed: number;
+  sigmaSecondDerivative: number;
+  sigmaFirstDerivative: number;
+  windowSize: number;
+  derivativeWindowSize: number;
+  polynomial: number;
+  baselineApplied: boolean;
+  peaks: ExcitonicPeak[];
+  firstExciton: ExcitonicPeak | null;
+  exclude: Array<[number, number]>;
+  warnings: string[];
+}
+
+/** Energy-axis signal of a parsed spectrum (no grid yet): Jacobian for PL, %T → absorbance. */
+export function spectrumToEnergy(s: ParsedSpectrum, technique: Technique): { energy: Float64Array; signal: Float64Array; warnings: string[] } {
+  const warnings: string[] = [];
+  let y = s.y;
+  if (s.yUnit === 'percent-transmittance') {
+    y = new Float64Array(s.y.length);
+    let clipped = 0;
+    for (let i = 0; i < y.length; i++) {
+      let t = s.y[i]!;
+      if (t <= 1e-6) {
+        t = 1e-6;
+        clipped++;
+      }
+      y[i] = 2 - Math.log10(t);
+    }
+    warnings.push(`${s.fileName}: %T converted to absorbance, A = 2 − log10(%T)`);
+    if (clipped) warnings.push(`${s.fileName}: ${clipped} point(s) with %T ≤ 0 clipped before conversion`);
+  }
+  const emission = technique === 'pl' && s.yUnit === 'counts';
+  const { energy, signal } = toEnergyAxis(s.x, y, s.xUnit, { emission });
+  return { energy, signal, warnings };
+}
+
+export interface ProcessOptions {
+  technique: Technique;
+  windowSize: number;
+  /** Window for the first and second derivatives (wider: derivatives amplify noise). */
+  derivativeWindowSize: number;
+  polynomial: number;
+  baseline: 'none' | 'offset' | 'scatter';
+  minSignificance: number;
+  excitationNm?: number | undefined;
+  excitationExclusionNm: number;
+  scale?: number;
+}
+
+/**
+ * Puts one spectrum on a uniform energy grid and computes everything that does not need a
+ * reference: noise, smoothing, derivatives, baseline, peaks, first exciton.
+ */
+export function processSpectrum(
+  energy: Float64Array,
+  signal: Float64Array,
+  grid: { from: number; to: number; n: number },
+  o: ProcessOptions,
+): ProcessedSpectrum {
+  const warnings: string[] = [];
+  const g = resampleUniform(energy, signal, grid.from, grid.to, grid.n);
+  const raw = g.y;
+  if (o.scale !== undefined && o.scale !== 1) for (let i = 0; i < raw.length; i++) raw[i] = raw[i]! * o.scale;
+  const step = g.step;
+  const exclude: Array<[number, number]> = [];
+  if (o.technique === 'pl' && o.excitationNm) {
+    const eCut = HC_EV_NM / (o.excitationNm + o.excitationExclusionNm);
+    exclude.push([eCut, Infinity]);
+  }
+  const sigma = estimateNoise(raw);
+  const w = o.windowSize;
+  const p = o.polynomial;
+  const pd = Math.max(p, 2);
+  let smoothed = savitzkyGolayFilter(raw, step, { windowSize: w, polynomial: p, derivative: 0 });
+  const wd = o.derivativeWindowSize;
+  const firstDerivative = savitzkyGolayFilter(raw, step, { windowSize: wd, polynomial: pd, derivative: 1 });
+  const secondDerivative = savitzkyGolayFilter(raw, step, { windowSize: wd, polynomial: pd, derivative: 2 });
+  const sigmaSmoothed = sigma * filterNoiseGain(savitzkyGolayWeights(w, p, 0));
+  const sigmaFirstDerivative = (sigma * filterNoiseGain(savitzkyGolayWeights(wd, pd, 1))) / step;
+  const sigmaSecondDerivative = (sigma * filterNoiseGain(savitzkyGolayWeights(wd, pd, 2))) / (step * step);
+  const guard = (Math.max(w, wd) - 1) / 2;
+  const peakOpts = { sigmaSmoothed, sigmaSecondDerivative, minSignificance: o.minSignificance, edgeGuard: guard, exclude };
+  let peaks = findExcitonicPeaks(g.x, smoothed, secondDerivative, peakOpts);
+  let first = pickFirstExciton(peaks, smoothed, o.technique);
+  let baselineApplied = false;
+  if (o.baseline !== 'none' && o.technique !== 'pl') {
+    if (first && first.fwhmMeV) {
+      const below = first.energyEv - Math.max((2 * first.fwhmMeV) / 1000, 0.1);
+      const base = fitBaseline(g.x, smoothed, below, o.baseline);
+      if (base) {
+        for (let i = 0; i < raw.length; i++) raw[i] = raw[i]! - base[i]!;
+        smoothed = savitzkyGolayFilter(raw, step, { windowSize: w, polynomial: p, derivative: 0 });
+        baselineApplied = true;
+        peaks = findExcitonicPeaks(g.x, smoothed, secondDerivative, peakOpts);
+        first = pickFirstExciton(peaks, smoothed, o.technique);
+      } else {
+        warnings.push(`baseline (${o.baseline}) not applied: fewer than 8 points in the transparent region below ${below.toFixed(3)} eV`);
+      }
+    } else {
+      warnings.push(`baseline (${o.baseline}) not applied: no first exciton to place the transparent region`);
+    }
+  }
+  return {
+    energy: g.x,
+    step,
+    raw,
+    smoothed,
+    firstDerivative,
+    secondDerivative,
+    sigma,
+    sigmaSmoothed,
+    sigmaFirstDerivative,
+    sigmaSecondDerivative,
+    windowSize: w,
+    derivativeWindowSize: wd,
+    polynomial: p,
+    baselineApplied,
+    peaks,
+    firstExciton: first,
+    exclude,
+    warnings,
+  };
+}
+
+/**
+ * First exciton: for absorption, the lowest-energy significant feature whose amplitude is at least
+ * 2 % of the largest signal (common practice); for PL, the strongest emission maximum; none for IR.
+ */
+export function pickFirstExciton(peaks: ExcitonicPeak[], smoothed: Float64Array, technique: Technique): ExcitonicPeak | null {
+  if (technique === 'ir' || peaks.length === 0) return null;
+  if (technique === 'pl') {
+    let best: ExcitonicPeak | null = null;
+    for (const p of peaks) if (p.kind === 'maximum' && (!best || p.height > best.height)) best = p;
+    return best ?? peaks.reduce((a, b) => (b.amplitude > a.amplitude ? b : a));
+  }
+  let max = 0;
+  for (let i = 0; i < smoothed.length; i++) if (Math.abs(smoothed[i]!) > max) max = Math.abs(smoothed[i]!);
+  for (const p of peaks) if (p.amplitude >= 0.02 * max && p.height > 0) return p;
+  return null;
+}

@@ -1,0 +1,65 @@
+/**
+ * Savitzky–Golay convolution weights for the centre point of a window (unit spacing), ordered
+ * left to right (i.e. applied as Σ w_k·y_{i+k}, k = −half..half). Computed from the least-squares
+ * projection; equal to the tabulated integers / norm of Savitzky & Golay (Anal. Chem. 1964, 36,
+ * 1627) as corrected by Steinier, Termonia & Deltour (Anal. Chem. 1972, 44, 1906), times
+ * derivative! for derivatives.
+ */
+export function savitzkyGolayWeights(windowSize: number, polynomial: number, derivative = 0): Float64Array {
+  if (!Number.isInteger(windowSize) || windowSize < 3 || windowSize % 2 === 0) {
+    throw new RangeError('windowSize must be an odd integer of at least 3');
+  }
+  if (!Number.isInteger(polynomial) || polynomial < 0 || polynomial >= windowSize) {
+    throw new RangeError('polynomial must be an integer from 0 to windowSize - 1');
+  }
+  if (!Number.isInteger(derivative) || derivative < 0 || derivative > polynomial) {
+    throw new RangeError('derivative must be an integer from 0 to polynomial');
+  }
+  const half = (windowSize - 1) / 2;
+  const m = polynomial + 1;
+  // Gram matrix G = AᵀA with A[i][k] = t_i^k, t = -half..half; solve G c = e_d, w_i = d!·Σ_k c_k t_i^k
+  const G = new Float64Array(m * m);
+  for (let t = -half; t <= half; t++) {
+    for (let a = 0; a < m; a++) for (let b = 0; b < m; b++) G[a * m + b] = G[a * m + b]! + Math.pow(t, a + b);
+  }
+  const e = new Float64Array(m);
+  e[derivative] = 1;
+  const c = solve(G, e, m);
+  let fact = 1;
+  for (let k = 2; k <= derivative; k++) fact *= k;
+  const w = new Float64Array(windowSize);
+  for (let t = -half; t <= half; t++) {
+    let s = 0;
+    for (let k = 0; k < m; k++) s += c[k]! * Math.pow(t, k);
+    w[t + half] = s * fact;
+  }
+  return w;
+}
+
+function solve(a: Float64Array, b: Float64Array, m: number): Float64Array {
+  const A = Float64Array.from(a);
+  const x = Float64Array.from(b);
+  for (let col = 0; col < m; col++) {
+    let piv = col;
+    for (let r = col + 1; r < m; r++) if (Math.abs(A[r * m + col]!) > Math.abs(A[piv * m + col]!)) piv = r;
+    for (let k = 0; k < m; k++) {
+      const t = A[col * m + k]!;
+      A[col * m + k] = A[piv * m + k]!;
+      A[piv * m + k] = t;
+    }
+    const t = x[col]!;
+    x[col] = x[piv]!;
+    x[piv] = t;
+    for (let r = col + 1; r < m; r++) {
+      const f = A[r * m + col]! / A[col * m + col]!;
+      for (let k = col; k < m; k++) A[r * m + k] = A[r * m + k]! - f * A[col * m + k]!;
+      x[r] = x[r]! - f * x[col]!;
+    }
+  }
+  for (let r = m - 1; r >= 0; r--) {
+    let s = x[r]!;
+    for (let k = r + 1; k < m; k++) s -= A[r * m + k]! * x[k]!;
+    x[r] = s / A[r * m + r]!;
+  }
+  return x;
+}

@@ -1,0 +1,92 @@
+/**
+ * Command-line analysis: prints one JSON object (docs/analysis-json.md) on stdout.
+ * npm run -s analyze -- SAMPLE [--reference REF] [--technique absorption|pl|ir]
+ *   [--material CdSe|CdTe|CdS|PbS|PbSe] [--path-length-cm L] [--excitation-nm N] [--column NAME|INDEX]
+ * Bad input: exit code 2 and one line on stderr.
+ */
+import { readFileSync, statSync } from 'node:fs';
+import { basename } from 'node:path';
+import { analyzeSpectrum, parseSpectrumFile, SpectrumFileError, isMaterialName, DEFAULT_MAX_BYTES } from '../lib/engine/index';
+import type { AnalysisOptions, ParseOptions, Technique } from '../lib/engine/index';
+
+class UsageError extends Error {}
+
+const USAGE =
+  'usage: analyze SAMPLE [--reference REF] [--technique absorption|pl|ir] [--material CdSe|CdTe|CdS|PbS|PbSe] [--path-length-cm L] [--excitation-nm N] [--column NAME|INDEX] [--reference-column NAME|INDEX] [--sizing yu2003|jasieniak2009]';
+
+function parseArgs(argv: string[]) {
+  const positional: string[] = [];
+  const opts: Record<string, string> = {};
+  const known = new Set(['reference', 'technique', 'material', 'path-length-cm', 'excitation-nm', 'column', 'reference-column', 'sizing']);
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i]!;
+    if (a.startsWith('--')) {
+      const eq = a.indexOf('=');
+      const key = eq > 0 ? a.slice(2, eq) : a.slice(2);
+      if (key === 'help') throw new UsageError(USAGE);
+      if (!known.has(key)) throw new UsageError(`unknown option --${key}; ${USAGE}`);
+      const value = eq > 0 ? a.slice(eq + 1) : argv[++i];
+      if (value === undefined) throw new UsageError(`option --${key} needs a value`);
+      opts[key] = value;
+    } else positional.push(a);
+  }
+  if (positional.length !== 1) throw new UsageError(USAGE);
+  return { sample: positional[0]!, opts };
+}
+
+function positiveNumber(name: string, v: string | undefined): number | undefined {
+  if (v === undefined) return undefined;
+  const n = Number(v);
+  if (!Number.isFinite(n) || n <= 0) throw new UsageError(`--${name} must be a positive number, got "${v}"`);
+  return n;
+}
+
+function readBytes(path: string): Uint8Array {
+  let size: number;
+  try {
+    size = statSync(path).size;
+  } catch {
+    throw new UsageError(`${path}: file not found or unreadable`);
+  }
+  if (size > DEFAULT_MAX_BYTES) throw new SpectrumFileError(basename(path), `file is ${size} bytes, over the ${DEFAULT_MAX_BYTES}-byte limit`);
+  return new Uint8Array(readFileSync(path));
+}
+
+function main(): void {
+  const { sample, opts } = parseArgs(process.argv.slice(2));
+  const technique = opts['technique'] as Technique | undefined;
+  if (technique && !['absorption', 'pl', 'ir'].includes(technique)) throw new UsageError(`--technique must be absorption, pl or ir, got "${technique}"`);
+  const material = opts['material'];
+  if (material !== undefined && !isMaterialName(material)) throw new UsageError(`--material must be CdSe, CdTe, CdS, PbS or PbSe, got "${material}"`);
+  const sizing = opts['sizing'];
+  if (sizing !== undefined && sizing !== 'yu2003' && sizing !== 'jasieniak2009') throw new UsageError('--sizing must be yu2003 or jasieniak2009');
+  const colArg = (v: string | undefined) => (v === undefined ? undefined : /^\d+$/.test(v) ? Number(v) : v);
+  const parseOpts = (col: string | undefined): ParseOptions => {
+    const o: ParseOptions = {};
+    const c = colArg(col);
+    if (c !== undefined) o.column = c;
+    if (technique) o.technique = technique;
+    return o;
+  };
+  const s = parseSpectrumFile(basename(sample), readBytes(sample), parseOpts(opts['column']));
+  const r = opts['reference'] ? parseSpectrumFile(basename(opts['reference']), readBytes(opts['reference']), parseOpts(opts['reference-column'] ?? opts['column'])) : undefined;
+  const a: AnalysisOptions & { reference?: typeof s } = {};
+  if (technique) a.technique = technique;
+  if (material) a.material = material;
+  if (sizing) a.sizingModel = sizing;
+  const pl = positiveNumber('path-length-cm', opts['path-length-cm']);
+  if (pl !== undefined) a.pathLengthCm = pl;
+  const ex = positiveNumber('excitation-nm', opts['excitation-nm']);
+  if (ex !== undefined) a.excitationNm = ex;
+  if (r) a.reference = r;
+  const report = analyzeSpectrum(s, a);
+  process.stdout.write(JSON.stringify(report, null, 2) + '\n');
+}
+
+try {
+  main();
+} catch (e) {
+  const msg = e instanceof SpectrumFileError || e instanceof UsageError || e instanceof RangeError ? e.message : `internal error: ${e instanceof Error ? e.message : String(e)}`;
+  process.stderr.write(`analyze: ${msg.split('\n')[0]}\n`);
+  process.exitCode = e instanceof SpectrumFileError || e instanceof UsageError || e instanceof RangeError ? 2 : 1;
+}
