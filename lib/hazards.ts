@@ -35,7 +35,7 @@ export function hazardsOf(sample: { material: string; coreShell?: string; solven
   const text = `${sample.material} ${sample.coreShell ?? ""}`;
   const flags = ELEMENT_HAZARDS.filter((h) => h.pattern.test(text)).map((h) => h.flag);
   if (sample.solvent && FLAMMABLE_SOLVENTS.test(sample.solvent)) {
-    flags.push({ code: "flammable-solvent", label: "Flammable solvent", caution: `${sample.solvent} is flammable: keep away from ignition sources and store in approved cabinets.` });
+    flags.push({ code: "flammable-solvent", label: "Flammable solvent", caution: `${sample.solvent.charAt(0).toUpperCase()}${sample.solvent.slice(1)} is flammable: keep away from ignition sources and store in approved cabinets.` });
   }
   return flags;
 }

@@ -41,7 +41,7 @@ export class AnalysisRun extends Model<InferAttributes<AnalysisRun>, InferCreati
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },
-      { sequelize, tableName: "analysis_runs" },
+      { sequelize, modelName: "AnalysisRun", tableName: "analysis_runs" },
     );
   }
 }

@@ -22,7 +22,7 @@ export class ApiToken extends Model<InferAttributes<ApiToken>, InferCreationAttr
         revokedAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
       },
-      { sequelize, tableName: "api_tokens", updatedAt: false },
+      { sequelize, modelName: "ApiToken", tableName: "api_tokens", updatedAt: false },
     );
   }
 }

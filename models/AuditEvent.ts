@@ -25,7 +25,7 @@ export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreation
         targetId: { type: DataTypes.TEXT, allowNull: true },
         details: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
       },
-      { sequelize, tableName: "audit_events", timestamps: false },
+      { sequelize, modelName: "AuditEvent", tableName: "audit_events", timestamps: false },
     );
   }
 }

@@ -16,7 +16,7 @@ export class Group extends Model<InferAttributes<Group>, InferCreationAttributes
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },
-      { sequelize, tableName: "groups" },
+      { sequelize, modelName: "Group", tableName: "groups" },
     );
   }
 }

@@ -27,7 +27,7 @@ export class LegalHold extends Model<InferAttributes<LegalHold>, InferCreationAt
         liftedBy: { type: DataTypes.UUID, allowNull: true },
         liftedAt: { type: DataTypes.DATE, allowNull: true },
       },
-      { sequelize, tableName: "legal_holds", timestamps: false },
+      { sequelize, modelName: "LegalHold", tableName: "legal_holds", timestamps: false },
     );
   }
 }

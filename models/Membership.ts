@@ -21,7 +21,7 @@ export class Membership extends Model<InferAttributes<Membership>, InferCreation
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },
-      { sequelize, tableName: "memberships" },
+      { sequelize, modelName: "Membership", tableName: "memberships" },
     );
   }
 }

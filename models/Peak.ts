@@ -22,7 +22,7 @@ export class Peak extends Model<InferAttributes<Peak>, InferCreationAttributes<P
         area: { type: DataTypes.DOUBLE, allowNull: true },
         isFirstExciton: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       },
-      { sequelize, tableName: "peaks", timestamps: false },
+      { sequelize, modelName: "Peak", tableName: "peaks", timestamps: false },
     );
   }
 }

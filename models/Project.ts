@@ -18,7 +18,7 @@ export class Project extends Model<InferAttributes<Project>, InferCreationAttrib
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },
-      { sequelize, tableName: "projects" },
+      { sequelize, modelName: "Project", tableName: "projects" },
     );
   }
 }

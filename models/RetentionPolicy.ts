@@ -25,7 +25,7 @@ export class RetentionPolicy extends Model<InferAttributes<RetentionPolicy>, Inf
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },
-      { sequelize, tableName: "retention_policies" },
+      { sequelize, modelName: "RetentionPolicy", tableName: "retention_policies" },
     );
   }
 }

@@ -18,7 +18,7 @@ export class Review extends Model<InferAttributes<Review>, InferCreationAttribut
         comment: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
         createdAt: DataTypes.DATE,
       },
-      { sequelize, tableName: "reviews", updatedAt: false },
+      { sequelize, modelName: "Review", tableName: "reviews", updatedAt: false },
     );
   }
 }

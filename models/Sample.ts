@@ -32,7 +32,7 @@ export class Sample extends Model<InferAttributes<Sample>, InferCreationAttribut
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },
-      { sequelize, tableName: "samples" },
+      { sequelize, modelName: "Sample", tableName: "samples" },
     );
   }
 }

@@ -10,7 +10,7 @@ export class SampleParent extends Model<InferAttributes<SampleParent>, InferCrea
         sampleId: { type: DataTypes.UUID, allowNull: false, primaryKey: true },
         parentId: { type: DataTypes.UUID, allowNull: false, primaryKey: true },
       },
-      { sequelize, tableName: "sample_parents", timestamps: false },
+      { sequelize, modelName: "SampleParent", tableName: "sample_parents", timestamps: false },
     );
   }
 }

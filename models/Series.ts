@@ -27,7 +27,7 @@ export class Series extends Model<InferAttributes<Series>, InferCreationAttribut
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },
-      { sequelize, tableName: "series" },
+      { sequelize, modelName: "Series", tableName: "series" },
     );
   }
 }

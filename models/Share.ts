@@ -26,7 +26,7 @@ export class Share extends Model<InferAttributes<Share>, InferCreationAttributes
         createdBy: { type: DataTypes.UUID, allowNull: true },
         createdAt: DataTypes.DATE,
       },
-      { sequelize, tableName: "shares", updatedAt: false },
+      { sequelize, modelName: "Share", tableName: "shares", updatedAt: false },
     );
   }
 }

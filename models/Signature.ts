@@ -35,7 +35,7 @@ export class Signature extends Model<InferAttributes<Signature>, InferCreationAt
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },
-      { sequelize, tableName: "signatures" },
+      { sequelize, modelName: "Signature", tableName: "signatures" },
     );
   }
 }

@@ -66,7 +66,7 @@ export class Spectrum extends Model<InferAttributes<Spectrum>, InferCreationAttr
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },
-      { sequelize, tableName: "spectra" },
+      { sequelize, modelName: "Spectrum", tableName: "spectra" },
     );
   }
 }

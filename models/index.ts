@@ -22,12 +22,11 @@ export {
   Review, Sample, SampleParent, Series, Share, Signature, Spectrum, User,
 };
 
-const state = globalThis as unknown as { bandkeepModelsReady?: boolean };
-
 /** Binds every model to the process's Sequelize instance, once; returns that instance. */
 export function models() {
   const db = sequelize();
-  if (state.bandkeepModelsReady) return db;
+  // Checked on the class itself: bundlers may load this module more than once per process.
+  if (User.sequelize === db) return db;
   for (const m of [User, Group, Membership, Project, Sample, SampleParent, Series, Spectrum, AnalysisRun,
     Peak, Signature, Review, RetentionPolicy, LegalHold, Share, AuditEvent, ApiToken]) {
     m.initialize(db);
@@ -53,6 +52,5 @@ export function models() {
   Signature.belongsTo(Spectrum, { foreignKey: "spectrumId" });
   Signature.hasMany(Review, { foreignKey: "signatureId" });
   Review.belongsTo(User, { as: "reviewer", foreignKey: "reviewerId" });
-  state.bandkeepModelsReady = true;
   return db;
 }

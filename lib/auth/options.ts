@@ -4,7 +4,7 @@ import CredentialsImport from "next-auth/providers/credentials";
 import { z } from "zod";
 import { User, models } from "@/models";
 import { recordAudit } from "@/lib/audit";
-import { consumeSignInAttempt } from "./rate-limit";
+import { clearSignInFailures, recordFailedSignIn, signInAllowed } from "./rate-limit";
 
 // Under plain Node ESM (scripts, tests) the CommonJS default arrives wrapped.
 const Credentials = (CredentialsImport as unknown as { default?: typeof CredentialsImport }).default ?? CredentialsImport;
@@ -27,7 +27,7 @@ export const authOptions: NextAuthOptions = {
         const { email, password } = parsed.data;
         const forwarded = req?.headers?.["x-forwarded-for"];
         const ip = (Array.isArray(forwarded) ? forwarded[0] : forwarded)?.split(",")[0]?.trim() || "local";
-        if (!(await consumeSignInAttempt(email, ip))) {
+        if (!(await signInAllowed(email, ip))) {
           throw new Error("Too many sign-in attempts. Wait 15 minutes and try again.");
         }
         models();
@@ -39,7 +39,11 @@ export const authOptions: NextAuthOptions = {
           action: ok ? "sign-in" : "sign-in-refused",
           details: { ip },
         });
-        if (!user || !ok) return null;
+        if (!user || !ok) {
+          await recordFailedSignIn(email, ip);
+          return null;
+        }
+        await clearSignInFailures(email);
         return { id: user.id, email: user.email, name: user.name };
       },
     }),

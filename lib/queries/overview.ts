@@ -19,19 +19,19 @@ export async function getOverview(actor: Actor): Promise<Overview | null> {
   const [statusRows, counts, recent] = await Promise.all([
     selectRows<{ status: string; n: string }>(
       `SELECT s.status, count(*) AS n FROM spectra s JOIN projects p ON p.id = s.project_id
-       WHERE p.group_id = ANY(:groupIds) GROUP BY s.status`, replacements,
+       WHERE p.group_id IN (:groupIds) GROUP BY s.status`, replacements,
     ),
     selectRows<{ awaiting: string; samples: string; series: string }>(
       `SELECT
          (SELECT count(*) FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
-            WHERE p.group_id = ANY(:groupIds) AND g.review_state = 'awaiting') AS awaiting,
-         (SELECT count(*) FROM samples WHERE group_id = ANY(:groupIds)) AS samples,
-         (SELECT count(*) FROM series r JOIN projects p ON p.id = r.project_id WHERE p.group_id = ANY(:groupIds)) AS series`, replacements,
+            WHERE p.group_id IN (:groupIds) AND g.review_state = 'awaiting') AS awaiting,
+         (SELECT count(*) FROM samples WHERE group_id IN (:groupIds)) AS samples,
+         (SELECT count(*) FROM series r JOIN projects p ON p.id = r.project_id WHERE p.group_id IN (:groupIds)) AS series`, replacements,
     ),
     selectRows<{ id: string; kind: string; significance: number; spectrum_id: string; file_name: string; created_at: Date }>(
       `SELECT g.id, g.kind, g.significance, g.spectrum_id, s.file_name, g.created_at
        FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
-       WHERE p.group_id = ANY(:groupIds) ORDER BY g.created_at DESC LIMIT 8`, replacements,
+       WHERE p.group_id IN (:groupIds) ORDER BY g.created_at DESC LIMIT 8`, replacements,
     ),
   ]);
   return {

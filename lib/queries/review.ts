@@ -20,7 +20,7 @@ export async function listAwaitingSignatures(actor: Actor, limit = 100): Promise
             sm.name AS sample_name, p.name AS project_name, g.created_at
      FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
      LEFT JOIN samples sm ON sm.id = s.sample_id
-     WHERE p.group_id = ANY(:groupIds) AND g.review_state = 'awaiting'
+     WHERE p.group_id IN (:groupIds) AND g.review_state = 'awaiting'
      ORDER BY g.significance DESC, g.created_at DESC LIMIT :limit`, { groupIds, limit },
   );
   return rows.map((r) => ({

@@ -40,10 +40,10 @@ export async function listSamples(actor: Actor, query = ""): Promise<SampleRow[]
     Group.findAll({ where: { id: { [Op.in]: groupIds } } }),
     Project.findAll({ where: { groupId: { [Op.in]: groupIds } } }),
     selectRows<{ sample_id: string; name: string }>(
-      `SELECT sp.sample_id, p.name FROM sample_parents sp JOIN samples p ON p.id = sp.parent_id WHERE sp.sample_id = ANY(:ids)`, { ids },
+      `SELECT sp.sample_id, p.name FROM sample_parents sp JOIN samples p ON p.id = sp.parent_id WHERE sp.sample_id IN (:ids)`, { ids },
     ),
     selectRows<{ sample_id: string; n: string }>(
-      `SELECT sample_id, count(*) AS n FROM spectra WHERE sample_id = ANY(:ids) GROUP BY sample_id`, { ids },
+      `SELECT sample_id, count(*) AS n FROM spectra WHERE sample_id IN (:ids) GROUP BY sample_id`, { ids },
     ),
   ]);
   const groupName = new Map(groups.map((g) => [g.id, g.name]));

@@ -31,7 +31,7 @@ export async function listSeries(actor: Actor): Promise<SeriesRow[]> {
   if (missing.length) for (const p of await Project.findAll({ where: { id: { [Op.in]: missing } } })) projects.set(p.id, p);
   const counts = rows.length
     ? await selectRows<{ series_id: string; n: string }>(
-        `SELECT series_id, count(*) AS n FROM spectra WHERE series_id = ANY(:ids) GROUP BY series_id`, { ids: rows.map((r) => r.id) },
+        `SELECT series_id, count(*) AS n FROM spectra WHERE series_id IN (:ids) GROUP BY series_id`, { ids: rows.map((r) => r.id) },
       )
     : [];
   const count = new Map(counts.map((c) => [c.series_id, Number(c.n)]));

@@ -22,7 +22,9 @@ export async function signInOverHttp(email: string, password: string): Promise<S
   });
   const all = [...jar, ...cookiesOf(response)];
   const session = all.find((c) => c.startsWith("next-auth.session-token="));
-  const location = response.headers.get("location") ?? "";
+  // With json=true next-auth answers with {url} in the body instead of a redirect.
+  const body = response.headers.get("content-type")?.includes("json") ? ((await response.json()) as { url?: string }) : {};
+  const location = response.headers.get("location") ?? body.url ?? "";
   const error = new URL(location, url("/")).searchParams.get("error") ?? undefined;
   return { ok: Boolean(session), cookie: all.join("; "), error };
 }
