@@ -152,9 +152,10 @@ stop_all() {
 }
 
 needs_build() {
-  [ -f "$ROOT/.next/BUILD_ID" ] || return 0
+  local dist="$ROOT/${NEXT_DIST_DIR:-.next}"
+  [ -f "$dist/BUILD_ID" ] || return 0
   [ -n "$(find "$ROOT/app" "$ROOT/components" "$ROOT/lib" "$ROOT/models" "$ROOT/next.config.mjs" "$ROOT/package-lock.json" \
-    -newer "$ROOT/.next/BUILD_ID" -type f 2>/dev/null | head -n 1)" ]
+    -newer "$dist/BUILD_ID" -type f 2>/dev/null | head -n 1)" ]
 }
 
 build_app() {
