@@ -1,7 +1,7 @@
 import tseslint from "typescript-eslint";
 
 export default tseslint.config(
-  { ignores: [".next/**", "node_modules/**", ".data/**", "local-s3/**", "next-env.d.ts"] },
+  { ignores: [".next/**", ".next-*/**", "test-results/**", "node_modules/**", ".data/**", "local-s3/**", "next-env.d.ts"] },
   ...tseslint.configs.recommended,
   {
     rules: {
