@@ -4,6 +4,7 @@
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 PROFILE="${BANDKEEP_PROFILE:-dev}"
 if [ "$PROFILE" = "test" ]; then off=10; else off=0; fi
+off="${BANDKEEP_PORT_OFFSET:-$off}"  # a further copy (a clean clone, say) can run beside these
 
 export BANDKEEP_DATA_DIR="${BANDKEEP_DATA_DIR:-$ROOT/.data/$PROFILE}"
 export PGPORT_LOCAL="${PGPORT_LOCAL:-$((54329 + off))}"
