@@ -35,14 +35,15 @@ export class Spectrum extends Model<InferAttributes<Spectrum>, InferCreationAttr
   declare updatedAt: CreationOptional<Date>;
 
   static initialize(sequelize: Sequelize) {
-    const optionalNumber = { type: DataTypes.DOUBLE, allowNull: true };
+    // A fresh object per column: Sequelize writes the column name into the object it is given.
+    const optionalNumber = () => ({ type: DataTypes.DOUBLE, allowNull: true });
     Spectrum.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         projectId: { type: DataTypes.UUID, allowNull: false },
         sampleId: { type: DataTypes.UUID, allowNull: true },
         seriesId: { type: DataTypes.UUID, allowNull: true },
-        seriesValue: optionalNumber,
+        seriesValue: optionalNumber(),
         referenceSpectrumId: { type: DataTypes.UUID, allowNull: true },
         technique: { type: DataTypes.ENUM(...TECHNIQUES), allowNull: false },
         fileName: { type: DataTypes.TEXT, allowNull: false },
@@ -53,10 +54,10 @@ export class Spectrum extends Model<InferAttributes<Spectrum>, InferCreationAttr
         columnChoice: { type: DataTypes.TEXT, allowNull: true },
         axisUnit: { type: DataTypes.TEXT, allowNull: true },
         valueUnit: { type: DataTypes.TEXT, allowNull: true },
-        pathLengthCm: optionalNumber,
-        excitationNm: optionalNumber,
-        slitNm: optionalNumber,
-        integrationMs: optionalNumber,
+        pathLengthCm: optionalNumber(),
+        excitationNm: optionalNumber(),
+        slitNm: optionalNumber(),
+        integrationMs: optionalNumber(),
         solvent: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
         material: { type: DataTypes.TEXT, allowNull: true },
         metadata: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },

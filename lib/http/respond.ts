@@ -1,4 +1,5 @@
 import { NextResponse } from "next/server";
+import { ConnectionError } from "sequelize";
 import { ZodError } from "zod";
 import type { Actor } from "@/lib/auth/actor";
 import { actorFromRequest } from "@/lib/auth/actor";
@@ -33,6 +34,12 @@ export function errorResponse(error: unknown): NextResponse {
     return NextResponse.json(
       { error: { code: "invalid", message: first ? `${field ? `${field}: ` : ""}${first.message}` : "Invalid input.", field } },
       { status: 400 },
+    );
+  }
+  if (error instanceof ConnectionError || (error instanceof Error && /ECONNREFUSED|Connection is closed|ETIMEDOUT/.test(error.message))) {
+    return NextResponse.json(
+      { error: { code: "unavailable", message: "A service Bandkeep depends on is not reachable right now. Try again shortly." } },
+      { status: 503 },
     );
   }
   console.error(error);
