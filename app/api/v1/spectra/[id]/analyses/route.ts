@@ -1,0 +1,29 @@
+import { NextResponse } from "next/server";
+import { ApiError, withActor } from "@/lib/http/respond";
+import { requestReanalysis } from "@/lib/ingest";
+import { toApiError } from "@/lib/ingest/apiErrors";
+
+export const runtime = "nodejs";
+export const dynamic = "force-dynamic";
+
+/** POST /api/v1/spectra/{id}/analyses — a new analysis run with changed parameters (JSON body); earlier runs are kept. */
+export const POST = withActor<{ params: Promise<{ id: string }> }>(async (request, { actor, params }) => {
+  const { id } = await params;
+  const type = request.headers.get("content-type") ?? "";
+  let body: unknown = {};
+  const text = await request.text();
+  if (text.trim() !== "") {
+    if (!type.toLowerCase().startsWith("application/json")) throw new ApiError(415, "unsupported-media-type", "send the parameters as application/json");
+    try {
+      body = JSON.parse(text);
+    } catch {
+      throw new ApiError(400, "invalid-body", "the request body is not valid JSON");
+    }
+  }
+  try {
+    const result = await requestReanalysis(id, body, actor);
+    return NextResponse.json(result, { status: result.created ? 201 : 200 });
+  } catch (error) {
+    throw toApiError(error);
+  }
+});

@@ -1,0 +1,193 @@
+/**
+ * Ingest benchmark. Pushes N exports of 2,000 points through the HTTP API (upload → queue →
+ * worker → analysis written) until every one is analysed, then pushes the same files through
+ * the bare storage path (object put + row insert; no queue, no analysis). Prints files/second
+ * for both, their ratio, and the worker's peak resident memory (VmHWM).
+ *
+ * It starts what it needs on the test profile: the loopback services (scripts/services.sh,
+ * idempotent), migrations, its own `next start` on BENCH_PORT (default 3099; builds first when
+ * there is no build) and its own worker, both on a queue of their own, so a running `npm start`
+ * or `npm test` stack is not disturbed.
+ *
+ * Usage: npm run bench:ingest [-- --files 1000 --parallel 8 --workers 1]
+ */
+import { execFileSync, spawn, type ChildProcess } from "node:child_process";
+import { existsSync, readFileSync } from "node:fs";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { randomBytes } from "node:crypto";
+
+const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
+const args = process.argv.slice(2);
+const arg = (name: string, fallback: number) => {
+  const i = args.indexOf(`--${name}`);
+  return i >= 0 ? Number(args[i + 1]) : fallback;
+};
+const FILES = arg("files", 1000);
+const PARALLEL = arg("parallel", 8);
+const WORKERS = arg("workers", 1);
+const CONCURRENCY = arg("concurrency", 2);
+const BENCH_PORT = arg("port", 3099);
+
+// The test profile's environment, read from scripts/env.sh so addresses stay in one place.
+const envText = execFileSync("bash", ["-c", "export BANDKEEP_PROFILE=test; source scripts/env.sh; source scripts/services.sh; start_services >&2; env -0"], {
+  cwd: ROOT,
+  encoding: "utf8",
+  stdio: ["ignore", "pipe", "inherit"],
+});
+for (const pair of envText.split("\0")) {
+  const i = pair.indexOf("=");
+  if (i > 0) process.env[pair.slice(0, i)] = pair.slice(i + 1);
+}
+const QUEUE = `bench-ingest-${randomBytes(3).toString("hex")}`;
+process.env.BANDKEEP_QUEUE = QUEUE;
+process.env.PORT = String(BENCH_PORT);
+process.env.NEXTAUTH_URL = `http://127.0.0.1:${BENCH_PORT}`;
+process.env.APP_URL = process.env.NEXTAUTH_URL;
+execFileSync(process.execPath, ["--import", "tsx", "scripts/migrate.ts", "up"], { cwd: ROOT, stdio: "inherit" });
+
+const { models, Project, Spectrum } = await import("@/models");
+const { closeDb } = await import("@/lib/db");
+const { newRawObjectKey, putObject, sha256Hex } = await import("@/lib/storage");
+const { analysisQueue } = await import("@/lib/queue");
+const { createLab } = await import("@/tests/helpers/fixtures");
+const { syntheticAbsorptionCsv, enc } = await import("@/tests/helpers/spectra");
+const { Op } = await import("sequelize");
+
+const children: ChildProcess[] = [];
+function start(name: string, argv: string[], extraEnv: Record<string, string> = {}): ChildProcess {
+  const child = spawn(process.execPath, argv, { cwd: ROOT, env: { ...process.env, ...extraEnv }, stdio: ["ignore", "pipe", "pipe"] });
+  let tail = "";
+  child.stdout?.on("data", (d: Buffer) => (tail = (tail + d).slice(-4000)));
+  child.stderr?.on("data", (d: Buffer) => (tail = (tail + d).slice(-4000)));
+  child.on("exit", (code) => {
+    if (!stopping) console.error(`${name} exited (${code}):\n${tail}`);
+  });
+  children.push(child);
+  return child;
+}
+let stopping = false;
+async function stopAll() {
+  stopping = true;
+  await Promise.all(
+    children.map((c) => new Promise<void>((resolve) => {
+      if (c.exitCode !== null) return resolve();
+      c.once("exit", () => resolve());
+      c.kill("SIGTERM");
+      setTimeout(() => c.kill("SIGKILL"), 15_000).unref();
+    })),
+  );
+}
+process.on("SIGINT", () => void stopAll().then(() => process.exit(130)));
+
+function peakRssMb(pid: number): number {
+  const status = readFileSync(`/proc/${pid}/status`, "utf8");
+  const kb = Number(/VmHWM:\s+(\d+)/.exec(status)?.[1] ?? 0);
+  return kb / 1024;
+}
+
+async function waitHttp(url: string, timeoutMs: number) {
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    try {
+      await fetch(url);
+      return;
+    } catch {
+      await new Promise((r) => setTimeout(r, 300));
+    }
+  }
+  throw new Error(`nothing answered at ${url}`);
+}
+
+async function pool<T>(items: T[], parallel: number, fn: (item: T, i: number) => Promise<void>) {
+  let next = 0;
+  await Promise.all(Array.from({ length: parallel }, async () => {
+    while (next < items.length) {
+      const i = next++;
+      await fn(items[i], i);
+    }
+  }));
+}
+
+try {
+  if (!existsSync(path.join(ROOT, ".next", "BUILD_ID"))) {
+    console.log("no build found: running next build (once)");
+    execFileSync(process.execPath, ["node_modules/next/dist/bin/next", "build"], { cwd: ROOT, stdio: "inherit" });
+  }
+  const app = start("app", ["node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(BENCH_PORT)]);
+  const workers = Array.from({ length: WORKERS }, () => start("worker", ["--import", "tsx", "workers/index.ts"], { WORKER_CONCURRENCY: String(CONCURRENCY) }));
+  await waitHttp(`http://127.0.0.1:${BENCH_PORT}/api/v1/projects`, 60_000);
+
+  models();
+  const lab = await createLab("spectroscopist");
+  const bareProject = await Project.create({ groupId: lab.group.id, name: `Bare storage path ${randomBytes(3).toString("hex")}` });
+  const files = Array.from({ length: FILES }, (_, i) => ({ fileName: `bench-${i}.csv`, bytes: enc(syntheticAbsorptionCsv({ seed: 900_000 + i, points: 2000 })) }));
+  const mb = files.reduce((s, f) => s + f.bytes.length, 0) / 1024 / 1024;
+  console.log(`\n${FILES} exports of 2,000 points (${mb.toFixed(1)} MiB), ${PARALLEL} uploads in flight, ${WORKERS} worker(s) × concurrency ${CONCURRENCY}, queue ${QUEUE}`);
+
+  // Warm the app's routes so the first requests do not carry start-up cost.
+  const warm = new FormData();
+  warm.append("projectId", lab.project.id);
+  warm.append("technique", "absorption");
+  warm.append("file", new Blob([enc(syntheticAbsorptionCsv({ seed: 1, points: 2000 })) as Uint8Array<ArrayBuffer>]), "warm.csv");
+  await fetch(`http://127.0.0.1:${BENCH_PORT}/api/v1/spectra`, { method: "POST", headers: { Authorization: `Bearer ${lab.token}` }, body: warm });
+
+  // 1. Through the HTTP API until analysed.
+  const ids: string[] = [];
+  const t0 = performance.now();
+  let refused = 0;
+  await pool(files, PARALLEL, async (f) => {
+    const form = new FormData();
+    form.append("projectId", lab.project.id);
+    form.append("technique", "absorption");
+    form.append("file", new Blob([f.bytes as Uint8Array<ArrayBuffer>], { type: "text/csv" }), f.fileName);
+    const res = await fetch(`http://127.0.0.1:${BENCH_PORT}/api/v1/spectra`, { method: "POST", headers: { Authorization: `Bearer ${lab.token}` }, body: form });
+    const body = (await res.json()) as { files?: { ok: boolean; spectrumId?: string }[] };
+    const out = body.files?.[0];
+    if (res.status !== 201 || !out?.ok || !out.spectrumId) refused += 1;
+    else ids.push(out.spectrumId);
+  });
+  const tUploaded = performance.now();
+  for (;;) {
+    const done = await Spectrum.count({ where: { id: { [Op.in]: ids }, status: { [Op.in]: ["analysed", "failed"] } } });
+    if (done === ids.length) break;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  const tAnalysed = performance.now();
+  const failed = await Spectrum.count({ where: { id: { [Op.in]: ids }, status: "failed" } });
+  const peakRss = workers.map((w) => peakRssMb(w.pid!));
+  const appRss = peakRssMb(app.pid!);
+
+  // 2. The bare storage path: object put + row insert, same files, same parallelism.
+  const t1 = performance.now();
+  await pool(files, PARALLEL, async (f) => {
+    const key = newRawObjectKey();
+    const sha256 = sha256Hex(f.bytes);
+    await putObject(key, f.bytes, "text/csv", sha256);
+    await Spectrum.create({
+      projectId: bareProject.id, sampleId: null, seriesId: null, seriesValue: null, referenceSpectrumId: null, technique: "absorption",
+      fileName: f.fileName, objectKey: key, sha256, sizeBytes: f.bytes.length, contentType: "text/csv", columnChoice: null, axisUnit: null,
+      valueUnit: null, pathLengthCm: null, excitationNm: null, slitNm: null, integrationMs: null, material: null, status: "received",
+      errorMessage: null, uploadedBy: lab.user.id,
+    });
+  });
+  const tBare = performance.now();
+
+  const s = (ms: number) => ms / 1000;
+  const pipelineRate = ids.length / s(tAnalysed - t0);
+  const uploadRate = ids.length / s(tUploaded - t0);
+  const bareRate = FILES / s(tBare - t1);
+  console.log("");
+  console.log(`HTTP API, upload → analysed : ${ids.length} files in ${s(tAnalysed - t0).toFixed(1)} s = ${pipelineRate.toFixed(1)} files/s (${failed} failed, ${refused} refused)`);
+  console.log(`  of which uploads accepted : ${s(tUploaded - t0).toFixed(1)} s = ${uploadRate.toFixed(1)} files/s`);
+  console.log(`bare storage path (put+row) : ${FILES} files in ${s(tBare - t1).toFixed(1)} s = ${bareRate.toFixed(1)} files/s`);
+  console.log(`ratio pipeline / bare       : ${(pipelineRate / bareRate).toFixed(3)}   (upload acceptance / bare: ${(uploadRate / bareRate).toFixed(3)})`);
+  console.log(`worker peak RSS (VmHWM)     : ${peakRss.map((m) => `${m.toFixed(0)} MB`).join(", ")}   (app: ${appRss.toFixed(0)} MB)`);
+
+  await analysisQueue().obliterate({ force: true }).catch(() => {});
+  await analysisQueue().close();
+  await closeDb();
+} finally {
+  await stopAll();
+}
+process.exit(0);

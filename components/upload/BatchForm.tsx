@@ -1,0 +1,116 @@
+"use client";
+
+import { Field, inputClass } from "@/components/forms/Field";
+import { HazardNotice } from "@/components/ui/HazardNotice";
+import { hazardsOf } from "@/lib/hazards";
+import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "@/lib/ingest/metadata";
+import type { UploadChoices } from "@/lib/ingest/queries";
+
+export type BatchValues = {
+  projectId: string; technique: string; sampleId: string; referenceSpectrumId: string; seriesId: string; seriesValue: string;
+  pathLengthCm: string; excitationNm: string; solvent: string; column: string; material: string;
+};
+
+export const EMPTY_VALUES: BatchValues = {
+  projectId: "", technique: "absorption", sampleId: "", referenceSpectrumId: "", seriesId: "", seriesValue: "",
+  pathLengthCm: "1", excitationNm: "", solvent: "", column: "", material: "",
+};
+
+const TECHNIQUE_LABELS: Record<string, string> = { absorption: "UV-Vis-NIR absorption", pl: "Photoluminescence", ir: "Mid-IR absorption" };
+
+type Props = {
+  choices: UploadChoices;
+  values: BatchValues;
+  errors: Partial<Record<keyof BatchValues, string[]>>;
+  disabled: boolean;
+  onChange: (values: BatchValues) => void;
+};
+
+/** The metadata applied to every file of the batch. */
+export function BatchForm({ choices, values, errors, disabled, onChange }: Props) {
+  const project = choices.projects.find((p) => p.id === values.projectId);
+  const sample = project?.samples.find((s) => s.id === values.sampleId);
+  const series = project?.series.find((s) => s.id === values.seriesId);
+  const set = (key: keyof BatchValues) => (e: { target: { value: string } }) => {
+    const next = { ...values, [key]: e.target.value };
+    if (key === "projectId") Object.assign(next, { sampleId: "", seriesId: "", seriesValue: "", referenceSpectrumId: "" });
+    if (key === "sampleId") {
+      const s = project?.samples.find((x) => x.id === e.target.value);
+      if (s && !values.solvent) next.solvent = s.solvent;
+    }
+    onChange(next);
+  };
+  const attrs = (key: keyof BatchValues) => ({
+    id: key, name: key, value: values[key], onChange: set(key), disabled,
+    "aria-invalid": errors[key]?.length ? true : undefined, className: inputClass,
+  });
+
+  return (
+    <fieldset className="grid grid-cols-1 gap-x-4 gap-y-3 md:grid-cols-2 xl:grid-cols-3" disabled={disabled}>
+      <legend className="sr-only">Metadata for every file in this batch</legend>
+      <Field name="projectId" label="Project" errors={errors.projectId}>
+        <select {...attrs("projectId")}>
+          <option value="">Choose a project…</option>
+          {choices.projects.map((p) => (
+            <option key={p.id} value={p.id}>{p.name} ({p.groupName})</option>
+          ))}
+        </select>
+      </Field>
+      <Field name="technique" label="Technique" errors={errors.technique}>
+        <select {...attrs("technique")}>
+          {INGEST_TECHNIQUES.map((t) => <option key={t} value={t}>{TECHNIQUE_LABELS[t]}</option>)}
+        </select>
+      </Field>
+      <Field name="sampleId" label="Sample" hint="Optional; material and solvent come from it" errors={errors.sampleId}>
+        <select {...attrs("sampleId")}>
+          <option value="">{project ? (project.samples.length ? "No sample" : "No samples registered yet") : "Choose a project first"}</option>
+          {project?.samples.map((s) => <option key={s.id} value={s.id}>{s.name} · {s.material}</option>)}
+        </select>
+      </Field>
+      <Field name="referenceSpectrumId" label="Parent reference spectrum" hint="Compared against to flag bleach, new bands, quench, shifts" errors={errors.referenceSpectrumId}>
+        <select {...attrs("referenceSpectrumId")}>
+          <option value="">None (analyse on its own)</option>
+          {project?.references.map((r) => (
+            <option key={r.id} value={r.id}>{r.fileName} · {r.technique} · {r.createdAt.slice(0, 10)}</option>
+          ))}
+        </select>
+      </Field>
+      <Field name="seriesId" label="Series" errors={errors.seriesId}>
+        <select {...attrs("seriesId")}>
+          <option value="">Not part of a series</option>
+          {project?.series.map((s) => <option key={s.id} value={s.id}>{s.name}</option>)}
+        </select>
+      </Field>
+      <Field
+        name="seriesValue"
+        label={series?.variableName ? `Series value: ${series.variableName}${series.variableUnit ? ` (${series.variableUnit})` : ""}` : "Series value"}
+        errors={errors.seriesValue}
+      >
+        <input {...attrs("seriesValue")} inputMode="decimal" disabled={disabled || !values.seriesId} placeholder={values.seriesId ? "e.g. 0.5" : "choose a series first"} />
+      </Field>
+      <Field name="pathLengthCm" label="Path length (cm)" errors={errors.pathLengthCm}>
+        <input {...attrs("pathLengthCm")} inputMode="decimal" />
+      </Field>
+      <Field name="excitationNm" label="Excitation wavelength (nm)" hint="For photoluminescence" errors={errors.excitationNm}>
+        <input {...attrs("excitationNm")} inputMode="decimal" />
+      </Field>
+      <Field name="solvent" label="Solvent" errors={errors.solvent}>
+        <input {...attrs("solvent")} maxLength={100} />
+      </Field>
+      <Field name="column" label="Signal column" hint="Header name or number; empty: the first signal column" errors={errors.column}>
+        <input {...attrs("column")} maxLength={100} />
+      </Field>
+      <Field name="material" label="Core material for sizing" hint="Empty: taken from the sample" errors={errors.material}>
+        <select {...attrs("material")}>
+          <option value="">From the sample</option>
+          {INGEST_MATERIALS.map((m) => <option key={m} value={m}>{m}</option>)}
+        </select>
+      </Field>
+      {sample && (
+        <div className="md:col-span-2 xl:col-span-3">
+          <HazardNotice flags={hazardsOf({ material: sample.material, coreShell: sample.coreShell, solvent: values.solvent || sample.solvent })} />
+        </div>
+      )}
+    </fieldset>
+  );
+}

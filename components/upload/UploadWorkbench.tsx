@@ -1,0 +1,200 @@
+"use client";
+
+import { useCallback, useMemo, useRef, useState } from "react";
+import { ingestMetadataSchema } from "@/lib/ingest/metadata";
+import type { UploadChoices } from "@/lib/ingest/queries";
+import { LIGHT_CAUTION } from "@/lib/hazards";
+import { BatchForm, EMPTY_VALUES, type BatchValues } from "./BatchForm";
+import type { PickedFile } from "./collectFiles";
+import { DropZone } from "./DropZone";
+import { LiveStatus } from "./LiveStatus";
+import { sendFile, type UploadOutcome } from "./sendFile";
+
+type Item = {
+  key: string;
+  picked: PickedFile;
+  phase: "ready" | "sending" | "done";
+  progress: number;
+  outcomes: UploadOutcome[];
+  localError?: string;
+};
+
+const PARALLEL = 3;
+let counter = 0;
+
+function formatBytes(n: number): string {
+  if (n < 1024) return `${n} B`;
+  if (n < 1024 * 1024) return `${(n / 1024).toFixed(1)} KiB`;
+  return `${(n / 1024 / 1024).toFixed(1)} MiB`;
+}
+
+/** Drop files, describe the batch once, watch every file go through upload and analysis. */
+export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices; maxBytes: number }) {
+  const [values, setValues] = useState<BatchValues>({ ...EMPTY_VALUES, projectId: choices.projects.length === 1 ? choices.projects[0].id : "" });
+  const [errors, setErrors] = useState<Partial<Record<keyof BatchValues, string[]>>>({});
+  const [items, setItems] = useState<Item[]>([]);
+  const [busy, setBusy] = useState(false);
+  const cancel = useRef<AbortController | null>(null);
+
+  const addFiles = useCallback(
+    (picked: PickedFile[]) => {
+      setItems((old) => [
+        ...old,
+        ...picked.map((p) => ({
+          key: `f${++counter}`,
+          picked: p,
+          phase: "ready" as const,
+          progress: 0,
+          outcomes: [],
+          localError: p.file.size === 0 ? `${p.name}: the file is empty` : p.file.size > maxBytes ? `${p.name}: ${formatBytes(p.file.size)} is over the ${formatBytes(maxBytes)} limit` : undefined,
+        })),
+      ]);
+    },
+    [maxBytes],
+  );
+
+  const update = (key: string, change: Partial<Item>) => setItems((old) => old.map((i) => (i.key === key ? { ...i, ...change } : i)));
+
+  const ready = items.filter((i) => i.phase === "ready" && !i.localError);
+  const counts = useMemo(() => {
+    const outcomes = items.flatMap((i) => i.outcomes);
+    return {
+      stored: outcomes.filter((o) => o.ok && !o.duplicate).length,
+      linked: outcomes.filter((o) => o.ok && o.duplicate).length,
+      refused: outcomes.filter((o) => !o.ok).length + items.filter((i) => i.localError).length,
+    };
+  }, [items]);
+
+  async function start() {
+    const parsed = ingestMetadataSchema.safeParse(values);
+    if (!parsed.success) {
+      const next: Partial<Record<keyof BatchValues, string[]>> = {};
+      for (const issue of parsed.error.issues) {
+        const key = String(issue.path[0] ?? "projectId") as keyof BatchValues;
+        (next[key] ??= []).push(issue.message);
+      }
+      setErrors(next);
+      return;
+    }
+    setErrors({});
+    setBusy(true);
+    const controller = new AbortController();
+    cancel.current = controller;
+    const queue = [...ready];
+    const run = async () => {
+      for (let item = queue.shift(); item && !controller.signal.aborted; item = queue.shift()) {
+        const key = item.key;
+        update(key, { phase: "sending", progress: 0 });
+        const result = await sendFile(item.picked.file, item.picked.name, values, (p) => update(key, { progress: p }), controller.signal);
+        if (result.status === 400 && result.error?.field && result.error.field in values) {
+          setErrors((e) => ({ ...e, [result.error!.field as keyof BatchValues]: [result.error!.message] }));
+        }
+        update(key, { phase: "done", progress: 1, outcomes: result.files });
+      }
+    };
+    await Promise.all(Array.from({ length: PARALLEL }, run));
+    cancel.current = null;
+    setBusy(false);
+  }
+
+  if (choices.projects.length === 0) return null;
+
+  return (
+    <div className="space-y-6">
+      <section aria-labelledby="batch-heading" className="rounded-xl border border-stone-200 bg-white p-5">
+        <h2 id="batch-heading" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-soft">Describe the batch</h2>
+        <BatchForm choices={choices} values={values} errors={errors} disabled={busy} onChange={setValues} />
+        {values.technique === "pl" && <p className="mt-3 text-xs text-caution">{LIGHT_CAUTION}</p>}
+      </section>
+
+      <DropZone onFiles={addFiles} disabled={busy} />
+
+      <section aria-labelledby="files-heading">
+        <div className="mb-2 flex flex-wrap items-center justify-between gap-3">
+          <h2 id="files-heading" className="text-sm font-semibold uppercase tracking-wide text-ink-soft">
+            Files <span className="tabular font-normal normal-case">({items.length})</span>
+          </h2>
+          <div className="flex items-center gap-3 text-xs text-ink-soft">
+            {counts.stored > 0 && <span>{counts.stored} stored</span>}
+            {counts.linked > 0 && <span>{counts.linked} linked</span>}
+            {counts.refused > 0 && <span className="text-red-800">{counts.refused} refused</span>}
+            {busy ? (
+              <button type="button" onClick={() => cancel.current?.abort()} className="rounded-md border border-stone-300 px-3 py-1.5 text-sm">
+                Stop
+              </button>
+            ) : (
+              <>
+                {items.length > 0 && (
+                  <button type="button" onClick={() => setItems((old) => old.filter((i) => i.phase === "ready" && !i.localError))} className="rounded-md px-2 py-1.5 text-sm text-ink-soft hover:text-ink">
+                    Clear finished
+                  </button>
+                )}
+                <button
+                  type="button"
+                  onClick={start}
+                  disabled={ready.length === 0}
+                  className="rounded-md bg-glow px-4 py-1.5 text-sm font-medium text-white hover:bg-glow-deep disabled:cursor-not-allowed disabled:bg-stone-300"
+                  data-testid="start-upload"
+                >
+                  Upload {ready.length || ""} {ready.length === 1 ? "file" : "files"}
+                </button>
+              </>
+            )}
+          </div>
+        </div>
+        {items.length === 0 ? (
+          <p className="rounded-lg border border-stone-200 bg-white px-4 py-6 text-center text-sm text-ink-faint">
+            No files yet. Drop some above; each gets its own progress bar and analysis status.
+          </p>
+        ) : (
+          <ul className="divide-y divide-stone-100 rounded-lg border border-stone-200 bg-white" data-testid="file-list">
+            {items.map((item) => (
+              <FileRow key={item.key} item={item} onRemove={() => setItems((old) => old.filter((i) => i.key !== item.key))} />
+            ))}
+          </ul>
+        )}
+      </section>
+    </div>
+  );
+}
+
+function FileRow({ item, onRemove }: { item: Item; onRemove: () => void }) {
+  const { picked, phase, progress, outcomes, localError } = item;
+  const isBatch = outcomes.length > 1 || outcomes.some((o) => o.zip);
+  return (
+    <li className="px-4 py-2 text-sm">
+      <div className="flex items-center gap-3">
+        <span className="min-w-0 flex-1 truncate font-medium" title={picked.name}>{picked.name}</span>
+        <span className="tabular w-20 shrink-0 text-right text-xs text-ink-faint">{formatBytes(picked.file.size)}</span>
+        <span className="w-40 shrink-0">
+          {phase === "ready" && !localError && (
+            <button type="button" onClick={onRemove} className="text-xs text-ink-soft hover:text-ink">remove</button>
+          )}
+          {(phase === "sending" || (phase === "done" && outcomes.length === 0)) && (
+            <span className="flex items-center gap-2">
+              <span className="h-1.5 flex-1 overflow-hidden rounded-full bg-stone-200" role="progressbar" aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(progress * 100)} aria-label={`Upload of ${picked.name}`}>
+                <span className="block h-full bg-glow transition-[width]" style={{ width: `${Math.round(progress * 100)}%` }} />
+              </span>
+              <span className="tabular w-9 text-right text-xs text-ink-faint">{Math.round(progress * 100)}%</span>
+            </span>
+          )}
+        </span>
+      </div>
+      {localError && <p role="alert" className="mt-1 text-xs text-red-800">{localError}</p>}
+      {outcomes.length > 0 && (
+        <ul className={isBatch ? "mt-1 space-y-1 border-l-2 border-stone-100 pl-3" : "mt-1"}>
+          {outcomes.map((o, i) => (
+            <li key={`${o.fileName}-${i}`} className="flex min-w-0 items-start gap-2 text-xs">
+              {isBatch && <span className="w-56 shrink-0 truncate text-ink-soft" title={o.fileName}>{o.fileName}</span>}
+              {o.ok ? (
+                <LiveStatus spectrumId={o.spectrumId} duplicate={o.duplicate} />
+              ) : (
+                <span role="alert" className="text-red-800">{o.error.message}</span>
+              )}
+            </li>
+          ))}
+        </ul>
+      )}
+    </li>
+  );
+}

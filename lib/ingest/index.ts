@@ -1,0 +1,8 @@
+// The ingest pipeline: one path for the HTTP API, the upload page and the demo seed.
+export { IngestError } from "./errors";
+export { ingestFile, ingestFiles, type FileOutcome, type IncomingFile, type IngestFileInput } from "./ingestFile";
+export { requestReanalysis, type ReanalysisResult } from "./requestReanalysis";
+export { ingestMetadataSchema, INGEST_FIELDS, type IngestMetadata, type IngestMetadataInput } from "./metadata";
+export { ingestLimits, type IngestLimits } from "./limits";
+export { parameterHash, type AnalysisParameters } from "./parameters";
+export type { StoredFile } from "./storeFile";

@@ -1,0 +1,80 @@
+import { z } from "zod";
+
+// The metadata that travels with an upload, checked with the same schema in the
+// browser form, the HTTP API and the seed script. Every field arrives as a string from
+// multipart forms, so numbers are coerced and an empty string means "not given".
+
+export const INGEST_TECHNIQUES = ["absorption", "pl", "ir"] as const;
+export const INGEST_MATERIALS = ["CdSe", "CdTe", "CdS", "PbS", "PbSe"] as const;
+
+const blankToUndefined = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);
+
+const isPlainText = (s: string) => !/[<>]/.test(s) && !/[\u0000-\u001f\u007f]/.test(s);
+const markupMessage = (label: string) => `${label} must be plain text (no <, > or control characters)`;
+
+function optionalText(label: string, max: number) {
+  return z.preprocess(
+    blankToUndefined,
+    z
+      .string()
+      .trim()
+      .max(max, `${label} is longer than ${max} characters`)
+      .refine(isPlainText, markupMessage(label))
+      .optional(),
+  );
+}
+
+function optionalNumber(label: string, min: number, max: number, unit: string) {
+  return z.preprocess(
+    blankToUndefined,
+    z.coerce
+      .number({ error: `${label} must be a number` })
+      .refine(Number.isFinite, `${label} must be a finite number`)
+      .refine((n) => n > min && n <= max, `${label} must be above ${min} and at most ${max} ${unit}`)
+      .optional(),
+  );
+}
+
+const optionalId = (label: string) =>
+  z.preprocess(blankToUndefined, z.string().trim().uuid(`${label} must be an id (UUID)`).optional());
+
+export const ingestMetadataSchema = z
+  .object({
+    projectId: z.preprocess(blankToUndefined, z.string({ error: "choose a project" }).trim().uuid("projectId must be an id (UUID)")),
+    technique: z.preprocess(
+      blankToUndefined,
+      z.enum(INGEST_TECHNIQUES, { error: "technique must be one of absorption, pl, ir" }),
+    ),
+    sampleId: optionalId("sampleId"),
+    referenceSpectrumId: optionalId("referenceSpectrumId"),
+    seriesId: optionalId("seriesId"),
+    seriesValue: z.preprocess(
+      blankToUndefined,
+      z.coerce
+        .number({ error: "seriesValue must be a number" })
+        .refine(Number.isFinite, "seriesValue must be a finite number")
+        .optional(),
+    ),
+    pathLengthCm: optionalNumber("pathLengthCm", 0, 100, "cm"),
+    excitationNm: optionalNumber("excitationNm", 100, 3000, "nm"),
+    solvent: optionalText("solvent", 100),
+    column: optionalText("column", 100),
+    material: z.preprocess(
+      blankToUndefined,
+      z.enum(INGEST_MATERIALS, { error: `material must be one of ${INGEST_MATERIALS.join(", ")}` }).optional(),
+    ),
+  })
+  .superRefine((m, ctx) => {
+    if (m.seriesValue !== undefined && m.seriesId === undefined) {
+      ctx.addIssue({ code: "custom", path: ["seriesValue"], message: "seriesValue needs a seriesId" });
+    }
+  });
+
+export type IngestMetadataInput = z.input<typeof ingestMetadataSchema>;
+export type IngestMetadata = z.output<typeof ingestMetadataSchema>;
+
+/** Field names the HTTP API reads from a multipart form besides `file`. */
+export const INGEST_FIELDS = [
+  "projectId", "technique", "sampleId", "referenceSpectrumId", "seriesId", "seriesValue",
+  "pathLengthCm", "excitationNm", "solvent", "column", "material",
+] as const;

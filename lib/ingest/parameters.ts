@@ -1,0 +1,82 @@
+import { createHash } from "node:crypto";
+import { z } from "zod";
+import { canonicalJson } from "./canonicalJson";
+import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "./metadata";
+
+/**
+ * Everything that decides what one analysis run computes, besides the raw bytes, the
+ * reference and the engine version. Stored on the run (`parameters`) and hashed into
+ * `parameter_hash`; the worker turns it into parse and analysis options.
+ */
+export type AnalysisParameters = {
+  technique: (typeof INGEST_TECHNIQUES)[number];
+  column?: string | number;
+  material?: (typeof INGEST_MATERIALS)[number];
+  pathLengthCm?: number;
+  excitationNm?: number;
+  smoothingWindow?: number;
+  smoothingPolynomial?: number;
+  baseline?: "none" | "offset" | "scatter";
+  thresholds?: Partial<Record<ThresholdName, number>>;
+};
+
+export const THRESHOLD_NAMES = [
+  "minSignificance", "minBleachFraction", "minQuenchFraction", "minShiftMeV", "minBroadeningFraction", "minNewBandFraction",
+] as const;
+export type ThresholdName = (typeof THRESHOLD_NAMES)[number];
+
+/** sha256 of the canonical JSON of the parameters and the reference spectrum id. */
+export function parameterHash(parameters: AnalysisParameters, referenceSpectrumId: string | null): string {
+  return createHash("sha256").update(canonicalJson({ parameters, referenceSpectrumId })).digest("hex");
+}
+
+/** A column choice as typed by a person: digits mean a zero-based column index. */
+export function columnChoice(raw: string | undefined): string | number | undefined {
+  if (raw === undefined) return undefined;
+  return /^\d+$/.test(raw) ? Number(raw) : raw;
+}
+
+/** Guesses the engine's material name from a sample's free-text material ("CdSe/ZnS" → CdSe). */
+export function materialFromText(text: string | null | undefined): AnalysisParameters["material"] {
+  if (!text) return undefined;
+  const core = text.split(/[\/\s,;(]/)[0]?.trim().toLowerCase() ?? "";
+  return INGEST_MATERIALS.find((m) => m.toLowerCase() === core);
+}
+
+const positive = (label: string) => z.number({ error: `${label} must be a number` }).positive(`${label} must be positive`);
+
+/** Changes a person may ask for when re-running an analysis; absent members keep the earlier value, null clears. */
+export const reanalysisSchema = z
+  .object({
+    column: z.union([z.string().trim().min(1).max(100), z.number().int().min(1)]).nullable().optional(),
+    material: z.enum(INGEST_MATERIALS).nullable().optional(),
+    pathLengthCm: positive("pathLengthCm").max(100).nullable().optional(),
+    excitationNm: positive("excitationNm").min(100).max(3000).nullable().optional(),
+    smoothingWindow: z
+      .number()
+      .int()
+      .min(5, "smoothingWindow must be at least 5")
+      .max(301, "smoothingWindow must be at most 301")
+      .refine((n) => n % 2 === 1, "smoothingWindow must be odd")
+      .nullable()
+      .optional(),
+    smoothingPolynomial: z.number().int().min(1).max(6).nullable().optional(),
+    baseline: z.enum(["none", "offset", "scatter"]).nullable().optional(),
+    thresholds: z.object(Object.fromEntries(THRESHOLD_NAMES.map((n) => [n, positive(n).optional()]))).strict().optional(),
+    referenceSpectrumId: z.string().uuid("referenceSpectrumId must be an id (UUID)").nullable().optional(),
+  })
+  .strict();
+
+export type ReanalysisInput = z.input<typeof reanalysisSchema>;
+
+/** Applies re-analysis overrides to earlier parameters; returns new parameters without undefined members. */
+export function mergeParameters(base: AnalysisParameters, changes: z.output<typeof reanalysisSchema>): AnalysisParameters {
+  const out: Record<string, unknown> = { ...base };
+  for (const [key, value] of Object.entries(changes)) {
+    if (key === "referenceSpectrumId" || value === undefined) continue;
+    if (value === null) delete out[key];
+    else if (key === "thresholds") out.thresholds = { ...(base.thresholds ?? {}), ...(value as object) };
+    else out[key] = value;
+  }
+  return JSON.parse(canonicalJson(out)) as AnalysisParameters;
+}

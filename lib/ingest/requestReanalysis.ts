@@ -1,0 +1,90 @@
+import { AnalysisRun, Project, Spectrum, models } from "@/models";
+import type { Actor } from "@/lib/auth/actor";
+import { canReadSpectrum, canWrite } from "@/lib/auth/access";
+import { recordAudit } from "@/lib/audit";
+import { ENGINE_VERSION } from "@/lib/engine/version";
+import { enqueueRun } from "./enqueueRun";
+import { IngestError } from "./errors";
+import { mergeParameters, parameterHash, reanalysisSchema, type AnalysisParameters, type ReanalysisInput } from "./parameters";
+
+export type ReanalysisResult = { runId: string; status: AnalysisRun["status"]; created: boolean; queued: boolean };
+
+/**
+ * Asks for another analysis of a stored spectrum with changed parameters (or a changed
+ * reference, or the current engine). Earlier runs stay as they are, for provenance. When
+ * a run with the same engine version, parameters and reference exists, it is reused: a
+ * finished one is returned as is, a failed one is queued again.
+ */
+export async function requestReanalysis(spectrumId: string, changes: ReanalysisInput | unknown, actor: Actor): Promise<ReanalysisResult> {
+  const parsed = reanalysisSchema.safeParse(changes ?? {});
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    const field = issue?.path.map(String).join(".") || undefined;
+    throw new IngestError(400, "invalid", `${field ? `${field}: ` : ""}${issue?.message ?? "invalid parameters"}`, field);
+  }
+  const db = models();
+  const spectrum = await Spectrum.findByPk(spectrumId);
+  if (!spectrum || !(await canReadSpectrum(actor, spectrum))) throw new IngestError(404, "not-found", `spectrum ${spectrumId} was not found`);
+  const project = await Project.findByPk(spectrum.projectId, { attributes: ["id", "groupId"] });
+  if (!project || !canWrite(actor, project.groupId)) throw new IngestError(403, "forbidden", "you may not re-run analyses in this project");
+
+  const latest = await AnalysisRun.findOne({ where: { spectrumId }, order: [["createdAt", "DESC"]] });
+  const base: AnalysisParameters = (latest?.parameters as AnalysisParameters | undefined) ?? { technique: spectrum.technique };
+  const parameters = mergeParameters(base, parsed.data);
+  let referenceSpectrumId = latest ? latest.referenceSpectrumId : spectrum.referenceSpectrumId;
+  if (parsed.data.referenceSpectrumId !== undefined) referenceSpectrumId = parsed.data.referenceSpectrumId;
+  if (referenceSpectrumId) {
+    if (referenceSpectrumId === spectrum.id) {
+      throw new IngestError(400, "invalid", "referenceSpectrumId: a spectrum cannot be its own reference", "referenceSpectrumId");
+    }
+    const ref = await Spectrum.findByPk(referenceSpectrumId, { attributes: ["id", "projectId"] });
+    const refProject = ref ? await Project.findByPk(ref.projectId, { attributes: ["groupId"] }) : null;
+    if (!ref || refProject?.groupId !== project.groupId) {
+      throw new IngestError(400, "invalid", `referenceSpectrumId: spectrum ${referenceSpectrumId} was not found in this group`, "referenceSpectrumId");
+    }
+  }
+  const hash = parameterHash(parameters, referenceSpectrumId);
+
+  const { run, created, requeue } = await db.transaction(async (transaction) => {
+    const existing = await AnalysisRun.findOne({
+      where: { spectrumId, engineVersion: ENGINE_VERSION, parameterHash: hash },
+      lock: transaction.LOCK.UPDATE,
+      transaction,
+    });
+    if (existing) {
+      if (existing.status === "failed") {
+        await existing.update({ status: "queued", errorMessage: null, startedAt: null, finishedAt: null, durationMs: null }, { transaction });
+        await spectrum.update({ status: "queued", errorMessage: null }, { transaction });
+        return { run: existing, created: false, requeue: true };
+      }
+      return { run: existing, created: false, requeue: existing.status !== "done" };
+    }
+    const r = await AnalysisRun.create(
+      {
+        spectrumId, referenceSpectrumId, engineVersion: ENGINE_VERSION, parameterHash: hash, parameters, status: "queued",
+        errorMessage: null, noise: null, report: null, requestedBy: actor.id, startedAt: null, finishedAt: null, durationMs: null,
+      },
+      { transaction },
+    );
+    await spectrum.update({ status: "queued", errorMessage: null }, { transaction });
+    await recordAudit(
+      {
+        actorId: actor.id, actorLabel: actor.email, groupId: project.groupId, action: "analysis.request",
+        targetType: "spectrum", targetId: spectrumId, details: { runId: r.id, parameters, referenceSpectrumId },
+      },
+      transaction,
+    );
+    return { run: r, created: true, requeue: true };
+  });
+
+  let queued = false;
+  if (requeue) {
+    try {
+      await enqueueRun(spectrumId, run.id, { replaceFinished: true });
+      queued = true;
+    } catch {
+      queued = false; // the worker's sweep queues it once the queue is back
+    }
+  }
+  return { runId: run.id, status: run.status, created, queued };
+}

@@ -1,0 +1,124 @@
+import { UnrecoverableError, type Job } from "bullmq";
+import { z } from "zod";
+import { AnalysisRun, Spectrum, models } from "@/models";
+import { config } from "@/lib/config";
+import { getObjectBytes } from "@/lib/storage";
+import type { AnalysisJob } from "@/lib/queue";
+import { ENGINE_VERSION, SpectrumFileError, analyzeSpectrum, parseSpectrumFile, type AnalysisOptions, type ParsedSpectrum } from "@/lib/engine";
+import type { AnalysisParameters } from "@/lib/ingest/parameters";
+import { columnChoice } from "@/lib/ingest/parameters";
+import { saveAnalysis, saveFailure } from "./saveAnalysis";
+
+const payloadSchema = z.object({ spectrumId: z.string().uuid(), runId: z.string().uuid() }).strict();
+
+export type JobSummary = { runId: string; outcome: "done" | "already-done" | "already-failed" | "failed"; peaks?: number; flags?: number; message?: string };
+
+/** A fault of the data (or of the engine on this data): retrying cannot help. */
+class DataFault extends Error {}
+
+function engineStep<T>(fileName: string, step: () => T): T {
+  try {
+    return step();
+  } catch (error) {
+    if (error instanceof SpectrumFileError) throw new DataFault(error.message);
+    if (error instanceof RangeError || error instanceof TypeError) throw new DataFault(`${fileName}: ${error.message}`);
+    console.error(JSON.stringify({ level: "error", msg: "engine error", fileName, error: String(error) }));
+    throw new DataFault(`${fileName}: the analysis stopped on an internal error; the raw file is kept`);
+  }
+}
+
+function parseStored(spectrum: Spectrum, bytes: Uint8Array, column: string | number | undefined): ParsedSpectrum {
+  return engineStep(spectrum.fileName, () =>
+    parseSpectrumFile(spectrum.fileName, bytes, {
+      technique: spectrum.technique,
+      maxBytes: config().UPLOAD_MAX_BYTES,
+      ...(column !== undefined ? { column } : {}),
+    }),
+  );
+}
+
+/**
+ * Analyses one run: loads it by id, fetches the raw file (and the reference's), parses,
+ * analyses and saves everything in one transaction. Unreadable files fail the run with the
+ * engine's message and are not retried; service faults are thrown for a retry with backoff.
+ */
+export async function processAnalysis(job: Job<AnalysisJob>): Promise<JobSummary> {
+  const payload = payloadSchema.safeParse(job.data);
+  if (!payload.success) throw new UnrecoverableError(`job ${job.id}: payload is not {spectrumId, runId}`);
+  const { spectrumId, runId } = payload.data;
+  models();
+  const run = await AnalysisRun.findByPk(runId);
+  if (!run || run.spectrumId !== spectrumId) throw new UnrecoverableError(`job ${job.id}: run ${runId} of spectrum ${spectrumId} does not exist`);
+  if (run.status === "done") return { runId, outcome: "already-done" };
+  if (run.status === "failed") return { runId, outcome: "already-failed" };
+  const spectrum = await Spectrum.findByPk(spectrumId);
+  if (!spectrum) throw new UnrecoverableError(`job ${job.id}: spectrum ${spectrumId} does not exist`);
+
+  const startedAt = new Date();
+  const t0 = performance.now();
+  try {
+    await AnalysisRun.update({ status: "running", startedAt }, { where: { id: runId, status: ["queued", "running"] } });
+    await Spectrum.update({ status: "analysing" }, { where: { id: spectrumId, status: ["received", "queued", "analysing"] } });
+    await job.updateProgress({ stage: "fetching" });
+    const parameters = (run.parameters ?? { technique: spectrum.technique }) as AnalysisParameters;
+    const bytes = await getObjectBytes(spectrum.objectKey);
+    let reference: Spectrum | null = null;
+    let referenceBytes: Uint8Array | null = null;
+    if (run.referenceSpectrumId) {
+      reference = await Spectrum.findByPk(run.referenceSpectrumId);
+      if (!reference) throw new DataFault(`${spectrum.fileName}: its reference spectrum was deleted`);
+      referenceBytes = await getObjectBytes(reference.objectKey);
+    }
+
+    await job.updateProgress({ stage: "parsing" });
+    const parsed = parseStored(spectrum, bytes, parameters.column);
+    let parsedReference: ParsedSpectrum | undefined;
+    if (reference && referenceBytes) {
+      try {
+        parsedReference = parseStored(reference, referenceBytes, columnChoice(reference.columnChoice ?? undefined));
+      } catch (error) {
+        if (error instanceof DataFault) throw new DataFault(`reference spectrum ${error.message}`);
+        throw error;
+      }
+    }
+
+    await job.updateProgress({ stage: "analysing" });
+    const options: AnalysisOptions & { reference?: ParsedSpectrum } = { technique: parameters.technique };
+    if (parsedReference) options.reference = parsedReference;
+    if (parameters.material) options.material = parameters.material;
+    const pathLengthCm = parameters.pathLengthCm ?? parsed.pathLengthCm;
+    if (pathLengthCm !== undefined) options.pathLengthCm = pathLengthCm;
+    const excitationNm = parameters.excitationNm ?? parsed.excitationNm;
+    if (excitationNm !== undefined) options.excitationNm = excitationNm;
+    if (parameters.smoothingWindow !== undefined) options.smoothingWindow = parameters.smoothingWindow;
+    if (parameters.smoothingPolynomial !== undefined) options.smoothingPolynomial = parameters.smoothingPolynomial;
+    if (parameters.baseline !== undefined) options.baseline = parameters.baseline;
+    if (parameters.thresholds !== undefined) options.thresholds = parameters.thresholds;
+    const report = engineStep(spectrum.fileName, () => analyzeSpectrum(parsed, options));
+
+    await job.updateProgress({ stage: "saving" });
+    const wrote = await saveAnalysis({
+      runId,
+      report,
+      startedAt,
+      durationMs: performance.now() - t0,
+      engineVersion: ENGINE_VERSION,
+      axisUnit: parsed.xUnit,
+      valueUnit: parsed.yUnit,
+    });
+    return { runId, outcome: wrote ? "done" : "already-done", peaks: report.peaks.length, flags: report.flags.length };
+  } catch (error) {
+    if (error instanceof DataFault) {
+      await saveFailure(runId, error.message, performance.now() - t0);
+      return { runId, outcome: "failed", message: error.message };
+    }
+    const attempts = job.opts.attempts ?? 1;
+    if (job.attemptsMade + 1 >= attempts) {
+      await saveFailure(
+        runId,
+        `${spectrum.fileName}: the analysis could not finish after ${attempts} attempts (storage or database unreachable); the raw file is kept, re-run the analysis later`,
+      ).catch(() => {});
+    }
+    throw error;
+  }
+}
