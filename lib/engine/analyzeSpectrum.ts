@@ -2,8 +2,11 @@ import { ENGINE_VERSION } from './version';
 import { HC_EV_NM } from './constants';
 import { processSpectrum, spectrumToEnergy, type ProcessedSpectrum } from './processSpectrum';
 import { chooseSmoothingWindow } from './signal/chooseSmoothingWindow';
-import { estimateNoise } from './signal/estimateNoise';
+import { resampleUniform } from './axis/resampleUniform';
+import { estimateCorrelatedNoise } from './signal/estimateCorrelatedNoise';
+import { SYSTEMATIC_RELATIVE } from './compare/compareSpectra';
 import { compareSpectra } from './compare/compareSpectra';
+import { processReference, referenceToEnergy } from './referenceCache';
 import { deriveQuantities } from './derived/deriveQuantities';
 import type { ExcitonicPeak } from './peaks/findExcitonicPeaks';
 import type {
@@ -66,7 +69,7 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
   const pathLengthCm = options.pathLengthCm ?? sample.pathLengthCm ?? null;
   const se = spectrumToEnergy(sample, technique);
   warnings.push(...se.warnings);
-  const re = ref ? spectrumToEnergy(ref, technique) : null;
+  const re = ref ? referenceToEnergy(ref, technique) : null;
   if (re) warnings.push(...re.warnings);
 
   // common grid
@@ -78,7 +81,8 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
     if (!(to > from)) throw new RangeError('sample and reference do not overlap in energy');
   }
   let inRange = 0;
-  for (let i = 0; i < se.energy.length; i++) if (se.energy[i]! >= from && se.energy[i]! <= to) inRange++;
+  const sEnergy = se.energy;
+  for (let i = 0; i < sEnergy.length; i++) if (sEnergy[i]! >= from && sEnergy[i]! <= to) inRange++;
   const n = options.gridPoints ?? Math.max(64, inRange);
   if (!Number.isInteger(n) || n < 16) throw new RangeError('gridPoints must be an integer of at least 16');
   if (inRange < 16) throw new RangeError('fewer than 16 sample points lie in the range shared with the reference');
@@ -89,9 +93,14 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
   let derivativeWindowSize = options.derivativeWindow;
   const polynomial = options.smoothingPolynomial ?? 2;
   let max = 0;
-  for (let i = 0; i < se.signal.length; i++) max = Math.max(max, Math.abs(se.signal[i]!));
-  const snr = max / Math.max(estimateNoise(se.signal), 1e-300);
+  const sSignal = se.signal;
+  for (let i = 0; i < sSignal.length; i++) max = Math.max(max, Math.abs(sSignal[i]!));
   const ir = technique === 'ir';
+  const baseWindow = chooseSmoothingWindow(n, stepEv, { targetSpanEv: ir ? 0.003 : 0.025 });
+  // noise of the sample on the analysis grid (estimated once; processSpectrum reuses it)
+  const gridded = resampleUniform(se.energy, se.signal, from, to, n);
+  const sampleNoise = estimateCorrelatedNoise(gridded.y, { maxBlockLength: baseWindow });
+  const snr = max / Math.max(sampleNoise.sigma, 1e-300);
   windowSize ??= chooseSmoothingWindow(n, stepEv, { targetSpanEv: ir ? 0.003 : 0.025, signalToNoise: snr });
   derivativeWindowSize ??= Math.max(windowSize, chooseSmoothingWindow(n, stepEv, { targetSpanEv: ir ? 0.008 : 0.08, signalToNoise: snr }));
   for (const [name, w] of [['smoothingWindow', windowSize], ['derivativeWindow', derivativeWindowSize]] as const) {
@@ -122,8 +131,10 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
     excitationExclusionNm: options.excitationExclusionNm ?? 10,
   };
   const grid = { from, to, n };
-  let s: ProcessedSpectrum = processSpectrum(se.energy, se.signal, grid, { ...procOpts, scale: factor });
-  const r: ProcessedSpectrum | null = re ? processSpectrum(re.energy, re.signal, grid, procOpts) : null;
+  const sampleGrid = { ...gridded, noise: sampleNoise, noiseMaxBlockLength: baseWindow };
+  let s: ProcessedSpectrum = processSpectrum(se.energy, se.signal, grid, { ...procOpts, scale: factor, gridded: sampleGrid });
+  // the reference's processing is memoised per reference object (many samples, one parent)
+  const r: ProcessedSpectrum | null = ref ? processReference(ref, technique, grid, procOpts) : null;
   if (normalization.mode === 'wavelength') {
     if (!r) throw new RangeError('normalisation at a wavelength needs a reference');
     const e = HC_EV_NM / normalization.wavelengthNm;
@@ -131,7 +142,7 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
     const k = Math.round((e - from) / stepEv);
     if (!(Math.abs(s.smoothed[k]!) > 0)) throw new RangeError('sample signal is zero at the normalisation wavelength');
     factor = r.smoothed[k]! / s.smoothed[k]!;
-    s = processSpectrum(se.energy, se.signal, grid, { ...procOpts, scale: factor });
+    s = processSpectrum(se.energy, se.signal, grid, { ...procOpts, scale: factor, gridded: sampleGrid });
   }
   warnings.push(...s.warnings.map((w) => `${sample.fileName}: ${w}`));
   if (r && ref) warnings.push(...r.warnings.map((w) => `${ref.fileName}: ${w}`));
@@ -168,8 +179,10 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
       material: options.material ?? null,
     },
     noise: {
-      method: 'MAD of second differences × 1.4826 / √6',
+      method: 'white-noise-equivalent σ: 1.4826 × median |fourth differences| of B-point block means × √B / √70, B doubled while σ rises > 25 % (B ≤ smoothing window)',
       sigma: s.sigma,
+      blockLength: s.noiseBlockLength,
+      systematicRelative: SYSTEMATIC_RELATIVE,
       sigmaSmoothed: s.sigmaSmoothed,
       referenceSigma: r ? r.sigma : null,
     },

@@ -1,10 +1,9 @@
 import { HC_EV_NM } from './constants';
 import { toEnergyAxis } from './axis/toEnergyAxis';
 import { resampleUniform } from './axis/resampleUniform';
-import { savitzkyGolayFilter } from './signal/savitzkyGolayFilter';
-import { savitzkyGolayWeights } from './signal/savitzkyGolayWeights';
-import { filterNoiseGain } from './signal/filterNoiseGain';
-import { estimateNoise } from './signal/estimateNoise';
+import { savitzkyGolayFilter, savitzkyGolayQuadraticBank } from './signal/savitzkyGolayFilter';
+import { savitzkyGolayNoiseGain } from './signal/savitzkyGolayWeights';
+import { estimateCorrelatedNoise, type CorrelatedNoiseEstimate } from './signal/estimateCorrelatedNoise';
 import { fitBaseline } from './signal/fitBaseline';
 import { findExcitonicPeaks, type ExcitonicPeak } from './peaks/findExcitonicPeaks';
 import type { ParsedSpectrum, Technique } from './types';
@@ -15,9 +14,14 @@ export interface ProcessedSpectrum {
   /** Signal on the grid (Jacobian applied for PL, %T turned into absorbance), baseline removed. */
   raw: Float64Array;
   smoothed: Float64Array;
+  /** Smoothed with the derivative window (used for difference spectra). */
+  smoothedWide: Float64Array;
   firstDerivative: Float64Array;
   secondDerivative: Float64Array;
+  /** White-noise-equivalent noise σ per point (estimateCorrelatedNoise). */
   sigma: number;
+  /** Block length (points) at which σ was estimated. */
+  noiseBlockLength: number;
   sigmaSmoothed: number;
   sigmaSecondDerivative: number;
   sigmaFirstDerivative: number;
@@ -65,6 +69,18 @@ export interface ProcessOptions {
   excitationNm?: number | undefined;
   excitationExclusionNm: number;
   scale?: number;
+  /**
+   * The same signal already on this grid (unscaled) and, optionally, its noise estimate with
+   * blocks up to `noiseMaxBlockLength` points: reused instead of resampling and re-estimating.
+   */
+  gridded?: { x: Float64Array; y: Float64Array; step: number; noise?: CorrelatedNoiseEstimate; noiseMaxBlockLength?: number };
+}
+
+/** Largest power of two ≤ w: block lengths tried by estimateCorrelatedNoise with maxBlockLength w. */
+function blockCap(w: number): number {
+  let b = 1;
+  while (b * 2 <= w) b *= 2;
+  return b;
 }
 
 /**
@@ -78,26 +94,42 @@ export function processSpectrum(
   o: ProcessOptions,
 ): ProcessedSpectrum {
   const warnings: string[] = [];
-  const g = resampleUniform(energy, signal, grid.from, grid.to, grid.n);
+  const pre = o.gridded;
+  const g = pre ? { x: pre.x, y: pre.y.slice(), step: pre.step } : resampleUniform(energy, signal, grid.from, grid.to, grid.n);
   const raw = g.y;
-  if (o.scale !== undefined && o.scale !== 1) for (let i = 0; i < raw.length; i++) raw[i] = raw[i]! * o.scale;
+  const scale = o.scale ?? 1;
+  if (scale !== 1) for (let i = 0; i < raw.length; i++) raw[i] = raw[i]! * scale;
   const step = g.step;
   const exclude: Array<[number, number]> = [];
   if (o.technique === 'pl' && o.excitationNm) {
     const eCut = HC_EV_NM / (o.excitationNm + o.excitationExclusionNm);
     exclude.push([eCut, Infinity]);
   }
-  const sigma = estimateNoise(raw);
   const w = o.windowSize;
+  // white-noise-equivalent σ, blocks up to the smoothing window (instrument-smoothed noise included)
+  // (σ of scale·y is |scale|·σ of y: the MAD is scale-equivariant)
+  const reuse = pre?.noise && pre.noiseMaxBlockLength !== undefined && blockCap(pre.noiseMaxBlockLength) === blockCap(w);
+  const noise = reuse ? pre.noise! : estimateCorrelatedNoise(raw, { maxBlockLength: w });
+  const sigma = reuse ? noise.sigma * Math.abs(scale) : noise.sigma;
   const p = o.polynomial;
   const pd = Math.max(p, 2);
   let smoothed = savitzkyGolayFilter(raw, step, { windowSize: w, polynomial: p, derivative: 0 });
   const wd = o.derivativeWindowSize;
-  const firstDerivative = savitzkyGolayFilter(raw, step, { windowSize: wd, polynomial: pd, derivative: 1 });
-  const secondDerivative = savitzkyGolayFilter(raw, step, { windowSize: wd, polynomial: pd, derivative: 2 });
-  const sigmaSmoothed = sigma * filterNoiseGain(savitzkyGolayWeights(w, p, 0));
-  const sigmaFirstDerivative = (sigma * filterNoiseGain(savitzkyGolayWeights(wd, pd, 1))) / step;
-  const sigmaSecondDerivative = (sigma * filterNoiseGain(savitzkyGolayWeights(wd, pd, 2))) / (step * step);
+  // the wide window gives the derivatives and the smoothing used for difference spectra; one pass
+  const wide =
+    pd === 2 || pd === 3
+      ? savitzkyGolayQuadraticBank(raw, step, wd, pd)
+      : {
+          smoothed: savitzkyGolayFilter(raw, step, { windowSize: wd, polynomial: p, derivative: 0 }),
+          firstDerivative: savitzkyGolayFilter(raw, step, { windowSize: wd, polynomial: pd, derivative: 1 }),
+          secondDerivative: savitzkyGolayFilter(raw, step, { windowSize: wd, polynomial: pd, derivative: 2 }),
+        };
+  if (pd !== p) wide.smoothed = savitzkyGolayFilter(raw, step, { windowSize: wd, polynomial: p, derivative: 0 });
+  let smoothedWide = wide.smoothed;
+  const { firstDerivative, secondDerivative } = wide;
+  const sigmaSmoothed = sigma * savitzkyGolayNoiseGain(w, p, 0);
+  const sigmaFirstDerivative = (sigma * savitzkyGolayNoiseGain(wd, pd, 1)) / step;
+  const sigmaSecondDerivative = (sigma * savitzkyGolayNoiseGain(wd, pd, 2)) / (step * step);
   const guard = (Math.max(w, wd) - 1) / 2;
   const peakOpts = { sigmaSmoothed, sigmaSecondDerivative, minSignificance: o.minSignificance, edgeGuard: guard, exclude };
   let peaks = findExcitonicPeaks(g.x, smoothed, secondDerivative, peakOpts);
@@ -109,9 +141,20 @@ export function processSpectrum(
       const base = fitBaseline(g.x, smoothed, below, o.baseline);
       if (base) {
         for (let i = 0; i < raw.length; i++) raw[i] = raw[i]! - base[i]!;
-        smoothed = savitzkyGolayFilter(raw, step, { windowSize: w, polynomial: p, derivative: 0 });
         baselineApplied = true;
-        peaks = findExcitonicPeaks(g.x, smoothed, secondDerivative, peakOpts);
+        if (o.baseline === 'offset') {
+          // Savitzky–Golay filters reproduce constants exactly (interior and polynomial edges), so
+          // smoothing (raw − c) is smoothing − c; maxima, prominences, widths and shoulders do not
+          // move, only heights (the second derivative is not recomputed, as for 'scatter').
+          const c = base[0]!;
+          for (let i = 0; i < smoothed.length; i++) smoothed[i] = smoothed[i]! - c;
+          for (let i = 0; i < smoothedWide.length; i++) smoothedWide[i] = smoothedWide[i]! - c;
+          peaks = peaks.map((q) => ({ ...q, height: smoothed[q.index]! }));
+        } else {
+          smoothed = savitzkyGolayFilter(raw, step, { windowSize: w, polynomial: p, derivative: 0 });
+          smoothedWide = savitzkyGolayFilter(raw, step, { windowSize: wd, polynomial: p, derivative: 0 });
+          peaks = findExcitonicPeaks(g.x, smoothed, secondDerivative, peakOpts);
+        }
         first = pickFirstExciton(peaks, smoothed, o.technique);
       } else {
         warnings.push(`baseline (${o.baseline}) not applied: fewer than 8 points in the transparent region below ${below.toFixed(3)} eV`);
@@ -125,9 +168,11 @@ export function processSpectrum(
     step,
     raw,
     smoothed,
+    smoothedWide,
     firstDerivative,
     secondDerivative,
     sigma,
+    noiseBlockLength: noise.blockLength,
     sigmaSmoothed,
     sigmaFirstDerivative,
     sigmaSecondDerivative,

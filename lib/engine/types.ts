@@ -168,7 +168,12 @@ export interface AnalysisReport {
   };
   noise: {
     method: string;
+    /** White-noise-equivalent noise σ per point of the gridded sample. */
     sigma: number;
+    /** Block length (grid points) at which σ was taken (1 for white noise). */
+    blockLength: number;
+    /** Relative systematic standard uncertainty added to fractional quantities and new-band heights (0.005). */
+    systematicRelative: number;
     sigmaSmoothed: number;
     referenceSigma: number | null;
   };

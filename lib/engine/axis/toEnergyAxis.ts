@@ -19,15 +19,31 @@ export function toEnergyAxis(
   const n = x.length;
   const e = new Float64Array(n);
   const s = new Float64Array(n);
+  // constants and the unit switch hoisted out of the per-point loop
+  const hc = HC_EV_NM;
+  const cm1 = CM1_PER_EV;
+  const emission = options.emission === true;
   for (let i = 0; i < n; i++) {
-    e[i] = xToEv(x[i]!, unit);
-    let v = y[i]!;
-    if (options.emission) {
-      if (unit === 'nm') v *= (x[i]! * x[i]!) / HC_EV_NM;
-      else if (unit === 'um') v *= (x[i]! * x[i]! * 1000) / HC_EV_NM;
-      else if (unit === 'cm-1') v *= CM1_PER_EV;
+    const xi = x[i]!;
+    const v = y[i]!;
+    switch (unit) {
+      case 'nm':
+        e[i] = hc / xi;
+        s[i] = emission ? (v * xi * xi) / hc : v;
+        break;
+      case 'um':
+        e[i] = hc / (xi * 1000);
+        s[i] = emission ? (v * xi * xi * 1000) / hc : v;
+        break;
+      case 'cm-1':
+        e[i] = xi / cm1;
+        s[i] = emission ? v * cm1 : v;
+        break;
+      case 'eV':
+        e[i] = xToEv(xi, unit);
+        s[i] = v;
+        break;
     }
-    s[i] = v;
   }
   if (n > 1 && e[0]! > e[n - 1]!) {
     e.reverse();

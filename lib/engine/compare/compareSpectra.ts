@@ -1,15 +1,22 @@
 import { CM1_PER_EV, FWHM_PER_SIGMA, HC_EV_NM } from '../constants';
-import { savitzkyGolayFilter } from '../signal/savitzkyGolayFilter';
-import { savitzkyGolayWeights } from '../signal/savitzkyGolayWeights';
-import { filterNoiseGain } from '../signal/filterNoiseGain';
+import { savitzkyGolayNoiseGain } from '../signal/savitzkyGolayWeights';
 import type { ProcessedSpectrum } from '../processSpectrum';
 import type { AnalysisThresholds, FlagReport, Technique } from '../types';
 import { findLocalMaxima } from '../peaks/findLocalMaxima';
+import { peakProminences } from '../peaks/peakProminences';
 import { fitShiftBroadening } from './fitShiftBroadening';
 import { innerFilterFactor } from '../derived/innerFilterFactor';
 
 /** Mid-IR upper edge used to call a new band intraband: 4000 cm⁻¹ ≈ 0.496 eV (common practice). */
 export const MID_IR_MAX_EV = 0.496;
+
+/**
+ * Relative systematic standard uncertainty of a measured signal (photometric accuracy, baseline,
+ * cuvette and concentration repeatability): 0.5 % (common practice). Added in quadrature to the
+ * noise part of fractional quantities (bleach, PL quench) and of new-band heights, so that very
+ * clean instrument files cannot make a tiny change hundreds of "σ" significant.
+ */
+export const SYSTEMATIC_RELATIVE = 0.005;
 
 export interface CompareOptions {
   technique: Technique;
@@ -44,9 +51,7 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
   const warnings: string[] = [];
   const n = s.energy.length;
   const E = s.energy;
-  const gain0 = s.sigma > 0 ? s.sigmaSmoothed / s.sigma : 1;
   const sigmaDiffRaw = Math.sqrt(s.sigma ** 2 + r.sigma ** 2);
-  const sigmaDiffSmoothed = sigmaDiffRaw * gain0;
   const fx = r.firstExciton;
   const guard = (s.windowSize - 1) / 2;
 
@@ -110,7 +115,8 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
     const As = interpAt(E, s.smoothed, fx.energyEv);
     if (Ar > 0) {
       const fraction = (Ar - As) / Ar;
-      const sigma = Math.sqrt((s.sigmaSmoothed / Ar) ** 2 + ((As * r.sigmaSmoothed) / (Ar * Ar)) ** 2);
+      // noise part, plus 0.5 % systematic on each of A_s and A_r (SYSTEMATIC_RELATIVE)
+      const sigma = Math.sqrt((s.sigmaSmoothed / Ar) ** 2 + ((As * r.sigmaSmoothed) / (Ar * Ar)) ** 2 + 2 * (SYSTEMATIC_RELATIVE * (As / Ar)) ** 2);
       // part of the drop not explained by a shift, broadening or offset
       let unexplained = fraction;
       if (fit) {
@@ -140,47 +146,71 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
     }
   }
 
-  // ---- new bands: significant positive features of the difference, smoothed with the wider
-  // derivative window, that neither the unshifted reference, the reference shifted by the fitted
-  // δ, nor (inside the fitted window) the shift/broadening model explains.
+  // ---- new bands: contiguous positive features of the difference (smoothed with the wider
+  // derivative window) that neither the unshifted reference, the reference shifted by the fitted
+  // δ, nor (inside the fitted window) the shift/broadening model explains. Noise wiggles on top of
+  // one broad band are local maxima too: a maximum is a band of its own only when its prominence
+  // (scipy.signal.peak_prominences definition) in that unexplained difference passes both the
+  // significance and the magnitude threshold, so one broad band gives one flag, at its top.
   const wd = s.derivativeWindowSize;
-  const sDer = wd === s.windowSize ? s.smoothed : savitzkyGolayFilter(s.raw, s.step, { windowSize: wd, polynomial: s.polynomial });
-  const rDer = wd === r.windowSize ? r.smoothed : savitzkyGolayFilter(r.raw, r.step, { windowSize: wd, polynomial: r.polynomial });
-  const gainD = filterNoiseGain(savitzkyGolayWeights(wd, s.polynomial, 0));
+  const sDer = s.smoothedWide;
+  const rDer = r.smoothedWide;
+  const gainD = savitzkyGolayNoiseGain(wd, s.polynomial, 0);
   const sigmaD = sigmaDiffRaw * gainD;
-  const D = new Float64Array(n);
-  for (let i = 0; i < n; i++) D[i] = sDer[i]! - rDer[i]!;
   let scale = fx ? Math.abs(interpAt(E, r.smoothed, fx.energyEv)) : 0;
   if (!(scale > 0)) for (let i = 0; i < n; i++) scale = Math.max(scale, Math.abs(r.smoothed[i]!));
   const excluded = (e: number) => s.exclude.some(([lo, hi]) => e >= lo && e <= hi);
-  const candidates: FlagReport[] = [];
-  const maxima = findLocalMaxima(D);
-  for (const i of maxima) {
-    if (i < guard || i >= n - guard || excluded(E[i]!)) continue;
-    let value = D[i]!;
+  const lo = Math.min(Math.max(guard, 0), n);
+  const hi = Math.max(lo, n - guard);
+  // unexplained difference on [lo, hi)
+  const excess = new Float64Array(hi - lo);
+  for (let i = lo; i < hi; i++) {
+    let value = sDer[i]! - rDer[i]!;
     if (fit) {
       value = Math.min(value, sDer[i]! - interpAt(E, rDer, E[i]! - fit.shiftEv));
       if (fitRange && E[i]! >= fitRange[0] && E[i]! <= fitRange[1]) value = Math.min(value, s.smoothed[i]! - fit.model[i - fit.from]!);
     }
-    const sig = sigmaD > 0 ? value / sigmaD : 0;
+    excess[i - lo] = value;
+  }
+  const uncertaintyAt = (i: number) => Math.sqrt(sigmaD ** 2 + SYSTEMATIC_RELATIVE ** 2 * (sDer[i]! ** 2 + rDer[i]! ** 2));
+  const candidates: FlagReport[] = [];
+  const maxima = findLocalMaxima(excess);
+  // prominences only when some maximum passes the height thresholds (none in most noise-only pairs)
+  let any = false;
+  for (let k = 0; k < maxima.length && !any; k++) {
+    const i = maxima[k]! + lo;
+    const u = uncertaintyAt(i);
+    any = excess[maxima[k]!]! >= t.minSignificance * u && excess[maxima[k]!]! / scale >= t.minNewBandFraction;
+  }
+  const { prominences, leftBases, rightBases } = any ? peakProminences(excess, maxima) : { prominences: new Float64Array(0), leftBases: new Int32Array(0), rightBases: new Int32Array(0) };
+  for (let k = 0; any && k < maxima.length; k++) {
+    const j = maxima[k]!;
+    const i = j + lo;
+    if (excluded(E[i]!)) continue;
+    const value = excess[j]!;
+    const u = uncertaintyAt(i);
+    const sig = u > 0 ? value / u : 0;
     const frac = value / scale;
-    if (sig >= t.minSignificance && frac >= t.minNewBandFraction) {
-      const intraband = E[i]! <= MID_IR_MAX_EV;
-      candidates.push({
-        kind: 'new-band',
-        energyEv: E[i]!,
-        wavelengthNm: HC_EV_NM / E[i]!,
-        fraction: frac,
-        shiftMeV: null,
-        fwhmChangeMeV: null,
-        magnitude: value,
-        unit: 'signal',
-        uncertainty: sigmaD,
-        significance: sig,
-        intraband,
-        message: `new band at ${E[i]!.toFixed(3)} eV (${(HC_EV_NM / E[i]!).toFixed(0)} nm, ${(E[i]! * CM1_PER_EV).toFixed(0)} cm⁻¹)${intraband ? ', in the mid-IR: intraband' : ''}`,
-      });
-    }
+    if (!(sig >= t.minSignificance && frac >= t.minNewBandFraction)) continue;
+    // a band of its own: the dip separating it from any higher neighbour is itself significant
+    const prom = prominences[k]!;
+    if (!(prom >= t.minSignificance * u && prom / scale >= t.minNewBandFraction)) continue;
+    const e = bandTop(E, excess, lo, j, leftBases[k]!, rightBases[k]!);
+    const intraband = e <= MID_IR_MAX_EV;
+    candidates.push({
+      kind: 'new-band',
+      energyEv: e,
+      wavelengthNm: HC_EV_NM / e,
+      fraction: frac,
+      shiftMeV: null,
+      fwhmChangeMeV: null,
+      magnitude: value,
+      unit: 'signal',
+      uncertainty: u,
+      significance: sig,
+      intraband,
+      message: `new band at ${e.toFixed(3)} eV (${(HC_EV_NM / e).toFixed(0)} nm, ${(e * CM1_PER_EV).toFixed(0)} cm⁻¹)${intraband ? ', in the mid-IR: intraband' : ''}`,
+    });
   }
   // one flag per band: the strongest candidate within ± one derivative window
   candidates.sort((a, b) => b.magnitude - a.magnitude);
@@ -222,7 +252,7 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
       const fraction = 1 - ratio;
       const sFs = s.sigma * s.step * Math.sqrt(count);
       const sFr = r.sigma * s.step * Math.sqrt(count);
-      const sigma = Math.abs(ratio) * Math.sqrt((sFs / Math.max(Math.abs(Fs), 1e-300)) ** 2 + (sFr / Fr) ** 2);
+      const sigma = Math.abs(ratio) * Math.sqrt((sFs / Math.max(Math.abs(Fs), 1e-300)) ** 2 + (sFr / Fr) ** 2 + 2 * SYSTEMATIC_RELATIVE ** 2);
       const sig = sigma > 0 ? fraction / sigma : 0;
       if (fraction >= t.minQuenchFraction && sig >= t.minSignificance) {
         flags.push({
@@ -247,4 +277,45 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
   }
   void FWHM_PER_SIGMA;
   return { flags, warnings };
+}
+
+/**
+ * Energy of a difference band's top: vertex of a least-squares parabola through the points of
+ * its peak (between its prominence bases) that lie above 80 % of the way from the higher base
+ * to the top, so that noise wiggles on a broad top do not pick the position; the highest sample
+ * when fewer than 5 such points exist or the fit is not a maximum inside them.
+ */
+function bandTop(E: Float64Array, y: Float64Array, offset: number, peak: number, left: number, right: number): number {
+  const top = y[peak]!;
+  const cut = Math.max(y[left]!, y[right]!) + 0.8 * (top - Math.max(y[left]!, y[right]!));
+  let a = peak;
+  while (a > left && y[a - 1]! >= cut) a--;
+  let b = peak;
+  while (b < right && y[b + 1]! >= cut) b++;
+  const m = b - a + 1;
+  if (m < 5) return E[peak + offset]!;
+  // fit y = c0 + c1 u + c2 u² with u = index − peak
+  let s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, t0 = 0, t1 = 0, t2 = 0;
+  for (let j = a; j <= b; j++) {
+    const u = j - peak;
+    const u2 = u * u;
+    s0 += 1;
+    s1 += u;
+    s2 += u2;
+    s3 += u2 * u;
+    s4 += u2 * u2;
+    t0 += y[j]!;
+    t1 += u * y[j]!;
+    t2 += u2 * y[j]!;
+  }
+  // Cramer's rule on the 3×3 normal equations
+  const det = s0 * (s2 * s4 - s3 * s3) - s1 * (s1 * s4 - s3 * s2) + s2 * (s1 * s3 - s2 * s2);
+  if (det === 0) return E[peak + offset]!;
+  const c1 = (s0 * (t1 * s4 - s3 * t2) - t0 * (s1 * s4 - s3 * s2) + s2 * (s1 * t2 - t1 * s2)) / det;
+  const c2 = (s0 * (s2 * t2 - t1 * s3) - s1 * (s1 * t2 - t1 * s2) + t0 * (s1 * s3 - s2 * s2)) / det;
+  if (!(c2 < 0)) return E[peak + offset]!;
+  const v = -c1 / (2 * c2);
+  if (!(v >= a - peak && v <= b - peak)) return E[peak + offset]!;
+  const step = (E[E.length - 1]! - E[0]!) / (E.length - 1);
+  return E[peak + offset]! + v * step;
 }

@@ -39,6 +39,8 @@ export function fitShiftBroadening(
   const R2 = new Float64Array(m);
   let coef: Float64Array = new Float64Array(5);
   let cov: Float64Array = new Float64Array(25);
+  const ata = new Float64Array(16);
+  const atb = new Float64Array(4);
   for (let iter = 0; iter < 8; iter++) {
     // reference shifted by delta, by linear interpolation on the grid
     for (let k = 0; k < m; k++) {
@@ -49,22 +51,33 @@ export function fitShiftBroadening(
       R1[k] = refD1[j]! + f * (refD1[j + 1]! - refD1[j]!);
       R2[k] = refD2[j]! + f * (refD2[j + 1]! - refD2[j]!);
     }
-    // regress S − R on [R, R', R'', 1]
+    // regress S − R on [R, R', R'', 1]: normal equations (symmetric; upper triangle accumulated)
     const p = 4;
-    const ata = new Float64Array(p * p);
-    const atb = new Float64Array(p);
-    const row = new Float64Array(p);
+    ata.fill(0);
+    atb.fill(0);
+    let a00 = 0, a01 = 0, a02 = 0, a03 = 0, a11 = 0, a12 = 0, a13 = 0, a22 = 0, a23 = 0;
+    let b0 = 0, b1 = 0, b2 = 0, b3 = 0;
     for (let k = 0; k < m; k++) {
-      row[0] = R[k]!;
-      row[1] = R1[k]!;
-      row[2] = R2[k]!;
-      row[3] = 1;
-      const d = sample[from + k]! - R[k]!;
-      for (let a = 0; a < p; a++) {
-        atb[a] = atb[a]! + row[a]! * d;
-        for (let b = 0; b < p; b++) ata[a * p + b] = ata[a * p + b]! + row[a]! * row[b]!;
-      }
+      const r0 = R[k]!;
+      const r1 = R1[k]!;
+      const r2 = R2[k]!;
+      const d = sample[from + k]! - r0;
+      a00 += r0 * r0;
+      a01 += r0 * r1;
+      a02 += r0 * r2;
+      a03 += r0;
+      a11 += r1 * r1;
+      a12 += r1 * r2;
+      a13 += r1;
+      a22 += r2 * r2;
+      a23 += r2;
+      b0 += r0 * d;
+      b1 += r1 * d;
+      b2 += r2 * d;
+      b3 += d;
     }
+    ata.set([a00, a01, a02, a03, a01, a11, a12, a13, a02, a12, a22, a23, a03, a13, a23, m]);
+    atb.set([b0, b1, b2, b3]);
     const inv = invert(ata, p);
     if (!inv) return null;
     coef = new Float64Array(p);
@@ -97,7 +110,7 @@ export function fitShiftBroadening(
 }
 
 function invert(a: Float64Array, p: number): Float64Array | null {
-  const A = Float64Array.from(a);
+  const A = a.slice();
   const I = new Float64Array(p * p);
   for (let i = 0; i < p; i++) I[i * p + i] = 1;
   for (let c = 0; c < p; c++) {

@@ -251,14 +251,14 @@ export function parseDelimitedText(fileName: string, lines: string[], options: P
 
   // units
   const metaText = Object.entries(metadata).map(([k, v]) => `${k} ${v}`).join('\n');
-  let xUnit = options.xUnit ?? detectXUnit(names[0]!) ?? detectXUnit(metaText);
+  const xUnit = options.xUnit ?? detectXUnit(names[0]!) ?? detectXUnit(metaText);
   if (!xUnit) {
     throw new SpectrumFileError(fileName, 'X unit unknown: the header does not say nm, µm, cm-1 or eV; choose the X unit', {
       column: names[0]!,
     });
   }
   const nameHint = detectTechniqueFromName(fileName);
-  let yUnit =
+  const yUnit =
     options.yUnit ??
     detectYUnit(columnName) ??
     (header ? detectYUnit(header.join(' ')) : undefined) ??

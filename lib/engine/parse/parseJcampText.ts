@@ -64,9 +64,9 @@ export function parseJcampText(fileName: string, text: string, options: ParseOpt
   }
   const xText = String(spectrum.xUnits ?? info.XUNITS ?? '');
   const yText = String(spectrum.yUnits ?? info.YUNITS ?? '');
-  let xUnit = options.xUnit ?? jcampXUnit(xText) ?? detectXUnit(xText);
+  const xUnit = options.xUnit ?? jcampXUnit(xText) ?? detectXUnit(xText);
   if (!xUnit) throw new SpectrumFileError(fileName, `X unit "${xText}" not understood; choose the X unit`, { column: 'XUNITS' });
-  let yUnit = options.yUnit ?? jcampYUnit(yText) ?? detectYUnit(yText);
+  const yUnit = options.yUnit ?? jcampYUnit(yText) ?? detectYUnit(yText);
   if (!yUnit) throw new SpectrumFileError(fileName, `Y unit "${yText}" not understood; choose the Y unit`, { column: 'YUNITS' });
   const x = Float64Array.from(data.x as ArrayLike<number>);
   const y = Float64Array.from(data.y as ArrayLike<number>);

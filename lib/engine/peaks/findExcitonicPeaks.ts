@@ -38,7 +38,8 @@ export function findExcitonicPeaks(
   const minSig = options.minSignificance ?? 5;
   const guard = options.edgeGuard ?? 0;
   const step = (energy[n - 1]! - energy[0]!) / (n - 1);
-  const excluded = (e: number) => (options.exclude ?? []).some(([lo, hi]) => e >= lo && e <= hi);
+  const ex = options.exclude ?? [];
+  const excluded = (e: number) => ex.length > 0 && ex.some(([lo, hi]) => e >= lo && e <= hi);
   const sigS = Math.max(options.sigmaSmoothed, Number.MIN_VALUE);
   const sigD = Math.max(options.sigmaSecondDerivative, Number.MIN_VALUE);
   const peaks: ExcitonicPeak[] = [];
@@ -52,11 +53,12 @@ export function findExcitonicPeaks(
     const significance = prominences[k]! / sigS;
     if (significance < minSig) continue;
     const fwhm = widths[k]! * step;
+    const eRefined = refine(energy, smoothed, i);
     peaks.push({
       index: i,
       kind: 'maximum',
-      energyEv: refine(energy, smoothed, i),
-      wavelengthNm: HC_EV_NM / refine(energy, smoothed, i),
+      energyEv: eRefined,
+      wavelengthNm: HC_EV_NM / eRefined,
       height: smoothed[i]!,
       amplitude: prominences[k]!,
       fwhmMeV: fwhm * 1000,
@@ -64,17 +66,26 @@ export function findExcitonicPeaks(
       significance,
     });
   }
-  // shoulders: minima of y'' with y'' < 0
+  // shoulders: minima of y'' with y'' < 0. For each point, the nearest index at or before
+  // (after) it where y'' ≥ 0 (or the end), found in one pass each way.
+  const nonNegLeft = new Int32Array(n);
+  const nonNegRight = new Int32Array(n);
+  for (let i = 0, last = 0; i < n; i++) {
+    if (secondDerivative[i]! >= 0 || i === 0) last = i;
+    nonNegLeft[i] = last;
+  }
+  for (let i = n - 1, last = n - 1; i >= 0; i--) {
+    if (secondDerivative[i]! >= 0 || i === n - 1) last = i;
+    nonNegRight[i] = last;
+  }
   for (let i = Math.max(1, guard); i < Math.min(n - 1, n - guard); i++) {
     const d = secondDerivative[i]!;
     if (!(d < 0 && d <= secondDerivative[i - 1]! && d < secondDerivative[i + 1]!)) continue;
     if (excluded(energy[i]!)) continue;
     const significance = -d / sigD;
     if (significance < minSig) continue;
-    let l = i;
-    while (l > 0 && secondDerivative[l]! < 0) l--;
-    let r = i;
-    while (r < n - 1 && secondDerivative[r]! < 0) r++;
+    const l = nonNegLeft[i]!;
+    const r = nonNegRight[i]!;
     const leftOk = secondDerivative[l]! >= 0;
     const rightOk = secondDerivative[r]! >= 0;
     const zl = leftOk ? l + secondDerivative[l]! / (secondDerivative[l]! - secondDerivative[l + 1]!) : NaN;

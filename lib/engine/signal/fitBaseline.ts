@@ -1,3 +1,5 @@
+import { median } from './estimateNoise';
+
 /**
  * Baseline for absorbance in the transparent region below the gap (energies < `belowEv`):
  * 'offset' — the median there; 'scatter' — a least-squares fit of a + b·E⁴ (Rayleigh-like
@@ -11,19 +13,22 @@ export function fitBaseline(
   mode: 'offset' | 'scatter',
 ): Float64Array | null {
   const n = energy.length;
-  const idx: number[] = [];
-  for (let i = 0; i < n; i++) if (energy[i]! < belowEv) idx.push(i);
-  if (idx.length < 8) return null;
+  // energies ascend on the grid, but do not rely on it: collect indices below the cut
+  const idx = new Int32Array(n);
+  let count = 0;
+  for (let i = 0; i < n; i++) if (energy[i]! < belowEv) idx[count++] = i;
+  if (count < 8) return null;
   const out = new Float64Array(n);
   if (mode === 'offset') {
-    const v = Float64Array.from(idx, (i) => signal[i]!).sort();
-    const m = v.length % 2 ? v[(v.length - 1) / 2]! : 0.5 * (v[v.length / 2 - 1]! + v[v.length / 2]!);
-    out.fill(m);
+    const v = new Float64Array(count);
+    for (let k = 0; k < count; k++) v[k] = signal[idx[k]!]!;
+    out.fill(median(v));
     return out;
   }
   // scatter: a + b E^4 by linear least squares
   let s1 = 0, sx = 0, sxx = 0, sy = 0, sxy = 0;
-  for (const i of idx) {
+  for (let k = 0; k < count; k++) {
+    const i = idx[k]!;
     const u = energy[i]! ** 4;
     s1 += 1;
     sx += u;

@@ -3,9 +3,40 @@
  * left to right (i.e. applied as Σ w_k·y_{i+k}, k = −half..half). Computed from the least-squares
  * projection; equal to the tabulated integers / norm of Savitzky & Golay (Anal. Chem. 1964, 36,
  * 1627) as corrected by Steinier, Termonia & Deltour (Anal. Chem. 1972, 44, 1906), times
- * derivative! for derivatives.
+ * derivative! for derivatives. The weights for uniform spacing are fixed, so they are computed
+ * once per (window, polynomial, derivative) and cached; each call returns a fresh copy.
  */
 export function savitzkyGolayWeights(windowSize: number, polynomial: number, derivative = 0): Float64Array {
+  const key = `${windowSize}/${polynomial}/${derivative}`;
+  let w = weightCache.get(key);
+  if (!w) {
+    w = computeWeights(windowSize, polynomial, derivative);
+    weightCache.set(key, w);
+  }
+  return w.slice();
+}
+
+const weightCache = new Map<string, Float64Array>();
+const gainCache = new Map<string, number>();
+
+/**
+ * Standard-deviation gain √(Σw²) of the Savitzky–Golay filter on independent noise (unit
+ * spacing; divide by stepᵈ for a derivative), cached per (window, polynomial, derivative).
+ */
+export function savitzkyGolayNoiseGain(windowSize: number, polynomial: number, derivative = 0): number {
+  const key = `${windowSize}/${polynomial}/${derivative}`;
+  let g = gainCache.get(key);
+  if (g === undefined) {
+    const w = savitzkyGolayWeights(windowSize, polynomial, derivative);
+    let s = 0;
+    for (let i = 0; i < w.length; i++) s += w[i]! * w[i]!;
+    g = Math.sqrt(s);
+    gainCache.set(key, g);
+  }
+  return g;
+}
+
+function computeWeights(windowSize: number, polynomial: number, derivative: number): Float64Array {
   if (!Number.isInteger(windowSize) || windowSize < 3 || windowSize % 2 === 0) {
     throw new RangeError('windowSize must be an odd integer of at least 3');
   }

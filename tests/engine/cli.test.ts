@@ -1,0 +1,88 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { ENGINE_VERSION } from '../../lib/engine/index';
+import { absorptionCsv } from '../../lib/demo/synthetic';
+import { realDir, repoRoot } from './scipy';
+
+// The command-line contract of docs/analysis-json.md: one JSON object on stdout; bad input exits
+// 2 with exactly one line on stderr that names the file, and no stack trace.
+function run(args: string[]) {
+  const r = spawnSync(process.execPath, ['--import', 'tsx', path.join(repoRoot, 'scripts', 'analyze.ts'), ...args], {
+    cwd: repoRoot,
+    encoding: 'utf8',
+    timeout: 60_000,
+  });
+  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+const TOP_FIELDS = ['technique', 'engineVersion', 'sample', 'reference', 'parameters', 'noise', 'peaks', 'firstExciton', 'referenceFirstExciton', 'flags', 'derived', 'warnings'];
+const FLAG_FIELDS = ['kind', 'energyEv', 'wavelengthNm', 'fraction', 'shiftMeV', 'fwhmChangeMeV', 'magnitude', 'unit', 'uncertainty', 'significance', 'message'];
+
+describe('scripts/analyze.ts', { timeout: 120_000 }, () => {
+  let dir = '';
+  beforeAll(() => {
+    dir = mkdtempSync(path.join(tmpdir(), 'bandkeep-cli-'));
+    // synthetic pair: 30 % bleach of the first exciton at 2.1 eV (lib/demo/synthetic.ts)
+    writeFileSync(path.join(dir, 'parent.csv'), absorptionCsv({ firstExcitonEv: 2.1, seed: 1 }, 'parent'));
+    writeFileSync(path.join(dir, 'charged.csv'), absorptionCsv({ firstExcitonEv: 2.1, seed: 2, bleach: 0.3 }, 'charged'));
+    writeFileSync(path.join(dir, 'bad.csv'), 'Wavelength (nm),Absorbance\nfoo,bar\n1,2\n');
+  });
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+  it('real file (CdSe growth series): one JSON object with the documented fields, exit 0, nothing on stderr', () => {
+    const r = run([path.join(realDir, 'cdse-absorbance-growth-series.csv'), '--material', 'CdSe']);
+    expect(r.code).toBe(0);
+    expect(r.stderr).toBe('');
+    const out = JSON.parse(r.stdout) as Record<string, unknown>;
+    expect(Object.keys(out).sort()).toEqual([...TOP_FIELDS].sort());
+    expect(out['engineVersion']).toBe(ENGINE_VERSION);
+    expect(out['reference']).toBeNull();
+    expect((out['sample'] as { points: number }).points).toBe(251); // PROVENANCE.md: 251 rows
+    expect(out['flags']).toEqual([]);
+    const fx = out['firstExciton'] as { wavelengthNm: number } | null;
+    expect(fx).not.toBeNull();
+    // the 30 s aliquot's first exciton lies inside the file's 350–600 nm range
+    expect(fx!.wavelengthNm).toBeGreaterThan(350);
+    expect(fx!.wavelengthNm).toBeLessThan(600);
+  });
+
+  it('synthetic pair written to a temp dir: a bleach flag with the documented fields', () => {
+    const r = run([path.join(dir, 'charged.csv'), '--reference', path.join(dir, 'parent.csv')]);
+    expect(r.code).toBe(0);
+    const out = JSON.parse(r.stdout) as { flags: Array<Record<string, unknown>>; reference: { fileName: string } };
+    expect(out.reference.fileName).toBe('parent.csv');
+    const bleach = out.flags.find((f) => f['kind'] === 'bleach');
+    expect(bleach).toBeDefined();
+    for (const k of FLAG_FIELDS) expect(bleach).toHaveProperty(k);
+    // truth from the generator's formula (lib/demo/synthetic.ts): at E₁ = 2.1 eV the parent has
+    // 0.3 (exciton) + 0.18·e^(−5.56) (second band) + 0.55/(1 + e^(0.5/0.12)) (continuum) ≈ 0.3092, and
+    // the bleach removes 0.09 of it: fraction ≈ 0.291; ±0.02 for noise and the offset baseline
+    expect(Math.abs((bleach!['fraction'] as number) - 0.291)).toBeLessThan(0.02);
+  });
+
+  for (const [name, args, mention] of [
+    ['unparsable file', ['bad.csv'], 'bad.csv'],
+    ['missing file', ['missing.csv'], 'missing.csv'],
+  ] as const) {
+    it(`bad input (${name}): exit 2, exactly one stderr line naming the file, no stack trace, empty stdout`, () => {
+      const r = run(args.map((a) => path.join(dir, a)));
+      expect(r.code).toBe(2);
+      expect(r.stdout).toBe('');
+      const lines = r.stderr.split('\n').filter((l) => l.length > 0);
+      expect(lines).toHaveLength(1);
+      expect(lines[0]).toMatch(/^analyze: /);
+      expect(lines[0]).toContain(mention);
+      expect(r.stderr).not.toMatch(/\n\s+at /);
+    });
+  }
+
+  it('unknown option: exit 2 with the usage line', () => {
+    const r = run(['x.csv', '--frobnicate', '1']);
+    expect(r.code).toBe(2);
+    expect(r.stderr.trim().split('\n')).toHaveLength(1);
+    expect(r.stderr).toContain('unknown option --frobnicate');
+  });
+});
