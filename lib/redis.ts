@@ -3,14 +3,16 @@ import { config } from "./config";
 
 const globalForRedis = globalThis as unknown as { bandkeepRedis?: Redis };
 
-/** Shared connection for short commands in requests. Fails fast when Redis is down. */
+/** Shared connection for short commands in requests (sign-in limits, caches). */
 export function redis(): Redis {
   if (!globalForRedis.bandkeepRedis) {
     globalForRedis.bandkeepRedis = new Redis(config().REDIS_URL, {
+      // Commands sent while the first connection is still opening wait for it; a Redis
+      // that is down fails each command within two seconds instead of hanging a request.
       maxRetriesPerRequest: 1,
-      enableOfflineQueue: false,
+      enableOfflineQueue: true,
       connectTimeout: 2000,
-      lazyConnect: false,
+      commandTimeout: 2000,
     });
     globalForRedis.bandkeepRedis.on("error", () => {
       // Reported through health checks and the failing call; avoid an unhandled event.

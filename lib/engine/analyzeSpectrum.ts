@@ -9,6 +9,7 @@ import { compareSpectra } from './compare/compareSpectra';
 import { processReference, referenceToEnergy } from './referenceCache';
 import { deriveQuantities } from './derived/deriveQuantities';
 import type { ExcitonicPeak } from './peaks/findExcitonicPeaks';
+import { matchFirstExciton } from './peaks/matchFirstExciton';
 import type {
   AnalysisOptions,
   AnalysisReport,
@@ -150,6 +151,16 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
 
   const flags = r ? compareSpectra(s, r, { ...options, technique, thresholds, excitationNm }) : { flags: [], warnings: [] };
   warnings.push(...flags.warnings);
+
+  if (r?.firstExciton && s.firstExciton) {
+    const matched = matchFirstExciton(s.peaks, r.firstExciton.energyEv);
+    if (matched && matched !== s.firstExciton) {
+      warnings.push(
+        `first exciton taken at ${matched.energyEv.toFixed(3)} eV, the feature nearest the parent's (${r.firstExciton.energyEv.toFixed(3)} eV); the lower-energy feature at ${s.firstExciton.energyEv.toFixed(3)} eV is not treated as the first exciton`,
+      );
+      s = { ...s, firstExciton: matched };
+    }
+  }
 
   const derived = deriveQuantities({
     material: options.material,
