@@ -65,7 +65,11 @@ export type SampleDetail = SampleRow & {
   notes: string;
   parents: { id: string; name: string }[];
   children: { id: string; name: string }[];
-  spectra: { id: string; fileName: string; technique: string; status: string; createdAt: string }[];
+  spectra: {
+    id: string; fileName: string; technique: string; status: string; createdAt: string;
+    /** From the latest finished analysis report's `derived` field. */
+    derived: { diameterNm: number | null; concentrationMolPerL: number | null; extinctionPerMPerCm: number | null; sizingSource: string | null } | null;
+  }[];
 };
 
 /** One sample the actor may read as a member, or null (never reveals another group's sample). */
@@ -85,6 +89,17 @@ export async function getSample(actor: Actor, id: string): Promise<SampleDetail 
     attributes: ["id", "name"],
   });
   const nameOf = new Map(related.map((r) => [r.id, r.name]));
+  const derivedRows = spectra.length
+    ? await selectRows<{ spectrum_id: string; derived: Record<string, unknown> | null }>(
+        `SELECT DISTINCT ON (r.spectrum_id) r.spectrum_id, r.report->'derived' AS derived FROM analysis_runs r
+         WHERE r.spectrum_id IN (:ids) AND r.status = 'done' ORDER BY r.spectrum_id, r.created_at DESC`, { ids: spectra.map((s) => s.id) },
+      )
+    : [];
+  const num = (v: unknown) => (typeof v === "number" && Number.isFinite(v) ? v : null);
+  const derivedOf = new Map(derivedRows.map((r) => [r.spectrum_id, r.derived ? {
+    diameterNm: num(r.derived.diameterNm), concentrationMolPerL: num(r.derived.concentrationMolPerL),
+    extinctionPerMPerCm: num(r.derived.extinctionPerMPerCm), sizingSource: typeof r.derived.sizingSource === "string" ? r.derived.sizingSource : null,
+  } : null]));
   const parents = parentLinks.map((l) => ({ id: l.parentId, name: nameOf.get(l.parentId) ?? "" }));
   return {
     ...toRow(sample, group?.name ?? "", project?.name ?? null, parents.map((p) => p.name), spectra.length),
@@ -92,7 +107,7 @@ export async function getSample(actor: Actor, id: string): Promise<SampleDetail 
     notes: sample.notes,
     parents,
     children: childLinks.map((l) => ({ id: l.sampleId, name: nameOf.get(l.sampleId) ?? "" })),
-    spectra: spectra.map((s) => ({ id: s.id, fileName: s.fileName, technique: s.technique, status: s.status, createdAt: s.createdAt.toISOString() })),
+    spectra: spectra.map((s) => ({ id: s.id, fileName: s.fileName, technique: s.technique, status: s.status, createdAt: s.createdAt.toISOString(), derived: derivedOf.get(s.id) ?? null })),
   };
 }
 

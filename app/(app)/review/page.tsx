@@ -1,41 +1,63 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requireActor } from "@/lib/auth/actor";
-import { listAwaitingSignatures } from "@/lib/queries/review";
-import { KIND_LABELS } from "@/lib/signature-labels";
+import { leadGroupIds, listReviewQueue } from "@/lib/queries/review";
+import { queueHref } from "@/lib/review/queueHref";
+import { queryObject, queueQuerySchema, type QueueQuery } from "@/lib/review/schemas";
+import { QueueFilters } from "@/components/review/QueueFilters";
+import { ReviewQueueTable, type SortHeader } from "@/components/review/ReviewQueueTable";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
 
 export const metadata: Metadata = { title: "Review" };
 
-export default async function ReviewPage() {
+const COLUMNS: { key: string; label: string; sort?: QueueQuery["sort"] }[] = [
+  { key: "kind", label: "Change", sort: "kind" },
+  { key: "significance", label: "Significance", sort: "significance" },
+  { key: "magnitude", label: "Magnitude" },
+  { key: "spectrum", label: "Spectrum" },
+  { key: "sample", label: "Sample", sort: "sample" },
+  { key: "project", label: "Project", sort: "project" },
+  { key: "date", label: "Flagged (UTC)", sort: "date" },
+  { key: "state", label: "State" },
+];
+
+export default async function ReviewPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const actor = await requireActor("/review");
-  if (!actor.memberships.some((m) => m.role === "lead")) {
+  if (leadGroupIds(actor).length === 0) {
     return <EmptyState title="Review is for group leads">Signatures are confirmed or dismissed by a lead of the group that owns the spectrum.</EmptyState>;
   }
-  const items = await listAwaitingSignatures(actor);
+  const raw = queryObject(await searchParams);
+  const parsed = queueQuerySchema.safeParse(raw);
+  const issue = parsed.success ? null : parsed.error.issues[0]!;
+  const error = issue ? { field: String(issue.path[0] ?? "form"), message: `${issue.message}. Showing the queue without that filter.` } : null;
+  const query = parsed.success ? parsed.data : queueQuerySchema.parse(Object.fromEntries(Object.entries(raw).filter(([k]) => k !== error?.field)));
+  const queue = await listReviewQueue(actor, query);
+  const current = Object.fromEntries(Object.entries(raw).filter(([k]) => k !== error?.field));
+  const headers: SortHeader[] = COLUMNS.map((c) => ({
+    key: c.key,
+    label: c.label,
+    href: c.sort ? queueHref(current, { sort: c.sort, dir: query.sort === c.sort && query.dir === "desc" ? "asc" : "desc", page: undefined }) : "",
+    active: c.sort && query.sort === c.sort ? query.dir : null,
+  }));
+  const first = (queue.page - 1) * queue.pageSize + 1;
   return (
     <>
-      <PageHeader title="Review" subtitle="Band changes flagged by the analysis, waiting for a lead's decision. Most significant first." />
-      {items.length === 0 ? (
-        <EmptyState title="Nothing waits for review">New flags appear here as soon as the analysis of an upload finishes.</EmptyState>
+      <PageHeader title="Review" subtitle="Band changes flagged by the analysis in the groups you lead. Open one to see the spectra around it; confirm or dismiss one at a time or a selection at once." />
+      <QueueFilters values={current} projects={queue.projects} samples={queue.samples} error={error} />
+      {queue.items.length === 0 ? (
+        <EmptyState title={query.state === "awaiting" ? "Nothing waits for review" : "No signature matches these filters"}>
+          {query.state === "awaiting" ? "New flags appear here as soon as the analysis of an upload finishes." : "Loosen a filter or clear them all."}
+        </EmptyState>
       ) : (
-        <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
-          <table className="w-full text-sm" data-testid="review-queue">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">Change</th><th className="px-3 py-2">Significance</th><th className="px-3 py-2">Magnitude</th><th className="px-3 py-2">Spectrum</th><th className="px-3 py-2">Sample</th><th className="px-3 py-2">Project</th></tr></thead>
-            <tbody className="tabular">
-              {items.map((i) => (
-                <tr key={i.id} className="border-t border-stone-100 hover:bg-stone-50">
-                  <td className="px-3 py-1.5 font-medium">{KIND_LABELS[i.kind] ?? i.kind}</td>
-                  <td className="px-3 py-1.5">{i.significance.toFixed(1)}σ</td>
-                  <td className="px-3 py-1.5">{i.fraction !== null ? `${(i.fraction * 100).toFixed(1)} %` : i.shiftMeV !== null ? `${i.shiftMeV.toFixed(1)} meV` : i.energyEv !== null ? `at ${i.energyEv.toFixed(3)} eV` : "—"}</td>
-                  <td className="max-w-xs truncate px-3 py-1.5"><Link className="text-glow-deep hover:underline" href={`/spectra/${i.spectrumId}`}>{i.fileName}</Link></td>
-                  <td className="px-3 py-1.5">{i.sampleName ?? "—"}</td><td className="px-3 py-1.5 text-ink-soft">{i.projectName}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <>
+          <ReviewQueueTable items={queue.items} headers={headers} />
+          <nav aria-label="Pages of the queue" className="mt-2 flex items-center gap-3 text-sm text-ink-soft">
+            <span>{first}–{first + queue.items.length - 1} of {queue.total}</span>
+            {queue.page > 1 && <Link className="text-glow-deep hover:underline" href={queueHref(current, { page: queue.page - 1 })}>← Previous</Link>}
+            {queue.page < queue.pages && <Link className="text-glow-deep hover:underline" href={queueHref(current, { page: queue.page + 1 })}>Next →</Link>}
+          </nav>
+        </>
       )}
     </>
   );

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requireActor } from "@/lib/auth/actor";
+import { canWrite } from "@/lib/auth/access";
 import { listSeries } from "@/lib/queries/series";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
@@ -10,11 +11,16 @@ export const metadata: Metadata = { title: "Series" };
 export default async function SeriesPage() {
   const actor = await requireActor("/series");
   const series = await listSeries(actor);
+  const mayCreate = actor.memberships.some((m) => canWrite(actor, m.groupId));
   return (
     <>
-      <PageHeader title="Series" subtitle="Titrations, shell-thickness and time series: ordered spectra with a variable." />
+      <PageHeader
+        title="Series"
+        subtitle="Titrations, shell-thickness and time series: ordered spectra with a variable, plotted and fitted."
+        actions={mayCreate && <Link href="/series/new" className="rounded-md bg-glow px-3 py-2 text-sm font-medium text-white hover:bg-glow-deep">New series</Link>}
+      />
       {series.length === 0 ? (
-        <EmptyState title="No series yet">A series groups spectra along a variable, such as equivalents of added dots. Choose a series and its variable value when you upload.</EmptyState>
+        <EmptyState title="No series yet" action={mayCreate ? { href: "/series/new", label: "Create the first series" } : undefined}>A series groups spectra along a variable, such as equivalents of added dots. Choose a series and its variable value when you upload.</EmptyState>
       ) : (
         <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm">

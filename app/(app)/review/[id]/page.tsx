@@ -1,0 +1,85 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { Fragment } from "react";
+import { notFound } from "next/navigation";
+import { requireActor } from "@/lib/auth/actor";
+import { getSignatureReview } from "@/lib/queries/review";
+import { loadEvidence } from "@/lib/review/loadEvidence";
+import { KIND_LABELS } from "@/lib/signature-labels";
+import { DecisionForm } from "@/components/review/DecisionForm";
+import { EvidenceChart } from "@/components/review/EvidenceChart";
+import { dateText, magnitudeText } from "@/components/review/format";
+import { PageHeader } from "@/components/ui/PageHeader";
+import { StatusBadge } from "@/components/ui/StatusBadge";
+
+export const metadata: Metadata = { title: "Signature" };
+
+export default async function SignaturePage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const actor = await requireActor(`/review/${id}`);
+  const sig = /^[0-9a-f-]{36}$/i.test(id) ? await getSignatureReview(actor, id) : null;
+  if (!sig) notFound();
+  const evidence = await loadEvidence(sig.spectrumId, sig.referenceSpectrumId, sig.energyEv);
+  const label = KIND_LABELS[sig.kind] ?? sig.kind;
+  const facts: [string, string][] = [
+    ["Magnitude", magnitudeText(sig)],
+    ["Energy", sig.energyEv !== null ? `${sig.energyEv.toFixed(3)} eV (${(1239.841984 / sig.energyEv).toFixed(1)} nm)` : "—"],
+    ["Significance", `${sig.significance.toFixed(1)}σ${sig.uncertainty !== null ? ` (standard uncertainty ${sig.uncertainty.toPrecision(2)})` : ""}`],
+    ["Sample", sig.sampleName ?? "—"],
+    ["Project", sig.projectName],
+    ["Flagged", dateText(sig.createdAt)],
+  ];
+  return (
+    <>
+      <PageHeader
+        title={`${label} in ${sig.fileName}`}
+        subtitle={sig.message ?? undefined}
+        actions={<Link href="/review" className="rounded-md border border-stone-300 bg-white px-3 py-1.5 text-sm hover:bg-stone-50">← Review queue</Link>}
+      />
+      <div className="grid gap-6 lg:grid-cols-3">
+        <section className="rounded-lg border border-stone-200 bg-white p-4 lg:col-span-2">
+          <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Evidence</h2>
+          <p className="mb-2 text-xs text-ink-soft">
+            <Link className="text-glow-deep hover:underline" href={`/spectra/${sig.spectrumId}`}>{sig.fileName}</Link>
+            {sig.referenceSpectrumId && <> against its reference <Link className="text-glow-deep hover:underline" href={`/spectra/${sig.referenceSpectrumId}`}>{sig.referenceFileName}</Link></>}
+            {sig.energyEv !== null ? ", within 0.3 eV of the flag (dashed line)." : ", whole range."}
+          </p>
+          {evidence.problem ? (
+            <p className="text-sm text-ink-soft">{evidence.problem}</p>
+          ) : (
+            <EvidenceChart energy={evidence.energy} sample={evidence.sample} reference={evidence.reference} centreEv={evidence.centreEv}
+              sampleName={evidence.sampleName} referenceName={evidence.referenceName} unit={evidence.unit} />
+          )}
+          <dl className="mt-4 grid grid-cols-[8rem_1fr] gap-y-1 text-sm">
+            {facts.map(([k, v]) => (<Fragment key={k}><dt className="text-ink-soft">{k}</dt><dd className="tabular">{v}</dd></Fragment>))}
+          </dl>
+        </section>
+        <div className="space-y-6">
+          <section className="rounded-lg border border-stone-200 bg-white p-4">
+            <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Decision</h2>
+            {sig.mayDecide ? (
+              <DecisionForm signatureId={sig.id} reviewState={sig.reviewState} />
+            ) : (
+              <p className="text-sm">Now: <StatusBadge status={sig.reviewState} /><br /><span className="text-ink-soft">A lead of the group decides on signatures.</span></p>
+            )}
+          </section>
+          <section className="rounded-lg border border-stone-200 bg-white p-4">
+            <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">History</h2>
+            {sig.history.length === 0 ? (
+              <p className="text-sm text-ink-soft">No decision yet.</p>
+            ) : (
+              <ol className="space-y-3 text-sm" data-testid="review-history">
+                {sig.history.map((h) => (
+                  <li key={h.id} className="border-l-2 border-stone-200 pl-3">
+                    <div className="flex items-center gap-2"><StatusBadge status={h.decision} /><span className="text-ink-soft">{h.reviewerName ?? "a former member"} · {dateText(h.createdAt)}</span></div>
+                    {h.comment ? <p className="mt-1 whitespace-pre-wrap">{h.comment}</p> : <p className="mt-1 text-ink-faint">No comment.</p>}
+                  </li>
+                ))}
+              </ol>
+            )}
+          </section>
+        </div>
+      </div>
+    </>
+  );
+}

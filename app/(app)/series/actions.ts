@@ -1,0 +1,40 @@
+"use server";
+
+import { UniqueConstraintError } from "sequelize";
+import { revalidatePath } from "next/cache";
+import { redirect } from "next/navigation";
+import { z } from "zod";
+import { ActionRefused, protectedAction } from "@/lib/actions/protected";
+import { canWrite } from "@/lib/auth/access";
+import { recordAudit } from "@/lib/audit";
+import { Project, Series, models } from "@/models";
+import { SERIES_KINDS } from "@/models/Series";
+
+const plain = (label: string, max: number) =>
+  z.string().trim().max(max, `${label} must be at most ${max} characters`).refine((s) => !/[<>\u0000-\u001f]/.test(s), `${label} must be plain text`);
+
+const seriesSchema = z.object({
+  projectId: z.string().uuid("Choose a project."),
+  name: plain("Name", 200).pipe(z.string().min(1, "Give the series a name.")),
+  kind: z.enum(SERIES_KINDS, { error: "Choose titration, shell thickness, time or other." }),
+  variableName: plain("Variable", 100).pipe(z.string().min(1, "Name the variable, for example PbS per CdSe.")),
+  variableUnit: plain("Unit", 40).default(""),
+});
+
+/** Creates a series (spectroscopists and leads of the project's group). */
+export const createSeries = protectedAction(seriesSchema, async (input, actor) => {
+  models();
+  const project = await Project.findByPk(input.projectId);
+  if (!project || !canWrite(actor, project.groupId)) throw new ActionRefused("Choose a project of a group where you may add data.", "projectId");
+  let id: string;
+  try {
+    const series = await Series.create({ ...input, createdBy: actor.id });
+    id = series.id;
+    await recordAudit({ actorId: actor.id, actorLabel: actor.email, groupId: project.groupId, action: "series-created", targetType: "series", targetId: id, details: { name: input.name, kind: input.kind } });
+  } catch (error) {
+    if (error instanceof UniqueConstraintError) throw new ActionRefused(`A series named "${input.name}" already exists in this project.`, "name");
+    throw error;
+  }
+  revalidatePath("/series");
+  redirect(`/series/${id}`);
+});

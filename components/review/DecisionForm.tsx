@@ -1,0 +1,39 @@
+"use client";
+
+import { useActionState, useOptimistic } from "react";
+import { decideAction } from "@/app/(app)/review/actions";
+import { initialActionState } from "@/lib/actions/protected-state";
+import { StatusBadge } from "@/components/ui/StatusBadge";
+
+/** Confirm or dismiss one signature with a comment; a decided one can be revised (its history stays). */
+export function DecisionForm({ signatureId, reviewState }: { signatureId: string; reviewState: string }) {
+  const [state, formAction, pending] = useActionState(decideAction, initialActionState);
+  const [shown, setShown] = useOptimistic(reviewState, (_: string, next: string) => next);
+  const submit = (formData: FormData) => {
+    setShown(String(formData.get("decision") ?? reviewState));
+    formAction(formData);
+  };
+  const error = state.fieldErrors?.comment?.join(" ") ?? state.fieldErrors?.decision?.join(" ");
+  return (
+    <form action={submit} className="space-y-3" aria-label="Decision">
+      <input type="hidden" name="signatureIds" value={signatureId} />
+      <p className="text-sm">Now: <span data-testid="review-state"><StatusBadge status={shown} /></span></p>
+      <div>
+        <label htmlFor="decision-comment" className="text-sm font-medium">Comment</label>
+        <textarea id="decision-comment" name="comment" rows={3} maxLength={2000} defaultValue={state.ok ? "" : state.values?.comment ?? ""}
+          aria-invalid={error ? true : undefined} aria-describedby={error ? "decision-error" : undefined}
+          placeholder="What you looked at and why you decide so" className="mt-1 block w-full rounded-md border border-stone-300 px-2 py-1.5 text-sm" />
+        {error && <p id="decision-error" role="alert" className="mt-1 text-sm text-red-700">{error}</p>}
+      </div>
+      <div className="flex flex-wrap gap-2">
+        <button name="decision" value="confirmed" disabled={pending} className="rounded-md bg-leaf px-3 py-1.5 text-sm font-medium text-white hover:opacity-90 disabled:opacity-50">
+          {reviewState === "awaiting" ? "Confirm" : reviewState === "confirmed" ? "Confirm again" : "Revise to confirmed"}
+        </button>
+        <button name="decision" value="dismissed" disabled={pending} className="rounded-md border border-stone-300 bg-white px-3 py-1.5 text-sm font-medium hover:bg-stone-50 disabled:opacity-50">
+          {reviewState === "awaiting" ? "Dismiss" : reviewState === "dismissed" ? "Dismiss again" : "Revise to dismissed"}
+        </button>
+      </div>
+      <p role="status" className={`min-h-5 text-sm ${state.ok ? "text-leaf" : "text-red-700"}`}>{state.message}</p>
+    </form>
+  );
+}

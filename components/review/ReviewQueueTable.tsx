@@ -1,0 +1,103 @@
+"use client";
+
+import Link from "next/link";
+import { useActionState, useOptimistic, useState } from "react";
+import { decideAction } from "@/app/(app)/review/actions";
+import { initialActionState } from "@/lib/actions/protected-state";
+import type { ReviewItem } from "@/lib/queries/review";
+import { KIND_LABELS } from "@/lib/signature-labels";
+import { StatusBadge } from "@/components/ui/StatusBadge";
+import { dateText, magnitudeText } from "./format";
+
+export type SortHeader = { key: string; label: string; href: string; active: "asc" | "desc" | null };
+
+/**
+ * The queue: checkbox selection and one decision with a comment for the whole selection. Rows
+ * change state at once (optimistic); the server's answer follows. A batch can be switched to the
+ * other decision right after, which records a revision and keeps the history.
+ */
+export function ReviewQueueTable({ items, headers }: { items: ReviewItem[]; headers: SortHeader[] }) {
+  const [state, formAction, pending] = useActionState(decideAction, initialActionState);
+  const [optimistic, markDecided] = useOptimistic(items, (current, change: { ids: string[]; decision: string }) =>
+    current.map((i) => (change.ids.includes(i.id) ? { ...i, reviewState: change.decision } : i)),
+  );
+  const [selected, setSelected] = useState<string[]>([]);
+  const [lastBatch, setLastBatch] = useState<{ ids: string[]; decision: string } | null>(null);
+  const allSelected = selected.length > 0 && selected.length === items.length;
+
+  const submit = (formData: FormData) => {
+    const ids = formData.getAll("signatureIds").map(String);
+    const decision = String(formData.get("decision") ?? "");
+    markDecided({ ids, decision });
+    setLastBatch({ ids, decision });
+    setSelected([]);
+    formAction(formData);
+  };
+  const other = lastBatch?.decision === "confirmed" ? "dismissed" : "confirmed";
+
+  return (
+    <div>
+      <form action={submit} aria-label="Decide on the selected signatures">
+        <div className="mb-3 flex flex-wrap items-end gap-3 rounded-lg border border-stone-200 bg-white p-3">
+          <label className="min-w-64 flex-1 text-xs text-ink-soft" htmlFor="batch-comment">Comment for the selected signatures
+            <textarea id="batch-comment" name="comment" rows={1} maxLength={2000} placeholder="Why you confirm or dismiss them (kept in the history)"
+              className="mt-1 block w-full rounded-md border border-stone-300 px-2 py-1.5 text-sm text-ink" />
+          </label>
+          <span className="text-sm text-ink-soft" aria-live="polite">{selected.length} selected</span>
+          <button name="decision" value="confirmed" disabled={pending || selected.length === 0}
+            className="rounded-md bg-leaf px-2 py-1.5 text-sm font-medium text-white hover:opacity-90 disabled:opacity-40">Confirm selected</button>
+          <button name="decision" value="dismissed" disabled={pending || selected.length === 0}
+            className="rounded-md border border-stone-300 bg-white px-2 py-1.5 text-sm font-medium hover:bg-stone-50 disabled:opacity-40">Dismiss selected</button>
+        </div>
+        <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
+          <table className="w-full text-sm" data-testid="review-queue">
+            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft">
+              <tr>
+                <th className="w-8 px-2 py-2">
+                  <input type="checkbox" aria-label="Select every signature on this page" checked={allSelected}
+                    onChange={(e) => setSelected(e.target.checked ? items.map((i) => i.id) : [])} />
+                </th>
+                {headers.map((h) => (
+                  <th key={h.key} className="whitespace-nowrap px-2 py-2" aria-sort={h.active === "asc" ? "ascending" : h.active === "desc" ? "descending" : undefined}>
+                    {h.href ? <Link href={h.href} className="hover:text-ink">{h.label}{h.active === "asc" ? " ▲" : h.active === "desc" ? " ▼" : ""}</Link> : h.label}
+                  </th>
+                ))}
+              </tr>
+            </thead>
+            <tbody className="tabular">
+              {optimistic.map((i) => (
+                <tr key={i.id} className="border-t border-stone-100 hover:bg-stone-50" data-signature-id={i.id}>
+                  <td className="px-2 py-1.5">
+                    <input type="checkbox" name="signatureIds" value={i.id} aria-label={`Select ${KIND_LABELS[i.kind] ?? i.kind} in ${i.fileName}`}
+                      checked={selected.includes(i.id)}
+                      onChange={(e) => setSelected((s) => (e.target.checked ? [...s, i.id] : s.filter((x) => x !== i.id)))} />
+                  </td>
+                  <td className="whitespace-nowrap px-2 py-1.5 font-medium"><Link className="text-glow-deep hover:underline" href={`/review/${i.id}`}>{KIND_LABELS[i.kind] ?? i.kind}</Link></td>
+                  <td className="px-2 py-1.5">{i.significance.toFixed(1)}σ</td>
+                  <td className="whitespace-nowrap px-2 py-1.5">{magnitudeText(i)}{i.energyEv !== null && <span className="block text-xs text-ink-faint">{i.energyEv.toFixed(3)} eV</span>}</td>
+                  <td className="max-w-48 truncate px-2 py-1.5"><Link className="hover:underline" href={`/spectra/${i.spectrumId}`}>{i.fileName}</Link></td>
+                  <td className="whitespace-nowrap px-2 py-1.5">{i.sampleName ?? "—"}</td>
+                  <td className="max-w-40 px-2 py-1.5 text-xs text-ink-soft">{i.projectName}</td>
+                  <td className="whitespace-nowrap px-2 py-1.5 text-ink-soft">{dateText(i.createdAt).replace(/ UTC$/, "")}</td>
+                  <td className="whitespace-nowrap px-2 py-1.5"><StatusBadge status={i.reviewState} /></td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      </form>
+      <div className="mt-3 flex min-h-8 flex-wrap items-center gap-3 text-sm" role="status">
+        {state.message && <span className={state.ok ? "text-leaf" : "text-red-700"}>{state.message}</span>}
+        {state.ok && lastBatch && !pending && (
+          <form action={submit}>
+            {lastBatch.ids.map((id) => <input key={id} type="hidden" name="signatureIds" value={id} />)}
+            <input type="hidden" name="comment" value={`Revised right after deciding: switched to ${other}.`} />
+            <button name="decision" value={other} className="rounded-md border border-stone-300 bg-white px-2 py-1 text-xs hover:bg-stone-50">
+              Undo: mark them {other} instead
+            </button>
+          </form>
+        )}
+      </div>
+    </div>
+  );
+}
