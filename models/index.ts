@@ -3,10 +3,12 @@ import { AnalysisRun } from "./AnalysisRun";
 import { ApiToken } from "./ApiToken";
 import { AuditEvent } from "./AuditEvent";
 import { Group } from "./Group";
+import { Invitation } from "./Invitation";
 import { LegalHold } from "./LegalHold";
 import { Membership } from "./Membership";
 import { Peak } from "./Peak";
 import { Project } from "./Project";
+import { RetentionFlag } from "./RetentionFlag";
 import { RetentionPolicy } from "./RetentionPolicy";
 import { Review } from "./Review";
 import { Sample } from "./Sample";
@@ -15,12 +17,14 @@ import { Series } from "./Series";
 import { Share } from "./Share";
 import { Signature } from "./Signature";
 import { Spectrum } from "./Spectrum";
+import { Tombstone } from "./Tombstone";
 import { User } from "./User";
 
 export {
   AnalysisRun, ApiToken, AuditEvent, Group, LegalHold, Membership, Peak, Project, RetentionPolicy,
   Review, Sample, SampleParent, Series, Share, Signature, Spectrum, User,
 };
+export { Invitation, RetentionFlag, Tombstone };
 
 /** Binds every model to the process's Sequelize instance, once; returns that instance. */
 export function models() {
@@ -28,7 +32,7 @@ export function models() {
   // Checked on the class itself: bundlers may load this module more than once per process.
   if (User.sequelize === db) return db;
   for (const m of [User, Group, Membership, Project, Sample, SampleParent, Series, Spectrum, AnalysisRun,
-    Peak, Signature, Review, RetentionPolicy, LegalHold, Share, AuditEvent, ApiToken]) {
+    Peak, Signature, Review, RetentionPolicy, LegalHold, Share, AuditEvent, ApiToken, Tombstone, RetentionFlag, Invitation]) {
     m.initialize(db);
   }
   Membership.belongsTo(User, { foreignKey: "userId" });

@@ -7,6 +7,8 @@ import { analysisQueue, connectionOptions, type AnalysisJob } from "@/lib/queue"
 import { memoryGuard } from "./memoryGuard";
 import { processAnalysis, type JobSummary } from "./processAnalysis";
 import { sweepWaitingRuns } from "./sweepWaitingRuns";
+import "./digest";
+import "./retention";
 
 const log = (level: "info" | "warn" | "error", msg: string, extra: Record<string, unknown> = {}) =>
   console[level === "info" ? "log" : level](JSON.stringify({ at: new Date().toISOString(), level, msg, pid: process.pid, ...extra }));

@@ -1,5 +1,5 @@
 import { Op } from "sequelize";
-import { Project, Series, Share, Spectrum, models } from "@/models";
+import { Project, Sample, Series, Share, Spectrum, models } from "@/models";
 import type { Role } from "@/models/Membership";
 import type { Actor } from "./actor";
 
@@ -78,4 +78,34 @@ export async function groupOfSpectrum(spectrum: Spectrum): Promise<string | null
   models();
   const project = await Project.findByPk(spectrum.projectId, { attributes: ["groupId"] });
   return project?.groupId ?? null;
+}
+
+// --- Stewardship (retention, holds, sharing, members, audit) ---
+
+/** Groups in which the actor is the data steward. */
+export function stewardGroupIds(actor: Actor): string[] {
+  return actor.memberships.filter((m) => m.role === "steward").map((m) => m.groupId);
+}
+
+/** Group leads and data stewards add, remove and re-role members of their group. */
+export function canManageMembers(actor: Actor, groupId: string): boolean {
+  return hasRole(actor, groupId, ["lead", "steward"]);
+}
+
+/** Who may delete a spectrum of a group (legal holds still refuse it). */
+export function canDeleteInGroup(actor: Actor, groupId: string): boolean {
+  return hasRole(actor, groupId, ["spectroscopist", "lead", "steward"]);
+}
+
+/** The group owning a project, series, sample or spectrum, or null when there is none. */
+export async function groupOfTarget(targetType: "project" | "series" | "sample" | "spectrum", targetId: string): Promise<string | null> {
+  models();
+  if (targetType === "project") return (await Project.findByPk(targetId, { attributes: ["groupId"] }))?.groupId ?? null;
+  if (targetType === "series") {
+    const series = await Series.findByPk(targetId, { attributes: ["projectId"] });
+    return series ? ((await Project.findByPk(series.projectId, { attributes: ["groupId"] }))?.groupId ?? null) : null;
+  }
+  if (targetType === "sample") return (await Sample.findByPk(targetId, { attributes: ["groupId"] }))?.groupId ?? null;
+  const spectrum = await Spectrum.findByPk(targetId, { attributes: ["projectId"] });
+  return spectrum ? groupOfSpectrum(spectrum) : null;
 }

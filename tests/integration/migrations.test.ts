@@ -41,7 +41,8 @@ describe("migrations", () => {
     expect(migrate("up")).toMatch(/migrated: 0001-initial-schema/);
     const up = await tables();
     for (const t of ["users", "groups", "memberships", "projects", "samples", "sample_parents", "series", "spectra", "analysis_runs",
-      "peaks", "signatures", "reviews", "retention_policies", "legal_holds", "shares", "audit_events", "api_tokens"]) {
+      "peaks", "signatures", "reviews", "retention_policies", "legal_holds", "shares", "audit_events", "api_tokens",
+      "tombstones", "retention_flags", "invitations"]) {
       expect(up).toContain(t);
     }
     expect(migrate("down", "--to", "0")).toMatch(/reverted: .*0001-initial-schema/);

@@ -1,38 +1,38 @@
 import type { Metadata } from "next";
 import { requireActor } from "@/lib/auth/actor";
-import { listAuditEvents } from "@/lib/queries/audit";
+import { stewardGroupIds } from "@/lib/auth/access";
+import { DATA_CLASS_LABELS, listOpenFlags } from "@/lib/stewardship/queries";
+import { ActionForm } from "@/components/stewardship/ActionForm";
+import { StewardOnly } from "@/components/stewardship/StewardOnly";
+import { formatDate } from "@/components/stewardship/format";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
+import { decideFlag } from "./actions";
 
 export const metadata: Metadata = { title: "Stewardship" };
 
-export default async function StewardshipPage({ searchParams }: { searchParams: Promise<{ action?: string }> }) {
+export default async function StewardshipPage() {
   const actor = await requireActor("/stewardship");
-  if (!actor.memberships.some((m) => m.role === "steward")) {
-    return <EmptyState title="Stewardship is for data stewards">Retention, legal holds, sharing and the audit trail are managed by your group&apos;s data steward.</EmptyState>;
-  }
-  const action = ((await searchParams).action ?? "").slice(0, 60) || undefined;
-  const events = await listAuditEvents(actor, { action });
+  if (stewardGroupIds(actor).length === 0) return <StewardOnly what="Stewardship" />;
+  const flags = await listOpenFlags(actor);
   return (
     <>
-      <PageHeader title="Stewardship" subtitle="The audit trail of your groups: who did what, and when. It cannot be edited or deleted." />
-      <form className="mb-4 flex gap-2" role="search">
-        <input name="action" defaultValue={action} placeholder="Filter by action, e.g. sign-in" aria-label="Filter by action" className="w-72 rounded-md border border-stone-300 px-3 py-1.5 text-sm" />
-        <button className="rounded-md border border-stone-300 bg-white px-3 py-1.5 text-sm">Apply</button>
-      </form>
-      {events.length === 0 ? (
-        <EmptyState title="No events match">Uploads, analyses, decisions and sign-ins are recorded here as they happen.</EmptyState>
+      <PageHeader title="Stewardship" subtitle="Items whose retention period ended under a “flag” policy wait here for your decision. Nothing is deleted until you choose." />
+      {flags.length === 0 ? (
+        <EmptyState title="Nothing to decide">When a policy set to “flag for me” expires something, it appears here.</EmptyState>
       ) : (
         <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
-          <table className="w-full text-sm" data-testid="audit-table">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">When</th><th className="px-3 py-2">Who</th><th className="px-3 py-2">Action</th><th className="px-3 py-2">Target</th><th className="px-3 py-2">Details</th></tr></thead>
+          <table className="w-full text-sm" data-testid="flags-table">
+            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">Item</th><th className="px-3 py-2">Project</th><th className="px-3 py-2">Class</th><th className="px-3 py-2">Flagged</th><th className="px-3 py-2">Decision</th></tr></thead>
             <tbody>
-              {events.map((e) => (
-                <tr key={e.id} className="border-t border-stone-100">
-                  <td className="tabular whitespace-nowrap px-3 py-1.5 text-ink-soft">{new Date(e.at).toLocaleString("en-GB")}</td>
-                  <td className="px-3 py-1.5">{e.actor}</td><td className="px-3 py-1.5 font-medium">{e.action}</td>
-                  <td className="max-w-[12rem] truncate px-3 py-1.5 font-mono text-xs">{e.target}</td>
-                  <td className="max-w-xs truncate px-3 py-1.5 font-mono text-xs text-ink-soft" title={e.details}>{e.details}</td>
+              {flags.map((f) => (
+                <tr key={f.id} className="border-t border-stone-100">
+                  <td className="px-3 py-1.5 font-medium">{f.label}</td><td className="px-3 py-1.5">{f.projectName}</td>
+                  <td className="px-3 py-1.5">{DATA_CLASS_LABELS[f.dataClass]}</td><td className="px-3 py-1.5">{formatDate(f.flaggedAt)}</td>
+                  <td className="flex gap-2 px-3 py-1.5">
+                    <ActionForm action={decideFlag} submit="Keep" danger={false} className="flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={f.id} /><input type="hidden" name="decision" value="keep" /></ActionForm>
+                    <ActionForm action={decideFlag} submit="Delete" danger className="flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={f.id} /><input type="hidden" name="decision" value="delete" /></ActionForm>
+                  </td>
                 </tr>
               ))}
             </tbody>

@@ -1,0 +1,35 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { redirect } from "next/navigation";
+import { z } from "zod";
+import { ActionRefused, protectedAction } from "@/lib/actions/protected";
+import { canDeleteInGroup, groupOfSpectrum } from "@/lib/auth/access";
+import { DeletionRefused, deleteSpectrum } from "@/lib/stewardship/deletion";
+import { Spectrum, models } from "@/models";
+
+/**
+ * Deletes one spectrum (its raw file, its row, its analyses) for a spectroscopist, group
+ * lead or data steward of its group. A legal hold refuses it and says why; a spectrum
+ * that others use as their reference is refused too. A tombstone and an audit event remain.
+ */
+export const deleteSpectrumAction = protectedAction(
+  z.object({
+    spectrumId: z.string({ error: "spectrumId: required." }).uuid("spectrumId: not a valid id."),
+    confirm: z.literal("delete", { error: "confirm: type delete to confirm." }),
+  }),
+  async (input, actor) => {
+    models();
+    const spectrum = await Spectrum.findByPk(input.spectrumId);
+    const groupId = spectrum ? await groupOfSpectrum(spectrum) : null;
+    if (!spectrum || !groupId || !canDeleteInGroup(actor, groupId)) throw new ActionRefused("Spectrum not found.", "spectrumId");
+    try {
+      await deleteSpectrum(spectrum.id, { cause: actor.memberships.some((m) => m.groupId === groupId && m.role === "steward") ? "steward" : "owner", actorId: actor.id, actorLabel: actor.email });
+    } catch (error) {
+      if (error instanceof DeletionRefused) throw new ActionRefused(error.message);
+      throw error;
+    }
+    revalidatePath("/spectra");
+    redirect("/spectra?deleted=1");
+  },
+);

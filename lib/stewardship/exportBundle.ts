@@ -1,0 +1,157 @@
+import { createHash } from "node:crypto";
+import { strToU8, zipSync, type Zippable } from "fflate";
+import { Op } from "sequelize";
+import { ENGINE_VERSION, parseSpectrumFile, type ParsedSpectrum } from "@/lib/engine";
+import { hazardsOf } from "@/lib/hazards";
+import { columnChoice } from "@/lib/ingest/parameters";
+import { getObjectBytes } from "@/lib/storage";
+import { AnalysisRun, Group, Project, Sample, Series, Spectrum, models } from "@/models";
+import { writeJcamp } from "./writeJcamp";
+
+// One zip per series or project: raw files as they arrived, processed data as CSV and
+// JCAMP-DX, analyses as JSON, a manifest with the sha256 of every other file, and a README.
+
+export const BUNDLE_FORMAT = "bandkeep-bundle/1";
+
+export type ManifestFile = { path: string; sha256: string; bytes: number; kind: "raw" | "processed-csv" | "processed-jcamp" | "analysis" | "readme" };
+export type Manifest = {
+  format: typeof BUNDLE_FORMAT;
+  createdAt: string;
+  createdBy: string;
+  engineVersion: string;
+  target: { type: "project" | "series"; id: string; name: string };
+  group: string;
+  project: { id: string; name: string; description: string };
+  series: { id: string; name: string; kind: string; variableName: string; variableUnit: string }[];
+  samples: { id: string; name: string; material: string; coreShell: string; ligand: string; solvent: string; hazardClass: string; cautions: string[] }[];
+  spectra: {
+    id: string; fileName: string; sha256: string; sizeBytes: number; technique: string; status: string; sampleId: string | null; seriesId: string | null;
+    seriesValue: number | null; referenceSpectrumId: string | null; pathLengthCm: number | null; excitationNm: number | null; solvent: string;
+    uploadedAt: string; files: string[]; note?: string;
+  }[];
+  files: ManifestFile[];
+};
+
+const sha = (b: Uint8Array) => createHash("sha256").update(b).digest("hex");
+const safeName = (s: string) => s.replace(/[^A-Za-z0-9._-]+/g, "_").slice(0, 80) || "file";
+
+function processedCsv(p: ParsedSpectrum): string {
+  const rows = [`x_${p.xUnit},y_${p.yUnit}`];
+  for (let i = 0; i < p.x.length; i++) rows.push(`${p.x[i]},${p.y[i]}`);
+  return rows.join("\n") + "\n";
+}
+
+function readme(m: Omit<Manifest, "files">, hazardLines: string[]): string {
+  return [
+    `Bandkeep export bundle — ${m.target.type} "${m.target.name}"`,
+    "",
+    `Made ${m.createdAt} by ${m.createdBy}, group ${m.group}, project "${m.project.name}".`,
+    `${m.spectra.length} spectra in ${m.series.length} series. Format ${BUNDLE_FORMAT}; analysis engine ${m.engineVersion}.`,
+    "",
+    "What is inside",
+    "  raw/         each file exactly as it was uploaded (its sha256 is the one recorded at upload)",
+    "  processed/   the parsed spectrum of each file, as CSV (x,y in the file's own units, x ascending)",
+    "               and as JCAMP-DX 4.24 (AFFN ##XYPOINTS); percent transmittance is written as a fraction there",
+    "  analyses/    each analysis run as JSON: parameters, noise, peaks, flagged changes, derived values",
+    "  manifest.json  the project, series, samples and spectra metadata, and the sha256 and size of",
+    "               every file in this bundle except manifest.json itself",
+    "",
+    "Checking the bundle: compute the sha256 of each file and compare it with manifest.json \"files\".",
+    "A spectrum whose file could not be read has its raw file only; its manifest entry says why.",
+    "",
+    ...(hazardLines.length ? ["Safety", ...hazardLines.map((l) => `  ${l}`),
+      "  Follow your institution's chemical hygiene plan, local regulations and licensed practice.", ""] : []),
+    "The numbers support, and do not replace, a scientist's judgement.",
+    "",
+  ].join("\n");
+}
+
+/** Builds the bundle of a project or a series. The caller has checked read access. */
+export async function buildBundle(target: { type: "project" | "series"; id: string }, createdBy: string): Promise<{ fileName: string; bytes: Uint8Array; manifest: Manifest }> {
+  models();
+  let project: Project | null;
+  let seriesList: Series[];
+  let spectra: Spectrum[];
+  let targetName: string;
+  if (target.type === "series") {
+    const series = await Series.findByPk(target.id);
+    if (!series) throw new Error("series not found");
+    project = await Project.findByPk(series.projectId);
+    seriesList = [series];
+    targetName = series.name;
+    spectra = await Spectrum.findAll({ where: { seriesId: series.id }, order: [["seriesValue", "ASC"], ["createdAt", "ASC"]] });
+  } else {
+    project = await Project.findByPk(target.id);
+    seriesList = project ? await Series.findAll({ where: { projectId: project.id }, order: [["name", "ASC"]] }) : [];
+    targetName = project?.name ?? "";
+    spectra = project ? await Spectrum.findAll({ where: { projectId: project.id }, order: [["createdAt", "ASC"]] }) : [];
+  }
+  if (!project) throw new Error("project not found");
+  const group = await Group.findByPk(project.groupId);
+  const sampleIds = [...new Set(spectra.map((s) => s.sampleId).filter((x): x is string => !!x))];
+  const samples = sampleIds.length ? await Sample.findAll({ where: { id: { [Op.in]: sampleIds } }, order: [["name", "ASC"]] }) : [];
+  const runs = spectra.length
+    ? await AnalysisRun.findAll({ where: { spectrumId: { [Op.in]: spectra.map((s) => s.id) }, status: "done" }, order: [["createdAt", "ASC"]] })
+    : [];
+
+  const files: Zippable = {};
+  const listed: ManifestFile[] = [];
+  const add = (path: string, bytes: Uint8Array, kind: ManifestFile["kind"]) => {
+    files[path] = bytes;
+    listed.push({ path, sha256: sha(bytes), bytes: bytes.length, kind });
+  };
+  const spectraOut: Manifest["spectra"] = [];
+  for (const s of spectra) {
+    const base = `${s.id.slice(0, 8)}-${safeName(s.fileName.replace(/\.[^.]+$/, ""))}`;
+    const own: string[] = [];
+    const raw = await getObjectBytes(s.objectKey);
+    const rawPath = `raw/${s.id.slice(0, 8)}-${safeName(s.fileName)}`;
+    add(rawPath, raw, "raw");
+    own.push(rawPath);
+    let note: string | undefined;
+    try {
+      const parsed = parseSpectrumFile(s.fileName, raw, { technique: s.technique, ...(s.columnChoice ? { column: columnChoice(s.columnChoice) } : {}) });
+      add(`processed/${base}.csv`, strToU8(processedCsv(parsed)), "processed-csv");
+      const jdx = writeJcamp({
+        title: s.fileName, technique: s.technique, x: parsed.x, y: parsed.y, xUnit: parsed.xUnit, yUnit: parsed.yUnit,
+        origin: group?.name ?? "Bandkeep", owner: group?.name ?? "", extra: { "BANDKEEP SPECTRUM": s.id, "SOURCE SHA256": s.sha256 },
+      });
+      add(`processed/${base}.jdx`, strToU8(jdx), "processed-jcamp");
+      own.push(`processed/${base}.csv`, `processed/${base}.jdx`);
+    } catch (error) {
+      note = `not processed: ${error instanceof Error ? error.message.split("\n")[0] : "unreadable file"}`;
+    }
+    for (const r of runs.filter((x) => x.spectrumId === s.id)) {
+      const path = `analyses/${base}/${r.id.slice(0, 8)}.json`;
+      const json = JSON.stringify({
+        runId: r.id, spectrumId: s.id, engineVersion: r.engineVersion, parameterHash: r.parameterHash, parameters: r.parameters,
+        referenceSpectrumId: r.referenceSpectrumId, startedAt: r.startedAt, finishedAt: r.finishedAt, report: r.report,
+      }, null, 2);
+      add(path, strToU8(json), "analysis");
+      own.push(path);
+    }
+    spectraOut.push({
+      id: s.id, fileName: s.fileName, sha256: s.sha256, sizeBytes: s.sizeBytes, technique: s.technique, status: s.status, sampleId: s.sampleId,
+      seriesId: s.seriesId, seriesValue: s.seriesValue, referenceSpectrumId: s.referenceSpectrumId, pathLengthCm: s.pathLengthCm,
+      excitationNm: s.excitationNm, solvent: s.solvent, uploadedAt: s.createdAt.toISOString(), files: own, ...(note ? { note } : {}),
+    });
+  }
+  const hazardLines = new Set<string>();
+  const samplesOut = samples.map((x) => {
+    const flags = hazardsOf({ material: x.material, coreShell: x.coreShell, solvent: x.solvent });
+    flags.forEach((f) => hazardLines.add(`${x.name}: ${f.caution}`));
+    return { id: x.id, name: x.name, material: x.material, coreShell: x.coreShell, ligand: x.ligand, solvent: x.solvent, hazardClass: x.hazardClass, cautions: flags.map((f) => f.caution) };
+  });
+  const head: Omit<Manifest, "files"> = {
+    format: BUNDLE_FORMAT, createdAt: new Date().toISOString(), createdBy, engineVersion: ENGINE_VERSION,
+    target: { type: target.type, id: target.id, name: targetName }, group: group?.name ?? "",
+    project: { id: project.id, name: project.name, description: project.description },
+    series: seriesList.map((x) => ({ id: x.id, name: x.name, kind: x.kind, variableName: x.variableName, variableUnit: x.variableUnit })),
+    samples: samplesOut, spectra: spectraOut,
+  };
+  add("README.txt", strToU8(readme(head, [...hazardLines])), "readme");
+  const manifest: Manifest = { ...head, files: listed };
+  files["manifest.json"] = strToU8(JSON.stringify(manifest, null, 2));
+  const bytes = zipSync(files, { level: 6, mtime: new Date() });
+  return { fileName: `bandkeep-${target.type}-${safeName(targetName).toLowerCase()}.zip`, bytes, manifest };
+}

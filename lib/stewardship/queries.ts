@@ -1,0 +1,219 @@
+import { Op } from "sequelize";
+import type { Actor } from "@/lib/auth/actor";
+import { canManageMembers, stewardGroupIds } from "@/lib/auth/access";
+import { selectRows } from "@/lib/db";
+import { Invitation, LegalHold, Membership, Project, RetentionFlag, RetentionPolicy, Series, Share, User, models } from "@/models";
+import { describeProtection, planSweep } from "./planSweep";
+import { loadSnapshot } from "./snapshot";
+import { DAY_MS, type DataClass, type PolicyRule, type SweepPlan } from "./types";
+
+// Reads behind the stewardship pages, reshaped into view rows. Every function is
+// limited to the groups the actor stewards (or leads, for members).
+
+export const DATA_CLASS_LABELS: Record<DataClass, string> = {
+  raw: "Raw files",
+  processed: "Processed data and analyses",
+  drafts: "Drafts and failed uploads",
+};
+
+export type ProjectOption = { id: string; name: string; groupId: string; groupName: string };
+
+export async function stewardProjects(actor: Actor): Promise<ProjectOption[]> {
+  models();
+  const groups = stewardGroupIds(actor);
+  if (!groups.length) return [];
+  const rows = await Project.findAll({ where: { groupId: { [Op.in]: groups } }, order: [["name", "ASC"]] });
+  const names = new Map(actor.memberships.map((m) => [m.groupId, m.groupName]));
+  return rows.map((p) => ({ id: p.id, name: p.name, groupId: p.groupId, groupName: names.get(p.groupId) ?? "" }));
+}
+
+export type PolicyRow = { id: string; projectId: string; projectName: string; dataClass: DataClass; keepDays: number; onExpiry: "delete" | "flag"; updatedAt: string };
+
+export async function listPolicies(actor: Actor): Promise<PolicyRow[]> {
+  const projects = await stewardProjects(actor);
+  if (!projects.length) return [];
+  const byId = new Map(projects.map((p) => [p.id, p]));
+  const rows = await RetentionPolicy.findAll({ where: { projectId: { [Op.in]: [...byId.keys()] } }, order: [["createdAt", "ASC"]] });
+  return rows.map((r) => ({ id: r.id, projectId: r.projectId, projectName: byId.get(r.projectId)?.name ?? "", dataClass: r.dataClass, keepDays: r.keepDays, onExpiry: r.onExpiry, updatedAt: r.updatedAt.toISOString() }));
+}
+
+export type PreviewRow = { id: string; kind: string; label: string; createdAt: string; expiredAt: string; sizeBytes: number; why?: string };
+export type PolicyPreview = { toDelete: PreviewRow[]; toFlag: PreviewRow[]; protectedItems: PreviewRow[]; bytes: number };
+
+/** The dry run: what this policy, if saved now, would delete, flag and keep in its project. */
+export async function previewPolicy(rule: Omit<PolicyRule, "id">, now = new Date()): Promise<PolicyPreview> {
+  const snapshot = await loadSnapshot([rule.projectId]);
+  const policies = [...snapshot.policies.filter((p) => !(p.projectId === rule.projectId && p.dataClass === rule.dataClass)), { ...rule, id: "preview" }];
+  const plan: SweepPlan = planSweep(snapshot.items, policies, snapshot.holds, now);
+  const mine = (a: { policy: PolicyRule }) => a.policy.id === "preview";
+  const row = (a: SweepPlan["toDelete"][number], why?: string): PreviewRow => ({
+    id: a.item.id, kind: a.item.kind, label: a.item.label, createdAt: a.item.createdAt.toISOString(), expiredAt: a.expiredAt.toISOString(), sizeBytes: a.item.sizeBytes, why,
+  });
+  const toDelete = plan.toDelete.filter(mine).map((a) => row(a));
+  return {
+    toDelete,
+    toFlag: plan.toFlag.filter(mine).map((a) => row(a)),
+    protectedItems: plan.protectedItems.filter(mine).map((a) => row(a, describeProtection(a.protection))),
+    bytes: toDelete.reduce((s, r) => s + r.sizeBytes, 0),
+  };
+}
+
+export type HoldRow = { id: string; targetType: string; targetId: string; targetLabel: string; reason: string; placedBy: string; placedAt: string; liftedAt: string | null; liftedBy: string | null };
+
+async function userLabels(ids: (string | null)[]): Promise<Map<string, string>> {
+  const list = [...new Set(ids.filter((x): x is string => !!x))];
+  if (!list.length) return new Map();
+  return new Map((await User.findAll({ where: { id: { [Op.in]: list } }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]));
+}
+
+export async function targetLabels(pairs: { targetType: string; targetId: string }[]): Promise<Map<string, string>> {
+  const out = new Map<string, string>();
+  const ids = (t: string) => [...new Set(pairs.filter((p) => p.targetType === t).map((p) => p.targetId))];
+  const lookups: [string, string][] = [["project", "projects"], ["series", "series"], ["sample", "samples"], ["spectrum", "spectra"]];
+  for (const [type, table] of lookups) {
+    const list = ids(type);
+    if (!list.length) continue;
+    const col = table === "spectra" ? "file_name" : "name";
+    const rows = await selectRows<{ id: string; label: string }>(`SELECT id, ${col} AS label FROM ${table} WHERE id IN (:list)`, { list });
+    for (const r of rows) out.set(`${type}:${r.id}`, r.label);
+  }
+  return out;
+}
+
+export async function listHolds(actor: Actor): Promise<HoldRow[]> {
+  models();
+  const groups = stewardGroupIds(actor);
+  if (!groups.length) return [];
+  const rows = await LegalHold.findAll({ where: { groupId: { [Op.in]: groups } }, order: [["placedAt", "DESC"]], limit: 300 });
+  const users = await userLabels(rows.flatMap((r) => [r.placedBy, r.liftedBy]));
+  const labels = await targetLabels(rows);
+  return rows.map((r) => ({
+    id: r.id, targetType: r.targetType, targetId: r.targetId, targetLabel: labels.get(`${r.targetType}:${r.targetId}`) ?? "(deleted)", reason: r.reason,
+    placedBy: users.get(r.placedBy ?? "") ?? "—", placedAt: r.placedAt.toISOString(), liftedAt: r.liftedAt?.toISOString() ?? null, liftedBy: r.liftedBy ? users.get(r.liftedBy) ?? "—" : null,
+  }));
+}
+
+export type HoldTargetOption = { type: "project" | "series" | "sample" | "spectrum"; id: string; label: string };
+
+/** What a steward can put under hold, grouped by kind. */
+export async function holdTargetOptions(actor: Actor): Promise<HoldTargetOption[]> {
+  const groups = stewardGroupIds(actor);
+  if (!groups.length) return [];
+  const rows = await selectRows<{ type: HoldTargetOption["type"]; id: string; label: string }>(
+    `SELECT 'project' AS type, p.id, p.name AS label FROM projects p WHERE p.group_id IN (:groups)
+     UNION ALL SELECT 'series', s.id, p.name || ' / ' || s.name FROM series s JOIN projects p ON p.id = s.project_id WHERE p.group_id IN (:groups)
+     UNION ALL SELECT 'sample', x.id, x.name FROM samples x WHERE x.group_id IN (:groups)
+     UNION ALL SELECT 'spectrum', sp.id, p.name || ' / ' || sp.file_name FROM spectra sp JOIN projects p ON p.id = sp.project_id WHERE p.group_id IN (:groups)
+     ORDER BY 1, 3 LIMIT 2000`,
+    { groups },
+  );
+  return rows;
+}
+
+export type FlagRow = { id: string; targetType: string; targetId: string; label: string; projectName: string; dataClass: DataClass; flaggedAt: string };
+
+export async function listOpenFlags(actor: Actor): Promise<FlagRow[]> {
+  models();
+  const groups = stewardGroupIds(actor);
+  if (!groups.length) return [];
+  const rows = await RetentionFlag.findAll({ where: { groupId: { [Op.in]: groups }, decision: null }, order: [["flaggedAt", "ASC"]], limit: 500 });
+  const projects = new Map((await Project.findAll({ where: { groupId: { [Op.in]: groups } }, attributes: ["id", "name"] })).map((p) => [p.id, p.name]));
+  return rows.map((r) => ({ id: r.id, targetType: r.targetType, targetId: r.targetId, label: r.label, projectName: projects.get(r.projectId) ?? "", dataClass: r.dataClass, flaggedAt: r.flaggedAt.toISOString() }));
+}
+
+// --- members, invitations and shares ---
+
+export type MemberRow = { id: string; userId: string; email: string; name: string; role: string; groupId: string; groupName: string; isSelf: boolean };
+export type InvitationRow = { id: string; email: string; role: string; groupName: string; expiresAt: string; state: "open" | "accepted" | "expired" | "revoked"; share: string | null };
+export type ShareRow = { id: string; targetType: string; targetId: string; targetLabel: string; grantee: string; expiresAt: string | null; revokedAt: string | null; live: boolean; createdAt: string };
+
+export function managedGroups(actor: Actor) {
+  return actor.memberships.filter((m) => canManageMembers(actor, m.groupId));
+}
+
+export async function listMembers(actor: Actor): Promise<MemberRow[]> {
+  models();
+  const groups = managedGroups(actor);
+  if (!groups.length) return [];
+  const names = new Map(groups.map((g) => [g.groupId, g.groupName]));
+  const rows = await Membership.findAll({ where: { groupId: { [Op.in]: [...names.keys()] } }, include: [User], order: [["role", "ASC"], ["createdAt", "ASC"]] });
+  return rows.map((m) => {
+    const u = (m as unknown as { User: User }).User;
+    return { id: m.id, userId: m.userId, email: u.email, name: u.name, role: m.role, groupId: m.groupId, groupName: names.get(m.groupId) ?? "", isSelf: m.userId === actor.id };
+  });
+}
+
+export async function listInvitations(actor: Actor): Promise<InvitationRow[]> {
+  models();
+  const groups = managedGroups(actor);
+  if (!groups.length) return [];
+  const names = new Map(groups.map((g) => [g.groupId, g.groupName]));
+  const rows = await Invitation.findAll({ where: { groupId: { [Op.in]: [...names.keys()] } }, order: [["createdAt", "DESC"]], limit: 100 });
+  const labels = await targetLabels(rows.filter((r) => r.shareTargetType).map((r) => ({ targetType: r.shareTargetType!, targetId: r.shareTargetId! })));
+  const now = Date.now();
+  return rows.map((r) => ({
+    id: r.id, email: r.email, role: r.role, groupName: names.get(r.groupId) ?? "", expiresAt: r.expiresAt.toISOString(),
+    state: r.acceptedAt ? "accepted" : r.revokedAt ? "revoked" : r.expiresAt.getTime() <= now ? "expired" : "open",
+    share: r.shareTargetType ? `${r.shareTargetType} ${labels.get(`${r.shareTargetType}:${r.shareTargetId}`) ?? ""}` : null,
+  }));
+}
+
+export async function listShares(actor: Actor): Promise<ShareRow[]> {
+  models();
+  const groups = stewardGroupIds(actor);
+  if (!groups.length) return [];
+  const rows = await Share.findAll({ where: { groupId: { [Op.in]: groups }, granteeUserId: { [Op.ne]: null } }, order: [["createdAt", "DESC"]], limit: 300 });
+  const users = await userLabels(rows.map((r) => r.granteeUserId));
+  const labels = await targetLabels(rows);
+  const now = Date.now();
+  return rows.map((r) => ({
+    id: r.id, targetType: r.targetType, targetId: r.targetId, targetLabel: labels.get(`${r.targetType}:${r.targetId}`) ?? "(deleted)",
+    grantee: users.get(r.granteeUserId ?? "") ?? "—", expiresAt: r.expiresAt?.toISOString() ?? null, revokedAt: r.revokedAt?.toISOString() ?? null,
+    live: !r.revokedAt && (!r.expiresAt || r.expiresAt.getTime() > now), createdAt: r.createdAt.toISOString(),
+  }));
+}
+
+export async function shareTargetOptions(actor: Actor): Promise<{ type: "project" | "series"; id: string; label: string }[]> {
+  const groups = managedGroups(actor).map((g) => g.groupId);
+  if (!groups.length) return [];
+  return selectRows(
+    `SELECT 'project' AS type, p.id, p.name AS label FROM projects p WHERE p.group_id IN (:groups)
+     UNION ALL SELECT 'series', s.id, p.name || ' / ' || s.name FROM series s JOIN projects p ON p.id = s.project_id WHERE p.group_id IN (:groups)
+     ORDER BY 1, 3`,
+    { groups },
+  );
+}
+
+// --- storage ---
+
+export type StorageRow = { projectId: string; projectName: string; dataClass: DataClass; items: number; bytes: number; policy: string | null; freeNow: number; free30: number; free365: number; nextExpiry: string | null };
+
+/** Use by project and data class, and what the current policies will free and when (holds and dependencies as of now). */
+export async function storageOverview(actor: Actor, now = new Date()): Promise<StorageRow[]> {
+  const projects = await stewardProjects(actor);
+  if (!projects.length) return [];
+  const snapshot = await loadSnapshot(projects.map((p) => p.id));
+  const at = (days: number) => planSweep(snapshot.items, snapshot.policies, snapshot.holds, new Date(now.getTime() + days * DAY_MS));
+  const horizons = { freeNow: at(0), free30: at(30), free365: at(365) };
+  const rows: StorageRow[] = [];
+  for (const p of projects) {
+    for (const dataClass of ["raw", "processed", "drafts"] as const) {
+      const items = snapshot.items.filter((i) => i.projectId === p.id && i.dataClass === dataClass);
+      const policy = snapshot.policies.find((x) => x.projectId === p.id && x.dataClass === dataClass);
+      const freed = (plan: SweepPlan) => plan.toDelete.filter((a) => a.item.projectId === p.id && a.item.dataClass === dataClass).reduce((s, a) => s + a.item.sizeBytes, 0);
+      const upcoming = policy ? items.map((i) => i.createdAt.getTime() + policy.keepDays * DAY_MS).filter((t) => t > now.getTime()).sort((a, b) => a - b)[0] : undefined;
+      rows.push({
+        projectId: p.id, projectName: p.name, dataClass, items: items.length, bytes: items.reduce((s, i) => s + i.sizeBytes, 0),
+        policy: policy ? `${policy.onExpiry === "delete" ? "delete" : "flag"} after ${policy.keepDays} days` : null,
+        freeNow: freed(horizons.freeNow), free30: freed(horizons.free30), free365: freed(horizons.free365),
+        nextExpiry: upcoming ? new Date(upcoming).toISOString() : null,
+      });
+    }
+  }
+  return rows;
+}
+
+export async function seriesOfProject(projectId: string) {
+  models();
+  return Series.findAll({ where: { projectId }, order: [["name", "ASC"]] });
+}
