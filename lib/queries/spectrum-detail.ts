@@ -1,7 +1,13 @@
 import type { Actor } from "@/lib/auth/actor";
 import { canReadSpectrum, canWrite, groupOfSpectrum } from "@/lib/auth/access";
 import { hazardsOf, type HazardFlag } from "@/lib/hazards";
-import { AnalysisRun, Peak, Project, Sample, Signature, Spectrum, models } from "@/models";
+import { AnalysisRun, Peak, Project, Sample, Signature, Spectrum, User, models } from "@/models";
+
+export type RunSummary = {
+  id: string; engineVersion: string; parameterHash: string; parameters: Record<string, unknown>; status: string;
+  errorMessage: string | null; noise: number | null; createdAt: string; startedAt: string | null; finishedAt: string | null;
+  durationMs: number | null; requestedBy: string | null; referenceSpectrumId: string | null;
+};
 
 export type SpectrumDetail = {
   id: string;
@@ -14,20 +20,54 @@ export type SpectrumDetail = {
   projectName: string;
   createdAt: string;
   acquisition: { label: string; value: string }[];
-  sample: { id: string; name: string; material: string; hazards: HazardFlag[] } | null;
+  sample: {
+    id: string; name: string; material: string; coreShell: string; ligand: string; solvent: string; hazards: HazardFlag[];
+    parents: { id: string; name: string; material: string }[];
+  } | null;
   reference: { id: string; fileName: string } | null;
   mayWrite: boolean;
-  latestRun: {
-    id: string; engineVersion: string; parameterHash: string; parameters: Record<string, unknown>; status: string;
-    errorMessage: string | null; noise: number | null; finishedAt: string | null; durationMs: number | null;
-    warnings: string[]; derived: Record<string, unknown> | null;
-  } | null;
-  peaks: { id: string; energyEv: number; wavelengthNm: number; height: number; fwhmMeV: number | null; isFirstExciton: boolean }[];
-  signatures: { id: string; kind: string; energyEv: number | null; fraction: number | null; shiftMeV: number | null; significance: number; reviewState: string }[];
-  earlierRuns: { id: string; engineVersion: string; status: string; createdAt: string }[];
+  /** The most recent run, whatever its state (a re-run may be waiting or running). */
+  latestRun: (RunSummary & { warnings: string[]; derived: Record<string, unknown> | null }) | null;
+  /** The most recent finished run: the one the chart, peaks and flags show. */
+  shownRun: (RunSummary & { warnings: string[]; derived: Record<string, unknown> | null; report: ReportParameters | null }) | null;
+  peaks: { id: string; energyEv: number; wavelengthNm: number; height: number; fwhmMeV: number | null; area: number | null; isFirstExciton: boolean }[];
+  signatures: {
+    id: string; kind: string; energyEv: number | null; wavelengthNm: number | null; fraction: number | null; shiftMeV: number | null;
+    fwhmChangeMeV: number | null; magnitude: number | null; unit: string | null; uncertainty: number | null; significance: number;
+    message: string | null; intraband: boolean; reviewState: string;
+  }[];
+  /** Every run but the latest, newest first, kept for provenance. */
+  earlierRuns: RunSummary[];
+};
+
+/** The parameters an analysis actually used (from its report), for the provenance panel and the re-run form. */
+export type ReportParameters = {
+  windowSize: number | null; derivativeWindowSize: number | null; polynomial: number | null; baseline: string | null;
+  normalization: string | null; thresholds: Record<string, number>; gridPoints: number | null; stepMeV: number | null;
+  excitationNm: number | null; pathLengthCm: number | null; material: string | null;
 };
 
 const fmt = (v: number | null, unit: string) => (v === null ? null : `${v} ${unit}`);
+const num = (v: unknown) => (typeof v === "number" && Number.isFinite(v) ? v : null);
+
+function reportParameters(report: Record<string, unknown> | null): ReportParameters | null {
+  const p = report?.parameters as Record<string, Record<string, unknown> | number | string | null> | undefined;
+  if (!p) return null;
+  const sm = (p.smoothing ?? {}) as Record<string, unknown>;
+  const grid = (p.grid ?? {}) as Record<string, unknown>;
+  const norm = (p.normalization ?? {}) as Record<string, unknown>;
+  const thresholds = Object.fromEntries(Object.entries((p.thresholds ?? {}) as Record<string, unknown>).filter(([, v]) => typeof v === "number")) as Record<string, number>;
+  let normalization: string | null = null;
+  if (norm.mode === "wavelength") normalization = `scaled to the reference at ${num(norm.wavelengthNm)} nm (× ${Number(norm.factor).toPrecision(4)})`;
+  else if (norm.mode === "concentration") normalization = `by concentration (× ${Number(norm.factor).toPrecision(4)})`;
+  else if (norm.mode) normalization = "none";
+  return {
+    windowSize: num(sm.windowSize), derivativeWindowSize: num(sm.derivativeWindowSize), polynomial: num(sm.polynomial),
+    baseline: typeof (p.baseline as Record<string, unknown> | null)?.mode === "string" ? `${(p.baseline as Record<string, unknown>).mode}${(p.baseline as Record<string, unknown>).applied ? "" : " (not applied)"}` : null,
+    normalization, thresholds, gridPoints: num(grid.points), stepMeV: num(grid.stepMeV),
+    excitationNm: num(p.excitationNm), pathLengthCm: num(p.pathLengthCm), material: typeof p.material === "string" ? p.material : null,
+  };
+}
 
 export async function getSpectrumDetail(actor: Actor, id: string): Promise<SpectrumDetail | null> {
   models();
@@ -35,40 +75,63 @@ export async function getSpectrumDetail(actor: Actor, id: string): Promise<Spect
   if (!spectrum || !(await canReadSpectrum(actor, spectrum))) return null;
   const [project, sample, reference, runs, groupId] = await Promise.all([
     Project.findByPk(spectrum.projectId),
-    spectrum.sampleId ? Sample.findByPk(spectrum.sampleId) : null,
+    spectrum.sampleId ? Sample.findByPk(spectrum.sampleId, { include: [{ model: Sample, as: "parents", attributes: ["id", "name", "material"] }] }) : null,
     spectrum.referenceSpectrumId ? Spectrum.findByPk(spectrum.referenceSpectrumId, { attributes: ["id", "fileName"] }) : null,
     AnalysisRun.findAll({ where: { spectrumId: id }, order: [["createdAt", "DESC"]], attributes: { exclude: ["report"] } }),
     groupOfSpectrum(spectrum),
   ]);
   const latest = runs[0] ?? null;
-  const [peaks, signatures, report] = latest
-    ? await Promise.all([
-        Peak.findAll({ where: { runId: latest.id }, order: [["energyEv", "ASC"]] }),
-        Signature.findAll({ where: { runId: latest.id }, order: [["significance", "DESC"]] }),
-        AnalysisRun.findByPk(latest.id, { attributes: ["report"] }).then((r) => r?.report as Record<string, unknown> | null),
-      ])
-    : [[], [], null];
+  const shown = runs.find((r) => r.status === "done") ?? null;
+  const requesterIds = [...new Set(runs.map((r) => r.requestedBy).filter((v): v is string => Boolean(v)))];
+  const [peaks, signatures, reports, requesters] = await Promise.all([
+    shown ? Peak.findAll({ where: { runId: shown.id }, order: [["energyEv", "ASC"]] }) : [],
+    shown ? Signature.findAll({ where: { runId: shown.id }, order: [["significance", "DESC"]] }) : [],
+    AnalysisRun.findAll({ where: { id: [latest?.id, shown?.id].filter((v): v is string => Boolean(v)) }, attributes: ["id", "report"] }),
+    requesterIds.length ? User.findAll({ where: { id: requesterIds }, attributes: ["id", "name"] }) : [],
+  ]);
+  const reportOf = (runId: string | undefined) => (reports.find((r) => r.id === runId)?.report as Record<string, unknown> | null) ?? null;
+  const nameOf = (userId: string | null) => (userId ? (requesters.find((u) => u.id === userId)?.name ?? "someone") : null);
+  const summary = (r: AnalysisRun): RunSummary => ({
+    id: r.id, engineVersion: r.engineVersion, parameterHash: r.parameterHash, parameters: r.parameters, status: r.status,
+    errorMessage: r.errorMessage, noise: r.noise, createdAt: r.createdAt.toISOString(), startedAt: r.startedAt?.toISOString() ?? null,
+    finishedAt: r.finishedAt?.toISOString() ?? null, durationMs: r.durationMs, requestedBy: nameOf(r.requestedBy),
+    referenceSpectrumId: r.referenceSpectrumId,
+  });
+  const withReport = (r: AnalysisRun) => {
+    const report = reportOf(r.id);
+    return {
+      ...summary(r),
+      warnings: Array.isArray(report?.warnings) ? (report.warnings as unknown[]).map(String) : [],
+      derived: (report?.derived as Record<string, unknown> | undefined) ?? null,
+    };
+  };
   const acquisition = [
     ["Axis unit", spectrum.axisUnit], ["Value unit", spectrum.valueUnit], ["Path length", fmt(spectrum.pathLengthCm, "cm")],
     ["Excitation", fmt(spectrum.excitationNm, "nm")], ["Slit", fmt(spectrum.slitNm, "nm")], ["Integration", fmt(spectrum.integrationMs, "ms")],
     ["Solvent", spectrum.solvent || null], ["Column", spectrum.columnChoice], ["Series value", spectrum.seriesValue === null ? null : String(spectrum.seriesValue)],
   ].filter((r): r is [string, string] => Boolean(r[1])).map(([label, value]) => ({ label, value }));
+  const parents = ((sample as unknown as { parents?: Sample[] } | null)?.parents ?? []).map((p) => ({ id: p.id, name: p.name, material: p.material }));
   return {
     id: spectrum.id, fileName: spectrum.fileName, technique: spectrum.technique, status: spectrum.status, errorMessage: spectrum.errorMessage,
     sha256: spectrum.sha256, sizeBytes: spectrum.sizeBytes, projectName: project?.name ?? "", createdAt: spectrum.createdAt.toISOString(),
     acquisition,
-    sample: sample ? { id: sample.id, name: sample.name, material: sample.material, hazards: hazardsOf(sample) } : null,
+    sample: sample
+      ? { id: sample.id, name: sample.name, material: sample.material, coreShell: sample.coreShell ?? "", ligand: sample.ligand ?? "", solvent: sample.solvent ?? "", hazards: hazardsOf(sample), parents }
+      : null,
     reference: reference ? { id: reference.id, fileName: reference.fileName } : null,
     mayWrite: groupId ? canWrite(actor, groupId) : false,
-    latestRun: latest && {
-      id: latest.id, engineVersion: latest.engineVersion, parameterHash: latest.parameterHash, parameters: latest.parameters,
-      status: latest.status, errorMessage: latest.errorMessage, noise: latest.noise,
-      finishedAt: latest.finishedAt?.toISOString() ?? null, durationMs: latest.durationMs,
-      warnings: Array.isArray(report?.warnings) ? (report.warnings as unknown[]).map(String) : [],
-      derived: (report?.derived as Record<string, unknown> | undefined) ?? null,
-    },
-    peaks: peaks.map((p) => ({ id: p.id, energyEv: p.energyEv, wavelengthNm: p.wavelengthNm, height: p.height, fwhmMeV: p.fwhmMeV, isFirstExciton: p.isFirstExciton })),
-    signatures: signatures.map((s) => ({ id: s.id, kind: s.kind, energyEv: s.energyEv, fraction: s.fraction, shiftMeV: s.shiftMeV, significance: s.significance, reviewState: s.reviewState })),
-    earlierRuns: runs.slice(1).map((r) => ({ id: r.id, engineVersion: r.engineVersion, status: r.status, createdAt: r.createdAt.toISOString() })),
+    latestRun: latest && withReport(latest),
+    shownRun: shown && { ...withReport(shown), report: reportParameters(reportOf(shown.id)) },
+    peaks: peaks.map((p) => ({ id: p.id, energyEv: p.energyEv, wavelengthNm: p.wavelengthNm, height: p.height, fwhmMeV: p.fwhmMeV, area: p.area, isFirstExciton: p.isFirstExciton })),
+    signatures: signatures.map((s) => {
+      const d = (s.details ?? {}) as Record<string, unknown>;
+      return {
+        id: s.id, kind: s.kind, energyEv: s.energyEv, wavelengthNm: num(d.wavelengthNm), fraction: s.fraction, shiftMeV: s.shiftMeV,
+        fwhmChangeMeV: num(d.fwhmChangeMeV), magnitude: num(d.magnitude), unit: typeof d.unit === "string" ? d.unit : null,
+        uncertainty: num(d.uncertainty), significance: s.significance, message: typeof d.message === "string" ? d.message : null,
+        intraband: d.intraband === true, reviewState: s.reviewState,
+      };
+    }),
+    earlierRuns: runs.slice(1).map(summary),
   };
 }

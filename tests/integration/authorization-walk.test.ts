@@ -1,7 +1,7 @@
 import { readdirSync, statSync } from "node:fs";
 import { join, relative } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { closeDb } from "@/lib/db";
+import { closeDb, selectRows } from "@/lib/db";
 import { DEMO, DEMO_PASSWORD, url } from "../helpers/app";
 import { demoIds } from "../helpers/demo-ids";
 import { sessionCookie } from "../helpers/session";
@@ -27,6 +27,12 @@ function uploadForm(ids: Ids): FormData {
   return form;
 }
 
+// A real flagged signature of the shared titration spectrum, for the review routes below.
+const [demoSignature] = await selectRows<{ id: string }>(
+  `SELECT g.id FROM signatures g JOIN spectra s ON s.id = g.spectrum_id WHERE s.file_name = 'titration-1.00eq.csv' ORDER BY g.created_at LIMIT 1`,
+);
+const signatureId = demoSignature?.id ?? "00000000-0000-4000-8000-000000000000";
+
 const ROUTES: Record<string, Call[]> = {
   "api/v1/projects": [{ method: "GET", path: () => "/api/v1/projects" }],
   "api/v1/openapi.json": [{ method: "GET", path: () => "/api/v1/openapi.json" }],
@@ -36,7 +42,24 @@ const ROUTES: Record<string, Call[]> = {
   "api/v1/spectra/[id]/analyses": [
     { method: "POST", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/analyses`, body: () => "{}", contentType: "application/json" },
   ],
+  "api/v1/spectra/[id]/data": [{ method: "GET", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/data?axis=nm` }],
+  "api/v1/spectra/[id]/export": [
+    { method: "GET", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/export?format=csv` },
+    { method: "GET", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/export?format=jcamp` },
+    { method: "GET", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/export?format=json` },
+  ],
   "api/v1/series/[id]": [{ method: "GET", path: (ids) => `/api/v1/series/${ids.privateSeries.id}` }],
+  "api/v1/series/[id]/export": [{ method: "GET", path: (ids) => `/api/v1/series/${ids.privateSeries.id}/export` }],
+  "api/v1/audit": [{ method: "GET", path: () => "/api/v1/audit?format=csv" }],
+  "api/v1/exports/[type]/[id]": [
+    { method: "GET", path: (ids) => `/api/v1/exports/project/${ids.project.id}` },
+    { method: "GET", path: (ids) => `/api/v1/exports/series/${ids.privateSeries.id}` },
+  ],
+  "api/v1/review/queue": [{ method: "GET", path: () => "/api/v1/review/queue" }],
+  "api/v1/signatures/[id]/decisions": [
+    { method: "GET", path: () => `/api/v1/signatures/${signatureId}/decisions` },
+    { method: "POST", path: () => `/api/v1/signatures/${signatureId}/decisions`, body: () => JSON.stringify({ decision: "dismissed", comment: "walk" }), contentType: "application/json" },
+  ],
 };
 
 function routeFiles(dir: string, root = dir): string[] {
@@ -122,7 +145,8 @@ describe("authorization walk over every route handler", () => {
 
   it("sends signed-out visitors of every page to sign-in", async () => {
     for (const page of ["/", "/upload", "/samples", "/samples/new", `/samples/${ids.privateSpectrum.sampleId}`, "/spectra", `/spectra/${ids.privateSpectrum.id}`,
-      "/series", `/series/${ids.sharedSeries.id}`, "/review", "/stewardship", "/settings"]) {
+      "/series", `/series/${ids.sharedSeries.id}`, "/review", "/stewardship", "/settings",
+      "/series/new", `/review/${signatureId}`]) {
       const response = await fetch(url(page), { redirect: "manual" });
       expect([302, 303, 307], page).toContain(response.status);
       expect(response.headers.get("location") ?? "", page).toContain("/signin");
@@ -130,7 +154,8 @@ describe("authorization walk over every route handler", () => {
   });
 
   it("shows a member of another group no page of this group's records", async () => {
-    for (const page of [`/spectra/${ids.privateSpectrum.id}`, `/samples/${ids.privateSpectrum.sampleId}`, `/series/${ids.privateSeries.id}`]) {
+    for (const page of [`/spectra/${ids.privateSpectrum.id}`, `/samples/${ids.privateSpectrum.sampleId}`, `/series/${ids.privateSeries.id}`,
+      `/review/${signatureId}`]) {
       const response = await fetch(url(page), { headers: { cookie: cookies.otherGroup } });
       expect(response.status, page).toBe(404);
     }

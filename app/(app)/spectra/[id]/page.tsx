@@ -2,106 +2,172 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireActor } from "@/lib/auth/actor";
-import { getSpectrumDetail } from "@/lib/queries/spectrum-detail";
-import { KIND_LABELS } from "@/lib/signature-labels";
+import { LIGHT_CAUTION } from "@/lib/hazards";
+import { getSpectrumDetail, type RunSummary } from "@/lib/queries/spectrum-detail";
+import { isDisplayAxis, type DisplayAxis } from "@/lib/spectrum-view/axis";
+import { THRESHOLD_FIELDS } from "@/lib/spectrum-view/rerunSchema";
+import { RerunForm } from "@/components/spectrum/RerunForm";
+import { DeleteSpectrumForm } from "@/components/stewardship/DeleteSpectrumForm";
+import { RunProgress } from "@/components/spectrum/RunProgress";
+import { SpectrumViewer } from "@/components/spectrum/SpectrumViewer";
 import { HazardNotice } from "@/components/ui/HazardNotice";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
+import { rerunAnalysis } from "./actions";
 
 export const metadata: Metadata = { title: "Spectrum" };
 
-const num = (v: number | null | undefined, digits: number) => (v === null || v === undefined || !Number.isFinite(v) ? "—" : v.toFixed(digits));
+const when = (iso: string | null) => (iso ? new Date(iso).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" }) : "—");
+const RUN_STATES: Record<string, string> = { queued: "waiting", running: "running", done: "finished", failed: "failed" };
 
-export default async function SpectrumPage({ params }: { params: Promise<{ id: string }> }) {
+function Panel({ title, children, testId }: { title: string; children: React.ReactNode; testId?: string }) {
+  return (
+    <section className="rounded-lg border border-stone-200 bg-white p-4 text-sm" data-testid={testId}>
+      <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">{title}</h2>
+      {children}
+    </section>
+  );
+}
+
+function RunLine({ run, spectrumId }: { run: RunSummary; spectrumId: string }) {
+  return (
+    <li className="border-t border-stone-100 py-1.5 first:border-t-0">
+      <div className="flex items-center justify-between gap-2">
+        <span className="font-mono text-xs" title={run.id}>{run.id.slice(0, 8)}</span>
+        <span className="text-xs text-ink-soft">{RUN_STATES[run.status] ?? run.status} · engine {run.engineVersion}</span>
+      </div>
+      <div className="flex items-center justify-between gap-2 text-xs text-ink-faint">
+        <span>{when(run.finishedAt ?? run.createdAt)}{run.requestedBy ? ` · ${run.requestedBy}` : ""}</span>
+        {run.status === "done" && <a className="text-glow-deep hover:underline" href={`/api/v1/spectra/${spectrumId}/export?format=json&run=${run.id}`}>report JSON</a>}
+      </div>
+      {run.status === "failed" && run.errorMessage && <p className="text-xs text-red-800">{run.errorMessage}</p>}
+    </li>
+  );
+}
+
+export default async function SpectrumPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const { id } = await params;
+  const query = await searchParams;
   const actor = await requireActor(`/spectra/${id}`);
   const s = /^[0-9a-f-]{36}$/i.test(id) ? await getSpectrumDetail(actor, id) : null;
   if (!s) notFound();
-  const run = s.latestRun;
+  const latest = s.latestRun;
+  const shown = s.shownRun;
+  const p = shown?.report ?? null;
+  const defaultAxis: DisplayAxis = s.technique === "ir" ? "cm-1" : "nm";
+  const initialAxis = isDisplayAxis(query.axis) ? query.axis : defaultAxis;
+  const inProgress = latest !== null && (latest.status === "queued" || latest.status === "running");
+  const hasReference = shown ? shown.referenceSpectrumId !== null : false;
+  const analysisNote = shown
+    ? null
+    : s.status === "failed"
+      ? `No curves to draw: this file could not be read. ${s.errorMessage ?? latest?.errorMessage ?? ""}`
+      : latest?.status === "failed"
+        ? `No curves to draw: the analysis failed. ${latest.errorMessage ?? ""}`
+        : "The analysis has not finished yet; the curves appear here when it has.";
+  const earlier = s.earlierRuns;
+
   return (
     <>
       <PageHeader
         title={s.fileName}
-        subtitle={<span className="flex items-center gap-2">{s.projectName} · {s.technique} <StatusBadge status={s.status} /></span>}
+        subtitle={<span className="flex items-center gap-2">{s.projectName} · {s.technique === "pl" ? "photoluminescence" : s.technique} <StatusBadge status={s.status} /></span>}
         actions={<a href={`/api/v1/spectra/${s.id}/raw`} className="rounded-md border border-stone-300 bg-white px-3 py-1.5 text-sm hover:bg-stone-50">Download raw file</a>}
       />
       {s.sample && s.sample.hazards.length > 0 && <div className="mb-4"><HazardNotice flags={s.sample.hazards} /></div>}
+      {s.technique === "pl" && (
+        <p role="note" aria-label="Light safety" className="mb-4 rounded-lg border border-caution/40 bg-caution-soft px-4 py-2 text-sm">
+          <span className="font-semibold text-caution">⚠ UV and laser light.</span> {LIGHT_CAUTION} Your institution&apos;s laser safety rules take precedence.
+        </p>
+      )}
       {s.status === "failed" && s.errorMessage && (
         <p role="alert" className="mb-4 rounded-md bg-red-50 px-4 py-3 text-sm text-red-800">This file could not be read: {s.errorMessage} The raw file is kept as it arrived.</p>
       )}
+      {inProgress && <div className="mb-4"><RunProgress spectrumId={s.id} /></div>}
       <div className="grid gap-6 xl:grid-cols-3">
-        <section className="space-y-4 xl:col-span-2">
-          <div className="rounded-lg border border-stone-200 bg-white">
-            <h2 className="border-b border-stone-100 px-4 py-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Flagged changes against the parent</h2>
-            {s.signatures.length === 0 ? (
-              <p className="px-4 py-3 text-sm text-ink-soft">{run?.status === "done" ? (s.reference ? "Nothing differs from the parent beyond the noise." : "No parent reference was set, so nothing was compared.") : "The analysis has not finished."}</p>
-            ) : (
-              <table className="w-full text-sm" data-testid="flags-table">
-                <thead className="text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-4 py-2">Change</th><th className="px-4 py-2">Energy (eV)</th><th className="px-4 py-2">Fraction</th><th className="px-4 py-2">Shift (meV)</th><th className="px-4 py-2">Significance</th><th className="px-4 py-2">Review</th></tr></thead>
-                <tbody className="tabular">
-                  {s.signatures.map((g) => (
-                    <tr key={g.id} className="border-t border-stone-100">
-                      <td className="px-4 py-1.5 font-medium">{KIND_LABELS[g.kind] ?? g.kind}</td>
-                      <td className="px-4 py-1.5">{num(g.energyEv, 3)}</td>
-                      <td className="px-4 py-1.5">{g.fraction === null ? "—" : `${(g.fraction * 100).toFixed(1)} %`}</td>
-                      <td className="px-4 py-1.5">{num(g.shiftMeV, 1)}</td>
-                      <td className="px-4 py-1.5">{num(g.significance, 1)}σ</td>
-                      <td className="px-4 py-1.5"><StatusBadge status={g.reviewState} /></td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-            )}
-          </div>
-          <div className="rounded-lg border border-stone-200 bg-white">
-            <h2 className="border-b border-stone-100 px-4 py-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Excitonic peaks</h2>
-            {s.peaks.length === 0 ? (
-              <p className="px-4 py-3 text-sm text-ink-soft">No peaks found{run?.status === "done" ? "" : " yet"}.</p>
-            ) : (
-              <table className="w-full text-sm" data-testid="peaks-table">
-                <thead className="text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-4 py-2">Energy (eV)</th><th className="px-4 py-2">Wavelength (nm)</th><th className="px-4 py-2">Height</th><th className="px-4 py-2">FWHM (meV)</th><th className="px-4 py-2"></th></tr></thead>
-                <tbody className="tabular">
-                  {s.peaks.map((p) => (
-                    <tr key={p.id} className="border-t border-stone-100">
-                      <td className="px-4 py-1.5">{num(p.energyEv, 3)}</td><td className="px-4 py-1.5">{num(p.wavelengthNm, 1)}</td>
-                      <td className="px-4 py-1.5">{num(p.height, 4)}</td><td className="px-4 py-1.5">{num(p.fwhmMeV, 0)}</td>
-                      <td className="px-4 py-1.5 text-xs text-glow-deep">{p.isFirstExciton ? "first exciton" : ""}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-            )}
-          </div>
-        </section>
+        <div className="min-w-0 xl:col-span-2">
+          <SpectrumViewer
+            spectrumId={s.id}
+            runId={shown?.id ?? null}
+            initialAxis={initialAxis}
+            peaks={s.peaks}
+            flags={s.signatures}
+            hasReference={hasReference}
+            analysisNote={analysisNote}
+          />
+        </div>
         <aside className="space-y-4">
-          <section className="rounded-lg border border-stone-200 bg-white p-4 text-sm">
-            <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Sample and parent</h2>
-            <p>Sample: {s.sample ? <Link className="text-glow-deep hover:underline" href={`/samples/${s.sample.id}`}>{s.sample.name}</Link> : "—"}</p>
-            <p>Parent reference: {s.reference ? <Link className="text-glow-deep hover:underline" href={`/spectra/${s.reference.id}`}>{s.reference.fileName}</Link> : "none set"}</p>
-          </section>
-          <section className="rounded-lg border border-stone-200 bg-white p-4 text-sm">
-            <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Acquisition</h2>
+          <Panel title="Sample and parents" testId="sample-panel">
+            {s.sample ? (
+              <dl className="grid grid-cols-[7rem_1fr] gap-y-1">
+                <dt className="text-ink-soft">Sample</dt><dd><Link className="text-glow-deep hover:underline" href={`/samples/${s.sample.id}`}>{s.sample.name}</Link></dd>
+                <dt className="text-ink-soft">Material</dt><dd>{s.sample.material}{s.sample.coreShell ? ` (${s.sample.coreShell})` : ""}</dd>
+                {s.sample.ligand && (<><dt className="text-ink-soft">Ligand</dt><dd>{s.sample.ligand}</dd></>)}
+                {s.sample.solvent && (<><dt className="text-ink-soft">Solvent</dt><dd>{s.sample.solvent}</dd></>)}
+                <dt className="text-ink-soft">Parent samples</dt>
+                <dd>
+                  {s.sample.parents.length === 0 ? "none (as-made)" : (
+                    <ul>{s.sample.parents.map((pa) => <li key={pa.id}><Link className="text-glow-deep hover:underline" href={`/samples/${pa.id}`}>{pa.name}</Link> <span className="text-ink-faint">{pa.material}</span></li>)}</ul>
+                  )}
+                </dd>
+              </dl>
+            ) : <p className="text-ink-soft">No sample registered for this spectrum.</p>}
+            <p className="mt-2">Parent reference spectrum: {s.reference ? <Link className="text-glow-deep hover:underline" href={`/spectra/${s.reference.id}`}>{s.reference.fileName}</Link> : <span className="text-ink-soft">none set</span>}</p>
+          </Panel>
+          <Panel title="Acquisition">
             <dl className="grid grid-cols-[7rem_1fr] gap-y-1">
               {s.acquisition.map((a) => (<div key={a.label} className="contents"><dt className="text-ink-soft">{a.label}</dt><dd>{a.value}</dd></div>))}
+              <dt className="text-ink-soft">Uploaded</dt><dd>{when(s.createdAt)}</dd>
               <dt className="text-ink-soft">sha256</dt><dd className="truncate font-mono text-xs" title={s.sha256}>{s.sha256}</dd>
               <dt className="text-ink-soft">Size</dt><dd>{(s.sizeBytes / 1024).toFixed(1)} KiB</dd>
             </dl>
-          </section>
-          <section className="rounded-lg border border-stone-200 bg-white p-4 text-sm">
-            <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Analysis provenance</h2>
-            {run ? (
+          </Panel>
+          <Panel title="Analysis provenance" testId="provenance">
+            {shown ? (
               <dl className="grid grid-cols-[7rem_1fr] gap-y-1">
-                <dt className="text-ink-soft">Engine</dt><dd>{run.engineVersion}</dd>
-                <dt className="text-ink-soft">State</dt><dd>{run.status}</dd>
-                <dt className="text-ink-soft">Noise (σ)</dt><dd className="tabular">{run.noise === null ? "—" : run.noise.toExponential(2)}</dd>
-                <dt className="text-ink-soft">Finished</dt><dd>{run.finishedAt ? new Date(run.finishedAt).toLocaleString("en-GB") : "—"}</dd>
-                <dt className="text-ink-soft">Took</dt><dd>{run.durationMs === null ? "—" : `${run.durationMs} ms`}</dd>
-                <dt className="text-ink-soft">Parameters</dt><dd className="truncate font-mono text-xs" title={JSON.stringify(run.parameters)}>{run.parameterHash.slice(0, 12)}</dd>
+                <dt className="text-ink-soft">Run</dt><dd className="font-mono text-xs" title={shown.id}>{shown.id.slice(0, 8)}</dd>
+                <dt className="text-ink-soft">Engine</dt><dd>{shown.engineVersion}</dd>
+                <dt className="text-ink-soft">Asked by</dt><dd>{shown.requestedBy ?? "upload"}</dd>
+                <dt className="text-ink-soft">Finished</dt><dd>{when(shown.finishedAt)}</dd>
+                <dt className="text-ink-soft">Took</dt><dd>{shown.durationMs === null ? "—" : `${shown.durationMs} ms`}</dd>
+                <dt className="text-ink-soft">Noise (σ)</dt><dd className="tabular">{shown.noise === null ? "—" : shown.noise.toExponential(2)}</dd>
+                {p && (
+                  <>
+                    <dt className="text-ink-soft">Grid</dt><dd className="tabular">{p.gridPoints ?? "—"} points, {p.stepMeV === null ? "—" : p.stepMeV.toPrecision(3)} meV apart</dd>
+                    <dt className="text-ink-soft">Smoothing</dt><dd className="tabular">Savitzky–Golay, {p.windowSize ?? "—"} points, order {p.polynomial ?? "—"}; derivatives {p.derivativeWindowSize ?? "—"} points</dd>
+                    <dt className="text-ink-soft">Baseline</dt><dd>{p.baseline ?? "—"}</dd>
+                    <dt className="text-ink-soft">Normalisation</dt><dd>{p.normalization ?? "—"}</dd>
+                    <dt className="text-ink-soft">Flag when at least</dt>
+                    <dd className="tabular text-xs">{THRESHOLD_FIELDS.filter((f) => p.thresholds[f.name] !== undefined).map((f) => <span key={f.name} className="block">{f.label.replace(/^Least /, "")}: {p.thresholds[f.name]}</span>)}</dd>
+                    {p.excitationNm !== null && (<><dt className="text-ink-soft">Excitation</dt><dd>{p.excitationNm} nm</dd></>)}
+                    {p.material && (<><dt className="text-ink-soft">Material</dt><dd>{p.material}</dd></>)}
+                  </>
+                )}
+                <dt className="text-ink-soft">Parameter hash</dt><dd className="truncate font-mono text-xs" title={shown.parameterHash}>{shown.parameterHash.slice(0, 12)}</dd>
               </dl>
-            ) : <p className="text-ink-soft">Not analysed yet.</p>}
-            {run?.warnings.length ? <ul className="mt-2 list-disc pl-5 text-xs text-caution">{run.warnings.map((w) => <li key={w}>{w}</li>)}</ul> : null}
-            {s.earlierRuns.length > 0 && <p className="mt-2 text-xs text-ink-soft">{s.earlierRuns.length} earlier run(s) kept for provenance.</p>}
-          </section>
+            ) : <p className="text-ink-soft">No finished analysis yet.</p>}
+            {shown?.warnings.length ? <ul className="mt-2 list-disc pl-5 text-xs text-caution">{shown.warnings.map((w) => <li key={w}>{w}</li>)}</ul> : null}
+          </Panel>
+          <Panel title="Runs" testId="runs">
+            {latest && latest.id !== shown?.id && (
+              <p className="mb-1 text-xs text-ink-soft">Latest run ({RUN_STATES[latest.status] ?? latest.status}) is not the one shown.</p>
+            )}
+            {earlier.length === 0 && latest?.id === shown?.id ? (
+              <p className="text-ink-soft">Only the run shown.</p>
+            ) : (
+              <ul>{[latest, ...earlier].filter((r): r is RunSummary => Boolean(r)).map((r) => <RunLine key={r.id} run={r} spectrumId={s.id} />)}</ul>
+            )}
+          </Panel>
+          {s.mayWrite && s.status !== "failed" && (
+            <Panel title="Re-run with changed parameters" testId="rerun">
+              <RerunForm
+                spectrumId={s.id}
+                action={rerunAnalysis}
+                current={{ windowSize: p?.windowSize ?? null, polynomial: p?.polynomial ?? null, baseline: p?.baseline?.replace(" (not applied)", "") ?? null, thresholds: p?.thresholds ?? {} }}
+              />
+            </Panel>
+          )}
+          {s.mayWrite && <DeleteSpectrumForm spectrumId={s.id} />}
         </aside>
       </div>
     </>

@@ -1,0 +1,28 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { ActionRefused, protectedAction } from "@/lib/actions/protected";
+import { IngestError, requestReanalysis } from "@/lib/ingest";
+import { rerunFormSchema, toReanalysisChanges } from "@/lib/spectrum-view/rerunSchema";
+
+/** Re-runs the analysis of one spectrum with changed parameters; earlier runs are kept for provenance. */
+export const rerunAnalysis = protectedAction(rerunFormSchema, async (input, actor) => {
+  const changes = toReanalysisChanges(input);
+  if (Object.keys(changes).length === 0) throw new ActionRefused("Change at least one parameter; an unchanged run would repeat the last one.", "form");
+  try {
+    const result = await requestReanalysis(input.spectrumId, changes, actor);
+    revalidatePath(`/spectra/${input.spectrumId}`);
+    const message = result.created
+      ? "A new analysis run was queued; the earlier runs are kept."
+      : result.status === "done"
+        ? "These parameters were already analysed: that run is shown."
+        : "A run with these parameters is already on its way.";
+    return { ok: true, message, values: { runId: result.runId, status: result.status } };
+  } catch (error) {
+    if (error instanceof IngestError) {
+      const field = error.field?.startsWith("thresholds.") ? error.field.slice("thresholds.".length) : error.field;
+      throw new ActionRefused(error.status === 404 ? "This spectrum was not found." : error.message, field);
+    }
+    throw error;
+  }
+});

@@ -1,0 +1,25 @@
+import { withActor } from "@/lib/http/respond";
+import { toApiError } from "@/lib/ingest/apiErrors";
+import { dataPayload, findViewRun, parseViewQuery, viewQuerySchema } from "@/lib/spectrum-view/viewData";
+
+export const runtime = "nodejs";
+export const dynamic = "force-dynamic";
+
+/**
+ * GET /api/v1/spectra/{id}/data?axis=nm|ev|cm-1[&run=RUN_ID] — the curves of the latest finished
+ * analysis (or of the run named) as columnar arrays: {x, series: {raw, smoothed, reference, difference}}.
+ */
+export const GET = withActor<{ params: Promise<{ id: string }> }>(async (request, { actor, params }) => {
+  const { id } = await params;
+  const query = parseViewQuery(viewQuerySchema, request.url);
+  try {
+    const { spectrum, run } = await findViewRun(actor, id, query.run);
+    const etag = `"${run.id}-${query.axis}-v1"`;
+    const headers = { ETag: etag, "Cache-Control": "private, no-cache", Vary: "Authorization, Cookie" };
+    if (request.headers.get("if-none-match") === etag) return new Response(null, { status: 304, headers });
+    const { body, cache } = await dataPayload(spectrum, run, query.axis);
+    return new Response(body as Uint8Array<ArrayBuffer>, { status: 200, headers: { ...headers, "Content-Type": "application/json; charset=utf-8", "Content-Length": String(body.length), "X-Bandkeep-Cache": cache } });
+  } catch (error) {
+    throw toApiError(error);
+  }
+});

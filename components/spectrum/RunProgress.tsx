@@ -1,0 +1,47 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useEffect, useRef } from "react";
+import useSWR from "swr";
+import { StatusBadge } from "@/components/ui/StatusBadge";
+
+type Status = { spectrum: { id: string; status: string; error: string | null }; analysis: { status: string; error: string | null } | null };
+const FINAL = new Set(["analysed", "failed"]);
+
+async function fetchStatus(url: string): Promise<Status> {
+  const res = await fetch(url, { headers: { Accept: "application/json" } });
+  const body = await res.json().catch(() => null);
+  if (!res.ok) throw new Error(body?.error?.message ?? `status check answered ${res.status}`);
+  return body as Status;
+}
+
+/** Progress of a waiting or running analysis, polled until it settles; then the page reloads its data. */
+export function RunProgress({ spectrumId }: { spectrumId: string }) {
+  const router = useRouter();
+  const refreshed = useRef(false);
+  const { data, error } = useSWR(`/api/v1/spectra/${spectrumId}`, fetchStatus, {
+    refreshInterval: (latest) => (latest && FINAL.has(latest.spectrum.status) ? 0 : 1000),
+    revalidateOnFocus: false,
+  });
+  const status = data?.spectrum.status;
+  useEffect(() => {
+    if (status && FINAL.has(status) && !refreshed.current) {
+      refreshed.current = true;
+      router.refresh();
+    }
+  }, [status, router]);
+  return (
+    <div role="status" className="flex items-center gap-2 rounded-md bg-sky-50 px-3 py-2 text-sm text-sky-900" data-testid="run-progress">
+      {!data ? (error ? "Status unavailable, retrying…" : "Checking the analysis…") : FINAL.has(data.spectrum.status) ? (
+        <>
+          The new run has finished: <StatusBadge status={data.spectrum.status} /> {data.spectrum.status === "failed" ? (data.spectrum.error ?? data.analysis?.error ?? "") : "showing it now."}
+        </>
+      ) : (
+        <>
+          <span className="inline-block h-3 w-3 animate-spin rounded-full border-2 border-sky-700 border-t-transparent" aria-hidden /> New analysis run: <StatusBadge status={data.spectrum.status} />
+          <span className="text-xs text-sky-800">the chart shows the last finished run until it is done</span>
+        </>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,208 @@
+"use client";
+
+import { useCallback, useMemo, useState } from "react";
+import useSWR from "swr";
+import { StatusBadge } from "@/components/ui/StatusBadge";
+import { KIND_LABELS } from "@/lib/signature-labels";
+import { AXIS_LABELS, DISPLAY_AXES, energyToAxis, type DisplayAxis } from "@/lib/spectrum-view/axis";
+import type { SpectrumDataPayload } from "@/lib/spectrum-view/payload";
+import { FLAG_COLOURS } from "./markerStyle";
+import { SpectrumChart } from "./SpectrumChart";
+import type { FlagRow, Marker, PeakRow } from "./types";
+
+async function fetchData(url: string): Promise<SpectrumDataPayload> {
+  const res = await fetch(url, { headers: { Accept: "application/json" } });
+  const body = await res.json().catch(() => null);
+  if (!res.ok) throw new Error(body?.error?.message ?? `the curves could not be loaded (${res.status})`);
+  return body as SpectrumDataPayload;
+}
+
+const num = (v: number | null | undefined, digits: number) => (v === null || v === undefined || !Number.isFinite(v) ? "—" : v.toFixed(digits));
+
+function magnitude(f: FlagRow): string {
+  if (f.kind === "shift") return f.shiftMeV === null ? "—" : `${f.shiftMeV > 0 ? "+" : ""}${f.shiftMeV.toFixed(1)} meV`;
+  if (f.kind === "broadening") return f.fwhmChangeMeV === null ? (f.fraction === null ? "—" : `${(f.fraction * 100).toFixed(1)} %`) : `+${f.fwhmChangeMeV.toFixed(1)} meV FWHM`;
+  if (f.fraction !== null) return `${(f.fraction * 100).toFixed(1)} %`;
+  if (f.magnitude !== null) return `${f.magnitude.toPrecision(3)}${f.unit === "meV" ? " meV" : ""}`;
+  return "—";
+}
+
+function position(energyEv: number | null, axis: DisplayAxis): string {
+  if (energyEv === null || !(energyEv > 0)) return "—";
+  const v = energyToAxis(energyEv, axis);
+  return axis === "ev" ? `${v.toFixed(3)} eV` : axis === "nm" ? `${v.toFixed(1)} nm` : `${v.toFixed(0)} cm⁻¹`;
+}
+
+/**
+ * The chart with its axis switch and downloads, and the tables of flags and peaks, linked both
+ * ways: hovering or clicking a row lights its marker, hovering or clicking a marker lights its row.
+ */
+export function SpectrumViewer({
+  spectrumId, runId, initialAxis, peaks, flags, hasReference, analysisNote,
+}: {
+  spectrumId: string;
+  runId: string | null;
+  initialAxis: DisplayAxis;
+  peaks: PeakRow[];
+  flags: FlagRow[];
+  hasReference: boolean;
+  /** Shown instead of the chart when there is no finished analysis. */
+  analysisNote: string | null;
+}) {
+  const [axis, setAxisState] = useState<DisplayAxis>(initialAxis);
+  const [hover, setHover] = useState<string | null>(null);
+  const [pinned, setPinned] = useState<string | null>(null);
+  const active = hover ?? pinned;
+  const key = runId ? `/api/v1/spectra/${spectrumId}/data?axis=${axis}&run=${runId}` : null;
+  const { data, error, isLoading } = useSWR(key, fetchData, { revalidateOnFocus: false, shouldRetryOnError: false });
+
+  const setAxis = (a: DisplayAxis) => {
+    setAxisState(a);
+    const url = new URL(window.location.href);
+    url.searchParams.set("axis", a);
+    window.history.replaceState(null, "", url);
+  };
+
+  const markers = useMemo<Marker[]>(
+    () => [
+      ...flags.filter((f) => f.energyEv !== null && f.energyEv > 0).map((f) => ({
+        id: f.id, group: "flag" as const, kind: f.kind, energyEv: f.energyEv!,
+        label: `${KIND_LABELS[f.kind] ?? f.kind} at ${position(f.energyEv, axis)}, ${magnitude(f)}, ${num(f.significance, 1)}σ`,
+      })),
+      ...peaks.map((p) => ({
+        id: p.id, group: "peak" as const, kind: p.isFirstExciton ? "first-exciton" : "peak", energyEv: p.energyEv,
+        label: `${p.isFirstExciton ? "First exciton" : "Peak"} at ${position(p.energyEv, axis)}`,
+      })),
+    ],
+    [flags, peaks, axis],
+  );
+
+  const pick = useCallback((id: string) => {
+    setPinned((p) => (p === id ? null : id));
+    document.querySelector(`[data-row-id="${id}"]`)?.scrollIntoView({ block: "nearest", behavior: "smooth" });
+  }, []);
+
+  const rowClass = (id: string) => `cursor-pointer border-t border-stone-100 ${active === id ? "bg-glow-soft" : "hover:bg-stone-50"}`;
+  const exportHref = (q: string) => `/api/v1/spectra/${spectrumId}/export?${q}${runId ? `&run=${runId}` : ""}`;
+
+  return (
+    <div className="space-y-4">
+      <section className="rounded-lg border border-stone-200 bg-white p-4" aria-label="Spectrum chart">
+        <div className="mb-3 flex flex-wrap items-center gap-3">
+          <div role="group" aria-label="Axis" className="inline-flex overflow-hidden rounded-md border border-stone-300 text-sm">
+            {DISPLAY_AXES.map((a) => (
+              <button
+                key={a}
+                type="button"
+                aria-pressed={axis === a}
+                onClick={() => setAxis(a)}
+                className={`px-3 py-1 ${axis === a ? "bg-dusk text-white" : "bg-white hover:bg-stone-50"}`}
+              >
+                {AXIS_LABELS[a].short}
+              </button>
+            ))}
+          </div>
+          {data?.emission && axis !== "nm" && (
+            <span className="text-xs text-ink-soft" title="I(E) = I(λ)·λ²/hc (Mooney & Kambhampati 2013)">emission converted per {AXIS_LABELS[axis].unit} (Jacobian)</span>
+          )}
+          {runId && (
+            <details className="relative ml-auto text-sm">
+              <summary className="cursor-pointer list-none rounded-md border border-stone-300 bg-white px-3 py-1 hover:bg-stone-50">Downloads ▾</summary>
+              <ul className="absolute right-0 z-20 mt-1 w-72 rounded-md border border-stone-200 bg-white py-1 shadow-lg">
+                <li><a className="block px-3 py-1.5 hover:bg-stone-50" href={`/api/v1/spectra/${spectrumId}/raw`}>Raw file, as uploaded</a></li>
+                <li><a className="block px-3 py-1.5 hover:bg-stone-50" href={exportHref(`format=csv&axis=${axis}`)}>Processed curves, CSV ({AXIS_LABELS[axis].short})</a></li>
+                <li><a className="block px-3 py-1.5 hover:bg-stone-50" href={exportHref(`format=jcamp&axis=${axis}&series=smoothed`)}>Smoothed curve, JCAMP-DX ({AXIS_LABELS[axis].short})</a></li>
+                {hasReference && <li><a className="block px-3 py-1.5 hover:bg-stone-50" href={exportHref(`format=jcamp&axis=${axis}&series=difference`)}>Difference, JCAMP-DX ({AXIS_LABELS[axis].short})</a></li>}
+                <li><a className="block px-3 py-1.5 hover:bg-stone-50" href={exportHref("format=json")}>Analysis report, JSON</a></li>
+              </ul>
+            </details>
+          )}
+        </div>
+        {analysisNote ? (
+          <p className="rounded-md bg-stone-50 px-4 py-10 text-center text-sm text-ink-soft" data-testid="chart-empty">{analysisNote}</p>
+        ) : error ? (
+          <p role="alert" className="rounded-md bg-red-50 px-4 py-10 text-center text-sm text-red-800">{error.message}</p>
+        ) : isLoading || !data ? (
+          <div className="animate-pulse space-y-2" data-testid="chart-skeleton" aria-label="Loading the curves">
+            <div className="h-4 w-1/3 rounded bg-stone-200" />
+            <div className="h-[380px] rounded bg-stone-100" />
+          </div>
+        ) : (
+          <>
+            <SpectrumChart data={data} axis={axis} markers={markers} active={active} onHover={setHover} onPick={pick} />
+            {!hasReference && <p className="mt-2 text-xs text-ink-soft">No parent reference was set, so there is no reference curve or difference.</p>}
+            <p className="mt-1 text-xs text-ink-faint">{data.points.toLocaleString("en-GB")} points on the analysis grid; the difference is smoothed sample − smoothed reference.</p>
+          </>
+        )}
+      </section>
+
+      <section className="rounded-lg border border-stone-200 bg-white">
+        <h2 className="border-b border-stone-100 px-4 py-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Flagged changes against the parent</h2>
+        {flags.length === 0 ? (
+          <p className="px-4 py-3 text-sm text-ink-soft">{runId ? (hasReference ? "Nothing differs from the parent beyond the noise." : "No parent reference was set, so nothing was compared.") : "The analysis has not finished."}</p>
+        ) : (
+          <table className="w-full text-sm" data-testid="flags-table">
+            <thead className="text-left text-xs uppercase tracking-wide text-ink-soft">
+              <tr><th className="px-4 py-2">Change</th><th className="px-4 py-2">Position</th><th className="px-4 py-2">Magnitude</th><th className="px-4 py-2">Significance</th><th className="px-4 py-2">Review</th></tr>
+            </thead>
+            <tbody className="tabular">
+              {flags.map((f) => (
+                <tr
+                  key={f.id}
+                  data-row-id={f.id}
+                  className={rowClass(f.id)}
+                  aria-selected={active === f.id}
+                  onMouseEnter={() => setHover(f.id)}
+                  onMouseLeave={() => setHover(null)}
+                  onClick={() => setPinned((p) => (p === f.id ? null : f.id))}
+                  title={f.message ?? undefined}
+                >
+                  <td className="px-4 py-1.5 font-medium">
+                    <span className="mr-1.5 inline-block h-2.5 w-2.5 rounded-sm align-middle" style={{ background: FLAG_COLOURS[f.kind] ?? "#b7791f" }} aria-hidden />
+                    {KIND_LABELS[f.kind] ?? f.kind}{f.intraband ? " (intraband)" : ""}
+                  </td>
+                  <td className="px-4 py-1.5">{position(f.energyEv, axis)}</td>
+                  <td className="px-4 py-1.5">{magnitude(f)}{f.uncertainty !== null && f.unit === "fraction" ? <span className="text-ink-faint"> ± {(f.uncertainty * 100).toFixed(1)} %</span> : null}</td>
+                  <td className="px-4 py-1.5">{num(f.significance, 1)}σ</td>
+                  <td className="px-4 py-1.5"><StatusBadge status={f.reviewState} /></td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </section>
+
+      <section className="rounded-lg border border-stone-200 bg-white">
+        <h2 className="border-b border-stone-100 px-4 py-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Excitonic peaks</h2>
+        {peaks.length === 0 ? (
+          <p className="px-4 py-3 text-sm text-ink-soft">No peaks found{runId ? "" : " yet"}.</p>
+        ) : (
+          <table className="w-full text-sm" data-testid="peaks-table">
+            <thead className="text-left text-xs uppercase tracking-wide text-ink-soft">
+              <tr><th className="px-4 py-2">Energy (eV)</th><th className="px-4 py-2">Wavelength (nm)</th><th className="px-4 py-2">Height</th><th className="px-4 py-2">FWHM (meV)</th><th className="px-4 py-2"></th></tr>
+            </thead>
+            <tbody className="tabular">
+              {peaks.map((p) => (
+                <tr
+                  key={p.id}
+                  data-row-id={p.id}
+                  className={rowClass(p.id)}
+                  aria-selected={active === p.id}
+                  onMouseEnter={() => setHover(p.id)}
+                  onMouseLeave={() => setHover(null)}
+                  onClick={() => setPinned((q) => (q === p.id ? null : p.id))}
+                >
+                  <td className="px-4 py-1.5">{num(p.energyEv, 3)}</td>
+                  <td className="px-4 py-1.5">{num(p.wavelengthNm, 1)}</td>
+                  <td className="px-4 py-1.5">{num(p.height, 4)}</td>
+                  <td className="px-4 py-1.5">{num(p.fwhmMeV, 0)}</td>
+                  <td className="px-4 py-1.5 text-xs text-glow-deep">{p.isFirstExciton ? "first exciton" : ""}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </section>
+    </div>
+  );
+}

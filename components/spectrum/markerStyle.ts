@@ -1,0 +1,16 @@
+// Our own marker colours: flags by kind (drawn from the palette), peaks in a quiet ink.
+export const FLAG_COLOURS: Record<string, string> = {
+  bleach: "#b7791f",
+  "new-band": "#2f8a5b",
+  "pl-quench": "#7c3aed",
+  shift: "#0e7490",
+  broadening: "#be185d",
+};
+export const PEAK_COLOUR = "#8a93a3";
+
+export const SERIES_STYLE = {
+  raw: { label: "measured", stroke: "#b8b2ac", width: 1 },
+  smoothed: { label: "smoothed", stroke: "#1d2430", width: 1.6 },
+  reference: { label: "parent reference", stroke: "#3b6ea8", width: 1.6, dash: [7, 4] },
+  difference: { label: "difference (right axis)", stroke: "#d9622b", width: 1.4 },
+} as const;

@@ -1,0 +1,62 @@
+import { AXIS_LABELS, toDisplayAxis, type DisplayAxis } from "./axis";
+import type { ViewArrays } from "./deriveViewArrays";
+import { formatNumber } from "./formatNumber";
+
+export const SERIES_KEYS = ["raw", "smoothed", "reference", "difference"] as const;
+export type SeriesKey = (typeof SERIES_KEYS)[number];
+
+/** Body of GET /api/v1/spectra/{id}/data: columnar arrays, never one object per point. */
+export interface SpectrumDataPayload {
+  spectrumId: string;
+  runId: string;
+  axis: DisplayAxis;
+  xLabel: string;
+  yLabel: string;
+  emission: boolean;
+  points: number;
+  x: number[];
+  series: Record<SeriesKey, (number | null)[] | null>;
+}
+
+function jsonArray(a: Float64Array, digits: number): string {
+  let s = "[";
+  for (let i = 0; i < a.length; i++) {
+    if (i) s += ",";
+    const t = formatNumber(a[i]!, digits);
+    s += t === "" ? "null" : t;
+  }
+  return `${s}]`;
+}
+
+export function yLabelFor(technique: string, yUnit: string, emission: boolean, axis: DisplayAxis): string {
+  if (emission) return `Emission (counts per ${AXIS_LABELS[axis].unit})`;
+  if (technique === "pl") return "Emission (as recorded)";
+  if (yUnit === "percent-transmittance") return "Absorbance (from %T)";
+  return "Absorbance";
+}
+
+/**
+ * The data endpoint's JSON text for one axis, written by hand so a 100,000-point spectrum costs
+ * one string build: X with 9 significant digits (enough to tell neighbouring points of any grid we
+ * make apart), values with 7 (float32 precision, beyond any instrument's).
+ */
+export function buildDataPayload(
+  arrays: ViewArrays,
+  axis: DisplayAxis,
+  meta: { spectrumId: string; runId: string; technique: string; yUnit: string },
+): string {
+  const d = toDisplayAxis(arrays.energyEv, { raw: arrays.raw, smoothed: arrays.smoothed, reference: arrays.reference, difference: arrays.difference }, axis, {
+    emission: arrays.emission,
+  });
+  const head = {
+    spectrumId: meta.spectrumId,
+    runId: meta.runId,
+    axis,
+    xLabel: AXIS_LABELS[axis].title,
+    yLabel: yLabelFor(meta.technique, meta.yUnit, arrays.emission, axis),
+    emission: arrays.emission,
+    points: d.x.length,
+  };
+  const series = SERIES_KEYS.map((k) => `${JSON.stringify(k)}:${d.series[k] ? jsonArray(d.series[k]!, 7) : "null"}`).join(",");
+  return `${JSON.stringify(head).slice(0, -1)},"x":${jsonArray(d.x, 9)},"series":{${series}}}`;
+}

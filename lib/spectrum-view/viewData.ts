@@ -1,0 +1,155 @@
+// Server side of the viewer: finds the run to show, re-derives its arrays from the raw file(s) and
+// the engine, and caches the results (in-process LRU first, Redis second) by run id and axis. A
+// finished run never changes, so its arrays never go stale; the engine version is in the key so a
+// new engine re-derives.
+import { Op } from "sequelize";
+import { z } from "zod";
+import type { Actor } from "@/lib/auth/actor";
+import { config } from "@/lib/config";
+import { ENGINE_VERSION, SpectrumFileError, parseSpectrumFile } from "@/lib/engine";
+import type { AnalysisReport, ParsedSpectrum } from "@/lib/engine/types";
+import { ApiError, notFound } from "@/lib/http/respond";
+import { columnChoice } from "@/lib/ingest/parameters";
+import { getReadableSpectrum } from "@/lib/ingest/queries";
+import { redis } from "@/lib/redis";
+import { getObjectBytes } from "@/lib/storage";
+import { AnalysisRun, Spectrum, models } from "@/models";
+import { DISPLAY_AXES, type DisplayAxis } from "./axis";
+import { deriveViewArrays, type ViewArrays } from "./deriveViewArrays";
+import { SizedLru } from "./lruCache";
+import { buildDataPayload } from "./payload";
+
+export const viewQuerySchema = z.object({
+  axis: z.enum(DISPLAY_AXES, { error: "axis must be nm, ev or cm-1" }).default("nm"),
+  run: z.string().uuid("run must be an analysis run id (UUID)").optional(),
+});
+
+/** Parses the query string, naming the field in the error. */
+export function parseViewQuery<S extends z.ZodType>(schema: S, url: string): z.infer<S> {
+  const params = Object.fromEntries(new URL(url).searchParams.entries());
+  const parsed = schema.safeParse(params);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    const field = issue?.path.map(String).join(".") || undefined;
+    throw new ApiError(400, "invalid", `${field ? `${field}: ` : ""}${issue?.message ?? "invalid query"}`, field);
+  }
+  return parsed.data;
+}
+
+export type ViewRun = Pick<AnalysisRun, "id" | "status" | "parameters" | "referenceSpectrumId" | "engineVersion" | "errorMessage">;
+
+/**
+ * The spectrum (when the actor may read it; else 404) and the run to show: the one asked for, or
+ * the latest finished one. 409 while nothing has finished; 422 with the engine's message when the
+ * analysis failed.
+ */
+export async function findViewRun(actor: Actor, spectrumId: string, runId?: string): Promise<{ spectrum: Spectrum; run: ViewRun }> {
+  const spectrum = await getReadableSpectrum(actor, spectrumId);
+  if (!spectrum) throw notFound(`spectrum ${spectrumId.slice(0, 80)}`);
+  models();
+  const attributes = ["id", "status", "parameters", "referenceSpectrumId", "engineVersion", "errorMessage"];
+  const run = runId
+    ? await AnalysisRun.findOne({ where: { id: runId, spectrumId }, attributes })
+    : ((await AnalysisRun.findOne({ where: { spectrumId, status: "done" }, order: [["createdAt", "DESC"]], attributes })) ??
+      (await AnalysisRun.findOne({ where: { spectrumId, status: { [Op.ne]: "done" } }, order: [["createdAt", "DESC"]], attributes })));
+  if (!run) {
+    if (runId) throw new ApiError(404, "not-found", `run ${runId} of this spectrum was not found.`, "run");
+    if (spectrum.status === "failed") throw new ApiError(422, "analysis-failed", spectrum.errorMessage ?? "the file could not be read");
+    throw new ApiError(409, "not-ready", "this spectrum has not been analysed yet; try again when its analysis has finished.");
+  }
+  if (run.status === "failed") throw new ApiError(422, "analysis-failed", run.errorMessage ?? spectrum.errorMessage ?? "the analysis failed");
+  if (run.status !== "done") throw new ApiError(409, "not-ready", `the analysis is ${run.status}; try again when it has finished.`);
+  return { spectrum, run };
+}
+
+export async function getRunReport(runId: string): Promise<AnalysisReport> {
+  models();
+  const row = await AnalysisRun.findByPk(runId, { attributes: ["id", "report"] });
+  if (!row?.report) throw new ApiError(409, "not-ready", "this analysis run has no stored report.");
+  return row.report as AnalysisReport;
+}
+
+function parseStored(spectrum: Spectrum, bytes: Uint8Array, column: string | number | undefined): ParsedSpectrum {
+  try {
+    return parseSpectrumFile(spectrum.fileName, bytes, {
+      technique: spectrum.technique,
+      maxBytes: config().UPLOAD_MAX_BYTES,
+      ...(column !== undefined ? { column } : {}),
+    });
+  } catch (error) {
+    if (error instanceof SpectrumFileError) throw new ApiError(422, "unreadable", error.message);
+    throw error;
+  }
+}
+
+const globalCache = globalThis as unknown as {
+  bandkeepViewArrays?: SizedLru<{ arrays: ViewArrays; technique: string; yUnit: string }>;
+  bandkeepViewPayloads?: SizedLru<Buffer>;
+  bandkeepViewInflight?: Map<string, Promise<{ arrays: ViewArrays; technique: string; yUnit: string }>>;
+};
+const MB = 1024 * 1024;
+const arraysCache = (globalCache.bandkeepViewArrays ??= new SizedLru<{ arrays: ViewArrays; technique: string; yUnit: string }>(64 * MB, (v) => v.arrays.energyEv.length * 8 * 5 + 256));
+const payloadCache = (globalCache.bandkeepViewPayloads ??= new SizedLru<Buffer>(96 * MB, (b) => b.length));
+const inflight = (globalCache.bandkeepViewInflight ??= new Map());
+const REDIS_TTL_S = 7 * 24 * 3600;
+
+const arraysKey = (runId: string) => `${ENGINE_VERSION}:${runId}`;
+const payloadKey = (runId: string, axis: DisplayAxis) => `bandkeep:view:v1:${ENGINE_VERSION}:${runId}:${axis}`;
+
+/** Re-derives (or takes from the in-process cache) the arrays of a finished run. Concurrent callers share one derivation. */
+export async function viewArraysOf(spectrum: Spectrum, run: ViewRun): Promise<{ arrays: ViewArrays; technique: string; yUnit: string }> {
+  const key = arraysKey(run.id);
+  const hit = arraysCache.get(key);
+  if (hit) return hit;
+  let pending = inflight.get(key);
+  if (!pending) {
+    pending = (async () => {
+      const report = await getRunReport(run.id);
+      const params = (run.parameters ?? {}) as { column?: string | number };
+      const [bytes, reference] = await Promise.all([
+        getObjectBytes(spectrum.objectKey),
+        run.referenceSpectrumId ? Spectrum.findByPk(run.referenceSpectrumId) : Promise.resolve(null),
+      ]);
+      if (run.referenceSpectrumId && !reference) throw new ApiError(409, "reference-missing", "the parent reference of this analysis was deleted.");
+      const sample = parseStored(spectrum, bytes, params.column);
+      const parsedRef = reference ? parseStored(reference, await getObjectBytes(reference.objectKey), columnChoice(reference.columnChoice ?? undefined)) : null;
+      let arrays: ViewArrays;
+      try {
+        arrays = deriveViewArrays(report, sample, parsedRef);
+      } catch (error) {
+        if (error instanceof RangeError) throw new ApiError(422, "unreadable", `${spectrum.fileName}: ${error.message}`);
+        throw error;
+      }
+      const value = { arrays, technique: report.technique, yUnit: sample.yUnit };
+      arraysCache.set(key, value);
+      return value;
+    })().finally(() => inflight.delete(key));
+    inflight.set(key, pending);
+  }
+  return pending;
+}
+
+export type CacheOutcome = "memory" | "redis" | "derived";
+
+/** The data endpoint's JSON body for one run and axis, from the caches when possible. */
+export async function dataPayload(spectrum: Spectrum, run: ViewRun, axis: DisplayAxis): Promise<{ body: Buffer; cache: CacheOutcome }> {
+  const key = payloadKey(run.id, axis);
+  const hit = payloadCache.get(key);
+  if (hit) return { body: hit, cache: "memory" };
+  try {
+    const stored = await redis().getBuffer(key);
+    if (stored) {
+      payloadCache.set(key, stored);
+      return { body: stored, cache: "redis" };
+    }
+  } catch {
+    // Redis down: derive instead; the in-process cache still works.
+  }
+  const { arrays, technique, yUnit } = await viewArraysOf(spectrum, run);
+  const body = Buffer.from(buildDataPayload(arrays, axis, { spectrumId: spectrum.id, runId: run.id, technique, yUnit }), "utf8");
+  payloadCache.set(key, body);
+  redis()
+    .set(key, body, "EX", REDIS_TTL_S)
+    .catch(() => {});
+  return { body, cache: "derived" };
+}
