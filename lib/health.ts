@@ -24,6 +24,22 @@ async function probe(check: () => Promise<unknown>): Promise<ServiceHealth> {
   }
 }
 
+// Probes run at most once per HEALTH_CACHE_MS (default 2 s) per process; callers in that
+// window share the answer (and its checkedAt time), so a busy load balancer or a burst
+// of checks does not open a mail session each time.
+const HEALTH_CACHE_MS = Number.isFinite(Number(process.env.HEALTH_CACHE_MS)) ? Number(process.env.HEALTH_CACHE_MS) : 2000;
+let lastCheck: { at: number; result: Promise<ServiceReport> } | null = null;
+
+export type ServiceReport = { services: Record<ServiceName, ServiceHealth>; checkedAt: string };
+
+export function checkServicesCached(): Promise<ServiceReport> {
+  const now = Date.now();
+  if (!lastCheck || now - lastCheck.at >= HEALTH_CACHE_MS) {
+    lastCheck = { at: now, result: checkServices().then((services) => ({ services, checkedAt: new Date(now).toISOString() })) };
+  }
+  return lastCheck.result;
+}
+
 export async function checkServices(): Promise<Record<ServiceName, ServiceHealth>> {
   const [database, redisHealth, storage, mail] = await Promise.all([
     probe(() => sequelize().query("SELECT 1")),

@@ -1,7 +1,8 @@
 import { createHash } from "node:crypto";
 import { getServerSession } from "next-auth";
 import { redirect } from "next/navigation";
-import { ApiToken, Group, Membership, User, models } from "@/models";
+import { selectRows } from "@/lib/db";
+import { ApiToken, models } from "@/models";
 import type { Role } from "@/models/Membership";
 import { authOptions } from "./options";
 
@@ -15,20 +16,23 @@ export type Actor = {
   via: "session" | "token";
 };
 
+type ActorRow = { id: string; email: string; name: string; is_site_admin: boolean; group_id: string | null; group_name: string | null; group_slug: string | null; role: Role | null };
+
+/** A person with their memberships, in one query. */
 export async function loadActor(userId: string, via: Actor["via"]): Promise<Actor | null> {
-  models();
-  const user = await User.findByPk(userId, {
-    include: [{ model: Membership, include: [Group] }],
-  });
-  if (!user) return null;
-  const memberships = ((user as unknown as { Memberships?: (Membership & { Group: Group })[] }).Memberships ?? []).map((m) => ({
-    groupId: m.groupId,
-    groupName: m.Group.name,
-    groupSlug: m.Group.slug,
-    role: m.role,
-  }));
-  memberships.sort((a, b) => a.groupName.localeCompare(b.groupName));
-  return { id: user.id, email: user.email, name: user.name, isSiteAdmin: user.isSiteAdmin, memberships, via };
+  const rows = await selectRows<ActorRow>(
+    `SELECT u.id, u.email, u.name, u.is_site_admin, m.group_id, g.name AS group_name, g.slug AS group_slug, m.role
+     FROM users u LEFT JOIN memberships m ON m.user_id = u.id LEFT JOIN groups g ON g.id = m.group_id
+     WHERE u.id = :userId`,
+    { userId },
+  );
+  const first = rows[0];
+  if (!first) return null;
+  const memberships = rows
+    .filter((r) => r.group_id !== null && r.role !== null)
+    .map((r) => ({ groupId: r.group_id!, groupName: r.group_name ?? "", groupSlug: r.group_slug ?? "", role: r.role! }))
+    .sort((a, b) => a.groupName.localeCompare(b.groupName));
+  return { id: first.id, email: first.email, name: first.name, isSiteAdmin: first.is_site_admin, memberships, via };
 }
 
 /** The signed-in person of this request, or null. */
@@ -49,20 +53,44 @@ export function hashToken(token: string): string {
   return createHash("sha256").update(token).digest("hex");
 }
 
+// Lab scripts call in bursts with one token: the token's person is kept for a few
+// seconds so each call does not repeat the same two queries. Revoking a token in this
+// process forgets it at once; other app processes notice within AUTH_CACHE_MS.
+const TOKEN_CACHE_MS = Number.isFinite(Number(process.env.AUTH_CACHE_MS)) ? Number(process.env.AUTH_CACHE_MS) : 5000;
+const tokenCache = new Map<string, { actor: Actor; until: number }>();
+
+export function forgetApiToken(tokenHash: string): void {
+  tokenCache.delete(tokenHash);
+}
+
+async function actorFromToken(token: string): Promise<Actor | null> {
+  const tokenHash = hashToken(token);
+  const cached = tokenCache.get(tokenHash);
+  if (cached && cached.until > Date.now()) return cached.actor;
+  models();
+  const row = await ApiToken.findOne({ where: { tokenHash, revokedAt: null } });
+  if (!row) {
+    tokenCache.delete(tokenHash);
+    return null;
+  }
+  // Touch at most once a minute to keep the hot path free of writes.
+  if (!row.lastUsedAt || Date.now() - row.lastUsedAt.getTime() > 60_000) {
+    await row.update({ lastUsedAt: new Date() });
+  }
+  const actor = await loadActor(row.userId, "token");
+  if (actor && TOKEN_CACHE_MS > 0) {
+    if (tokenCache.size > 1000) tokenCache.clear();
+    tokenCache.set(tokenHash, { actor, until: Date.now() + TOKEN_CACHE_MS });
+  }
+  return actor;
+}
+
 /** For route handlers: a Bearer API token, else the browser session. */
 export async function actorFromRequest(request: Request): Promise<Actor | null> {
   const header = request.headers.get("authorization");
   if (header?.toLowerCase().startsWith("bearer ")) {
     const token = header.slice(7).trim();
-    if (!token) return null;
-    models();
-    const row = await ApiToken.findOne({ where: { tokenHash: hashToken(token), revokedAt: null } });
-    if (!row) return null;
-    // Touch at most once a minute to keep the hot path free of writes.
-    if (!row.lastUsedAt || Date.now() - row.lastUsedAt.getTime() > 60_000) {
-      await row.update({ lastUsedAt: new Date() });
-    }
-    return loadActor(row.userId, "token");
+    return token ? actorFromToken(token) : null;
   }
   return currentActor();
 }

@@ -4,6 +4,7 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { ActionRefused, protectedAction } from "@/lib/actions/protected";
 import { issueApiToken } from "@/lib/api-tokens";
+import { forgetApiToken } from "@/lib/auth/actor";
 import { recordAudit } from "@/lib/audit";
 import { ApiToken, User, models } from "@/models";
 
@@ -22,6 +23,7 @@ export const revokeApiToken = protectedAction(z.object({ id: z.string().uuid() }
   const token = await ApiToken.findByPk(id);
   if (!token || token.userId !== actor.id) throw new ActionRefused("That token is not yours.");
   if (!token.revokedAt) await token.update({ revokedAt: new Date() });
+  forgetApiToken(token.tokenHash);
   await recordAudit({ actorId: actor.id, actorLabel: actor.email, action: "api-token-revoked", targetType: "api-token", targetId: id });
   revalidatePath("/settings");
   return { ok: true, message: "Token revoked: scripts using it are refused from now on." };
