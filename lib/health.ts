@@ -24,20 +24,31 @@ async function probe(check: () => Promise<unknown>): Promise<ServiceHealth> {
   }
 }
 
-// Probes run at most once per HEALTH_CACHE_MS (default 2 s) per process; callers in that
-// window share the answer (and its checkedAt time), so a busy load balancer or a burst
-// of checks does not open a mail session each time.
+// Probes run at most once per HEALTH_CACHE_MS (default 2 s) per process. Callers in that
+// window share the answer and its checkedAt time; once it is older, the next caller
+// starts a fresh probe and, while it runs, callers get the previous answer if it is
+// younger than five windows. A burst of checks thus never opens a mail session each.
 const HEALTH_CACHE_MS = Number.isFinite(Number(process.env.HEALTH_CACHE_MS)) ? Number(process.env.HEALTH_CACHE_MS) : 2000;
-let lastCheck: { at: number; result: Promise<ServiceReport> } | null = null;
 
 export type ServiceReport = { services: Record<ServiceName, ServiceHealth>; checkedAt: string };
 
+let settled: { at: number; report: ServiceReport } | null = null;
+let running: Promise<ServiceReport> | null = null;
+
 export function checkServicesCached(): Promise<ServiceReport> {
   const now = Date.now();
-  if (!lastCheck || now - lastCheck.at >= HEALTH_CACHE_MS) {
-    lastCheck = { at: now, result: checkServices().then((services) => ({ services, checkedAt: new Date(now).toISOString() })) };
+  if (settled && now - settled.at < HEALTH_CACHE_MS) return Promise.resolve(settled.report);
+  if (!running) {
+    running = checkServices()
+      .then((services) => {
+        const report = { services, checkedAt: new Date(now).toISOString() };
+        settled = { at: now, report };
+        return report;
+      })
+      .finally(() => { running = null; });
   }
-  return lastCheck.result;
+  if (settled && now - settled.at < 5 * HEALTH_CACHE_MS) return Promise.resolve(settled.report);
+  return running;
 }
 
 export async function checkServices(): Promise<Record<ServiceName, ServiceHealth>> {

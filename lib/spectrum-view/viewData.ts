@@ -43,7 +43,23 @@ export type ViewRun = Pick<AnalysisRun, "id" | "status" | "parameters" | "refere
  * the latest finished one. 409 while nothing has finished; 422 with the engine's message when the
  * analysis failed.
  */
+// A chart zoomed or reloaded asks for the same curves many times a second: a found
+// (spectrum, run) pair is kept per person for LOOKUP_CACHE_MS, so a burst repeats
+// neither the access check nor the run lookup. Refusals are never kept.
+const LOOKUP_CACHE_MS = 2000;
+const lookupCache = new Map<string, { until: number; found: { spectrum: Spectrum; run: ViewRun } }>();
+
 export async function findViewRun(actor: Actor, spectrumId: string, runId?: string): Promise<{ spectrum: Spectrum; run: ViewRun }> {
+  const key = `${actor.id}|${spectrumId}|${runId ?? ""}`;
+  const hit = lookupCache.get(key);
+  if (hit && hit.until > Date.now()) return hit.found;
+  const found = await lookupViewRun(actor, spectrumId, runId);
+  if (lookupCache.size > 5000) lookupCache.clear();
+  lookupCache.set(key, { until: Date.now() + LOOKUP_CACHE_MS, found });
+  return found;
+}
+
+async function lookupViewRun(actor: Actor, spectrumId: string, runId?: string): Promise<{ spectrum: Spectrum; run: ViewRun }> {
   const spectrum = await getReadableSpectrum(actor, spectrumId);
   if (!spectrum) throw notFound(`spectrum ${spectrumId.slice(0, 80)}`);
   models();

@@ -34,6 +34,7 @@ function decodeSubject(value: string): string {
 const smtp = new SMTPServer({
   authOptional: true,
   disabledCommands: ["STARTTLS"],
+  disableReverseLookup: true, // no DNS on loopback-only machines: a reverse lookup only adds delay
   logger: false,
   size: 10 * 1024 * 1024,
   onData(stream, session, callback) {
