@@ -6,6 +6,24 @@ const errorResponse = (description: string) => ({ description, content: { "appli
 const idParam = (what: string) => ({ name: "id", in: "path", required: true, description: `${what} id (UUID)`, schema: { type: "string", format: "uuid" } });
 const nullable = (type: string, extra: Record<string, unknown> = {}) => ({ type: [type, "null"], ...extra });
 
+const queryParam = (name: string, description: string, schema: Record<string, unknown>) => ({ name, in: "query", required: false, description, schema });
+
+/** A read-only GET: 200 with the given media type, the usual refusals, and any extra answers. */
+function readOperation(operationId: string, summary: string, parameters: unknown[], mediaType: string, extra: Record<string, unknown> = {}) {
+  return {
+    operationId,
+    summary,
+    parameters,
+    responses: {
+      "200": { description: "OK", content: { [mediaType]: {} } },
+      "400": errorResponse("A query parameter is invalid (the message names it)"),
+      "401": errorResponse("No valid token or session"),
+      "404": errorResponse("Not found or not readable by the caller"),
+      ...extra,
+    },
+  };
+}
+
 /** The OpenAPI 3.1 description of /api/v1, served at /api/v1/openapi.json. */
 export function openApiDocument() {
   return {
@@ -110,6 +128,74 @@ export function openApiDocument() {
       },
       "/api/v1/openapi.json": {
         get: { operationId: "getOpenApi", summary: "This document", responses: { "200": { description: "OpenAPI 3.1 document" } } },
+      },
+      "/api/v1/spectra/{id}/data": {
+        get: readOperation("getSpectrumCurves", "Curves of the latest (or named) analysis as columnar arrays {x, series: {raw, smoothed, reference, difference}}", [
+          idParam("Spectrum"),
+          queryParam("axis", "Display axis", { type: "string", enum: ["nm", "ev", "cm-1"] }),
+          queryParam("run", "An earlier analysis run", { type: "string", format: "uuid" }),
+        ], "application/json", { "409": errorResponse("Not analysed yet"), "422": errorResponse("The file or its analysis failed") }),
+      },
+      "/api/v1/spectra/{id}/export": {
+        get: readOperation("exportSpectrum", "Processed curves as CSV, one curve as JCAMP-DX 4.24, or the stored analysis report as JSON", [
+          idParam("Spectrum"),
+          queryParam("format", "File format", { type: "string", enum: ["csv", "jcamp", "json"] }),
+          queryParam("axis", "Axis of the CSV or JCAMP-DX file", { type: "string", enum: ["nm", "ev", "cm-1"] }),
+          queryParam("run", "An earlier analysis run", { type: "string", format: "uuid" }),
+        ], "application/octet-stream", { "409": errorResponse("Not analysed yet"), "422": errorResponse("The file or its analysis failed") }),
+      },
+      "/api/v1/series/{id}/export": {
+        get: readOperation("exportSeries", "The series table and its fits as CSV", [idParam("Series")], "text/csv"),
+      },
+      "/api/v1/review/queue": {
+        get: readOperation("listReviewQueue", "Signatures in the groups the caller leads, filtered, sorted and paged (see docs/api.md)", [
+          queryParam("project", "Project id", { type: "string", format: "uuid" }),
+          queryParam("sample", "Sample id", { type: "string", format: "uuid" }),
+          queryParam("kind", "Kind of change", { type: "string", enum: ["bleach", "new-band", "pl-quench", "shift", "broadening"] }),
+          queryParam("state", "Review state", { type: "string", enum: ["awaiting", "confirmed", "dismissed", "all"] }),
+          queryParam("minSignificance", "Smallest significance (σ)", { type: "number" }),
+          queryParam("from", "Flagged on or after (YYYY-MM-DD)", { type: "string", format: "date" }),
+          queryParam("to", "Flagged on or before (YYYY-MM-DD)", { type: "string", format: "date" }),
+          queryParam("sort", "Sort column", { type: "string", enum: ["significance", "date", "kind", "project", "sample"] }),
+          queryParam("dir", "Sort direction", { type: "string", enum: ["asc", "desc"] }),
+          queryParam("page", "Page, from 1", { type: "integer", minimum: 1 }),
+          queryParam("pageSize", "Rows per page", { type: "integer", minimum: 1, maximum: 200 }),
+        ], "application/json", { "403": errorResponse("The caller leads no group") }),
+      },
+      "/api/v1/signatures/{id}/decisions": {
+        get: readOperation("getDecisions", "A signature's review state and the history of decisions", [idParam("Signature")], "application/json"),
+        post: {
+          operationId: "decide",
+          summary: "Confirm or dismiss a signature with a comment (group leads); deciding again revises, history is kept",
+          parameters: [idParam("Signature")],
+          requestBody: {
+            required: true,
+            content: { "application/json": { schema: { type: "object", required: ["decision"], properties: { decision: { type: "string", enum: ["confirmed", "dismissed"] }, comment: { type: "string", maxLength: 2000 } } } } },
+          },
+          responses: {
+            "201": { description: "Decision recorded" },
+            "400": errorResponse("Invalid decision or comment"),
+            "401": errorResponse("No valid token or session"),
+            "403": errorResponse("Not a lead of the owning group"),
+            "404": errorResponse("Not found or not readable by the caller"),
+          },
+        },
+      },
+      "/api/v1/audit": {
+        get: readOperation("exportAudit", "The audit trail of the groups the caller stewards, filtered, as CSV (format=csv) or JSON", [
+          queryParam("format", "csv or json", { type: "string", enum: ["csv", "json"] }),
+          queryParam("action", "Action name", { type: "string" }),
+          queryParam("actor", "Actor e-mail or id", { type: "string" }),
+          queryParam("target", "Target type or id", { type: "string" }),
+          queryParam("from", "On or after (YYYY-MM-DD)", { type: "string", format: "date" }),
+          queryParam("to", "On or before (YYYY-MM-DD)", { type: "string", format: "date" }),
+        ], "text/csv", { "403": errorResponse("The caller stewards no group") }),
+      },
+      "/api/v1/exports/{type}/{id}": {
+        get: readOperation("exportBundle", "A project or series as one zip: raw files, processed CSV and JCAMP-DX, analyses as JSON, a manifest with sha256, a README", [
+          { name: "type", in: "path", required: true, schema: { type: "string", enum: ["project", "series"] } },
+          idParam("Project or series"),
+        ], "application/zip"),
       },
     },
     components: {
