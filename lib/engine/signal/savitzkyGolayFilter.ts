@@ -1,5 +1,6 @@
 import * as sgModule from 'ml-savitzky-golay';
 import { savitzkyGolayQuadraticInterior } from './savitzkyGolayQuadratic';
+import { solveLinearSystem } from './solveLinearSystem';
 
 type SgFn = (data: ArrayLike<number>, h: number, options: Record<string, unknown>) => number[];
 // Under Node ESM the default export of ml-savitzky-golay can arrive wrapped as { default: fn }.
@@ -165,7 +166,7 @@ function fitEdge(
       for (let b = 0; b < m; b++) ata[a * m + b] = ata[a * m + b]! + pw[a]! * pw[b]!;
     }
   }
-  const coef = solveSymmetric(ata, aty, m);
+  const coef = solveLinearSystem(ata, aty, m);
   const scale = Math.pow(1 / (c * h), d);
   for (let idx = from; idx < to; idx++) {
     const u = (idx - start - c) / c;
@@ -178,37 +179,4 @@ function fitEdge(
     }
     out[idx] = v * scale;
   }
-}
-
-/** Gaussian elimination with partial pivoting on a small dense system. */
-function solveSymmetric(a: Float64Array, b: Float64Array, m: number): Float64Array {
-  const A = a.slice();
-  const x = b.slice();
-  for (let col = 0; col < m; col++) {
-    let piv = col;
-    for (let r = col + 1; r < m; r++) if (Math.abs(A[r * m + col]!) > Math.abs(A[piv * m + col]!)) piv = r;
-    if (piv !== col) {
-      for (let k = 0; k < m; k++) {
-        const t = A[col * m + k]!;
-        A[col * m + k] = A[piv * m + k]!;
-        A[piv * m + k] = t;
-      }
-      const t = x[col]!;
-      x[col] = x[piv]!;
-      x[piv] = t;
-    }
-    const d = A[col * m + col]!;
-    for (let r = col + 1; r < m; r++) {
-      const f = A[r * m + col]! / d;
-      if (f === 0) continue;
-      for (let k = col; k < m; k++) A[r * m + k] = A[r * m + k]! - f * A[col * m + k]!;
-      x[r] = x[r]! - f * x[col]!;
-    }
-  }
-  for (let r = m - 1; r >= 0; r--) {
-    let s = x[r]!;
-    for (let k = r + 1; k < m; k++) s -= A[r * m + k]! * x[k]!;
-    x[r] = s / A[r * m + r]!;
-  }
-  return x;
 }

@@ -1,3 +1,5 @@
+import { solveLinearSystem } from './solveLinearSystem';
+
 /**
  * Savitzky–Golay convolution weights for the centre point of a window (unit spacing), ordered
  * left to right (i.e. applied as Σ w_k·y_{i+k}, k = −half..half). Computed from the least-squares
@@ -55,7 +57,7 @@ function computeWeights(windowSize: number, polynomial: number, derivative: numb
   }
   const e = new Float64Array(m);
   e[derivative] = 1;
-  const c = solve(G, e, m);
+  const c = solveLinearSystem(G, e, m);
   let fact = 1;
   for (let k = 2; k <= derivative; k++) fact *= k;
   const w = new Float64Array(windowSize);
@@ -65,32 +67,4 @@ function computeWeights(windowSize: number, polynomial: number, derivative: numb
     w[t + half] = s * fact;
   }
   return w;
-}
-
-function solve(a: Float64Array, b: Float64Array, m: number): Float64Array {
-  const A = Float64Array.from(a);
-  const x = Float64Array.from(b);
-  for (let col = 0; col < m; col++) {
-    let piv = col;
-    for (let r = col + 1; r < m; r++) if (Math.abs(A[r * m + col]!) > Math.abs(A[piv * m + col]!)) piv = r;
-    for (let k = 0; k < m; k++) {
-      const t = A[col * m + k]!;
-      A[col * m + k] = A[piv * m + k]!;
-      A[piv * m + k] = t;
-    }
-    const t = x[col]!;
-    x[col] = x[piv]!;
-    x[piv] = t;
-    for (let r = col + 1; r < m; r++) {
-      const f = A[r * m + col]! / A[col * m + col]!;
-      for (let k = col; k < m; k++) A[r * m + k] = A[r * m + k]! - f * A[col * m + k]!;
-      x[r] = x[r]! - f * x[col]!;
-    }
-  }
-  for (let r = m - 1; r >= 0; r--) {
-    let s = x[r]!;
-    for (let k = r + 1; k < m; k++) s -= A[r * m + k]! * x[k]!;
-    x[r] = s / A[r * m + r]!;
-  }
-  return x;
 }
