@@ -57,7 +57,10 @@ export function hashToken(token: string): string {
 // seconds so each call does not repeat the same two queries. Revoking a token in this
 // process forgets it at once; other app processes notice within AUTH_CACHE_MS.
 const TOKEN_CACHE_MS = Number.isFinite(Number(process.env.AUTH_CACHE_MS)) ? Number(process.env.AUTH_CACHE_MS) : 5000;
-const tokenCache = new Map<string, { actor: Actor; until: number }>();
+// On globalThis: the server action that revokes and the route handler that reads may be
+// bundled as separate module copies in one process.
+const globalForTokens = globalThis as unknown as { bandkeepTokenCache?: Map<string, { actor: Actor; until: number }> };
+const tokenCache = (globalForTokens.bandkeepTokenCache ??= new Map());
 
 export function forgetApiToken(tokenHash: string): void {
   tokenCache.delete(tokenHash);

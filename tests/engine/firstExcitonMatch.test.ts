@@ -28,3 +28,16 @@ describe('first exciton of a charged sample', () => {
     expect(() => matchFirstExciton(peaks, 2.1, 0)).toThrow(RangeError);
   });
 });
+
+describe('a broad new band near the end of the range', () => {
+  it('is flagged whatever the smoothing window (known truth of the generator: band at 1.72 eV, 0.067 eV from the 750 nm end)', () => {
+    const reference = parse('parent.csv', absorptionCsv({ firstExcitonEv: 2.148, seed: 11 }, 'parent'));
+    const sample = parse('charged.csv', absorptionCsv({ firstExcitonEv: 2.148, bleach: 0.42, newBand: { centreEv: 1.72, height: 0.05, sigmaEv: 0.08 }, seed: 12 }, 'charged'));
+    for (const smoothingWindow of [13, 23, 31]) {
+      const report = analyzeSpectrum(sample, { technique: 'absorption', reference, smoothingWindow });
+      const bands = report.flags.filter((f) => f.kind === 'new-band');
+      expect(bands.length, `window ${smoothingWindow}`).toBe(1);
+      expect(Math.abs(bands[0]!.energyEv! - 1.72), `window ${smoothingWindow}`).toBeLessThan(0.03);
+    }
+  });
+});

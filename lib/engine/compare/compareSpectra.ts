@@ -182,7 +182,17 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
     const u = uncertaintyAt(i);
     any = excess[maxima[k]!]! >= t.minSignificance * u && excess[maxima[k]!]! / scale >= t.minNewBandFraction;
   }
-  const { prominences, leftBases, rightBases } = any ? peakProminences(excess, maxima) : { prominences: new Float64Array(0), leftBases: new Int32Array(0), rightBases: new Int32Array(0) };
+  // The unexplained difference has a zero baseline, so a band cut by the end of the range is
+  // measured against zero there (a zero is padded at each end): otherwise a broad band near an
+  // edge would have almost no prominence and go unflagged.
+  const padded = new Float64Array(excess.length + 2);
+  padded.set(excess, 1);
+  const { prominences, leftBases: leftPadded, rightBases: rightPadded } = any
+    ? peakProminences(padded, Int32Array.from(maxima, (m) => m + 1))
+    : { prominences: new Float64Array(0), leftBases: new Int32Array(0), rightBases: new Int32Array(0) };
+  const clampBase = (b: number) => Math.min(Math.max(b - 1, 0), excess.length - 1);
+  const leftBases = Int32Array.from(leftPadded, clampBase);
+  const rightBases = Int32Array.from(rightPadded, clampBase);
   for (let k = 0; any && k < maxima.length; k++) {
     const j = maxima[k]!;
     const i = j + lo;
