@@ -17,12 +17,12 @@ export type SeriesDetail = {
   mayWrite: boolean; points: SeriesPoint[]; fits: SeriesFits;
 };
 
-/** A series with one row per spectrum (numbers from each spectrum's latest run), ordered by the variable, and its fits. */
-export async function getSeriesDetail(actor: Actor, id: string): Promise<SeriesDetail | null> {
-  models();
-  const series = await Series.findByPk(id);
-  if (!series || !(await canReadSeries(actor, series))) return null;
-  const project = await Project.findByPk(series.projectId);
+/**
+ * One row per spectrum of a series (numbers from each spectrum's latest finished run),
+ * ordered by the variable. No access check: callers decide who may see the series
+ * (getSeriesDetail below for members and collaborators, lib/stewardship/shareLinks.ts for links).
+ */
+export async function getSeriesPoints(seriesId: string): Promise<SeriesPoint[]> {
   const rows = await selectRows<{
     id: string; file_name: string; series_value: number | null; status: string; technique: string; reference_spectrum_id: string | null;
     report: Pick<AnalysisReport, "flags" | "peaks" | "firstExciton" | "referenceFirstExciton"> | null; awaiting: string;
@@ -34,14 +34,23 @@ export async function getSeriesDetail(actor: Actor, id: string): Promise<SeriesD
      FROM spectra s
      LEFT JOIN LATERAL (SELECT r.id, r.report FROM analysis_runs r WHERE r.spectrum_id = s.id AND r.status = 'done' ORDER BY r.created_at DESC LIMIT 1) run ON true
      WHERE s.series_id = :id
-     ORDER BY s.series_value NULLS LAST, s.created_at`, { id },
+     ORDER BY s.series_value NULLS LAST, s.created_at`, { id: seriesId },
   );
   const referenced = new Set(rows.map((r) => r.reference_spectrum_id).filter(Boolean));
-  const points: SeriesPoint[] = rows.map((r) => ({
+  return rows.map((r) => ({
     spectrumId: r.id, fileName: r.file_name, value: r.series_value, status: r.status, technique: r.technique,
     ...pointMetrics(r.report, r.reference_spectrum_id === null && referenced.has(r.id), r.technique),
     awaitingReview: Number(r.awaiting),
   }));
+}
+
+/** A series with one row per spectrum (numbers from each spectrum's latest run), ordered by the variable, and its fits. */
+export async function getSeriesDetail(actor: Actor, id: string): Promise<SeriesDetail | null> {
+  models();
+  const series = await Series.findByPk(id);
+  if (!series || !(await canReadSeries(actor, series))) return null;
+  const project = await Project.findByPk(series.projectId);
+  const points = await getSeriesPoints(series.id);
   return {
     id: series.id, name: series.name, kind: series.kind, variableName: series.variableName, variableUnit: series.variableUnit,
     projectName: project?.name ?? "", groupId: project?.groupId ?? "", mayWrite: project ? canWrite(actor, project.groupId) : false,

@@ -1,3 +1,4 @@
+import { randomBytes } from "node:crypto";
 import { readdirSync, statSync } from "node:fs";
 import { join, relative } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -17,6 +18,7 @@ type Call = { method: string; path: (ids: Ids) => string; body?: () => BodyInit;
 const PUBLIC_ROUTES: Record<string, string> = {
   "api/auth/[...nextauth]": "next-auth's own sign-in endpoints",
   "api/health": "service status for the start script and load balancers; names no lab data",
+  "shared/[token]/raw/[spectrumId]": "read-only share link: public by design but token-guarded (a wrong, revoked or expired token, or a spectrum outside the share, is 404; see below and stewardship-share-links.test.ts)",
 };
 
 function uploadForm(ids: Ids): FormData {
@@ -96,6 +98,18 @@ describe("authorization walk over every route handler", () => {
     const found = routeFiles(join(process.cwd(), "app")).map((r) => r.replace(/^\(app\)\//, "")).sort();
     const listed = [...Object.keys(ROUTES), ...Object.keys(PUBLIC_ROUTES)].sort();
     expect(found).toEqual(listed);
+  });
+
+  it("refuses a share-link download with a wrong token, whoever asks", async () => {
+    const wrong = randomBytes(32).toString("base64url");
+    for (const cookie of [undefined, cookies.collaborator, cookies.otherGroup]) {
+      const response = await fetch(url(`/shared/${wrong}/raw/${ids.privateSpectrum.id}`), { redirect: "manual", headers: cookie ? { cookie } : {} });
+      expect(response.status).toBe(404);
+      expect(response.headers.get("cache-control")).toBe("private, no-store");
+      expect(((await response.json()) as { error: { code: string } }).error.code).toBe("not_found");
+    }
+    const malformed = await fetch(url(`/shared/not-a-token/raw/${ids.privateSpectrum.id}`), { redirect: "manual" });
+    expect(malformed.status).toBe(404);
   });
 
   it("refuses anonymous callers with 401 and the JSON error shape", async () => {

@@ -11,6 +11,7 @@ import { recordAudit } from "@/lib/audit";
 import { selectRows } from "@/lib/db";
 import { DeletionRefused, deleteAnalysisRun, deleteSpectrum } from "@/lib/stewardship/deletion";
 import { sendInvitation } from "@/lib/stewardship/invitations";
+import { ShareLinkRefused, createShareLink, revokeShareLink } from "@/lib/stewardship/shareLinks";
 import { Invitation, LegalHold, Membership, Project, RetentionFlag, RetentionPolicy, Share, User, models } from "@/models";
 
 // Writes of the stewardship pages. Every one checks the role in the owning group;
@@ -248,3 +249,43 @@ export async function liveShareCount(groupId: string, userId: string): Promise<n
   models();
   return Share.count({ where: { groupId, granteeUserId: userId, revokedAt: null, [Op.or]: [{ expiresAt: null }, { expiresAt: { [Op.gt]: new Date() } }] } });
 }
+
+// --- read-only share links (stewards) ---
+
+/**
+ * Creates a share link (intent "create": shareTarget, optional expiresAt as YYYY-MM-DDTHH:MM in UTC) or revokes
+ * one (intent "revoke": id). The logic and its audit events live in lib/stewardship/shareLinks.ts. On creation
+ * the message is the link's path, shown once by components/stewardship/ShareLinkPanel.tsx.
+ */
+export const shareLinkAction = protectedAction(
+  z.discriminatedUnion("intent", [
+    z.object({
+      intent: z.literal("create"),
+      shareTarget: z.string({ error: "shareTarget: choose a project or series." }).regex(/^(project|series):[0-9a-f-]{36}$/i, "shareTarget: choose a project or series."),
+      expiresAt: z.string().optional().transform((v) => v || undefined)
+        .refine((v) => !v || (/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/.test(v) && !Number.isNaN(Date.parse(`${v}:00Z`))), "expiresAt: use a date and time as YYYY-MM-DDTHH:MM (UTC)."),
+    }),
+    z.object({ intent: z.literal("revoke"), id: id("id") }),
+  ], { error: "intent: create or revoke." }),
+  async (input, actor) => {
+    if (input.intent === "revoke") {
+      try {
+        await revokeShareLink(actor, input.id);
+      } catch (error) {
+        if (error instanceof ShareLinkRefused) throw new ActionRefused(error.message, error.field);
+        throw error;
+      }
+      revalidatePath("/stewardship/sharing");
+      return { ok: true, message: "Link revoked: it stopped working at once." };
+    }
+    const [targetType, targetId] = input.shareTarget.split(":") as ["project" | "series", string];
+    try {
+      const link = await createShareLink(actor, { targetType, targetId, expiresAt: input.expiresAt ? new Date(`${input.expiresAt}:00Z`) : null });
+      revalidatePath("/stewardship/sharing");
+      return { ok: true, message: `/shared/${link.token}` };
+    } catch (error) {
+      if (error instanceof ShareLinkRefused) throw new ActionRefused(error.message, error.field);
+      throw error;
+    }
+  },
+);

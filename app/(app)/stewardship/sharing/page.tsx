@@ -3,7 +3,9 @@ import { requireActor } from "@/lib/auth/actor";
 import { stewardGroupIds } from "@/lib/auth/access";
 import { ROLE_LABELS } from "@/lib/navigation";
 import { listInvitations, listMembers, listShares, managedGroups, shareTargetOptions } from "@/lib/stewardship/queries";
+import { listShareLinks } from "@/lib/stewardship/shareLinks";
 import { ActionForm } from "@/components/stewardship/ActionForm";
+import { ShareLinkPanel } from "@/components/stewardship/ShareLinkPanel";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
 import { formatDate } from "@/components/stewardship/format";
 import { inputClass } from "@/components/forms/Field";
@@ -19,7 +21,9 @@ export default async function SharingPage() {
   const groups = managedGroups(actor);
   if (groups.length === 0) return <StewardOnly what="Sharing and members" />;
   const isSteward = stewardGroupIds(actor).length > 0;
-  const [members, invitations, shares, targets] = await Promise.all([listMembers(actor), listInvitations(actor), isSteward ? listShares(actor) : [], shareTargetOptions(actor)]);
+  const [members, invitations, shares, targets, links] = await Promise.all([
+    listMembers(actor), listInvitations(actor), isSteward ? listShares(actor) : [], shareTargetOptions(actor), isSteward ? listShareLinks(actor) : [],
+  ]);
   return (
     <>
       <PageHeader title="Sharing & members" subtitle="Members of your groups, invitations by e-mail, and read-only shares with collaborators outside the group. Changes take effect at once." />
@@ -97,6 +101,14 @@ export default async function SharingPage() {
               </table>
             </div>
           )}
+        </section>
+      )}
+
+      {isSteward && (
+        <section className="mb-6" aria-labelledby="share-links-heading">
+          <h2 id="share-links-heading" className="mb-1 text-base font-semibold">Links</h2>
+          <p className="mb-2 text-sm text-ink-soft">A read-only link to one project or series, for someone without an account. Only its fingerprint is stored, so the link is shown once; revoking it or reaching its expiry stops it at the next request.</p>
+          <ShareLinkPanel targets={targets} links={links} />
         </section>
       )}
 
