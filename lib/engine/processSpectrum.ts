@@ -131,7 +131,9 @@ export function processSpectrum(
   const sigmaFirstDerivative = (sigma * savitzkyGolayNoiseGain(wd, pd, 1)) / step;
   const sigmaSecondDerivative = (sigma * savitzkyGolayNoiseGain(wd, pd, 2)) / (step * step);
   const guard = (Math.max(w, wd) - 1) / 2;
-  const peakOpts = { sigmaSmoothed, sigmaSecondDerivative, minSignificance: o.minSignificance, edgeGuard: guard, exclude };
+  // local noise: the same estimator on ±max(64, 6w) points around each candidate
+  const local = { raw, smoothingGain: savitzkyGolayNoiseGain(w, p, 0), halfWidth: 6 * w, maxBlockLength: w };
+  const peakOpts = { sigmaSmoothed, sigmaSecondDerivative, minSignificance: o.minSignificance, edgeGuard: guard, exclude, local, minRelativeAmplitude: o.technique === 'pl' ? 0.01 : 0 };
   let peaks = findExcitonicPeaks(g.x, smoothed, secondDerivative, peakOpts);
   let first = pickFirstExciton(peaks, smoothed, o.technique);
   let baselineApplied = false;

@@ -109,3 +109,40 @@ export const PARENT_BANDS: Band[] = [
   { e: 2.42, sigma: 0.07, a: 0.35 },
   { e: 2.9, sigma: 0.15, a: 0.5 },
 ];
+
+/** Deterministic uniform numbers in [0, 1) (mulberry32). */
+export function makeUniform(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/**
+ * One Poisson draw of mean `mean` by inversion of the cumulative distribution (sequential search;
+ * exact, O(mean) per draw). Means above 500 are drawn as the sum of independent draws of equal
+ * means ≤ 500 (a sum of Poisson variables is Poisson), so e^(−mean) never underflows.
+ */
+export function poissonDraw(mean: number, uniform: () => number): number {
+  if (!(mean >= 0)) throw new RangeError('mean must be ≥ 0');
+  const parts = Math.ceil(mean / 500) || 1;
+  const m = mean / parts;
+  let total = 0;
+  for (let j = 0; j < parts; j++) {
+    const u = uniform();
+    let k = 0;
+    let p = Math.exp(-m);
+    let c = p;
+    while (u > c && p > 0) {
+      k++;
+      p *= m / k;
+      c += p;
+    }
+    total += k;
+  }
+  return total;
+}

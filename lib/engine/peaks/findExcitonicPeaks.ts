@@ -1,4 +1,5 @@
 import { FWHM_PER_SIGMA, HC_EV_NM } from '../constants';
+import { estimateCorrelatedNoise } from '../signal/estimateCorrelatedNoise';
 import type { PeakReport } from '../types';
 import { findLocalMaxima } from './findLocalMaxima';
 import { peakProminences } from './peakProminences';
@@ -15,6 +16,21 @@ export interface ExcitonicPeakOptions {
   edgeGuard?: number;
   /** Energies in [lo, hi] ignored, e.g. around an excitation line. */
   exclude?: Array<[number, number]>;
+  /**
+   * Local noise: the unsmoothed signal on the same grid and the noise gain √Σw² of the smoothing
+   * filter that made `smoothed`. When given, each candidate is also tested against the noise seen
+   * around it (see localNoiseFactor), so bands in a part of the spectrum noisier than average
+   * (photon-counting noise growing with the signal, the λ² emission Jacobian, a resampled axis)
+   * are not taken for peaks.
+   */
+  /**
+   * Smallest amplitude (prominence for maxima, −y''σ² for shoulders) as a fraction of the largest
+   * |smoothed| value outside the excluded ranges and edge guards. Default 0 (off); the engine uses
+   * 0.01 for emission spectra (common practice: features below ~1 % of the main band are at the
+   * level of stray light, second-order and detector artefacts and of the band's own shot noise).
+   */
+  minRelativeAmplitude?: number;
+  local?: { raw: ArrayLike<number>; smoothingGain: number; halfWidth?: number; maxBlockLength?: number };
 }
 
 export interface ExcitonicPeak extends PeakReport {
@@ -26,7 +42,9 @@ export interface ExcitonicPeak extends PeakReport {
  * (prominence-based FWHM as scipy.signal.peak_widths at rel_height 0.5) and shoulders, found as
  * minima of the smoothed second derivative (common practice for first excitons with no local
  * maximum). A shoulder's width comes from the zero crossings of the second derivative, which lie
- * at ±σ for a Gaussian band; its amplitude is −y''·σ². Sorted by energy.
+ * at ±σ for a Gaussian band; its amplitude is −y''·σ².
+ * A maximum's significance is prominence / (√2·σ_smoothed·f), a shoulder's −y'' / (σ''·f), with
+ * f ≥ 1 the local noise factor when `local` is given (else 1). Sorted by energy.
  */
 export function findExcitonicPeaks(
   energy: Float64Array,
@@ -43,6 +61,14 @@ export function findExcitonicPeaks(
   const sigS = Math.max(options.sigmaSmoothed, Number.MIN_VALUE);
   const sigD = Math.max(options.sigmaSecondDerivative, Number.MIN_VALUE);
   const peaks: ExcitonicPeak[] = [];
+  let floor = 0;
+  const rel = options.minRelativeAmplitude ?? 0;
+  if (rel > 0) {
+    let top = 0;
+    for (let i = guard; i < n - guard; i++) if (!excluded(energy[i]!)) top = Math.max(top, Math.abs(smoothed[i]!));
+    floor = rel * top;
+  }
+  const loc = options.local ? localNoiseFactor(smoothed, options.local, sigS, options.local.halfWidth ?? 0) : null;
 
   const maxima = findLocalMaxima(smoothed);
   const { prominences, leftBases, rightBases } = peakProminences(smoothed, maxima);
@@ -50,7 +76,11 @@ export function findExcitonicPeaks(
   for (let k = 0; k < maxima.length; k++) {
     const i = maxima[k]!;
     if (i < guard || i >= n - guard || excluded(energy[i]!)) continue;
-    const significance = prominences[k]! / sigS;
+    // global test first (cheap); the local noise level can only raise σ
+    if (prominences[k]! / (Math.SQRT2 * sigS) < minSig || prominences[k]! < floor) continue;
+    // a prominence is the difference of two smoothed values (top and base), each with noise σ:
+    // its own noise is √2·σ (bases far from the top are independent of it)
+    const significance = prominences[k]! / (Math.SQRT2 * sigS * (loc ? loc(i) : 1));
     if (significance < minSig) continue;
     const fwhm = widths[k]! * step;
     const eRefined = refine(energy, smoothed, i);
@@ -82,8 +112,7 @@ export function findExcitonicPeaks(
     const d = secondDerivative[i]!;
     if (!(d < 0 && d <= secondDerivative[i - 1]! && d < secondDerivative[i + 1]!)) continue;
     if (excluded(energy[i]!)) continue;
-    const significance = -d / sigD;
-    if (significance < minSig) continue;
+    if (-d / sigD < minSig) continue;
     const l = nonNegLeft[i]!;
     const r = nonNegRight[i]!;
     const leftOk = secondDerivative[l]! >= 0;
@@ -111,6 +140,10 @@ export function findExcitonicPeaks(
     );
     if (dup) continue;
     const amplitude = -d * sigmaEv * sigmaEv;
+    if (amplitude < floor) continue;
+    // local noise last: the cheaper tests above reject most candidates
+    const significance = -d / (sigD * (loc ? loc(i) : 1));
+    if (significance < minSig) continue;
     const e = refine(energy, secondDerivative, i, true);
     peaks.push({
       index: i,
@@ -127,6 +160,45 @@ export function findExcitonicPeaks(
   peaks.sort((a, b) => a.energyEv - b.energyEv);
   return peaks;
 }
+
+/**
+ * Factor (≥ 1) by which the noise around index i exceeds the global estimate, applied to the
+ * maxima and shoulders found there. The local σ is the engine's own noise estimate
+ * (estimateCorrelatedNoise: white-noise-equivalent σ from fourth differences of block means,
+ * blocks up to the smoothing window) on the unsmoothed signal in a window of ±h points around i
+ * (h = `halfWidth`, at least 64 so that blocks of 4 points still leave 32 block means), times the
+ * filter gain √Σw²; the factor is max(1, σ_local·√Σw² / σ_smoothed). Never below 1: the global
+ * estimate stays the floor, so a quiet stretch cannot make a peak more significant than before.
+ * Results are cached per index (maxima and shoulders may share one).
+ */
+function localNoiseFactor(
+  smoothed: Float64Array,
+  local: { raw: ArrayLike<number>; smoothingGain: number; maxBlockLength?: number },
+  sigmaSmoothed: number,
+  halfWidth: number,
+): (i: number) => number {
+  const n = smoothed.length;
+  if (!(local.smoothingGain > 0) || local.raw.length !== n) throw new RangeError('local noise needs raw data on the same grid and a positive smoothing gain');
+  const raw = local.raw instanceof Float64Array ? local.raw : Float64Array.from(local.raw);
+  const h = Math.max(MIN_LOCAL_HALF_WIDTH, Math.round(halfWidth));
+  const cache = new Map<number, number>();
+  return (i: number) => {
+    let f = cache.get(i);
+    if (f !== undefined) return f;
+    const lo = Math.max(0, Math.min(i - h, n - 2 * h - 1));
+    const hi = Math.min(n, lo + 2 * h + 1);
+    f = 1;
+    if (hi - lo >= 9) {
+      const est = estimateCorrelatedNoise(raw.subarray(lo, hi), { maxBlockLength: local.maxBlockLength ?? Infinity });
+      f = Math.max(1, (est.sigma * local.smoothingGain) / sigmaSmoothed);
+    }
+    cache.set(i, f);
+    return f;
+  };
+}
+
+/** Smallest half-width of the local noise window (points). */
+const MIN_LOCAL_HALF_WIDTH = 64;
 
 /** Parabolic interpolation of an extremum through three samples. */
 function refine(x: Float64Array, y: Float64Array, i: number, minimum = false): number {
