@@ -4,16 +4,21 @@
 
 const HC_EV_NM = 1239.841984; // CODATA 2018
 
-/** Deterministic noise (mulberry32 + Box–Muller), so the demo is the same on every machine. */
-export function gaussianNoise(seed: number): () => number {
+/** Deterministic uniform numbers in [0, 1) (mulberry32), so synthetic data is the same on every machine. */
+export function seededUniform(seed: number): () => number {
   let a = seed >>> 0;
-  const uniform = () => {
+  return () => {
     a = (a + 0x6d2b79f5) >>> 0;
     let t = a;
     t = Math.imul(t ^ (t >>> 15), t | 1);
     t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
     return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
   };
+}
+
+/** Deterministic standard-normal noise (Box–Muller on seededUniform). */
+export function gaussianNoise(seed: number): () => number {
+  const uniform = seededUniform(seed);
   return () => Math.sqrt(-2 * Math.log(uniform() || 1e-12)) * Math.cos(2 * Math.PI * uniform());
 }
 

@@ -1,21 +1,9 @@
 /** Synthetic spectra with known truth for the engine tests (not a test file). */
 import type { ParsedSpectrum } from '../../lib/engine/index';
+import { gaussianNoise, seededUniform } from '@/lib/demo/synthetic';
 
 /** Deterministic Gaussian noise (mulberry32 + Box–Muller). */
-export function makeRng(seed: number): () => number {
-  let a = seed >>> 0;
-  const uni = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => {
-    const u = Math.max(uni(), 1e-12);
-    return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * uni());
-  };
-}
+export const makeRng = gaussianNoise;
 
 export interface Band {
   e: number; // centre, eV
@@ -111,16 +99,7 @@ export const PARENT_BANDS: Band[] = [
 ];
 
 /** Deterministic uniform numbers in [0, 1) (mulberry32). */
-export function makeUniform(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export const makeUniform = seededUniform;
 
 /**
  * One Poisson draw of mean `mean` by inversion of the cumulative distribution (sequential search;

@@ -1,5 +1,6 @@
 // Synthetic instrument exports for tests and the ingest bench: an absorption spectrum of
 // invented nanocrystals (a first-exciton band on a scattering background), as CSV text.
+import { seededUniform } from "@/lib/demo/synthetic";
 
 export type SyntheticOptions = {
   /** Points, evenly spaced in wavelength. Default 2000. */
@@ -16,17 +17,6 @@ export type SyntheticOptions = {
   endNm?: number;
 };
 
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 export function syntheticAbsorptionCsv(options: SyntheticOptions = {}): string {
   const n = options.points ?? 2000;
   const start = options.startNm ?? 400;
@@ -34,7 +24,7 @@ export function syntheticAbsorptionCsv(options: SyntheticOptions = {}): string {
   const x0 = options.excitonNm ?? 560;
   const h = options.excitonHeight ?? 0.4;
   const noise = options.noise ?? 0.002;
-  const rnd = mulberry32(options.seed ?? 1);
+  const rnd = seededUniform(options.seed ?? 1);
   const lines = ["wavelength (nm),absorbance"];
   for (let i = 0; i < n; i++) {
     const nm = start + ((end - start) * i) / (n - 1);
