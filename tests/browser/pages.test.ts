@@ -5,6 +5,9 @@ import { DEMO, url } from "../helpers/app";
 import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 import { demoIds } from "../helpers/demo-ids";
 
+// Sources: HTTP status codes as RFC 9110 defines them (200, 201, 304, 400, 401, 403, 404, 409, 413, 415, 422, 503);
+// every other number checked here is a count or value this test itself created (known truth of its fixtures).
+
 // Every page of the shell, opened by the people who use it, renders its own heading
 // and never the error page.
 let browser: Browser;

@@ -3,6 +3,9 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO, url } from "../helpers/app";
 import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 
+// Sources: HTTP status codes as RFC 9110 defines them (200, 201, 304, 400, 401, 403, 404, 409, 413, 415, 422, 503);
+// every other number checked here is a count or value this test itself created (known truth of its fixtures).
+
 // A lab script's token: made in the app, shown once, usable with a Bearer header,
 // refused from the moment it is revoked.
 let browser: Browser;

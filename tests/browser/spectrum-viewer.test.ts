@@ -5,6 +5,9 @@ import { Spectrum, models } from "@/models";
 import { DEMO, url } from "../helpers/app";
 import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 
+// Sources: HTTP status codes as RFC 9110 defines them (200, 201, 304, 400, 401, 403, 404, 409, 413, 415, 422, 503);
+// every other number checked here is a count or value this test itself created (known truth of its fixtures).
+
 // A spectroscopist opens the demo's flagged spectrum (bleach of the first exciton and a new band
 // below the gap, against its parent), reads the chart, switches to an energy axis and follows the
 // flags between table and chart.

@@ -7,6 +7,9 @@ import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser
 import { createLab, createSample, createSeries, type Lab } from "../helpers/fixtures";
 import { storedSpectrum } from "../integration/stewardship-fixtures";
 
+// Sources: HTTP status codes as RFC 9110 defines them (200, 201, 304, 400, 401, 403, 404, 409, 413, 415, 422, 503);
+// every other number checked here is a count or value this test itself created (known truth of its fixtures).
+
 // A data steward creates a read-only link on the sharing page (shown once, with a copy
 // button), someone without an account opens it, the steward revokes it, and the same
 // page reloaded says the link is not valid — in a group made for this test.

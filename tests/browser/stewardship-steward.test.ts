@@ -7,6 +7,9 @@ import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser
 import { createLab, type Lab } from "../helpers/fixtures";
 import { storedSpectrum } from "../integration/stewardship-fixtures";
 
+// Sources: HTTP status codes as RFC 9110 defines them (200, 201, 304, 400, 401, 403, 404, 409, 413, 415, 422, 503);
+// every other number checked here is a count or value this test itself created (known truth of its fixtures).
+
 // A data steward sets a retention policy, reads its dry run, saves it, and places a
 // legal hold — in a group and project made for this test, never the demo's.
 

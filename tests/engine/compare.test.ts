@@ -2,6 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { analyzeSpectrum } from '../../lib/engine/index';
 import { absorbanceSpectrum, plSpectrum, PARENT_BANDS, HC } from './synthetic';
 
+// Source of every expected value: the known truth of the synthetic generator (tests/engine/synthetic.ts);
+// the tolerances are common practice for a noise level of 0.002 absorbance.
+
 // Synthetic pairs with known truth. Tolerances are stated beside each check; flags must carry
 // magnitude, uncertainty and significance.
 const noise = 0.002;

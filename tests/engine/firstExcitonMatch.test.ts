@@ -4,6 +4,9 @@ import { matchFirstExciton } from '@/lib/engine/peaks/matchFirstExciton';
 import type { ExcitonicPeak } from '@/lib/engine/peaks/findExcitonicPeaks';
 import { absorptionCsv } from '@/lib/demo/synthetic';
 
+// Source of every expected value: the known truth of the demo generator (lib/demo/synthetic.ts);
+// the ±0.15 eV matching window is common practice (see lib/engine/peaks/matchFirstExciton.ts).
+
 const parse = (name: string, text: string) => parseSpectrumFile(name, new TextEncoder().encode(text));
 
 describe('first exciton of a charged sample', () => {

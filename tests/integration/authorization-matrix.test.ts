@@ -6,6 +6,9 @@ import { demoIds } from "../helpers/demo-ids";
 import { createLab, createUser } from "../helpers/fixtures";
 import { sessionCookie } from "../helpers/session";
 
+// Sources: HTTP status codes as RFC 9110 defines them (200, 201, 304, 400, 401, 403, 404, 409, 413, 415, 422, 503);
+// every other number checked here is a count or value this test itself created (known truth of its fixtures).
+
 // Every stewardship page, route handler and download, called over HTTP by each kind of
 // caller, compared with the expected answer kept in the table below.
 //

@@ -7,6 +7,9 @@ import { DEMO, DEMO_PASSWORD, url } from "../helpers/app";
 import { demoIds } from "../helpers/demo-ids";
 import { sessionCookie } from "../helpers/session";
 
+// Sources: HTTP status codes as RFC 9110 defines them (200, 201, 304, 400, 401, 403, 404, 409, 413, 415, 422, 503);
+// every other number checked here is a count or value this test itself created (known truth of its fixtures).
+
 // Every route handler in app/, called as an anonymous visitor, as a collaborator on
 // something NOT shared with them, and as a member of another group. Each must refuse.
 // A new route.ts that is missing from this table fails the first test, so the table

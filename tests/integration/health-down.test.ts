@@ -1,6 +1,9 @@
 import { spawn } from "node:child_process";
 import { afterAll, describe, expect, it } from "vitest";
 
+// Sources: HTTP status codes as RFC 9110 defines them (200, 201, 304, 400, 401, 403, 404, 409, 413, 415, 422, 503);
+// every other number checked here is a count or value this test itself created (known truth of its fixtures).
+
 // A second app process whose Redis and mail addresses point at closed ports: the
 // health check must say which services are down and answer 503.
 describe("health when services are down", () => {

@@ -7,6 +7,9 @@ import { addMember, appUrl, createLab, createSample, createSeries, createUser, t
 import { getJson, settled, upload } from "../helpers/api";
 import { enc, syntheticAbsorptionCsv } from "../helpers/spectra";
 
+// Sources: HTTP status codes as RFC 9110 defines them (200, 201, 304, 400, 401, 403, 404, 409, 413, 415, 422, 503);
+// every other number checked here is a count or value this test itself created (known truth of its fixtures).
+
 let lab: Lab;
 let fields: Record<string, string>;
 

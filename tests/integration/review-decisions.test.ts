@@ -5,6 +5,9 @@ import { DEMO, DEMO_PASSWORD, url } from "../helpers/app";
 import { sessionCookie } from "../helpers/session";
 import { waitFor } from "../helpers/waitFor";
 
+// Sources: HTTP status codes as RFC 9110 defines them (200, 201, 304, 400, 401, 403, 404, 409, 413, 415, 422, 503);
+// every other number checked here is a count or value this test itself created (known truth of its fixtures).
+
 // Real app, PostgreSQL and SMTP fake (no mocks): a lead's decision writes a Review row and the
 // signature's state, a revision keeps the history, non-leads and other groups are refused, and
 // the uploader's mail arrives in the SMTP fake.
