@@ -1,4 +1,4 @@
-import { createHash, randomUUID } from "node:crypto";
+import { randomUUID } from "node:crypto";
 import { DeleteObjectCommand, GetObjectCommand, HeadBucketCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
 import { config } from "./config";
 
@@ -19,9 +19,7 @@ export function s3(): S3Client {
   return globalForS3.bandkeepS3;
 }
 
-export function sha256Hex(bytes: Uint8Array): string {
-  return createHash("sha256").update(bytes).digest("hex");
-}
+export { sha256Hex } from "./hash";
 
 /** Object keys reveal neither file nor sample names. */
 export function newRawObjectKey(): string {

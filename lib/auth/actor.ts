@@ -1,7 +1,7 @@
-import { createHash } from "node:crypto";
 import { getServerSession } from "next-auth";
 import { redirect } from "next/navigation";
 import { selectRows } from "@/lib/db";
+import { sha256Hex } from "@/lib/hash";
 import { ApiToken, models } from "@/models";
 import type { Role } from "@/models/Membership";
 import { authOptions } from "./options";
@@ -50,7 +50,7 @@ export async function requireActor(returnTo = "/"): Promise<Actor> {
 }
 
 export function hashToken(token: string): string {
-  return createHash("sha256").update(token).digest("hex");
+  return sha256Hex(token);
 }
 
 // Lab scripts call in bursts with one token: the token's person is kept for a few

@@ -1,4 +1,4 @@
-import { createHash } from "node:crypto";
+import { sha256Hex } from "@/lib/hash";
 import { z } from "zod";
 import { canonicalJson } from "./canonicalJson";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "./metadata";
@@ -27,7 +27,7 @@ export type ThresholdName = (typeof THRESHOLD_NAMES)[number];
 
 /** sha256 of the canonical JSON of the parameters and the reference spectrum id. */
 export function parameterHash(parameters: AnalysisParameters, referenceSpectrumId: string | null): string {
-  return createHash("sha256").update(canonicalJson({ parameters, referenceSpectrumId })).digest("hex");
+  return sha256Hex(canonicalJson({ parameters, referenceSpectrumId }));
 }
 
 /** A column choice as typed by a person: digits mean a zero-based column index. */

@@ -1,4 +1,4 @@
-import { createHash } from "node:crypto";
+import { sha256Hex } from "@/lib/hash";
 import { HeadObjectCommand } from "@aws-sdk/client-s3";
 import { QueryTypes, type Transaction } from "sequelize";
 import { config } from "@/lib/config";
@@ -162,7 +162,7 @@ export async function deleteAnalysisRun(runId: string, request: DeleteRequest & 
     const hold = await holdCoveringSpectrum(run.spectrum_id, transaction);
     if (hold) throw new DeletionRefused(holdMessage(hold), "held");
     if (run.status === "queued" || run.status === "running") throw new DeletionRefused("This analysis is queued or running.", "busy");
-    const sha256 = run.report ? createHash("sha256").update(run.report).digest("hex") : null;
+    const sha256 = run.report ? sha256Hex(run.report) : null;
     const t = await Tombstone.create(
       {
         groupId: run.group_id, projectId: run.project_id, policyId: request.policyId ?? null, dataClass: "processed", targetType: "analysis-run",

@@ -1,4 +1,4 @@
-import { createHash } from "node:crypto";
+import { sha256Hex } from "@/lib/hash";
 import { strToU8, zipSync, type Zippable } from "fflate";
 import { Op } from "sequelize";
 import { ENGINE_VERSION, parseSpectrumFile, type ParsedSpectrum } from "@/lib/engine";
@@ -32,7 +32,6 @@ export type Manifest = {
   files: ManifestFile[];
 };
 
-const sha = (b: Uint8Array) => createHash("sha256").update(b).digest("hex");
 const safeName = (s: string) => s.replace(/[^A-Za-z0-9._-]+/g, "_").slice(0, 80) || "file";
 
 function processedCsv(p: ParsedSpectrum): string {
@@ -98,7 +97,7 @@ export async function buildBundle(target: { type: "project" | "series"; id: stri
   const listed: ManifestFile[] = [];
   const add = (path: string, bytes: Uint8Array, kind: ManifestFile["kind"]) => {
     files[path] = bytes;
-    listed.push({ path, sha256: sha(bytes), bytes: bytes.length, kind });
+    listed.push({ path, sha256: sha256Hex(bytes), bytes: bytes.length, kind });
   };
   const spectraOut: Manifest["spectra"] = [];
   for (const s of spectra) {
