@@ -28,6 +28,9 @@ const PARALLEL = arg("parallel", 8);
 const WORKERS = arg("workers", 1);
 const CONCURRENCY = arg("concurrency", 2);
 const BENCH_PORT = arg("port", 3099);
+// --profile DIR: write V8 CPU profiles of the app and the worker there (open them in a browser's devtools).
+const PROFILE_DIR = args.includes("--profile") ? path.resolve(args[args.indexOf("--profile") + 1] ?? "bench-profiles") : null;
+const profileFlags = PROFILE_DIR ? ["--cpu-prof", `--cpu-prof-dir=${PROFILE_DIR}`] : [];
 
 // The test profile's environment, read from scripts/env.sh so addresses stay in one place.
 const envText = execFileSync("bash", ["-c", "export BANDKEEP_PROFILE=test; source scripts/env.sh; source scripts/services.sh; start_services >&2; env -0"], {
@@ -53,6 +56,7 @@ const { analysisQueue } = await import("@/lib/queue");
 const { createLab } = await import("@/tests/helpers/fixtures");
 const { syntheticAbsorptionCsv, enc } = await import("@/tests/helpers/spectra");
 const { Op } = await import("sequelize");
+const { cpuMsOfTrees, cpuMsPer, formatCpuPer, pidFromFile } = await import("./processCpu");
 
 const children: ChildProcess[] = [];
 function start(name: string, argv: string[], extraEnv: Record<string, string> = {}): ChildProcess {
@@ -114,8 +118,8 @@ try {
     console.log("no build found: running next build (once)");
     execFileSync(process.execPath, ["node_modules/next/dist/bin/next", "build"], { cwd: ROOT, stdio: "inherit" });
   }
-  const app = start("app", ["node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(BENCH_PORT)]);
-  const workers = Array.from({ length: WORKERS }, () => start("worker", ["--import", "tsx", "workers/index.ts"], { WORKER_CONCURRENCY: String(CONCURRENCY) }));
+  const app = start("app", [...profileFlags, "node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(BENCH_PORT)]);
+  const workers = Array.from({ length: WORKERS }, () => start("worker", [...profileFlags, "--import", "tsx", "workers/index.ts"], { WORKER_CONCURRENCY: String(CONCURRENCY) }));
   await waitHttp(`http://127.0.0.1:${BENCH_PORT}/api/v1/projects`, 60_000);
 
   models();
@@ -132,8 +136,23 @@ try {
   warm.append("file", new Blob([enc(syntheticAbsorptionCsv({ seed: 1, points: 2000 })) as Uint8Array<ArrayBuffer>]), "warm.csv");
   await fetch(`http://127.0.0.1:${BENCH_PORT}/api/v1/spectra`, { method: "POST", headers: { Authorization: `Bearer ${lab.token}` }, body: warm });
 
+  // Where the CPU goes: every process tree of the stack, read from /proc before and after each phase.
+  const runDir = path.join(process.env.BANDKEEP_DATA_DIR!, "run");
+  const trees = () => cpuMsOfTrees({
+    app: app.pid,
+    ...Object.fromEntries(workers.map((w, i) => [workers.length > 1 ? `worker${i + 1}` : "worker", w.pid])),
+    postgres: pidFromFile(path.join(process.env.BANDKEEP_DATA_DIR!, "pg", "postmaster.pid")),
+    redis: pidFromFile(path.join(runDir, "redis.pid")),
+    storage: pidFromFile(path.join(runDir, "storage.pid")),
+  });
+  const clientCpuMs = () => {
+    const u = process.cpuUsage();
+    return (u.user + u.system) / 1000;
+  };
+
   // 1. Through the HTTP API until analysed.
   const ids: string[] = [];
+  const cpu0 = { ...trees(), "bench client": clientCpuMs() };
   const t0 = performance.now();
   let refused = 0;
   await pool(files, PARALLEL, async (f) => {
@@ -154,11 +173,13 @@ try {
     await new Promise((r) => setTimeout(r, 200));
   }
   const tAnalysed = performance.now();
+  const cpu1 = { ...trees(), "bench client": clientCpuMs() };
   const failed = await Spectrum.count({ where: { id: { [Op.in]: ids }, status: "failed" } });
   const peakRss = workers.map((w) => peakRssMb(w.pid!));
   const appRss = peakRssMb(app.pid!);
 
   // 2. The bare storage path: object put + row insert, same files, same parallelism.
+  const cpu2 = { ...trees(), "bench client": clientCpuMs() };
   const t1 = performance.now();
   await pool(files, PARALLEL, async (f) => {
     const key = newRawObjectKey();
@@ -172,6 +193,7 @@ try {
     });
   });
   const tBare = performance.now();
+  const cpu3 = { ...trees(), "bench client": clientCpuMs() };
 
   const s = (ms: number) => ms / 1000;
   const pipelineRate = ids.length / s(tAnalysed - t0);
@@ -182,6 +204,8 @@ try {
   console.log(`  of which uploads accepted : ${s(tUploaded - t0).toFixed(1)} s = ${uploadRate.toFixed(1)} files/s`);
   console.log(`bare storage path (put+row) : ${FILES} files in ${s(tBare - t1).toFixed(1)} s = ${bareRate.toFixed(1)} files/s`);
   console.log(`ratio pipeline / bare       : ${(pipelineRate / bareRate).toFixed(3)}   (upload acceptance / bare: ${(uploadRate / bareRate).toFixed(3)})`);
+  console.log(`CPU per file, pipeline      : ${formatCpuPer(cpuMsPer(cpu0, cpu1, ids.length))}`);
+  console.log(`CPU per file, bare path     : ${formatCpuPer(cpuMsPer(cpu2, cpu3, FILES))}`);
   console.log(`worker peak RSS (VmHWM)     : ${peakRss.map((m) => `${m.toFixed(0)} MB`).join(", ")}   (app: ${appRss.toFixed(0)} MB)`);
 
   await analysisQueue().obliterate({ force: true }).catch(() => {});

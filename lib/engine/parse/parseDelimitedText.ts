@@ -22,6 +22,9 @@ export interface DelimitedResult {
 
 function splitRows(lines: string[], delimiter: Delimiter): string[][] {
   if (delimiter === 'whitespace') return lines.map((l) => (l.trim().length === 0 ? [] : l.trim().split(/\s+/)));
+  // Without a quote character, delimited text is a plain split on the delimiter (RFC 4180 §2);
+  // the CSV parser is needed only for quoted cells, and costs several times more.
+  if (!lines.some((l) => l.includes('"'))) return lines.map((l) => l.split(delimiter).map((c) => c.trim()));
   const parsed = Papa.parse<string[]>(lines.join('\n'), { delimiter, newline: '\n', quoteChar: '"', skipEmptyLines: false });
   const rows = parsed.data;
   if (rows.length !== lines.length) {
@@ -59,7 +62,9 @@ function isDataRow(row: string[], decimalComma: boolean): boolean {
 /** Picks the separator and decimal mark that turn the most lines into all-numeric rows of ≥ 2 cells. */
 function detectLayout(lines: string[]): { delimiter: Delimiter; decimalComma: boolean } {
   const sample: string[] = [];
-  const step = Math.max(1, Math.floor(lines.length / 400));
+  // Up to ~120 lines spread over the file decide it: enough for the data block to outvote
+  // headers and footers, and a long file does not cost more to sniff than a short one.
+  const step = Math.max(1, Math.floor(lines.length / 120));
   for (let i = 0; i < lines.length; i += step) if (lines[i]!.trim().length > 0) sample.push(lines[i]!);
   let best = { delimiter: ',' as Delimiter, decimalComma: false, score: -1 };
   const candidates: Array<[Delimiter, boolean]> = [
@@ -137,10 +142,12 @@ export function parseDelimitedText(fileName: string, lines: string[], options: P
     throw new SpectrumFileError(fileName, 'fewer than 3 consecutive data rows found, at least 16 points are needed');
   }
   let end = start;
+  const xOfRow: number[] = [];
   while (end < rows.length && !isBlank(rows[end]!)) {
     const r = rows[end]!;
     const xv = parseNumberCell(r[0] ?? '', decimalComma);
     if (xv === undefined || Number.isNaN(xv)) break;
+    xOfRow.push(xv);
     end++;
   }
   // Does numeric data resume after the stop? Then the stop is damage, not a footer.
@@ -228,7 +235,7 @@ export function parseDelimitedText(fileName: string, lines: string[], options: P
   let missing = 0;
   for (let i = start; i < end; i++) {
     const r = rows[i]!;
-    const xv = parseNumberCell(r[0]!, decimalComma)!;
+    const xv = xOfRow[i - start]!;
     const cell = r[col] ?? '';
     const yv = parseNumberCell(cell, decimalComma);
     if (yv === undefined) {
