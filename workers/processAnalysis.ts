@@ -1,12 +1,13 @@
 import { UnrecoverableError, type Job } from "bullmq";
 import { z } from "zod";
-import { AnalysisRun, Spectrum, models } from "@/models";
+import { models } from "@/models";
 import { config } from "@/lib/config";
 import { getObjectBytes } from "@/lib/storage";
 import type { AnalysisJob } from "@/lib/queue";
-import { ENGINE_VERSION, SpectrumFileError, analyzeSpectrum, parseSpectrumFile, type AnalysisOptions, type ParsedSpectrum } from "@/lib/engine";
-import type { AnalysisParameters } from "@/lib/ingest/parameters";
+import { ENGINE_VERSION, SpectrumFileError, analyzeSpectrum, parseSpectrumFile, type AnalysisOptions, type ParsedSpectrum, type Technique } from "@/lib/engine";
 import { columnChoice } from "@/lib/ingest/parameters";
+import { loadRun, markRunning, type RunToAnalyse } from "./loadRun";
+import { parsedReference } from "./referenceSpectra";
 import { saveAnalysis, saveFailure } from "./saveAnalysis";
 
 const payloadSchema = z.object({ spectrumId: z.string().uuid(), runId: z.string().uuid() }).strict();
@@ -27,62 +28,58 @@ function engineStep<T>(fileName: string, step: () => T): T {
   }
 }
 
-function parseStored(spectrum: Spectrum, bytes: Uint8Array, column: string | number | undefined): ParsedSpectrum {
-  return engineStep(spectrum.fileName, () =>
-    parseSpectrumFile(spectrum.fileName, bytes, {
-      technique: spectrum.technique,
+function parseStored(file: { fileName: string; technique: Technique }, bytes: Uint8Array, column: string | number | undefined): ParsedSpectrum {
+  return engineStep(file.fileName, () =>
+    parseSpectrumFile(file.fileName, bytes, {
+      technique: file.technique,
       maxBytes: config().UPLOAD_MAX_BYTES,
       ...(column !== undefined ? { column } : {}),
     }),
   );
 }
 
+async function loadReference(run: RunToAnalyse): Promise<ParsedSpectrum | undefined> {
+  if (!run.referenceSpectrumId) return undefined;
+  const reference = run.reference;
+  if (!reference) throw new DataFault(`${run.spectrum.fileName}: its reference spectrum was deleted`);
+  return parsedReference(reference.objectKey, reference.columnChoice, async () => {
+    const bytes = await getObjectBytes(reference.objectKey);
+    try {
+      return parseStored(reference, bytes, columnChoice(reference.columnChoice ?? undefined));
+    } catch (error) {
+      if (error instanceof DataFault) throw new DataFault(`reference spectrum ${error.message}`);
+      throw error;
+    }
+  });
+}
+
 /**
- * Analyses one run: loads it by id, fetches the raw file (and the reference's), parses,
- * analyses and saves everything in one transaction. Unreadable files fail the run with the
- * engine's message and are not retried; service faults are thrown for a retry with backoff.
+ * Analyses one run: loads it by id (with its spectrum and reference, one query), fetches the
+ * raw file (the reference's comes from a small cache of parsed references), parses, analyses
+ * and saves everything in one statement. Unreadable files fail the run with the engine's
+ * message and are not retried; service faults are thrown for a retry with backoff.
  */
 export async function processAnalysis(job: Job<AnalysisJob>): Promise<JobSummary> {
   const payload = payloadSchema.safeParse(job.data);
   if (!payload.success) throw new UnrecoverableError(`job ${job.id}: payload is not {spectrumId, runId}`);
   const { spectrumId, runId } = payload.data;
   models();
-  const run = await AnalysisRun.findByPk(runId);
+  const run = await loadRun(runId);
   if (!run || run.spectrumId !== spectrumId) throw new UnrecoverableError(`job ${job.id}: run ${runId} of spectrum ${spectrumId} does not exist`);
   if (run.status === "done") return { runId, outcome: "already-done" };
   if (run.status === "failed") return { runId, outcome: "already-failed" };
-  const spectrum = await Spectrum.findByPk(spectrumId);
-  if (!spectrum) throw new UnrecoverableError(`job ${job.id}: spectrum ${spectrumId} does not exist`);
+  const spectrum = run.spectrum;
 
   const startedAt = new Date();
   const t0 = performance.now();
   try {
-    await AnalysisRun.update({ status: "running", startedAt }, { where: { id: runId, status: ["queued", "running"] } });
-    await Spectrum.update({ status: "analysing" }, { where: { id: spectrumId, status: ["received", "queued", "analysing"] } });
-    await job.updateProgress({ stage: "fetching" });
-    const parameters = (run.parameters ?? { technique: spectrum.technique }) as AnalysisParameters;
+    await markRunning(runId, spectrumId, startedAt);
+    const parameters = run.parameters ?? { technique: spectrum.technique };
     const bytes = await getObjectBytes(spectrum.objectKey);
-    let reference: Spectrum | null = null;
-    let referenceBytes: Uint8Array | null = null;
-    if (run.referenceSpectrumId) {
-      reference = await Spectrum.findByPk(run.referenceSpectrumId);
-      if (!reference) throw new DataFault(`${spectrum.fileName}: its reference spectrum was deleted`);
-      referenceBytes = await getObjectBytes(reference.objectKey);
-    }
-
-    await job.updateProgress({ stage: "parsing" });
     const parsed = parseStored(spectrum, bytes, parameters.column);
-    let parsedReference: ParsedSpectrum | undefined;
-    if (reference && referenceBytes) {
-      try {
-        parsedReference = parseStored(reference, referenceBytes, columnChoice(reference.columnChoice ?? undefined));
-      } catch (error) {
-        if (error instanceof DataFault) throw new DataFault(`reference spectrum ${error.message}`);
-        throw error;
-      }
-    }
-
+    const parsedReference = await loadReference(run);
     await job.updateProgress({ stage: "analysing" });
+
     const options: AnalysisOptions & { reference?: ParsedSpectrum } = { technique: parameters.technique };
     if (parsedReference) options.reference = parsedReference;
     if (parameters.material) options.material = parameters.material;
@@ -96,7 +93,6 @@ export async function processAnalysis(job: Job<AnalysisJob>): Promise<JobSummary
     if (parameters.thresholds !== undefined) options.thresholds = parameters.thresholds;
     const report = engineStep(spectrum.fileName, () => analyzeSpectrum(parsed, options));
 
-    await job.updateProgress({ stage: "saving" });
     const wrote = await saveAnalysis({
       runId,
       report,

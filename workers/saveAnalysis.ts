@@ -1,5 +1,6 @@
-import { Op, type Transaction } from "sequelize";
-import { AnalysisRun, Peak, Signature, Spectrum, models } from "@/models";
+import { Op, QueryTypes, type Transaction } from "sequelize";
+import { sequelize } from "@/lib/db";
+import { AnalysisRun, Spectrum, models } from "@/models";
 import type { AnalysisReport } from "@/lib/engine";
 
 const finiteOrNull = (n: unknown): number | null => (typeof n === "number" && Number.isFinite(n) ? n : null);
@@ -25,73 +26,107 @@ export type SaveInput = {
   valueUnit: string;
 };
 
+function peakRows(report: AnalysisReport) {
+  const first = report.firstExciton;
+  return report.peaks
+    .filter((p) => Number.isFinite(p.energyEv) && Number.isFinite(p.wavelengthNm) && Number.isFinite(p.height))
+    .map((p) => ({
+      energy_ev: p.energyEv,
+      wavelength_nm: p.wavelengthNm,
+      height: p.height,
+      fwhm_mev: finiteOrNull(p.fwhmMeV),
+      area: finiteOrNull(p.area),
+      is_first_exciton: first !== null && Math.abs(first.energyEv - p.energyEv) < 1e-9,
+    }));
+}
+
+function signatureRows(report: AnalysisReport) {
+  return report.flags.map((f) => ({
+    kind: f.kind,
+    energy_ev: finiteOrNull(f.energyEv),
+    fraction: finiteOrNull(f.fraction),
+    shift_mev: finiteOrNull(f.shiftMeV),
+    significance: significanceOf(f.significance),
+    details: {
+      message: f.message,
+      magnitude: finiteOrNull(f.magnitude),
+      unit: f.unit,
+      uncertainty: finiteOrNull(f.uncertainty),
+      wavelengthNm: finiteOrNull(f.wavelengthNm),
+      fwhmChangeMeV: finiteOrNull(f.fwhmChangeMeV),
+      ...(f.intraband !== undefined ? { intraband: f.intraband } : {}),
+    },
+  }));
+}
+
+/*
+ * One statement, so one round trip and one implicit transaction. The run row is locked first
+ * (FOR UPDATE) and nothing is written when it is already done: after waiting for a duplicate
+ * job's lock, PostgreSQL re-checks `status <> 'done'` on the newest row version, so a retried or
+ * duplicated job writes once. Peaks and signatures of the run are replaced (there are none unless
+ * an earlier write of the same run was undone with its transaction; the deletes keep it exact).
+ * The spectrum's status is left to a later run of the same spectrum that is still pending.
+ */
+const SAVE_ANALYSIS_SQL = `
+WITH target AS (
+  SELECT id, spectrum_id, created_at FROM analysis_runs WHERE id = $1 AND status <> 'done' FOR UPDATE
+),
+old_signatures AS (DELETE FROM signatures s USING target t WHERE s.run_id = t.id),
+old_peaks AS (DELETE FROM peaks p USING target t WHERE p.run_id = t.id),
+new_peaks AS (
+  INSERT INTO peaks (run_id, energy_ev, wavelength_nm, height, fwhm_mev, area, is_first_exciton)
+  SELECT t.id, p.energy_ev, p.wavelength_nm, p.height, p.fwhm_mev, p.area, p.is_first_exciton
+    FROM target t,
+         jsonb_to_recordset($2::jsonb) AS p(energy_ev float8, wavelength_nm float8, height float8, fwhm_mev float8, area float8, is_first_exciton boolean)
+),
+new_signatures AS (
+  INSERT INTO signatures (run_id, spectrum_id, kind, energy_ev, fraction, shift_mev, significance, details)
+  SELECT t.id, t.spectrum_id, s.kind::signature_kind, s.energy_ev, s.fraction, s.shift_mev, s.significance, s.details
+    FROM target t,
+         jsonb_to_recordset($3::jsonb) AS s(kind text, energy_ev float8, fraction float8, shift_mev float8, significance float8, details jsonb)
+),
+finished AS (
+  UPDATE analysis_runs r
+     SET status = 'done', report = $4::jsonb, noise = $5, error_message = NULL, engine_version = $6,
+         started_at = COALESCE(r.started_at, $7), finished_at = now(), duration_ms = $8, updated_at = now()
+    FROM target t
+   WHERE r.id = t.id
+  RETURNING r.id
+),
+spectrum AS (
+  UPDATE spectra sp
+     SET status = 'analysed', error_message = NULL, axis_unit = $9, value_unit = $10, updated_at = now()
+    FROM target t
+   WHERE sp.id = t.spectrum_id
+     AND NOT EXISTS (
+       SELECT 1 FROM analysis_runs later
+        WHERE later.spectrum_id = t.spectrum_id AND later.id <> t.id AND later.created_at > t.created_at
+          AND later.status IN ('queued', 'running'))
+)
+SELECT count(*)::int AS wrote FROM finished`;
+
 /**
- * Writes a finished analysis in one transaction: the run row is locked first and nothing
- * is written when it is already done, so a retried or duplicated job writes once. Peaks and
- * signatures of the run are deleted and written again inside the same transaction.
- * Returns false when the run was already done (or is gone).
+ * Writes a finished analysis atomically and idempotently (see SAVE_ANALYSIS_SQL). Returns false
+ * when the run was already done (or is gone).
  */
 export async function saveAnalysis(input: SaveInput): Promise<boolean> {
-  const db = models();
-  return db.transaction(async (transaction) => {
-    const run = await AnalysisRun.findByPk(input.runId, { lock: transaction.LOCK.UPDATE, transaction });
-    if (!run || run.status === "done") return false;
-    const { report } = input;
-    await Signature.destroy({ where: { runId: run.id }, transaction });
-    await Peak.destroy({ where: { runId: run.id }, transaction });
-    const first = report.firstExciton;
-    const peaks = report.peaks
-      .filter((p) => Number.isFinite(p.energyEv) && Number.isFinite(p.wavelengthNm) && Number.isFinite(p.height))
-      .map((p) => ({
-        runId: run.id,
-        energyEv: p.energyEv,
-        wavelengthNm: p.wavelengthNm,
-        height: p.height,
-        fwhmMeV: finiteOrNull(p.fwhmMeV),
-        area: finiteOrNull(p.area),
-        isFirstExciton: first !== null && Math.abs(first.energyEv - p.energyEv) < 1e-9,
-      }));
-    if (peaks.length > 0) await Peak.bulkCreate(peaks, { transaction });
-    const signatures = report.flags.map((f) => ({
-      runId: run.id,
-      spectrumId: run.spectrumId,
-      kind: f.kind,
-      energyEv: finiteOrNull(f.energyEv),
-      fraction: finiteOrNull(f.fraction),
-      shiftMeV: finiteOrNull(f.shiftMeV),
-      significance: significanceOf(f.significance),
-      details: {
-        message: f.message,
-        magnitude: finiteOrNull(f.magnitude),
-        unit: f.unit,
-        uncertainty: finiteOrNull(f.uncertainty),
-        wavelengthNm: finiteOrNull(f.wavelengthNm),
-        fwhmChangeMeV: finiteOrNull(f.fwhmChangeMeV),
-        ...(f.intraband !== undefined ? { intraband: f.intraband } : {}),
-      },
-    }));
-    if (signatures.length > 0) await Signature.bulkCreate(signatures, { transaction });
-    await run.update(
-      {
-        status: "done",
-        report: JSON.parse(JSON.stringify(report)),
-        noise: finiteOrNull(report.noise?.sigma),
-        errorMessage: null,
-        engineVersion: input.engineVersion,
-        startedAt: run.startedAt ?? input.startedAt,
-        finishedAt: new Date(),
-        durationMs: Math.max(0, Math.round(input.durationMs)),
-      },
-      { transaction },
-    );
-    if (!(await laterRunPending(run, transaction))) {
-      await Spectrum.update(
-        { status: "analysed", errorMessage: null, axisUnit: input.axisUnit, valueUnit: input.valueUnit },
-        { where: { id: run.spectrumId }, transaction },
-      );
-    }
-    return true;
+  const { report } = input;
+  const rows = await sequelize().query<{ wrote: number }>(SAVE_ANALYSIS_SQL, {
+    bind: [
+      input.runId,
+      JSON.stringify(peakRows(report)),
+      JSON.stringify(signatureRows(report)),
+      JSON.stringify(report),
+      finiteOrNull(report.noise?.sigma),
+      input.engineVersion,
+      input.startedAt,
+      Math.max(0, Math.round(input.durationMs)),
+      input.axisUnit,
+      input.valueUnit,
+    ],
+    type: QueryTypes.SELECT,
   });
+  return (rows[0]?.wrote ?? 0) > 0;
 }
 
 /**

@@ -2,8 +2,8 @@ import { UniqueConstraintError } from "sequelize";
 import { AnalysisRun, Spectrum, models } from "@/models";
 import { recordAudit } from "@/lib/audit";
 import { deleteObject, newRawObjectKey, putObject, sha256Hex } from "@/lib/storage";
-import { ENGINE_VERSION } from "@/lib/engine/version";
 import { enqueueRun } from "./enqueueRun";
+import { insertUpload } from "./insertUpload";
 import { IngestError } from "./errors";
 import type { IngestContext } from "./prepareIngest";
 import { parameterHash } from "./parameters";
@@ -52,7 +52,7 @@ async function duplicateOf(context: IngestContext, existing: Spectrum, fileName:
 /**
  * Stores one file of a prepared batch: a file already in the project (same sha256) is
  * linked instead of stored twice; otherwise the raw bytes go to object storage first, then
- * the spectrum, its first analysis run and an audit event are written in one transaction,
+ * the spectrum, its first analysis run and an audit event are written in one statement,
  * then the run is queued. The raw object is never altered afterwards.
  */
 export async function storeFile(
@@ -65,7 +65,7 @@ export async function storeFile(
   if (file.bytes.length > maxBytes) {
     throw new IngestError(413, "too-large", `${fileName}: ${file.bytes.length} bytes is over the upload limit of ${maxBytes} bytes`, "file");
   }
-  const db = models();
+  models();
   const sha256 = sha256Hex(file.bytes);
   const existing = await Spectrum.findOne({ where: { projectId: context.project.id, sha256 } });
   if (existing) return duplicateOf(context, existing, fileName);
@@ -74,72 +74,15 @@ export async function storeFile(
   const contentType = cleanContentType(file.contentType);
   await putObject(objectKey, file.bytes, contentType, sha256);
 
-  const { metadata, parameters, reference } = context;
+  const { parameters, reference } = context;
   const referenceSpectrumId = reference?.id ?? null;
-  let spectrum: Spectrum;
-  let run: AnalysisRun;
+  let spectrumId: string;
+  let runId: string;
   try {
-    [spectrum, run] = await db.transaction(async (transaction) => {
-      const s = await Spectrum.create(
-        {
-          projectId: context.project.id,
-          sampleId: context.sample?.id ?? null,
-          seriesId: context.series?.id ?? null,
-          seriesValue: metadata.seriesValue ?? null,
-          referenceSpectrumId,
-          technique: metadata.technique,
-          fileName,
-          objectKey,
-          sha256,
-          sizeBytes: file.bytes.length,
-          contentType,
-          columnChoice: metadata.column ?? null,
-          axisUnit: null,
-          valueUnit: null,
-          pathLengthCm: metadata.pathLengthCm ?? null,
-          excitationNm: metadata.excitationNm ?? null,
-          slitNm: null,
-          integrationMs: null,
-          solvent: context.solvent,
-          material: parameters.material ?? context.sample?.material ?? null,
-          status: "queued",
-          errorMessage: null,
-          uploadedBy: context.actor.id,
-        },
-        { transaction },
-      );
-      const r = await AnalysisRun.create(
-        {
-          spectrumId: s.id,
-          referenceSpectrumId,
-          engineVersion: ENGINE_VERSION,
-          parameterHash: parameterHash(parameters, referenceSpectrumId),
-          parameters,
-          status: "queued",
-          errorMessage: null,
-          noise: null,
-          report: null,
-          requestedBy: context.actor.id,
-          startedAt: null,
-          finishedAt: null,
-          durationMs: null,
-        },
-        { transaction },
-      );
-      await recordAudit(
-        {
-          actorId: context.actor.id,
-          actorLabel: context.actor.email,
-          groupId: context.project.groupId,
-          action: "spectrum.upload",
-          targetType: "spectrum",
-          targetId: s.id,
-          details: { fileName, sha256, sizeBytes: file.bytes.length, contentType, runId: r.id },
-        },
-        transaction,
-      );
-      return [s, r] as const;
-    });
+    ({ spectrumId, runId } = await insertUpload({
+      context, fileName, objectKey, sha256, sizeBytes: file.bytes.length, contentType,
+      parameterHash: parameterHash(parameters, referenceSpectrumId),
+    }));
   } catch (error) {
     // The object we just wrote is not referenced by any row: remove it (best effort).
     await deleteObject(objectKey).catch(() => {});
@@ -152,15 +95,15 @@ export async function storeFile(
 
   let queued = true;
   try {
-    await enqueueRun(spectrum.id, run.id);
+    await enqueueRun(spectrumId, runId);
   } catch (error) {
     if (!isTransientFault(error)) console.error("enqueue failed", error);
     queued = false;
     // Stored and safe; the worker's sweep queues runs left waiting.
-    await Spectrum.update({ status: "received" }, { where: { id: spectrum.id, status: "queued" } }).catch(() => {});
+    await Spectrum.update({ status: "received" }, { where: { id: spectrumId, status: "queued" } }).catch(() => {});
   }
   return {
-    fileName, spectrumId: spectrum.id, runId: run.id, status: queued ? "queued" : "received", duplicate: false, queued,
+    fileName, spectrumId, runId, status: queued ? "queued" : "received", duplicate: false, queued,
     sha256, sizeBytes: file.bytes.length,
   };
 }
