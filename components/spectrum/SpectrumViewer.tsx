@@ -5,16 +5,20 @@ import useSWR from "swr";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { KIND_LABELS } from "@/lib/signature-labels";
 import { AXIS_LABELS, DISPLAY_AXES, energyToAxis, type DisplayAxis } from "@/lib/spectrum-view/axis";
-import type { SpectrumDataPayload } from "@/lib/spectrum-view/payload";
+import { decodeColumns } from "@/lib/spectrum-view/columnsFormat";
+import { payloadFromColumns, type SpectrumDataPayload } from "@/lib/spectrum-view/payload";
 import { FLAG_COLOURS } from "./markerStyle";
 import { SpectrumChart } from "./SpectrumChart";
 import type { FlagRow, Marker, PeakRow } from "./types";
 
+/** Reads the curves in the binary columns format (about half the bytes of JSON, nothing to parse). */
 async function fetchData(url: string): Promise<SpectrumDataPayload> {
-  const res = await fetch(url, { headers: { Accept: "application/json" } });
-  const body = await res.json().catch(() => null);
-  if (!res.ok) throw new Error(body?.error?.message ?? `the curves could not be loaded (${res.status})`);
-  return body as SpectrumDataPayload;
+  const res = await fetch(url);
+  if (!res.ok) {
+    const body = await res.json().catch(() => null);
+    throw new Error(body?.error?.message ?? `the curves could not be loaded (${res.status})`);
+  }
+  return payloadFromColumns(decodeColumns(await res.arrayBuffer()));
 }
 
 const num = (v: number | null | undefined, digits: number) => (v === null || v === undefined || !Number.isFinite(v) ? "—" : v.toFixed(digits));
@@ -53,7 +57,7 @@ export function SpectrumViewer({
   const [hover, setHover] = useState<string | null>(null);
   const [pinned, setPinned] = useState<string | null>(null);
   const active = hover ?? pinned;
-  const key = runId ? `/api/v1/spectra/${spectrumId}/data?axis=${axis}&run=${runId}` : null;
+  const key = runId ? `/api/v1/spectra/${spectrumId}/data?axis=${axis}&run=${runId}&format=binary` : null;
   const { data, error, isLoading } = useSWR(key, fetchData, { revalidateOnFocus: false, shouldRetryOnError: false });
 
   const setAxis = (a: DisplayAxis) => {

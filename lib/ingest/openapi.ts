@@ -134,6 +134,7 @@ export function openApiDocument() {
           idParam("Spectrum"),
           queryParam("axis", "Display axis", { type: "string", enum: ["nm", "ev", "cm-1"] }),
           queryParam("run", "An earlier analysis run", { type: "string", format: "uuid" }),
+          queryParam("format", "json (default) or binary: the columns format, application/vnd.bandkeep.columns (docs/api.md)", { type: "string", enum: ["json", "binary"] }),
         ], "application/json", { "409": errorResponse("Not analysed yet"), "422": errorResponse("The file or its analysis failed") }),
       },
       "/api/v1/spectra/{id}/export": {

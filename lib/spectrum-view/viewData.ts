@@ -17,12 +17,18 @@ import { AnalysisRun, Spectrum, models } from "@/models";
 import { DISPLAY_AXES, type DisplayAxis } from "./axis";
 import { deriveViewArrays, type ViewArrays } from "./deriveViewArrays";
 import { SizedLru } from "./lruCache";
-import { buildDataPayload } from "./payload";
+import { buildBinaryPayload, buildDataPayload } from "./payload";
 
 export const viewQuerySchema = z.object({
   axis: z.enum(DISPLAY_AXES, { error: "axis must be nm, ev or cm-1" }).default("nm"),
   run: z.string().uuid("run must be an analysis run id (UUID)").optional(),
 });
+
+/** The data endpoint's query: the view query and the body's encoding (JSON, or the binary columns format). */
+export const dataQuerySchema = viewQuerySchema.extend({
+  format: z.enum(["json", "binary"], { error: "format must be json or binary" }).default("json"),
+});
+export type DataFormat = z.infer<typeof dataQuerySchema>["format"];
 
 /** Parses the query string, naming the field in the error. */
 export function parseViewQuery<S extends z.ZodType>(schema: S, url: string): z.infer<S> {
@@ -110,7 +116,8 @@ const inflight = (globalCache.bandkeepViewInflight ??= new Map());
 const REDIS_TTL_S = 7 * 24 * 3600;
 
 const arraysKey = (runId: string) => `${ENGINE_VERSION}:${runId}`;
-const payloadKey = (runId: string, axis: DisplayAxis) => `bandkeep:view:v1:${ENGINE_VERSION}:${runId}:${axis}`;
+const payloadKey = (runId: string, axis: DisplayAxis, format: DataFormat) =>
+  format === "json" ? `bandkeep:view:v1:${ENGINE_VERSION}:${runId}:${axis}` : `bandkeep:view:v1:${ENGINE_VERSION}:${runId}:${axis}:${format}`;
 
 /** Re-derives (or takes from the in-process cache) the arrays of a finished run. Concurrent callers share one derivation. */
 export async function viewArraysOf(spectrum: Spectrum, run: ViewRun): Promise<{ arrays: ViewArrays; technique: string; yUnit: string }> {
@@ -147,9 +154,14 @@ export async function viewArraysOf(spectrum: Spectrum, run: ViewRun): Promise<{ 
 
 export type CacheOutcome = "memory" | "redis" | "derived";
 
-/** The data endpoint's JSON body for one run and axis, from the caches when possible. */
-export async function dataPayload(spectrum: Spectrum, run: ViewRun, axis: DisplayAxis): Promise<{ body: Buffer; cache: CacheOutcome }> {
-  const key = payloadKey(run.id, axis);
+/** The data endpoint's body for one run, axis and format, from the caches when possible. */
+export async function dataPayload(
+  spectrum: Spectrum,
+  run: ViewRun,
+  axis: DisplayAxis,
+  format: DataFormat = "json",
+): Promise<{ body: Buffer; cache: CacheOutcome }> {
+  const key = payloadKey(run.id, axis, format);
   const hit = payloadCache.get(key);
   if (hit) return { body: hit, cache: "memory" };
   try {
@@ -162,7 +174,8 @@ export async function dataPayload(spectrum: Spectrum, run: ViewRun, axis: Displa
     // Redis down: derive instead; the in-process cache still works.
   }
   const { arrays, technique, yUnit } = await viewArraysOf(spectrum, run);
-  const body = Buffer.from(buildDataPayload(arrays, axis, { spectrumId: spectrum.id, runId: run.id, technique, yUnit }), "utf8");
+  const meta = { spectrumId: spectrum.id, runId: run.id, technique, yUnit };
+  const body = format === "binary" ? Buffer.from(buildBinaryPayload(arrays, axis, meta)) : Buffer.from(buildDataPayload(arrays, axis, meta), "utf8");
   payloadCache.set(key, body);
   redis()
     .set(key, body, "EX", REDIS_TTL_S)

@@ -2,6 +2,8 @@ import { convert } from "jcampconverter";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/lib/db";
 import { parseSpectrumFile } from "@/lib/engine";
+import { COLUMNS_MEDIA_TYPE, decodeColumns } from "@/lib/spectrum-view/columnsFormat";
+import { payloadFromColumns } from "@/lib/spectrum-view/payload";
 import { AnalysisRun, Spectrum, models } from "@/models";
 import { upload, settled } from "../helpers/api";
 import { DEMO, DEMO_PASSWORD, url } from "../helpers/app";
@@ -121,6 +123,30 @@ describe("GET /api/v1/spectra/{id}/data", () => {
     expect(body.series.reference).toBeNull();
     expect(body.series.difference).toBeNull();
     expect(body.series.smoothed!.length).toBe(body.points);
+  });
+
+  it("sends the same curves in the binary columns format: X as float64, curves within float32 rounding of the JSON", async () => {
+    const res = await get(`/api/v1/spectra/${flagged.id}/data?axis=nm&format=binary`, { cookie });
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-type")).toBe(COLUMNS_MEDIA_TYPE);
+    const bytes = new Uint8Array(await res.arrayBuffer());
+    const json = new TextEncoder().encode(JSON.stringify(nm)).length;
+    expect(bytes.length, "smaller than the JSON body").toBeLessThan(0.6 * json);
+    const body = payloadFromColumns(decodeColumns(bytes));
+    expect(body.points).toBe(nm.points);
+    expect(body.runId).toBe(nm.runId);
+    for (let i = 0; i < nm.points; i += 37) {
+      // JSON rounds X to 9 significant digits (relative error ≤ 5e-9) and curves to 7 (≤ 5e-7);
+      // float32 rounds to 24 bits (≤ 2^-24 ≈ 6e-8, IEEE 754): the two may differ by their sum.
+      expect(Math.abs(body.x[i]! - nm.x[i]!) / nm.x[i]!).toBeLessThan(1e-8);
+      for (const k of ["raw", "smoothed", "reference", "difference"] as const) {
+        const a = body.series[k]![i]!, b = nm.series[k]![i]!;
+        expect(Math.abs(a - b), `${k}[${i}]`).toBeLessThanOrEqual((5e-7 + 6e-8) * Math.max(Math.abs(a), Math.abs(b)) + 1e-15);
+      }
+    }
+    const bad = await get(`/api/v1/spectra/${flagged.id}/data?format=xml`, { cookie });
+    expect(bad.status).toBe(400);
+    expect(((await bad.json()) as { error: { field: string } }).error.field).toBe("format");
   });
 
   it("answers repeats from the cache and honours the ETag", async () => {
