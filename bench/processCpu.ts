@@ -28,6 +28,21 @@ function allStats(): ProcStat[] {
     .filter((s): s is ProcStat => s !== null);
 }
 
+/** The living descendants of a process (children, grandchildren, …). */
+export function descendantPids(pid: number): number[] {
+  const stats = allStats();
+  const out: number[] = [];
+  const stack = [pid];
+  while (stack.length) {
+    const parent = stack.pop()!;
+    for (const s of stats) if (s.ppid === parent) {
+      out.push(s.pid);
+      stack.push(s.pid);
+    }
+  }
+  return out;
+}
+
 /** CPU milliseconds used so far by each named process and all its living descendants. */
 export function cpuMsOfTrees(roots: Record<string, number | undefined>): Record<string, number> {
   const stats = allStats();

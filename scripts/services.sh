@@ -168,6 +168,6 @@ build_app() {
 
 start_app_and_worker() {
   start_bg worker node --import tsx "$ROOT/workers/index.ts"
-  start_bg app node "$ROOT/node_modules/next/dist/bin/next" start -H 127.0.0.1 -p "$PORT"
+  start_bg app node "$ROOT/scripts/serve.mjs" -H 127.0.0.1 -p "$PORT"
   wait_http "http://127.0.0.1:$PORT/api/health" app 300
 }

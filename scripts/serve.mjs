@@ -1,0 +1,63 @@
+// Serves the built app with one Next.js request handler per CPU core, all on one port.
+//
+// `next start` runs one Node.js process, so the app uses one core however many the machine has.
+// This is Next.js's documented custom-server entry (next({ dev: false }).getRequestHandler())
+// run under node:cluster: the primary forks APP_PROCESSES workers (default: the machine's
+// available parallelism, at most 4) that share the listening socket, restarts a worker that
+// dies, and stops them all on SIGTERM/SIGINT.
+//
+// Usage: node scripts/serve.mjs [-H 127.0.0.1] [-p 3000]
+import cluster from "node:cluster";
+import { createServer } from "node:http";
+import { availableParallelism } from "node:os";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+
+const argv = process.argv.slice(2);
+const option = (flag, fallback) => (argv.includes(flag) ? argv[argv.indexOf(flag) + 1] : fallback);
+const hostname = option("-H", process.env.HOSTNAME_LOCAL || "127.0.0.1");
+const port = Number(option("-p", process.env.PORT || "3000"));
+const requested = Number(process.env.APP_PROCESSES);
+const processes = Number.isInteger(requested) && requested > 0 ? requested : Math.min(availableParallelism(), 4);
+const dir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
+
+if (cluster.isPrimary) {
+  let stopping = false;
+  const fork = () => cluster.fork();
+  for (let i = 0; i < processes; i++) fork();
+  cluster.on("exit", (worker, code, signal) => {
+    if (stopping) {
+      if (Object.keys(cluster.workers ?? {}).length === 0) process.exit(0);
+      return;
+    }
+    console.error(`app process ${worker.process.pid} exited (${signal ?? code}); starting another`);
+    setTimeout(fork, 1000);
+  });
+  let ready = 0;
+  cluster.on("listening", () => {
+    ready += 1;
+    if (ready === processes) console.log(`Ready: http://${hostname}:${port} (${processes} app processes)`);
+  });
+  const stop = (signal) => {
+    if (stopping) return;
+    stopping = true;
+    for (const worker of Object.values(cluster.workers ?? {})) worker?.process.kill(signal);
+    setTimeout(() => process.exit(0), 10_000).unref();
+  };
+  process.on("SIGTERM", () => stop("SIGTERM"));
+  process.on("SIGINT", () => stop("SIGTERM"));
+} else {
+  // A worker whose primary is gone has nobody to restart or stop it: leave with it.
+  process.on("disconnect", () => process.exit(0));
+  const { default: next } = await import("next");
+  const app = next({ dev: false, dir, hostname, port });
+  const handle = app.getRequestHandler();
+  await app.prepare();
+  const server = createServer((req, res) => handle(req, res));
+  // Above the usual proxy idle timeouts, as `next start` does, so kept-alive sockets are not cut mid-request.
+  server.keepAliveTimeout = 65_000;
+  server.listen(port, hostname);
+  const close = () => server.close(() => process.exit(0));
+  process.on("SIGTERM", close);
+  process.on("SIGINT", close);
+}
