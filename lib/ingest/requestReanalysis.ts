@@ -43,6 +43,9 @@ export async function requestReanalysis(spectrumId: string, changes: ReanalysisI
       throw new IngestError(400, "invalid", `referenceSpectrumId: spectrum ${referenceSpectrumId} was not found in this group`, "referenceSpectrumId");
     }
   }
+  if (parameters.normalization && !referenceSpectrumId) {
+    throw new IngestError(400, "invalid", "normalization: needs a parent reference spectrum, and the run would have none", "normalization");
+  }
   const hash = parameterHash(parameters, referenceSpectrumId);
 
   const { run, created, requeue } = await db.transaction(async (transaction) => {
