@@ -58,8 +58,11 @@ function reportParameters(report: Record<string, unknown> | null): ReportParamet
   const norm = (p.normalization ?? {}) as Record<string, unknown>;
   const thresholds = Object.fromEntries(Object.entries((p.thresholds ?? {}) as Record<string, unknown>).filter(([, v]) => typeof v === "number")) as Record<string, number>;
   let normalization: string | null = null;
-  if (norm.mode === "wavelength") normalization = `scaled to the reference at ${num(norm.wavelengthNm)} nm (× ${Number(norm.factor).toPrecision(4)})`;
-  else if (norm.mode === "concentration") normalization = `by concentration (× ${Number(norm.factor).toPrecision(4)})`;
+  const factor = `× ${Number(norm.factor).toPrecision(4)}`;
+  if (norm.mode === "wavelength") normalization = `scaled to the reference at ${num(norm.wavelengthNm)} nm (${factor})`;
+  else if (norm.mode === "concentration") {
+    normalization = `by concentration, sample ${num(norm.sampleConcentration)} : reference ${num(norm.referenceConcentration)} (${factor})`;
+  }
   else if (norm.mode) normalization = "none";
   return {
     windowSize: num(sm.windowSize), derivativeWindowSize: num(sm.derivativeWindowSize), polynomial: num(sm.polynomial),
