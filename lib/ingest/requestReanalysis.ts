@@ -1,3 +1,4 @@
+import { Op } from "sequelize";
 import { AnalysisRun, Project, Spectrum, models } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadSpectrum, canWrite } from "@/lib/auth/access";
@@ -28,7 +29,12 @@ export async function requestReanalysis(spectrumId: string, changes: ReanalysisI
   const project = await Project.findByPk(spectrum.projectId, { attributes: ["id", "groupId"] });
   if (!project || !canWrite(actor, project.groupId)) throw new IngestError(403, "forbidden", "you may not re-run analyses in this project");
 
-  const latest = await AnalysisRun.findOne({ where: { spectrumId }, order: [["createdAt", "DESC"]] });
+  // Changes apply to the latest run that did not fail (a refused normalisation wavelength is not
+  // carried on), or to the latest of all when every run failed (an unreadable upload's settings).
+  const newestFirst: [string, string][] = [["createdAt", "DESC"]];
+  const latest =
+    (await AnalysisRun.findOne({ where: { spectrumId, status: { [Op.ne]: "failed" } }, order: newestFirst })) ??
+    (await AnalysisRun.findOne({ where: { spectrumId }, order: newestFirst }));
   const base: AnalysisParameters = (latest?.parameters as AnalysisParameters | undefined) ?? { technique: spectrum.technique };
   const parameters = mergeParameters(base, parsed.data);
   let referenceSpectrumId = latest ? latest.referenceSpectrumId : spectrum.referenceSpectrumId;

@@ -140,6 +140,14 @@ describe("re-running with a normalisation", () => {
     expect((await Spectrum.findByPk(sampleId))!.status).toBe("analysed");
     const data = await fetch(appUrl(`/api/v1/spectra/${sampleId}/data?axis=nm`), { headers: { Authorization: `Bearer ${lab.token}` } });
     expect(data.status).toBe(200); // the chart still has the last finished run
+
+    // The next change starts from the last run that did not fail: 450 nm, not the refused 900 nm.
+    const next = await rerun(sampleId, { smoothingWindow: 17 });
+    expect(next.status).toBe(201);
+    await settled(lab.token, sampleId);
+    const nextRun = (await AnalysisRun.findByPk(next.body.runId!))!;
+    expect(nextRun.status).toBe("done");
+    expect(nextRun.parameters).toMatchObject({ smoothingWindow: 17, normalization: { mode: "wavelength", wavelengthNm: 450 } });
   });
 
   it("refuses bad normalisations with the member named, and any without a reference", async () => {

@@ -58,8 +58,9 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
   const initialAxis = isDisplayAxis(query.axis) ? query.axis : defaultAxis;
   const inProgress = latest !== null && (latest.status === "queued" || latest.status === "running");
   const hasReference = shown ? shown.referenceSpectrumId !== null : false;
-  // requestReanalysis keeps the latest run's reference unless told otherwise
-  const rerunHasReference = latest ? latest.referenceSpectrumId !== null : s.reference !== null;
+  // requestReanalysis starts from the latest run that did not fail (else the latest), reference included
+  const rerunBase = [latest, ...s.earlierRuns].find((r) => r && r.status !== "failed") ?? latest;
+  const rerunHasReference = rerunBase ? rerunBase.referenceSpectrumId !== null : s.reference !== null;
   const analysisNote = shown
     ? null
     : s.status === "failed"
