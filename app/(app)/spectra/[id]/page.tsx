@@ -169,7 +169,7 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
                 hasReference={rerunHasReference}
                 current={{
                   windowSize: p?.windowSize ?? null, polynomial: p?.polynomial ?? null, baseline: p?.baseline?.replace(" (not applied)", "") ?? null,
-                  thresholds: p?.thresholds ?? {}, normalization: p?.normalization ?? null,
+                  thresholds: p?.thresholds ?? {}, normalization: p?.normalizationBrief ?? null,
                 }}
               />
             </Panel>
