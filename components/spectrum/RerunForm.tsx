@@ -102,7 +102,7 @@ export function RerunForm({
           {pending ? "Queuing…" : "Re-run analysis"}
         </button>
       </form>
-      {state.ok && state.values?.runId && state.values.status !== "done" && <RunProgress key={state.values.runId} spectrumId={spectrumId} />}
+      {state.ok && state.values?.runId && state.values.status !== "done" && <RunProgress key={state.values.runId} spectrumId={spectrumId} runId={state.values.runId} />}
     </div>
   );
 }

@@ -16,10 +16,12 @@ async function fetchStatus(url: string): Promise<Status> {
 }
 
 /** Progress of a waiting or running analysis, polled until it settles; then the page reloads its data. */
-export function RunProgress({ spectrumId }: { spectrumId: string }) {
+export function RunProgress({ spectrumId, runId }: { spectrumId: string; runId?: string }) {
   const router = useRouter();
   const refreshed = useRef(false);
-  const { data, error } = useSWR(`/api/v1/spectra/${spectrumId}`, fetchStatus, {
+  const url = `/api/v1/spectra/${spectrumId}`;
+  // One cache entry per run: a second re-run must not start from the first one's settled answer.
+  const { data, error } = useSWR(runId ? [url, runId] : url, (key: string | string[]) => fetchStatus(Array.isArray(key) ? key[0]! : key), {
     refreshInterval: (latest) => (latest && FINAL.has(latest.spectrum.status) ? 0 : 1000),
     revalidateOnFocus: false,
   });
