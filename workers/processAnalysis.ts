@@ -91,6 +91,7 @@ export async function processAnalysis(job: Job<AnalysisJob>): Promise<JobSummary
     if (parameters.smoothingPolynomial !== undefined) options.smoothingPolynomial = parameters.smoothingPolynomial;
     if (parameters.baseline !== undefined) options.baseline = parameters.baseline;
     if (parameters.thresholds !== undefined) options.thresholds = parameters.thresholds;
+    if (parameters.normalization !== undefined) options.normalization = parameters.normalization;
     const report = engineStep(spectrum.fileName, () => analyzeSpectrum(parsed, options));
 
     const wrote = await saveAnalysis({

@@ -130,8 +130,12 @@ export async function saveAnalysis(input: SaveInput): Promise<boolean> {
 }
 
 /**
- * Marks a run, and its spectrum, failed with a message meant for people (the engine's
- * one-line message for unreadable files). Skips a run that is already done.
+ * Marks a run failed with a message meant for people (the engine's one-line message for
+ * unreadable files). Skips a run that is already done. The spectrum is marked failed only
+ * when none of its runs ever finished: a re-run refused by the engine (a normalisation
+ * wavelength outside the data, say) leaves a readable file whose earlier analysis still
+ * stands, and a failed spectrum would be taken for a failed upload (retention's drafts
+ * class, "could not be read" on its page).
  */
 export async function saveFailure(runId: string, message: string, durationMs?: number): Promise<boolean> {
   const db = models();
@@ -144,7 +148,11 @@ export async function saveFailure(runId: string, message: string, durationMs?: n
       { transaction },
     );
     if (!(await laterRunPending(run, transaction))) {
-      await Spectrum.update({ status: "failed", errorMessage: text }, { where: { id: run.spectrumId }, transaction });
+      const analysedBefore = (await AnalysisRun.count({ where: { spectrumId: run.spectrumId, status: "done" }, transaction })) > 0;
+      await Spectrum.update(
+        analysedBefore ? { status: "analysed", errorMessage: null } : { status: "failed", errorMessage: text },
+        { where: { id: run.spectrumId }, transaction },
+      );
     }
     return true;
   });

@@ -4,25 +4,35 @@ import { useActionState, useState } from "react";
 import { inputClass } from "@/components/forms/Field";
 import { initialActionState, type ActionState } from "@/lib/actions/protected-state";
 import { THRESHOLD_FIELDS, fieldErrorsOf, rerunFormSchema } from "@/lib/spectrum-view/rerunSchema";
+import { NormalizationFields } from "./NormalizationFields";
 import { RunProgress } from "./RunProgress";
 
-type Current = { windowSize: number | null; polynomial: number | null; baseline: string | null; thresholds: Record<string, number> };
+type Current = {
+  windowSize: number | null; polynomial: number | null; baseline: string | null; thresholds: Record<string, number>;
+  /** The shown run's normalisation in words. */
+  normalization: string | null;
+};
 
 /**
  * Re-run with changed parameters. The same zod schema checks the form here (errors beside the
  * fields before anything is sent) and in the server action.
  */
 export function RerunForm({
-  spectrumId, current, action,
+  spectrumId, current, hasReference, action,
 }: {
   spectrumId: string;
   current: Current;
+  /** Whether a re-run would compare against a parent reference (normalisation needs one). */
+  hasReference: boolean;
   action: (state: ActionState, form: FormData) => Promise<ActionState>;
 }) {
   const [state, formAction, pending] = useActionState(action, initialActionState);
   const [clientErrors, setClientErrors] = useState<Record<string, string[]>>({});
   const errors = { ...(state.fieldErrors ?? {}), ...clientErrors };
   const value = (name: string) => (state.ok ? "" : (state.values?.[name] ?? ""));
+  // Each answer of the action resets the form; the normalisation fields start again from it.
+  const [answered, setAnswered] = useState({ state, count: 0 });
+  if (answered.state !== state) setAnswered({ state, count: answered.count + 1 });
 
   const field = (name: string, label: string, placeholder: string, hint?: string) => (
     <div key={name}>
@@ -72,6 +82,14 @@ export function RerunForm({
           </select>
           {errors.baseline && <p role="alert" className="mt-0.5 text-xs text-red-700">{errors.baseline.join(" ")}</p>}
         </div>
+        <NormalizationFields
+          key={answered.count}
+          current={current.normalization}
+          hasReference={hasReference}
+          initialMode={value("normalizationMode")}
+          errors={errors}
+          field={field}
+        />
         <fieldset className="grid grid-cols-2 gap-3">
           <legend className="mb-1 text-xs font-semibold uppercase tracking-wide text-ink-soft">Flag thresholds</legend>
           {THRESHOLD_FIELDS.map((f) => field(f.name, f.label, current.thresholds[f.name] !== undefined ? String(current.thresholds[f.name]) : f.hint.replace("default ", ""), f.hint))}
@@ -84,7 +102,7 @@ export function RerunForm({
           {pending ? "Queuing…" : "Re-run analysis"}
         </button>
       </form>
-      {state.ok && state.values?.runId && state.values.status !== "done" && <RunProgress key={state.values.runId} spectrumId={spectrumId} />}
+      {state.ok && state.values?.runId && state.values.status !== "done" && <RunProgress key={state.values.runId} spectrumId={spectrumId} runId={state.values.runId} />}
     </div>
   );
 }

@@ -16,10 +16,12 @@ async function fetchStatus(url: string): Promise<Status> {
 }
 
 /** Progress of a waiting or running analysis, polled until it settles; then the page reloads its data. */
-export function RunProgress({ spectrumId }: { spectrumId: string }) {
+export function RunProgress({ spectrumId, runId }: { spectrumId: string; runId?: string }) {
   const router = useRouter();
   const refreshed = useRef(false);
-  const { data, error } = useSWR(`/api/v1/spectra/${spectrumId}`, fetchStatus, {
+  const url = `/api/v1/spectra/${spectrumId}`;
+  // One cache entry per run: a second re-run must not start from the first one's settled answer.
+  const { data, error } = useSWR(runId ? [url, runId] : url, (key: string | string[]) => fetchStatus(Array.isArray(key) ? key[0]! : key), {
     refreshInterval: (latest) => (latest && FINAL.has(latest.spectrum.status) ? 0 : 1000),
     revalidateOnFocus: false,
   });
@@ -30,12 +32,18 @@ export function RunProgress({ spectrumId }: { spectrumId: string }) {
       router.refresh();
     }
   }, [status, router]);
+  // A failed re-run leaves the spectrum analysed (its earlier run still stands): the latest run says why.
+  const runFailed = data?.analysis?.status === "failed";
   return (
     <div role="status" className="flex items-center gap-2 rounded-md bg-sky-50 px-3 py-2 text-sm text-sky-900" data-testid="run-progress">
       {!data ? (error ? "Status unavailable, retrying…" : "Checking the analysis…") : FINAL.has(data.spectrum.status) ? (
-        <>
-          The new run has finished: <StatusBadge status={data.spectrum.status} /> {data.spectrum.status === "failed" ? (data.spectrum.error ?? data.analysis?.error ?? "") : "showing it now."}
-        </>
+        runFailed && data.spectrum.status === "analysed" ? (
+          <span className="text-red-800">The new run failed: {data.analysis?.error ?? ""} The chart still shows the last finished run.</span>
+        ) : (
+          <>
+            The new run has finished: <StatusBadge status={data.spectrum.status} /> {data.spectrum.status === "failed" ? (data.spectrum.error ?? data.analysis?.error ?? "") : "showing it now."}
+          </>
+        )
       ) : (
         <>
           <span className="inline-block h-3 w-3 animate-spin rounded-full border-2 border-sky-700 border-t-transparent" aria-hidden /> New analysis run: <StatusBadge status={data.spectrum.status} />

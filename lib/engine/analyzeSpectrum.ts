@@ -139,7 +139,12 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
   if (normalization.mode === 'wavelength') {
     if (!r) throw new RangeError('normalisation at a wavelength needs a reference');
     const e = HC_EV_NM / normalization.wavelengthNm;
-    if (!(e >= from && e <= to)) throw new RangeError('normalisation wavelength lies outside the shared range');
+    if (!(e >= from && e <= to)) {
+      const [shortNm, longNm] = [HC_EV_NM / to, HC_EV_NM / from];
+      throw new RangeError(
+        `normalisation wavelength ${normalization.wavelengthNm} nm lies outside the range shared by the sample and its reference (${shortNm.toFixed(1)}–${longNm.toFixed(1)} nm)`,
+      );
+    }
     const k = Math.round((e - from) / stepEv);
     if (!(Math.abs(s.smoothed[k]!) > 0)) throw new RangeError('sample signal is zero at the normalisation wavelength');
     factor = r.smoothed[k]! / s.smoothed[k]!;

@@ -1,5 +1,6 @@
 import { ENGINE_VERSION } from "@/lib/engine/version";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "./metadata";
+import { MAX_CONCENTRATION_RATIO, NORMALIZATION_WAVELENGTH_NM } from "./normalization";
 
 const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
 const errorResponse = (description: string) => ({ description, content: { "application/json": { schema: ref("Error") } } });
@@ -338,8 +339,35 @@ export function openApiDocument() {
             column: { type: ["string", "integer", "null"] }, material: { type: ["string", "null"], enum: [...INGEST_MATERIALS, null] },
             pathLengthCm: nullable("number"), excitationNm: nullable("number"), smoothingWindow: nullable("integer"),
             smoothingPolynomial: nullable("integer"), baseline: { type: ["string", "null"], enum: ["none", "offset", "scatter", null] },
-            thresholds: { type: "object" }, referenceSpectrumId: nullable("string", { format: "uuid" }),
+            thresholds: { type: "object" },
+            normalization: { oneOf: [ref("Normalization"), { type: "null" }] },
+            referenceSpectrumId: nullable("string", { format: "uuid" }),
           },
+        },
+        Normalization: {
+          description:
+            "How the sample is scaled against its parent reference before the difference (needs a reference). " +
+            "The factor used is in the report at parameters.normalization.factor. Mode none clears it, like null.",
+          oneOf: [
+            { type: "object", additionalProperties: false, required: ["mode"], properties: { mode: { const: "none" } } },
+            {
+              type: "object", additionalProperties: false, required: ["mode", "wavelengthNm"],
+              description: "Sample scaled to equal the reference at this wavelength",
+              properties: {
+                mode: { const: "wavelength" },
+                wavelengthNm: { type: "number", minimum: NORMALIZATION_WAVELENGTH_NM.min, maximum: NORMALIZATION_WAVELENGTH_NM.max },
+              },
+            },
+            {
+              type: "object", additionalProperties: false, required: ["mode", "sampleConcentration", "referenceConcentration"],
+              description: `Sample multiplied by referenceConcentration / sampleConcentration (same unit for both; within a factor of ${MAX_CONCENTRATION_RATIO})`,
+              properties: {
+                mode: { const: "concentration" },
+                sampleConcentration: { type: "number", exclusiveMinimum: 0 },
+                referenceConcentration: { type: "number", exclusiveMinimum: 0 },
+              },
+            },
+          ],
         },
         AnalysisRequest: {
           type: "object",

@@ -2,6 +2,7 @@ import { sha256Hex } from "@/lib/hash";
 import { z } from "zod";
 import { canonicalJson } from "./canonicalJson";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "./metadata";
+import { normalizationSchema, type NormalizationParameter } from "./normalization";
 
 /**
  * Everything that decides what one analysis run computes, besides the raw bytes, the
@@ -18,6 +19,8 @@ export type AnalysisParameters = {
   smoothingPolynomial?: number;
   baseline?: "none" | "offset" | "scatter";
   thresholds?: Partial<Record<ThresholdName, number>>;
+  /** Scaling of the sample against its reference; "none" is stored as absent. */
+  normalization?: Exclude<NormalizationParameter, { mode: "none" }>;
 };
 
 export const THRESHOLD_NAMES = [
@@ -63,18 +66,22 @@ export const reanalysisSchema = z
     smoothingPolynomial: z.number().int().min(1).max(6).nullable().optional(),
     baseline: z.enum(["none", "offset", "scatter"]).nullable().optional(),
     thresholds: z.object(Object.fromEntries(THRESHOLD_NAMES.map((n) => [n, positive(n).optional()]))).strict().optional(),
+    normalization: normalizationSchema.nullable().optional(),
     referenceSpectrumId: z.string().uuid("referenceSpectrumId must be an id (UUID)").nullable().optional(),
   })
   .strict();
 
 export type ReanalysisInput = z.input<typeof reanalysisSchema>;
 
-/** Applies re-analysis overrides to earlier parameters; returns new parameters without undefined members. */
+/**
+ * Applies re-analysis overrides to earlier parameters; returns new parameters without undefined
+ * members. Normalisation `{ mode: "none" }` clears it like null, so "none" and "never set" hash alike.
+ */
 export function mergeParameters(base: AnalysisParameters, changes: z.output<typeof reanalysisSchema>): AnalysisParameters {
   const out: Record<string, unknown> = { ...base };
   for (const [key, value] of Object.entries(changes)) {
     if (key === "referenceSpectrumId" || value === undefined) continue;
-    if (value === null) delete out[key];
+    if (value === null || (key === "normalization" && (value as { mode: string }).mode === "none")) delete out[key];
     else if (key === "thresholds") out.thresholds = { ...(base.thresholds ?? {}), ...(value as object) };
     else out[key] = value;
   }

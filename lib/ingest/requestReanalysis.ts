@@ -1,3 +1,4 @@
+import { Op } from "sequelize";
 import { AnalysisRun, Project, Spectrum, models } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadSpectrum, canWrite } from "@/lib/auth/access";
@@ -28,7 +29,12 @@ export async function requestReanalysis(spectrumId: string, changes: ReanalysisI
   const project = await Project.findByPk(spectrum.projectId, { attributes: ["id", "groupId"] });
   if (!project || !canWrite(actor, project.groupId)) throw new IngestError(403, "forbidden", "you may not re-run analyses in this project");
 
-  const latest = await AnalysisRun.findOne({ where: { spectrumId }, order: [["createdAt", "DESC"]] });
+  // Changes apply to the latest run that did not fail (a refused normalisation wavelength is not
+  // carried on), or to the latest of all when every run failed (an unreadable upload's settings).
+  const newestFirst: [string, string][] = [["createdAt", "DESC"]];
+  const latest =
+    (await AnalysisRun.findOne({ where: { spectrumId, status: { [Op.ne]: "failed" } }, order: newestFirst })) ??
+    (await AnalysisRun.findOne({ where: { spectrumId }, order: newestFirst }));
   const base: AnalysisParameters = (latest?.parameters as AnalysisParameters | undefined) ?? { technique: spectrum.technique };
   const parameters = mergeParameters(base, parsed.data);
   let referenceSpectrumId = latest ? latest.referenceSpectrumId : spectrum.referenceSpectrumId;
@@ -42,6 +48,9 @@ export async function requestReanalysis(spectrumId: string, changes: ReanalysisI
     if (!ref || refProject?.groupId !== project.groupId) {
       throw new IngestError(400, "invalid", `referenceSpectrumId: spectrum ${referenceSpectrumId} was not found in this group`, "referenceSpectrumId");
     }
+  }
+  if (parameters.normalization && !referenceSpectrumId) {
+    throw new IngestError(400, "invalid", "normalization: needs a parent reference spectrum, and the run would have none", "normalization");
   }
   const hash = parameterHash(parameters, referenceSpectrumId);
 

@@ -43,7 +43,10 @@ export type SpectrumDetail = {
 /** The parameters an analysis actually used (from its report), for the provenance panel and the re-run form. */
 export type ReportParameters = {
   windowSize: number | null; derivativeWindowSize: number | null; polynomial: number | null; baseline: string | null;
-  normalization: string | null; thresholds: Record<string, number>; gridPoints: number | null; stepMeV: number | null;
+  normalization: string | null;
+  /** The same in a few words, for the re-run form's "keep" choice. */
+  normalizationBrief: string | null;
+  thresholds: Record<string, number>; gridPoints: number | null; stepMeV: number | null;
   excitationNm: number | null; pathLengthCm: number | null; material: string | null;
 };
 
@@ -58,13 +61,19 @@ function reportParameters(report: Record<string, unknown> | null): ReportParamet
   const norm = (p.normalization ?? {}) as Record<string, unknown>;
   const thresholds = Object.fromEntries(Object.entries((p.thresholds ?? {}) as Record<string, unknown>).filter(([, v]) => typeof v === "number")) as Record<string, number>;
   let normalization: string | null = null;
-  if (norm.mode === "wavelength") normalization = `scaled to the reference at ${num(norm.wavelengthNm)} nm (× ${Number(norm.factor).toPrecision(4)})`;
-  else if (norm.mode === "concentration") normalization = `by concentration (× ${Number(norm.factor).toPrecision(4)})`;
-  else if (norm.mode) normalization = "none";
+  let normalizationBrief: string | null = null;
+  const factor = `× ${Number(norm.factor).toPrecision(4)}`;
+  if (norm.mode === "wavelength") {
+    normalization = `scaled to the reference at ${num(norm.wavelengthNm)} nm (${factor})`;
+    normalizationBrief = `at ${num(norm.wavelengthNm)} nm, ${factor}`;
+  } else if (norm.mode === "concentration") {
+    normalization = `by concentration, sample ${num(norm.sampleConcentration)} : reference ${num(norm.referenceConcentration)} (${factor})`;
+    normalizationBrief = `by concentration, ${factor}`;
+  } else if (norm.mode) normalization = normalizationBrief = "none";
   return {
     windowSize: num(sm.windowSize), derivativeWindowSize: num(sm.derivativeWindowSize), polynomial: num(sm.polynomial),
     baseline: typeof (p.baseline as Record<string, unknown> | null)?.mode === "string" ? `${(p.baseline as Record<string, unknown>).mode}${(p.baseline as Record<string, unknown>).applied ? "" : " (not applied)"}` : null,
-    normalization, thresholds, gridPoints: num(grid.points), stepMeV: num(grid.stepMeV),
+    normalization, normalizationBrief, thresholds, gridPoints: num(grid.points), stepMeV: num(grid.stepMeV),
     excitationNm: num(p.excitationNm), pathLengthCm: num(p.pathLengthCm), material: typeof p.material === "string" ? p.material : null,
   };
 }

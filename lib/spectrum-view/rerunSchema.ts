@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { MAX_CONCENTRATION_RATIO, NORMALIZATION_MODES, NORMALIZATION_WAVELENGTH_NM, concentrationRatioInRange } from "@/lib/ingest/normalization";
 
 // The re-run form, parsed with the same schema in the browser (before sending) and in the server
 // action. Empty fields keep the earlier run's value. Field names are the form's input names.
@@ -48,6 +49,10 @@ export const rerunFormSchema = z
         ),
       ]),
     ),
+    normalizationMode: z.preprocess(blank, z.enum(NORMALIZATION_MODES, { error: "Normalisation must be none, at a wavelength or by concentration" }).optional()),
+    normalizationWavelengthNm: numberField("Wavelength"),
+    sampleConcentration: numberField("Sample concentration"),
+    referenceConcentration: numberField("Reference concentration"),
   })
   .superRefine((v, ctx) => {
     const w = v.smoothingWindow as number | undefined;
@@ -55,7 +60,36 @@ export const rerunFormSchema = z
     if (w !== undefined && p !== undefined && p >= w) {
       ctx.addIssue({ code: "custom", path: ["smoothingPolynomial"], message: "Polynomial order must be smaller than the smoothing window" });
     }
+    for (const issue of normalizationIssues(v)) ctx.addIssue({ code: "custom", ...issue });
   });
+
+/** The normalisation fields that the chosen mode needs, checked against the API's bounds (lib/ingest/normalization.ts). */
+function normalizationIssues(v: {
+  normalizationMode?: string; normalizationWavelengthNm?: number; sampleConcentration?: number; referenceConcentration?: number;
+}): { path: string[]; message: string }[] {
+  const issues: { path: string[]; message: string }[] = [];
+  if (v.normalizationMode === "wavelength") {
+    const { min, max } = NORMALIZATION_WAVELENGTH_NM;
+    const nm = v.normalizationWavelengthNm;
+    if (nm === undefined) issues.push({ path: ["normalizationWavelengthNm"], message: "Enter the wavelength to scale the sample to its reference at" });
+    else if (nm < min || nm > max) issues.push({ path: ["normalizationWavelengthNm"], message: `Wavelength must lie between ${min} and ${max} nm` });
+  }
+  if (v.normalizationMode === "concentration") {
+    const fields = [
+      ["sampleConcentration", "Sample concentration", v.sampleConcentration],
+      ["referenceConcentration", "Reference concentration", v.referenceConcentration],
+    ] as const;
+    for (const [name, label, value] of fields) {
+      if (value === undefined) issues.push({ path: [name], message: `Enter the ${label.toLowerCase()}` });
+      else if (!(value > 0)) issues.push({ path: [name], message: `${label} must be positive` });
+    }
+    const [s, r] = [v.sampleConcentration, v.referenceConcentration];
+    if (issues.length === 0 && s !== undefined && r !== undefined && !concentrationRatioInRange(s, r)) {
+      issues.push({ path: ["referenceConcentration"], message: `The two concentrations must lie within a factor of ${MAX_CONCENTRATION_RATIO} of each other` });
+    }
+  }
+  return issues;
+}
 
 export type RerunForm = z.output<typeof rerunFormSchema>;
 
@@ -71,7 +105,34 @@ export function toReanalysisChanges(v: RerunForm): Record<string, unknown> {
     if (typeof t === "number") thresholds[f.name] = t;
   }
   if (Object.keys(thresholds).length) out.thresholds = thresholds;
+  const normalization = normalizationChange(v);
+  if (normalization) out.normalization = normalization;
   return out;
+}
+
+function normalizationChange(v: RerunForm): Record<string, unknown> | undefined {
+  switch (v.normalizationMode) {
+    case "none":
+      return { mode: "none" };
+    case "wavelength":
+      return { mode: "wavelength", wavelengthNm: v.normalizationWavelengthNm };
+    case "concentration":
+      return { mode: "concentration", sampleConcentration: v.sampleConcentration, referenceConcentration: v.referenceConcentration };
+    default:
+      return undefined;
+  }
+}
+
+/** Where an API field of a refusal (requestReanalysis) is shown in the form, and its message without the field name. */
+export function formFieldOf(apiField: string | undefined, message: string): { field: string | undefined; message: string } {
+  if (!apiField) return { field: undefined, message };
+  const bare = message.startsWith(`${apiField}: `) ? message.slice(apiField.length + 2) : message;
+  if (apiField.startsWith("thresholds.")) return { field: apiField.slice("thresholds.".length), message };
+  if (apiField === "normalization.wavelengthNm") return { field: "normalizationWavelengthNm", message: `Wavelength ${bare}` };
+  if (apiField === "normalization.sampleConcentration") return { field: "sampleConcentration", message: `Sample concentration ${bare}` };
+  if (apiField === "normalization.referenceConcentration") return { field: "referenceConcentration", message: `Reference concentration ${bare}` };
+  if (apiField.startsWith("normalization")) return { field: "normalizationMode", message: `Normalisation ${bare}` };
+  return { field: apiField, message };
 }
 
 /** Field errors of a failed parse, keyed by input name (the same shape protectedAction returns). */

@@ -3,7 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { ActionRefused, protectedAction } from "@/lib/actions/protected";
 import { IngestError, requestReanalysis } from "@/lib/ingest";
-import { rerunFormSchema, toReanalysisChanges } from "@/lib/spectrum-view/rerunSchema";
+import { formFieldOf, rerunFormSchema, toReanalysisChanges } from "@/lib/spectrum-view/rerunSchema";
 
 /** Re-runs the analysis of one spectrum with changed parameters; earlier runs are kept for provenance. */
 export const rerunAnalysis = protectedAction(rerunFormSchema, async (input, actor) => {
@@ -20,8 +20,8 @@ export const rerunAnalysis = protectedAction(rerunFormSchema, async (input, acto
     return { ok: true, message, values: { runId: result.runId, status: result.status } };
   } catch (error) {
     if (error instanceof IngestError) {
-      const field = error.field?.startsWith("thresholds.") ? error.field.slice("thresholds.".length) : error.field;
-      throw new ActionRefused(error.status === 404 ? "This spectrum was not found." : error.message, field);
+      const { field, message } = formFieldOf(error.field, error.message);
+      throw new ActionRefused(error.status === 404 ? "This spectrum was not found." : message, field);
     }
     throw error;
   }

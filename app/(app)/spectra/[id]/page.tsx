@@ -58,6 +58,9 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
   const initialAxis = isDisplayAxis(query.axis) ? query.axis : defaultAxis;
   const inProgress = latest !== null && (latest.status === "queued" || latest.status === "running");
   const hasReference = shown ? shown.referenceSpectrumId !== null : false;
+  // requestReanalysis starts from the latest run that did not fail (else the latest), reference included
+  const rerunBase = [latest, ...s.earlierRuns].find((r) => r && r.status !== "failed") ?? latest;
+  const rerunHasReference = rerunBase ? rerunBase.referenceSpectrumId !== null : s.reference !== null;
   const analysisNote = shown
     ? null
     : s.status === "failed"
@@ -136,7 +139,7 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
                     <dt className="text-ink-soft">Grid</dt><dd className="tabular">{p.gridPoints ?? "—"} points, {p.stepMeV === null ? "—" : p.stepMeV.toPrecision(3)} meV apart</dd>
                     <dt className="text-ink-soft">Smoothing</dt><dd className="tabular">Savitzky–Golay, {p.windowSize ?? "—"} points, order {p.polynomial ?? "—"}; derivatives {p.derivativeWindowSize ?? "—"} points</dd>
                     <dt className="text-ink-soft">Baseline</dt><dd>{p.baseline ?? "—"}</dd>
-                    <dt className="text-ink-soft">Normalisation</dt><dd>{p.normalization ?? "—"}</dd>
+                    <dt className="text-ink-soft">Normalisation</dt><dd data-testid="provenance-normalization">{p.normalization ?? "—"}</dd>
                     <dt className="text-ink-soft">Flag when at least</dt>
                     <dd className="tabular text-xs">{THRESHOLD_FIELDS.filter((f) => p.thresholds[f.name] !== undefined).map((f) => <span key={f.name} className="block">{f.label.replace(/^Least /, "")}: {p.thresholds[f.name]}</span>)}</dd>
                     {p.excitationNm !== null && (<><dt className="text-ink-soft">Excitation</dt><dd>{p.excitationNm} nm</dd></>)}
@@ -163,7 +166,11 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
               <RerunForm
                 spectrumId={s.id}
                 action={rerunAnalysis}
-                current={{ windowSize: p?.windowSize ?? null, polynomial: p?.polynomial ?? null, baseline: p?.baseline?.replace(" (not applied)", "") ?? null, thresholds: p?.thresholds ?? {} }}
+                hasReference={rerunHasReference}
+                current={{
+                  windowSize: p?.windowSize ?? null, polynomial: p?.polynomial ?? null, baseline: p?.baseline?.replace(" (not applied)", "") ?? null,
+                  thresholds: p?.thresholds ?? {}, normalization: p?.normalizationBrief ?? null,
+                }}
               />
             </Panel>
           )}
