@@ -23,13 +23,14 @@ function initialDot(setup: DepletionSetupView, pure: string | null, fallback: Do
   return { material: c?.material ?? fallback, nm: c?.firstExcitonNm ? c.firstExcitonNm.toFixed(1) : "", pure: c ? c.spectrumId : "" };
 }
 
-function extinctionOf(dot: DotState, label: "A" | "X"): { value: DotExtinction | null; error: string | null } {
+function extinctionOf(dot: DotState, label: "A" | "X"): { value: DotExtinction | null; error: string | null; missing: boolean } {
   const nm = Number(dot.nm);
-  if (dot.nm.trim() === "" || !(nm >= 200 && nm <= 3000)) return { value: null, error: `Dot ${label}, first exciton: give a wavelength between 200 and 3000 nm.` };
+  if (dot.nm.trim() === "") return { value: null, error: null, missing: true };
+  if (!(nm >= 200 && nm <= 3000)) return { value: null, error: `Dot ${label}, first exciton: give a wavelength between 200 and 3000 nm.`, missing: false };
   try {
-    return { value: dotExtinction(dot.material, nm), error: null };
+    return { value: dotExtinction(dot.material, nm), error: null, missing: false };
   } catch (error) {
-    return { value: null, error: `Dot ${label}: ${error instanceof Error ? error.message : String(error)}.` };
+    return { value: null, error: `Dot ${label}: ${error instanceof Error ? error.message : String(error)}.`, missing: false };
   }
 }
 
@@ -57,6 +58,7 @@ export function DepletionPanel({ seriesId, projectName, variableName, variableUn
   const wantsReadings = linkedCount > 0 || Boolean(a.pure) || Boolean(x.pure);
   const readings = useSupernatantReadings(
     seriesId, wantsReadings ? (eA.value?.readingNm ?? null) : null, wantsReadings ? (eX.value?.readingNm ?? null) : null, a.pure, x.pure,
+    setup.links.map((l) => l.supernatant?.spectrumId ?? "").join(","),
   );
   const data = readings.current ? readings.data : undefined;
 
@@ -67,6 +69,8 @@ export function DepletionPanel({ seriesId, projectName, variableName, variableUn
     const prompts: string[] = [];
     if (eA.error) errors.push(eA.error);
     if (eX.error) errors.push(eX.error);
+    const missingDots = [eA.missing && "A", eX.missing && "X"].filter(Boolean);
+    if (missingDots.length) prompts.push(`Give the first exciton of dot ${missingDots.join(" and dot ")} (nm), or choose a spectrum of the pure dot whose analysis found it.`);
     const l = Number(path);
     if (!(l > 0)) errors.push("Path length: give a positive number of cm.");
     const overlap = data ? overlapFromPure(data.pureA, data.pureX) : { ratios: {}, errors: [] };
@@ -157,7 +161,7 @@ export function DepletionPanel({ seriesId, projectName, variableName, variableUn
                 How to link one: <Link className="text-glow-deep hover:underline" href="/upload">upload</Link> the absorption spectrum of each point&apos;s supernatant
                 to {projectName || "this series' project"} without choosing a series, then choose it below beside its point
                 {mayWrite ? "" : " (a spectroscopist or lead of the group does this)"}; scripts can link with POST /api/v1/series/{"{id}"}/supernatants.
-                Until then, type the absorbances in.
+                Until then, <button type="button" className="text-glow-deep hover:underline" onClick={() => setSource("typed")}>type the absorbances in</button>.
               </p>
             </div>
           ) : (
@@ -180,8 +184,8 @@ export function DepletionPanel({ seriesId, projectName, variableName, variableUn
                   <button type="button" className="underline" onClick={readings.retry}>Try again</button>
                 </div>
               ) : !data ? (
-                <p className="mt-2 text-sm text-ink-soft" aria-busy="true" data-testid="depletion-loading">
-                  {eA.value && eX.value ? `Reading ${linkedCount} linked supernatant spectr${linkedCount === 1 ? "um" : "a"} at ${nm1(eA.value.readingNm)} and ${nm1(eX.value.readingNm)}…` : "Give both first excitons to read the linked spectra."}
+                <p className="mt-2 text-sm text-ink-soft" aria-busy={Boolean(eA.value && eX.value)} data-testid="depletion-loading">
+                  {eA.value && eX.value ? `Reading ${linkedCount} linked supernatant spectr${linkedCount === 1 ? "um" : "a"} at ${nm1(eA.value.readingNm)} and ${nm1(eX.value.readingNm)}…` : "The linked spectra are read once both first excitons are given."}
                 </p>
               ) : (
                 <ReadingsTable readings={data} variableLabel={variable} />
@@ -199,7 +203,7 @@ export function DepletionPanel({ seriesId, projectName, variableName, variableUn
       )}
 
       {computed.notes.map((n) => <p key={n} className="mt-1 text-xs text-ink-soft">{n}</p>)}
-      {computed.errors.length > 0 && (source === "typed" || data) ? (
+      {source === "linked" && linkedCount === 0 ? null : computed.errors.length > 0 && (source === "typed" || data) ? (
         <ul role="alert" className="mt-2 space-y-0.5 text-sm text-red-700" data-testid="depletion-errors">
           {computed.errors.map((e) => <li key={e}>{e}</li>)}
         </ul>

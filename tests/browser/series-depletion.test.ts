@@ -58,7 +58,7 @@ describe("composition from supernatant depletion", () => {
     await page.close();
   });
 
-  it("tells how to link a supernatant where none is linked yet", async () => {
+  it("tells how to link a supernatant where none is linked yet, and links and unlinks one", async () => {
     const page = await browser.newPage({ viewport: { width: 1360, height: 1000 } });
     await signInThroughForm(page, DEMO.spectroscopist);
     await page.goto(url(`/series/${ids.privateSeries.id}`)); // a titration kind of series with no supernatants
@@ -69,6 +69,18 @@ describe("composition from supernatant depletion", () => {
     expect(await empty.textContent()).toContain("No supernatant spectra linked yet.");
     expect(await empty.getByRole("link", { name: "upload" }).getAttribute("href")).toBe("/upload");
     await panel.screenshot({ path: join(SCREENSHOT_DIR, "series-depletion-empty-panel.png") });
+
+    // Link a stored absorption spectrum to a point through the form, then unlink it again.
+    const links = panel.getByTestId("supernatant-links");
+    const summary = () => links.locator("summary").textContent();
+    expect(await summary()).toContain("Links: 0 of 5 points");
+    await links.getByLabel(/^Supernatant spectrum/).selectOption({ label: "cdse-0412-repeat.csv" });
+    await links.getByLabel(/^is the supernatant of the point/).selectOption({ index: 1 });
+    await links.getByRole("button", { name: "Link", exact: true }).click();
+    await links.getByRole("status").filter({ hasText: "Supernatant linked." }).waitFor();
+    await expect.poll(summary).toContain("Links: 1 of 5 points");
+    await links.getByRole("button", { name: "Unlink cdse-0412-repeat.csv" }).click();
+    await expect.poll(summary).toContain("Links: 0 of 5 points");
     await page.close();
   });
 });

@@ -1,7 +1,7 @@
 "use client";
 
 import Link from "next/link";
-import { useActionState } from "react";
+import { useActionState, useState } from "react";
 import { linkSupernatant, unlinkSupernatant } from "@/app/(app)/series/actions";
 import { initialActionState } from "@/lib/actions/protected-state";
 import type { DepletionSetupView } from "@/lib/queries/series-depletion";
@@ -30,8 +30,10 @@ export function SupernatantLinks({ seriesId, setup, mayWrite }: { seriesId: stri
   const err = (f: string) => state.fieldErrors?.[f]?.join(" ");
   const open = setup.links.filter((l) => !l.supernatant);
   const linked = setup.links.filter((l) => l.supernatant);
+  // Open at first when nothing is linked; after that the person opens and closes it.
+  const [openAtFirst] = useState(linked.length === 0);
   return (
-    <details className="mt-3 text-xs text-ink-soft" data-testid="supernatant-links" open={linked.length === 0 || undefined}>
+    <details className="mt-3 text-xs text-ink-soft" data-testid="supernatant-links" open={openAtFirst || undefined}>
       <summary className="cursor-pointer select-none">
         Links: {linked.length} of {setup.links.length} point{setup.links.length === 1 ? " has" : "s have"} a supernatant spectrum{mayWrite ? " (link or unlink)" : ""}
       </summary>
