@@ -12,6 +12,8 @@ export class Spectrum extends Model<InferAttributes<Spectrum>, InferCreationAttr
   declare seriesId: string | null;
   declare seriesValue: number | null;
   declare referenceSpectrumId: string | null;
+  /** For the supernatant of a titration point: that point's spectrum (migrations/0004 states the rules). */
+  declare supernatantOfSpectrumId: CreationOptional<string | null>;
   declare technique: Technique;
   declare fileName: string;
   declare objectKey: string;
@@ -45,6 +47,7 @@ export class Spectrum extends Model<InferAttributes<Spectrum>, InferCreationAttr
         seriesId: { type: DataTypes.UUID, allowNull: true },
         seriesValue: optionalNumber(),
         referenceSpectrumId: { type: DataTypes.UUID, allowNull: true },
+        supernatantOfSpectrumId: { type: DataTypes.UUID, allowNull: true },
         technique: { type: DataTypes.ENUM(...TECHNIQUES), allowNull: false },
         fileName: { type: DataTypes.TEXT, allowNull: false },
         objectKey: { type: DataTypes.TEXT, allowNull: false, unique: true },

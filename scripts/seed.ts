@@ -2,18 +2,31 @@
 // An invented lab, its samples and synthetic spectra with known features, uploaded
 // through the same ingest path as real files so the worker analyses them.
 import bcrypt from "bcryptjs";
-import { loadActor } from "../lib/auth/actor";
-import { closeDb } from "../lib/db";
-import { absorptionCsv, emissionCsv, midIrCsv } from "../lib/demo/synthetic";
+import { loadActor, type Actor } from "../lib/auth/actor";
+import { closeDb, selectRows } from "../lib/db";
+import { absorptionCsv, emissionCsv, leadChalcogenideCsv, midIrCsv, supernatantCsv } from "../lib/demo/synthetic";
+import { dotExtinction } from "../lib/fits/dotExtinction";
 import { hazardClassOf } from "../lib/hazards";
 import { ingestFiles } from "../lib/ingest";
 import { analysisQueue } from "../lib/queue";
-import { Group, Membership, Project, Sample, SampleParent, Series, Share, User, models } from "../models";
+import { setSupernatantLink } from "../lib/series/supernatantLinks";
+import { Group, Membership, Project, Sample, SampleParent, Series, Share, Spectrum, User, models } from "../models";
 import type { Role } from "../models/Membership";
 
 export const DEMO_PASSWORD = "bandkeep-demo";
 
 const db = models();
+
+const E1 = 2.148; // first exciton of the demo CdSe, near 577 nm
+
+/** Uploads one demo file through the ingest path, as `who` (the ingest refuses nothing the demo makes). */
+function uploader(actor: Actor) {
+  return async (fileName: string, text: string, metadata: Record<string, unknown>, who = actor) => {
+    const [outcome] = await ingestFiles(who, metadata, [{ fileName, bytes: new TextEncoder().encode(text), contentType: "text/csv" }]);
+    if (!outcome.ok) throw new Error(`demo upload ${fileName} was refused: ${outcome.error.message}`);
+    return outcome.spectrumId;
+  };
+}
 
 async function alreadySeeded(): Promise<boolean> {
   return (await Group.count({ where: { slug: "aurora" } })) > 0;
@@ -63,13 +76,8 @@ async function seed() {
   const actor = await loadActor(spectro.id, "session");
   const otherActor = await loadActor(other.id, "session");
   if (!actor || !otherActor) throw new Error("demo users were not created");
-  const upload = async (fileName: string, text: string, metadata: Record<string, unknown>, who = actor) => {
-    const [outcome] = await ingestFiles(who, metadata, [{ fileName, bytes: new TextEncoder().encode(text), contentType: "text/csv" }]);
-    if (!outcome.ok) throw new Error(`demo upload ${fileName} was refused: ${outcome.error.message}`);
-    return outcome.spectrumId;
-  };
+  const upload = uploader(actor);
 
-  const E1 = 2.148; // first exciton near 577 nm
   const base = { projectId: transfer.id, technique: "absorption", material: "CdSe", pathLengthCm: 1, solvent: "hexane" };
   const parentAbs = await upload("cdse-0412-abs.csv", absorptionCsv({ firstExcitonEv: E1, seed: 11 }, "AUR-CdSe-0412"), { ...base, sampleId: cdse.id });
   await upload("cdse-0412-n-abs.csv", absorptionCsv({ firstExcitonEv: E1, bleach: 0.42, newBand: { centreEv: 1.72, height: 0.05, sigmaEv: 0.08 }, seed: 12 }, "AUR-CdSe-0412-n"), { ...base, sampleId: reduced.id, referenceSpectrumId: parentAbs });
@@ -100,6 +108,51 @@ async function seed() {
   await upload("inp-0007-abs.csv", absorptionCsv({ firstExcitonEv: 2.3, seed: 51 }, "BOR-InP-0007"), { projectId: borealisProject.id, technique: "absorption", sampleId: otherSample.id, pathLengthCm: 1 }, otherActor);
 }
 
+/**
+ * Supernatant depletion for the demo titration: 0.5 µM CdSe in every mixture binds PbS 1:1, so
+ * what is left is CdSe below one equivalent and PbS above it. Each point gets the absorption
+ * spectrum of its supernatant (Beer–Lambert absorbances with each dot's sizing-curve ε, the two
+ * dots' shapes added), linked to the point, and the pure PbS dots get a spectrum of their own.
+ * Added on its own, once: a demo loaded before this step gets it on the next seed run.
+ */
+async function seedSupernatants(): Promise<number> {
+  const titration = await Series.findOne({ where: { name: "CdSe + PbS titration" } });
+  const spectro = await User.findOne({ where: { email: "spectro@aurora-lab.test" } });
+  const pbs = await Sample.findOne({ where: { name: "AUR-PbS-0415" } });
+  const product = await Sample.findOne({ where: { name: "AUR-CdSe:PbS-0420" } });
+  if (!titration || !spectro || !pbs || !product) return 0;
+  const [{ n }] = await selectRows<{ n: string }>(
+    `SELECT count(*) AS n FROM spectra p JOIN spectra s ON s.supernatant_of_spectrum_id = p.id WHERE p.series_id = :id`, { id: titration.id },
+  );
+  if (Number(n) > 0) return 0;
+  const actor = await loadActor(spectro.id, "session");
+  if (!actor) throw new Error("the demo spectroscopist could not be loaded");
+  const upload = uploader(actor);
+  const base = { projectId: titration.projectId, technique: "absorption", pathLengthCm: 1 };
+  const pbsExcitonEv = 1.033; // near 1200 nm
+  await upload("pbs-0415-abs.csv", leadChalcogenideCsv({ firstExcitonEv: pbsExcitonEv, scale: 2, noise: 0.0005, seed: 61 }, "AUR-PbS-0415"),
+    { ...base, sampleId: pbs.id, material: "PbS", solvent: "toluene" });
+
+  const cdseNm = 1239.841984 / E1;
+  const epsA = dotExtinction("CdSe", cdseNm).epsilonPerMPerCm; // Yu 2003, at the first exciton
+  const epsX = dotExtinction("PbS", 1239.841984 / pbsExcitonEv).epsilonPerMPerCm; // Moreels 2009, at 400 nm
+  const addedA = 0.5; // µM of CdSe in every mixture
+  const points = await Spectrum.findAll({ where: { seriesId: titration.id }, order: [["seriesValue", "ASC"]] });
+  for (const point of points) {
+    const eq = point.seriesValue ?? 0;
+    const leftA = addedA * Math.max(0, 1 - eq);
+    const leftX = addedA * Math.max(0, eq - 1);
+    const text = supernatantCsv({
+      cdse: { firstExcitonEv: E1, atNm: cdseNm, absorbance: epsA * leftA * 1e-6 },
+      pbs: { firstExcitonEv: pbsExcitonEv, atNm: 400, absorbance: epsX * leftX * 1e-6 },
+      noise: 0.0005, seed: 300 + Math.round(eq * 100),
+    }, `supernatant of titration ${eq} eq`);
+    const id = await upload(`titration-${eq.toFixed(2)}eq-supernatant.csv`, text, { ...base, sampleId: product.id, solvent: "hexane" });
+    await setSupernatantLink(actor, titration.id, { supernatantSpectrumId: id, pointSpectrumId: point.id });
+  }
+  return points.length + 1;
+}
+
 try {
   if (await alreadySeeded()) {
     console.log("demo scenario already loaded");
@@ -108,6 +161,8 @@ try {
     await seed();
     console.log("demo scenario loaded: 2 groups, 5 people, 7 samples, 19 spectra queued for analysis");
   }
+  const added = await seedSupernatants();
+  if (added > 0) console.log(`demo supernatant depletion loaded: ${added} absorption spectra queued, ${added - 1} linked to the titration's points`);
 } catch (error) {
   console.error(`seeding failed: ${error instanceof Error ? error.message : String(error)}`);
   process.exitCode = 1;

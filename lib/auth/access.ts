@@ -64,13 +64,21 @@ export async function canReadSeries(actor: Actor, series: Series): Promise<boole
   return (await sharedTargets(actor)).seriesIds.includes(series.id);
 }
 
+/**
+ * Members read their groups' spectra; collaborators read the spectra of a shared project or
+ * series, and the supernatant spectrum of a shared series' point (it is part of that point's
+ * measurement, though not itself a point of the series).
+ */
 export async function canReadSpectrum(actor: Actor, spectrum: Spectrum): Promise<boolean> {
   models();
   const project = await Project.findByPk(spectrum.projectId);
   if (!project) return false;
   if (memberGroupIds(actor).includes(project.groupId)) return true;
   const shared = await sharedTargets(actor);
-  return shared.projectIds.includes(project.id) || (spectrum.seriesId !== null && shared.seriesIds.includes(spectrum.seriesId));
+  if (shared.projectIds.includes(project.id) || (spectrum.seriesId !== null && shared.seriesIds.includes(spectrum.seriesId))) return true;
+  if (!spectrum.supernatantOfSpectrumId || shared.seriesIds.length === 0) return false;
+  const point = await Spectrum.findByPk(spectrum.supernatantOfSpectrumId, { attributes: ["id", "seriesId"] });
+  return point?.seriesId != null && shared.seriesIds.includes(point.seriesId);
 }
 
 /** The group a spectrum belongs to, for write and review checks. */

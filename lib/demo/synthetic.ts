@@ -37,19 +37,71 @@ export type AbsorptionModel = {
   scale?: number;
 };
 
+/** Absorbance (before scale and noise) of the CdSe-like dispersion of absorptionCsv at energy e (eV). */
+export function cdseLikeAbsorbance(e: number, model: AbsorptionModel): number {
+  const e1 = model.firstExcitonEv + (model.shiftMeV ?? 0) / 1000;
+  const exciton = 0.3 * (1 - (model.bleach ?? 0)) * gauss(e, e1, 0.045);
+  const second = 0.18 * (1 - 0.6 * (model.bleach ?? 0)) * gauss(e, e1 + 0.2, 0.06);
+  const continuum = 0.55 / (1 + Math.exp(-(e - (model.firstExcitonEv + 0.5)) / 0.12));
+  const band = model.newBand ? model.newBand.height * gauss(e, model.newBand.centreEv, model.newBand.sigmaEv) : 0;
+  return exciton + second + continuum + band;
+}
+
 /** Absorbance of a CdSe-like dispersion from 400 to 750 nm in 0.5 nm steps. */
 export function absorptionCsv(model: AbsorptionModel, sampleLabel: string): string {
   const noise = gaussianNoise(model.seed ?? 1);
-  const e1 = model.firstExcitonEv + (model.shiftMeV ?? 0) / 1000;
   const scale = model.scale ?? 1;
   const lines = [`Sample,${sampleLabel}`, "Instrument,demo double-beam spectrophotometer", "Path length (cm),1", "", "Wavelength (nm),Absorbance"];
   for (let nm = 400; nm <= 750; nm += 0.5) {
+    const value = scale * cdseLikeAbsorbance(HC_EV_NM / nm, model) + (model.noise ?? 0.0015) * noise();
+    lines.push(`${nm.toFixed(1)},${value.toFixed(5)}`);
+  }
+  return lines.join("\r\n") + "\r\n";
+}
+
+/**
+ * Absorbance (unscaled) of a PbS-like dispersion at energy e (eV): a first-exciton band on a
+ * continuum that rises towards the blue, as lead-chalcogenide dots show (shape invented for the
+ * demo, not a fit to any measurement).
+ */
+export function leadChalcogenideLikeAbsorbance(e: number, firstExcitonEv: number): number {
+  return 0.05 * gauss(e, firstExcitonEv, 0.06) + 0.12 * Math.max(0, e - 0.9 * firstExcitonEv) ** 1.5;
+}
+
+/** Absorbance of a PbS-like dispersion from 400 to 1400 nm in 1 nm steps. */
+export function leadChalcogenideCsv(model: { firstExcitonEv: number; scale?: number; noise?: number; seed?: number }, sampleLabel: string): string {
+  const noise = gaussianNoise(model.seed ?? 4);
+  const lines = [`Sample,${sampleLabel}`, "Instrument,demo UV-vis-NIR spectrophotometer", "Path length (cm),1", "", "Wavelength (nm),Absorbance"];
+  for (let nm = 400; nm <= 1400; nm += 1) {
+    const value = (model.scale ?? 1) * leadChalcogenideLikeAbsorbance(HC_EV_NM / nm, model.firstExcitonEv) + (model.noise ?? 0.0015) * noise();
+    lines.push(`${nm},${value.toFixed(5)}`);
+  }
+  return lines.join("\r\n") + "\r\n";
+}
+
+export type SupernatantModel = {
+  /** The CdSe-like dots left in the supernatant: their first exciton and their absorbance at one wavelength. */
+  cdse: { firstExcitonEv: number; atNm: number; absorbance: number };
+  /** The PbS-like dots left: their first exciton and their absorbance at one wavelength. */
+  pbs: { firstExcitonEv: number; atNm: number; absorbance: number };
+  noise?: number;
+  seed?: number;
+};
+
+/**
+ * Absorbance of a supernatant holding both kinds of dot, 400–750 nm in 0.5 nm steps: the two
+ * shapes above, each scaled to the stated absorbance at its stated wavelength, added (Beer–Lambert
+ * absorbances add), plus noise.
+ */
+export function supernatantCsv(model: SupernatantModel, sampleLabel: string): string {
+  const noise = gaussianNoise(model.seed ?? 5);
+  const cdse = { firstExcitonEv: model.cdse.firstExcitonEv };
+  const scaleA = model.cdse.absorbance / cdseLikeAbsorbance(HC_EV_NM / model.cdse.atNm, cdse);
+  const scaleX = model.pbs.absorbance / leadChalcogenideLikeAbsorbance(HC_EV_NM / model.pbs.atNm, model.pbs.firstExcitonEv);
+  const lines = [`Sample,${sampleLabel}`, "Instrument,demo double-beam spectrophotometer", "Path length (cm),1", "", "Wavelength (nm),Absorbance"];
+  for (let nm = 400; nm <= 750; nm += 0.5) {
     const e = HC_EV_NM / nm;
-    const exciton = 0.3 * (1 - (model.bleach ?? 0)) * gauss(e, e1, 0.045);
-    const second = 0.18 * (1 - 0.6 * (model.bleach ?? 0)) * gauss(e, e1 + 0.2, 0.06);
-    const continuum = 0.55 / (1 + Math.exp(-(e - (model.firstExcitonEv + 0.5)) / 0.12));
-    const band = model.newBand ? model.newBand.height * gauss(e, model.newBand.centreEv, model.newBand.sigmaEv) : 0;
-    const value = scale * (exciton + second + continuum + band) + (model.noise ?? 0.0015) * noise();
+    const value = scaleA * cdseLikeAbsorbance(e, cdse) + scaleX * leadChalcogenideLikeAbsorbance(e, model.pbs.firstExcitonEv) + (model.noise ?? 0.0015) * noise();
     lines.push(`${nm.toFixed(1)},${value.toFixed(5)}`);
   }
   return lines.join("\r\n") + "\r\n";

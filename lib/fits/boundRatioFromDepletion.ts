@@ -21,6 +21,8 @@ export interface DepletionPoint {
   absorbanceA: number;
   /** Supernatant absorbance attributed to X, at the wavelength of epsilonX. */
   absorbanceX: number;
+  /** Path length of this supernatant measurement, cm; options.pathLengthCm when absent. */
+  pathLengthCm?: number;
 }
 
 export interface DepletionOptions {
@@ -28,6 +30,7 @@ export interface DepletionOptions {
   epsilonA: number;
   /** Molar extinction of X at its measuring wavelength, M⁻¹cm⁻¹. */
   epsilonX: number;
+  /** Path length, cm, for points that do not state their own. */
   pathLengthCm: number;
   /** Largest relative standard deviation of the bound ratio still called constant. Default 0.1. */
   constantTolerance?: number;
@@ -67,8 +70,10 @@ export function boundRatioFromDepletion(points: readonly DepletionPoint[], optio
     }
     if (!(p.addedA > 0)) throw new RangeError(`points[${i}].addedA must be positive`);
     if (!(p.addedX > 0)) throw new RangeError(`points[${i}].addedX must be positive`);
-    const leftA = beerLambertConcentration(p.absorbanceA, options.epsilonA, options.pathLengthCm) * 1e6;
-    const leftX = beerLambertConcentration(p.absorbanceX, options.epsilonX, options.pathLengthCm) * 1e6;
+    if (p.pathLengthCm !== undefined && !(p.pathLengthCm > 0)) throw new RangeError(`points[${i}].pathLengthCm must be positive`);
+    const l = p.pathLengthCm ?? options.pathLengthCm;
+    const leftA = beerLambertConcentration(p.absorbanceA, options.epsilonA, l) * 1e6;
+    const leftX = beerLambertConcentration(p.absorbanceX, options.epsilonX, l) * 1e6;
     const boundA = p.addedA - leftA;
     const boundX = p.addedX - leftX;
     if (boundA <= 0) warnings.push(`point ${i + 1}: no dot A is bound (left ${leftA.toPrecision(3)} µM of ${p.addedA} µM added)`);

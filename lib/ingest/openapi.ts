@@ -149,6 +149,32 @@ export function openApiDocument() {
       "/api/v1/series/{id}/export": {
         get: readOperation("exportSeries", "The series table and its fits as CSV", [idParam("Series")], "text/csv"),
       },
+      "/api/v1/series/{id}/supernatants": {
+        get: {
+          ...readOperation("readSupernatants", "Each point of the series with its linked supernatant spectrum's measured absorbance at the two wavelengths of a depletion analysis", [
+            idParam("Series"),
+            { ...queryParam("nmA", "Wavelength at which dot A is read, nm (its first exciton, or 400 nm for PbS/PbSe)", { type: "number", minimum: 200, maximum: 3000 }), required: true },
+            { ...queryParam("nmX", "Wavelength at which dot X is read, nm", { type: "number", minimum: 200, maximum: 3000 }), required: true },
+            queryParam("pureA", "A spectrum of pure dot A, also read at both wavelengths (for the overlap)", { type: "string", format: "uuid" }),
+            queryParam("pureX", "A spectrum of pure dot X, also read at both wavelengths", { type: "string", format: "uuid" }),
+          ], "application/json"),
+        },
+        post: {
+          operationId: "linkSupernatant",
+          summary: "Link an absorption spectrum of the same project as the supernatant of one point of the series, or unlink it (pointSpectrumId null)",
+          parameters: [idParam("Series")],
+          requestBody: { required: true, content: { "application/json": { schema: ref("SupernatantLink") } } },
+          responses: {
+            "200": { description: "The link as it now stands; `changed` is false when nothing had to change", content: { "application/json": { schema: ref("SupernatantLinkOutcome") } } },
+            "400": errorResponse("Invalid body, or the spectrum cannot be a supernatant (not absorption, or itself a series point); the message names the field"),
+            "401": errorResponse("No valid token or session"),
+            "403": errorResponse("The caller may read the series but not add data to its group"),
+            "404": errorResponse("Series, supernatant or point not found (or not readable by the caller)"),
+            "409": errorResponse("The point already has a supernatant, or the supernatant belongs to a point of another series"),
+            "415": errorResponse("Body is not JSON"),
+          },
+        },
+      },
       "/api/v1/review/queue": {
         get: readOperation("listReviewQueue", "Signatures in the groups the caller leads, filtered, sorted and paged (see docs/api.md)", [
           queryParam("project", "Project id", { type: "string", format: "uuid" }),
@@ -325,6 +351,20 @@ export function openApiDocument() {
                 },
               },
             },
+          },
+        },
+        SupernatantLink: {
+          type: "object",
+          required: ["supernatantSpectrumId", "pointSpectrumId"],
+          properties: {
+            supernatantSpectrumId: { type: "string", format: "uuid" },
+            pointSpectrumId: nullable("string", { format: "uuid", description: "A spectrum of this series; null unlinks" }),
+          },
+        },
+        SupernatantLinkOutcome: {
+          type: "object",
+          properties: {
+            supernatantSpectrumId: { type: "string" }, pointSpectrumId: nullable("string"), previousPointSpectrumId: nullable("string"), changed: { type: "boolean" },
           },
         },
         Project: {

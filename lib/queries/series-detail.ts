@@ -13,7 +13,7 @@ export type SeriesPoint = {
 };
 
 export type SeriesDetail = {
-  id: string; name: string; kind: string; variableName: string; variableUnit: string; projectName: string; groupId: string;
+  id: string; name: string; kind: string; variableName: string; variableUnit: string; projectId: string; projectName: string; groupId: string;
   mayWrite: boolean; points: SeriesPoint[]; fits: SeriesFits;
 };
 
@@ -53,7 +53,7 @@ export async function getSeriesDetail(actor: Actor, id: string): Promise<SeriesD
   const points = await getSeriesPoints(series.id);
   return {
     id: series.id, name: series.name, kind: series.kind, variableName: series.variableName, variableUnit: series.variableUnit,
-    projectName: project?.name ?? "", groupId: project?.groupId ?? "", mayWrite: project ? canWrite(actor, project.groupId) : false,
+    projectId: series.projectId, projectName: project?.name ?? "", groupId: project?.groupId ?? "", mayWrite: project ? canWrite(actor, project.groupId) : false,
     points, fits: analyseSeries(points),
   };
 }

@@ -55,6 +55,14 @@ const ROUTES: Record<string, Call[]> = {
   ],
   "api/v1/series/[id]": [{ method: "GET", path: (ids) => `/api/v1/series/${ids.privateSeries.id}` }],
   "api/v1/series/[id]/export": [{ method: "GET", path: (ids) => `/api/v1/series/${ids.privateSeries.id}/export` }],
+  "api/v1/series/[id]/supernatants": [
+    { method: "GET", path: (ids) => `/api/v1/series/${ids.privateSeries.id}/supernatants?nmA=577&nmX=400` },
+    // The shared series: its collaborator may read it but not link (403); another group does not see it (404).
+    {
+      method: "POST", path: (ids) => `/api/v1/series/${ids.sharedSeries.id}/supernatants`, contentType: "application/json",
+      body: () => JSON.stringify({ supernatantSpectrumId: "00000000-0000-4000-8000-000000000000", pointSpectrumId: null }),
+    },
+  ],
   "api/v1/audit": [{ method: "GET", path: () => "/api/v1/audit?format=csv" }],
   "api/v1/exports/[type]/[id]": [
     { method: "GET", path: (ids) => `/api/v1/exports/project/${ids.project.id}` },

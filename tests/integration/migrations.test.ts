@@ -63,6 +63,33 @@ describe("migrations", () => {
     await expect(client.query("INSERT INTO memberships (group_id, user_id, role) VALUES ($1, gen_random_uuid(), 'owner')", [group])).rejects.toThrow(/invalid input value for enum/);
   });
 
+  it("lets a supernatant name only a series point of its own project, one per point (0004)", async () => {
+    const group = (await client.query("INSERT INTO groups (name, slug) VALUES ('S', 's') RETURNING id")).rows[0].id;
+    const [p1, p2] = await Promise.all(["P1", "P2"].map(async (n) => (await client.query("INSERT INTO projects (group_id, name) VALUES ($1, $2) RETURNING id", [group, n])).rows[0].id));
+    const series = (await client.query("INSERT INTO series (project_id, name, kind) VALUES ($1, 'T', 'titration') RETURNING id", [p1])).rows[0].id;
+    let n = 0;
+    const spectrum = async (project: string, extra: { technique?: string; seriesId?: string | null; of?: string | null } = {}) => {
+      n += 1;
+      const sha = n.toString(16).padStart(64, "0");
+      return (await client.query(
+        `INSERT INTO spectra (project_id, technique, file_name, object_key, sha256, size_bytes, series_id, supernatant_of_spectrum_id)
+         VALUES ($1, $2, 'f.csv', $3, $4, 10, $5, $6) RETURNING id`,
+        [project, extra.technique ?? "absorption", `sup-${n}`, sha, extra.seriesId ?? null, extra.of ?? null],
+      )).rows[0].id as string;
+    };
+    const point = await spectrum(p1, { seriesId: series });
+    const loose = await spectrum(p1);
+    const supernatant = await spectrum(p1, { of: point });
+    await expect(spectrum(p1, { of: point })).rejects.toThrow(/spectra_one_supernatant_per_point/); // one per point
+    await expect(spectrum(p1, { of: loose })).rejects.toThrow(/must name a series point/); // not a point
+    await expect(spectrum(p2, { of: point })).rejects.toThrow(/must name a series point of its own project/);
+    await expect(spectrum(p1, { technique: "pl", of: point })).rejects.toThrow(/spectra_supernatant_shape/); // absorption only
+    await expect(client.query("UPDATE spectra SET series_id = $1 WHERE id = $2", [series, supernatant])).rejects.toThrow(/spectra_supernatant_shape/);
+    await expect(client.query("UPDATE spectra SET series_id = NULL WHERE id = $1", [point])).rejects.toThrow(/unlink it before/);
+    await client.query("DELETE FROM spectra WHERE id = $1", [point]); // deleting the point unlinks its supernatant
+    expect((await client.query("SELECT supernatant_of_spectrum_id FROM spectra WHERE id = $1", [supernatant])).rows[0].supernatant_of_spectrum_id).toBeNull();
+  });
+
   it("keeps the audit trail append-only", async () => {
     const row = (await client.query("INSERT INTO audit_events (action) VALUES ('probe') RETURNING id")).rows[0];
     await expect(client.query("UPDATE audit_events SET action = 'edited' WHERE id = $1", [row.id])).rejects.toThrow(/append-only/);

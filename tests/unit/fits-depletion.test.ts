@@ -41,3 +41,17 @@ describe("boundRatioFromDepletion", () => {
     expect(() => boundRatioFromDepletion([supernatant(1, 1, 0.5), supernatant(1, 1, 0.5)], { epsilonA: 0, epsilonX: epsX, pathLengthCm: 1 })).toThrow(/extinction must be positive/);
   });
 });
+
+describe("boundRatioFromDepletion with a path length per point", () => {
+  it("gives the same composition for half the absorbance in a cell of half the length (c = A/(ε·l), Beer–Lambert)", () => {
+    const points = [supernatant(1, 0.5, 0.5), supernatant(1, 2, 1)];
+    const halved = points.map((p) => ({ ...p, absorbanceA: p.absorbanceA / 2, absorbanceX: p.absorbanceX / 2, pathLengthCm: 0.5 }));
+    const a = boundRatioFromDepletion(points, { epsilonA: epsA, epsilonX: epsX, pathLengthCm: 1 });
+    const b = boundRatioFromDepletion(halved, { epsilonA: epsA, epsilonX: epsX, pathLengthCm: 1 });
+    b.rows.forEach((r, i) => {
+      expect(r.leftA).toBeCloseTo(a.rows[i]!.leftA, 12);
+      expect(r.leftX).toBeCloseTo(a.rows[i]!.leftX, 12);
+    });
+    expect(() => boundRatioFromDepletion([points[0]!, { ...points[1]!, pathLengthCm: 0 }], { epsilonA: epsA, epsilonX: epsX, pathLengthCm: 1 })).toThrow("points[1].pathLengthCm must be positive");
+  });
+});

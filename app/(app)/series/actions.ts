@@ -5,8 +5,10 @@ import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { z } from "zod";
 import { ActionRefused, protectedAction } from "@/lib/actions/protected";
+import type { Actor } from "@/lib/auth/actor";
 import { canWrite } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
+import { SupernatantLinkRefused, setSupernatantLink } from "@/lib/series/supernatantLinks";
 import { Project, Series, models } from "@/models";
 import { SERIES_KINDS } from "@/models/Series";
 
@@ -37,4 +39,34 @@ export const createSeries = protectedAction(seriesSchema, async (input, actor) =
   }
   revalidatePath("/series");
   redirect(`/series/${id}`);
+});
+
+const linkSchema = z.object({
+  seriesId: z.string().uuid("The series id is not valid."),
+  pointSpectrumId: z.string().uuid("Choose the point whose supernatant this is."),
+  supernatantSpectrumId: z.string().uuid("Choose the supernatant spectrum."),
+});
+const unlinkSchema = linkSchema.omit({ pointSpectrumId: true });
+
+async function changeLink(seriesId: string, supernatantSpectrumId: string, pointSpectrumId: string | null, actor: Actor) {
+  try {
+    const outcome = await setSupernatantLink(actor, seriesId, { supernatantSpectrumId, pointSpectrumId });
+    revalidatePath(`/series/${seriesId}`);
+    return outcome;
+  } catch (error) {
+    if (error instanceof SupernatantLinkRefused) throw new ActionRefused(error.message.replace(/^\w+: /, ""), error.field);
+    throw error;
+  }
+}
+
+/** Links an absorption spectrum as the supernatant of one point of a titration (spectroscopists and leads). */
+export const linkSupernatant = protectedAction(linkSchema, async (input, actor) => {
+  const outcome = await changeLink(input.seriesId, input.supernatantSpectrumId, input.pointSpectrumId, actor);
+  return { ok: true, message: outcome.changed ? "Supernatant linked." : "That supernatant was already linked to this point." };
+});
+
+/** Unlinks a supernatant spectrum from its point; the spectrum itself stays. */
+export const unlinkSupernatant = protectedAction(unlinkSchema, async (input, actor) => {
+  await changeLink(input.seriesId, input.supernatantSpectrumId, null, actor);
+  return { ok: true, message: "Supernatant unlinked." };
 });

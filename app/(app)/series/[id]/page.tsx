@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireActor } from "@/lib/auth/actor";
+import { getDepletionSetup } from "@/lib/queries/series-depletion";
 import { getSeriesDetail } from "@/lib/queries/series-detail";
 import { DepletionPanel } from "@/components/series/DepletionPanel";
 import { FitSummary } from "@/components/series/FitSummary";
@@ -20,6 +21,7 @@ export default async function SeriesDetailPage({ params }: { params: Promise<{ i
   if (!series) notFound();
   const variable = `${series.variableName || "Variable"}${series.variableUnit ? ` (${series.variableUnit})` : ""}`;
   const missingValues = series.points.filter((p) => p.value === null).length;
+  const depletion = series.kind === "titration" && series.points.length > 0 ? await getDepletionSetup(actor, series, series.projectId) : null;
   return (
     <>
       <PageHeader
@@ -58,7 +60,10 @@ export default async function SeriesDetailPage({ params }: { params: Promise<{ i
               </tbody>
             </table>
           </div>
-          {series.kind === "titration" && <DepletionPanel />}
+          {depletion && (
+            <DepletionPanel seriesId={series.id} projectName={series.projectName} variableName={series.variableName} variableUnit={series.variableUnit}
+              mayWrite={series.mayWrite} setup={depletion} />
+          )}
         </div>
       )}
     </>
