@@ -5,6 +5,7 @@ import { sha256Hex } from "@/lib/hash";
 import { ApiToken, models } from "@/models";
 import type { Role } from "@/models/Membership";
 import { authOptions } from "./options";
+import { FORGET_ALL, onTokenRevoked, revocationEpoch } from "./tokenRevocations";
 
 export type ActorMembership = { groupId: string; groupName: string; groupSlug: string; role: Role };
 export type Actor = {
@@ -54,8 +55,8 @@ export function hashToken(token: string): string {
 }
 
 // Lab scripts call in bursts with one token: the token's person is kept for a few
-// seconds so each call does not repeat the same two queries. Revoking a token in this
-// process forgets it at once; other app processes notice within AUTH_CACHE_MS.
+// seconds so each call does not repeat the same two queries. A revoked token is forgotten
+// by every app process at once (tokenRevocations.ts); a role change shows within AUTH_CACHE_MS.
 const TOKEN_CACHE_MS = Number.isFinite(Number(process.env.AUTH_CACHE_MS)) ? Number(process.env.AUTH_CACHE_MS) : 5000;
 // On globalThis: the server action that revokes and the route handler that reads may be
 // bundled as separate module copies in one process.
@@ -63,13 +64,23 @@ const globalForTokens = globalThis as unknown as { bandkeepTokenCache?: Map<stri
 const tokenCache = (globalForTokens.bandkeepTokenCache ??= new Map());
 
 export function forgetApiToken(tokenHash: string): void {
-  tokenCache.delete(tokenHash);
+  if (tokenHash === FORGET_ALL) tokenCache.clear();
+  else tokenCache.delete(tokenHash);
+}
+
+const globalForListener = globalThis as unknown as { bandkeepTokenListener?: boolean };
+function listenForRevocations(): void {
+  if (globalForListener.bandkeepTokenListener) return;
+  globalForListener.bandkeepTokenListener = true;
+  onTokenRevoked(forgetApiToken);
 }
 
 async function actorFromToken(token: string): Promise<Actor | null> {
   const tokenHash = hashToken(token);
   const cached = tokenCache.get(tokenHash);
   if (cached && cached.until > Date.now()) return cached.actor;
+  if (TOKEN_CACHE_MS > 0) listenForRevocations();
+  const epoch = TOKEN_CACHE_MS > 0 ? revocationEpoch() : null;
   models();
   const row = await ApiToken.findOne({ where: { tokenHash, revokedAt: null } });
   if (!row) {
@@ -81,7 +92,8 @@ async function actorFromToken(token: string): Promise<Actor | null> {
     await row.update({ lastUsedAt: new Date() });
   }
   const actor = await loadActor(row.userId, "token");
-  if (actor && TOKEN_CACHE_MS > 0) {
+  // Cached only while revocations are heard, and not when one arrived during this lookup.
+  if (actor && epoch !== null && revocationEpoch() === epoch) {
     if (tokenCache.size > 1000) tokenCache.clear();
     tokenCache.set(tokenHash, { actor, until: Date.now() + TOKEN_CACHE_MS });
   }

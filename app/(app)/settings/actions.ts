@@ -5,6 +5,7 @@ import { z } from "zod";
 import { ActionRefused, protectedAction } from "@/lib/actions/protected";
 import { issueApiToken } from "@/lib/api-tokens";
 import { forgetApiToken } from "@/lib/auth/actor";
+import { announceTokenRevoked } from "@/lib/auth/tokenRevocations";
 import { recordAudit } from "@/lib/audit";
 import { ApiToken, User, models } from "@/models";
 
@@ -24,6 +25,8 @@ export const revokeApiToken = protectedAction(z.object({ id: z.string().uuid() }
   if (!token || token.userId !== actor.id) throw new ActionRefused("That token is not yours.");
   if (!token.revokedAt) await token.update({ revokedAt: new Date() });
   forgetApiToken(token.tokenHash);
+  // Every other app process forgets it too; if Redis is down they do not cache tokens anyway.
+  await announceTokenRevoked(token.tokenHash).catch(() => {});
   await recordAudit({ actorId: actor.id, actorLabel: actor.email, action: "api-token-revoked", targetType: "api-token", targetId: id });
   revalidatePath("/settings");
   return { ok: true, message: "Token revoked: scripts using it are refused from now on." };
