@@ -1,3 +1,4 @@
+import { selectRows } from "@/lib/db";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadSpectrum, canWrite, groupOfSpectrum } from "@/lib/auth/access";
 import { hazardsOf, type HazardFlag } from "@/lib/hazards";
@@ -25,6 +26,8 @@ export type SpectrumDetail = {
     parents: { id: string; name: string; material: string }[];
   } | null;
   reference: { id: string; fileName: string } | null;
+  /** Set when this is the supernatant measured for a point of a titration series. */
+  supernatantOf: { spectrumId: string; fileName: string; seriesId: string; seriesName: string } | null;
   mayWrite: boolean;
   /** The most recent run, whatever its state (a re-run may be waiting or running). */
   latestRun: (RunSummary & { warnings: string[]; derived: Record<string, unknown> | null }) | null;
@@ -82,12 +85,19 @@ export async function getSpectrumDetail(actor: Actor, id: string): Promise<Spect
   models();
   const spectrum = await Spectrum.findByPk(id);
   if (!spectrum || !(await canReadSpectrum(actor, spectrum))) return null;
-  const [project, sample, reference, runs, groupId] = await Promise.all([
+  const [project, sample, reference, runs, groupId, point] = await Promise.all([
     Project.findByPk(spectrum.projectId),
     spectrum.sampleId ? Sample.findByPk(spectrum.sampleId, { include: [{ model: Sample, as: "parents", attributes: ["id", "name", "material"] }] }) : null,
     spectrum.referenceSpectrumId ? Spectrum.findByPk(spectrum.referenceSpectrumId, { attributes: ["id", "fileName"] }) : null,
     AnalysisRun.findAll({ where: { spectrumId: id }, order: [["createdAt", "DESC"]], attributes: { exclude: ["report"] } }),
     groupOfSpectrum(spectrum),
+    // the point is in the same project (the database checks it), so whoever reads this reads it
+    spectrum.supernatantOfSpectrumId
+      ? selectRows<{ id: string; file_name: string; series_id: string; series_name: string }>(
+          "SELECT p.id, p.file_name, p.series_id, se.name AS series_name FROM spectra p JOIN series se ON se.id = p.series_id WHERE p.id = :id",
+          { id: spectrum.supernatantOfSpectrumId },
+        ).then((rows) => rows[0] ?? null)
+      : null,
   ]);
   const latest = runs[0] ?? null;
   const shown = runs.find((r) => r.status === "done") ?? null;
@@ -128,6 +138,7 @@ export async function getSpectrumDetail(actor: Actor, id: string): Promise<Spect
       ? { id: sample.id, name: sample.name, material: sample.material, coreShell: sample.coreShell ?? "", ligand: sample.ligand ?? "", solvent: sample.solvent ?? "", hazards: hazardsOf(sample), parents }
       : null,
     reference: reference ? { id: reference.id, fileName: reference.fileName } : null,
+    supernatantOf: point ? { spectrumId: point.id, fileName: point.file_name, seriesId: point.series_id, seriesName: point.series_name } : null,
     mayWrite: groupId ? canWrite(actor, groupId) : false,
     latestRun: latest && withReport(latest),
     shownRun: shown && { ...withReport(shown), report: reportParameters(reportOf(shown.id)) },

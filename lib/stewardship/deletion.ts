@@ -37,12 +37,16 @@ type SpectrumRow = {
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
-/** The first active legal hold covering a spectrum (through project, series, sample or itself). */
+/**
+ * The first active legal hold covering a spectrum (through project, series, sample or itself;
+ * a supernatant through its point's series).
+ */
 export async function holdCoveringSpectrum(spectrumId: string, transaction?: Transaction): Promise<{ reason: string; targetType: string } | null> {
   const db = models();
   const rows = await db.query<{ reason: string; target_type: string }>(
     `SELECT h.reason, h.target_type FROM spectra s JOIN legal_holds h ON h.lifted_at IS NULL AND (
-        (h.target_type = 'project' AND h.target_id = s.project_id) OR (h.target_type = 'series' AND h.target_id = s.series_id)
+        (h.target_type = 'project' AND h.target_id = s.project_id)
+     OR (h.target_type = 'series' AND h.target_id = COALESCE(s.series_id, (SELECT p.series_id FROM spectra p WHERE p.id = s.supernatant_of_spectrum_id)))
      OR (h.target_type = 'sample' AND h.target_id = s.sample_id) OR (h.target_type = 'spectrum' AND h.target_id = s.id))
       WHERE s.id = :id ORDER BY h.placed_at LIMIT 1`,
     { replacements: { id: spectrumId }, type: QueryTypes.SELECT, transaction },

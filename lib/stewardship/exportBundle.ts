@@ -26,7 +26,7 @@ export type Manifest = {
   samples: { id: string; name: string; material: string; coreShell: string; ligand: string; solvent: string; hazardClass: string; cautions: string[] }[];
   spectra: {
     id: string; fileName: string; sha256: string; sizeBytes: number; technique: string; status: string; sampleId: string | null; seriesId: string | null;
-    seriesValue: number | null; referenceSpectrumId: string | null; pathLengthCm: number | null; excitationNm: number | null; solvent: string;
+    seriesValue: number | null; supernatantOfSpectrumId: string | null; referenceSpectrumId: string | null; pathLengthCm: number | null; excitationNm: number | null; solvent: string;
     uploadedAt: string; files: string[]; note?: string;
   }[];
   files: ManifestFile[];
@@ -78,7 +78,12 @@ export async function buildBundle(target: { type: "project" | "series"; id: stri
     project = await Project.findByPk(series.projectId);
     seriesList = [series];
     targetName = series.name;
-    spectra = await Spectrum.findAll({ where: { seriesId: series.id }, order: [["seriesValue", "ASC"], ["createdAt", "ASC"]] });
+    const points = await Spectrum.findAll({ where: { seriesId: series.id }, order: [["seriesValue", "ASC"], ["createdAt", "ASC"]] });
+    // the supernatant spectra of the points travel with the series
+    const supernatants = points.length
+      ? await Spectrum.findAll({ where: { supernatantOfSpectrumId: { [Op.in]: points.map((p) => p.id) } }, order: [["createdAt", "ASC"]] })
+      : [];
+    spectra = [...points, ...supernatants];
   } else {
     project = await Project.findByPk(target.id);
     seriesList = project ? await Series.findAll({ where: { projectId: project.id }, order: [["name", "ASC"]] }) : [];
@@ -131,7 +136,7 @@ export async function buildBundle(target: { type: "project" | "series"; id: stri
     }
     spectraOut.push({
       id: s.id, fileName: s.fileName, sha256: s.sha256, sizeBytes: s.sizeBytes, technique: s.technique, status: s.status, sampleId: s.sampleId,
-      seriesId: s.seriesId, seriesValue: s.seriesValue, referenceSpectrumId: s.referenceSpectrumId, pathLengthCm: s.pathLengthCm,
+      seriesId: s.seriesId, seriesValue: s.seriesValue, supernatantOfSpectrumId: s.supernatantOfSpectrumId, referenceSpectrumId: s.referenceSpectrumId, pathLengthCm: s.pathLengthCm,
       excitationNm: s.excitationNm, solvent: s.solvent, uploadedAt: s.createdAt.toISOString(), files: own, ...(note ? { note } : {}),
     });
   }

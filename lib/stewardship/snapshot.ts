@@ -20,10 +20,12 @@ export async function loadSnapshot(projectIds?: readonly string[]): Promise<Snap
   const ids = projectIds && projectIds.length > 0 ? [...projectIds] : ["00000000-0000-0000-0000-000000000000"];
   const scope = (col: string) => (scoped ? `${col} IN (:ids)` : "TRUE");
   const spectra = await selectRows<SpectrumRow>(
-    `SELECT s.id, s.project_id, s.series_id, s.sample_id, s.reference_spectrum_id, s.created_at, s.size_bytes, s.file_name, s.status,
+    `SELECT s.id, s.project_id, COALESCE(s.series_id, point.series_id) AS series_id, s.sample_id, s.reference_spectrum_id, s.created_at, s.size_bytes, s.file_name, s.status,
             (s.status IN ('queued', 'analysing') OR EXISTS (SELECT 1 FROM analysis_runs r WHERE r.spectrum_id = s.id AND r.status IN ('queued', 'running'))) AS busy,
             f.decision, (f.id IS NOT NULL AND f.decision IS NULL) AS flagged
        FROM spectra s
+       -- a supernatant belongs to its point's series (holds and policies on the series cover it)
+       LEFT JOIN spectra point ON point.id = s.supernatant_of_spectrum_id
        LEFT JOIN retention_flags f ON f.target_type = 'spectrum' AND f.target_id = s.id
       WHERE (${scope("s.project_id")}
              -- spectra elsewhere that depend on a spectrum in scope: they stay, and protect it
@@ -32,9 +34,10 @@ export async function loadSnapshot(projectIds?: readonly string[]): Promise<Snap
     { ids },
   );
   const runs = await selectRows<RunRow>(
-    `SELECT r.id, r.spectrum_id, s.project_id, s.series_id, s.sample_id, r.created_at, octet_length(r.report::text) AS size_bytes, s.file_name,
+    `SELECT r.id, r.spectrum_id, s.project_id, COALESCE(s.series_id, point.series_id) AS series_id, s.sample_id, r.created_at, octet_length(r.report::text) AS size_bytes, s.file_name,
             r.status IN ('queued', 'running') AS busy, f.decision, (f.id IS NOT NULL AND f.decision IS NULL) AS flagged
        FROM analysis_runs r JOIN spectra s ON s.id = r.spectrum_id
+       LEFT JOIN spectra point ON point.id = s.supernatant_of_spectrum_id
        LEFT JOIN retention_flags f ON f.target_type = 'analysis-run' AND f.target_id = r.id
       WHERE ${scope("s.project_id")}`,
     { ids },

@@ -1,7 +1,9 @@
 import { join } from "node:path";
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { Op } from "sequelize";
 import { closeDb } from "@/lib/db";
+import { Spectrum, models } from "@/models";
 import { DEMO, url } from "../helpers/app";
 import { SCREENSHOT_DIR, launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 import { demoIds } from "../helpers/demo-ids";
@@ -55,6 +57,18 @@ describe("composition from supernatant depletion", () => {
     await panel.getByLabel("typed in").check();
     await panel.getByLabel(/Points, one per line/).fill("0.5, 0.25, 0.07, 0.001\n0.5, 0.5, 0.05");
     await expect.poll(async () => panel.getByTestId("depletion-errors").textContent()).toContain("Points, line 2: give four numbers");
+
+    // A supernatant's own page says whose supernatant it is and links back to the series.
+    models();
+    const points = await Spectrum.findAll({ where: { seriesId: ids.sharedSeries.id }, attributes: ["id"] });
+    const supernatant = await Spectrum.findOne({ where: { supernatantOfSpectrumId: { [Op.in]: points.map((p) => p.id) } } });
+    const point = await Spectrum.findByPk(supernatant!.supernatantOfSpectrumId!);
+    await page.goto(url(`/spectra/${supernatant!.id}`));
+    const note = page.getByTestId("supernatant-of");
+    await note.waitFor();
+    expect(await note.textContent()).toContain(`Supernatant of ${point!.fileName}`);
+    expect(await note.locator(`a[href="/series/${point!.seriesId}"]`).count()).toBe(1);
+    await screenshot(page, "spectrum-supernatant-of");
     await page.close();
   });
 

@@ -2,6 +2,7 @@ import fc from "fast-check";
 import { afterAll, describe, expect, it } from "vitest";
 import { closeDb, selectRows } from "@/lib/db";
 import { DeletionRefused, deleteSpectrum } from "@/lib/stewardship/deletion";
+import { buildBundle } from "@/lib/stewardship/exportBundle";
 import { previewPolicy } from "@/lib/stewardship/queries";
 import { runSweep } from "@/lib/stewardship/sweep";
 import { LegalHold, RetentionFlag, RetentionPolicy, Spectrum, Tombstone, models } from "@/models";
@@ -79,6 +80,30 @@ describe("retention sweep on the real database and storage", () => {
     expect(left.map((r) => r.id)).toEqual([newRun.id]);
     expect(await Tombstone.findOne({ where: { targetId: oldRun.id } })).toMatchObject({ state: "done", targetType: "analysis-run", dataClass: "processed" });
     expect(await exists(s.id)).toBe(true);
+  });
+
+  it("a supernatant spectrum belongs to its point's series: a hold on the series keeps it, and the series bundle carries it", async () => {
+    const lab = await createLab("steward");
+    const series = await createSeries(lab);
+    const point = await storedSpectrum(lab, { ageDays: 100, seriesId: series.id, seriesValue: 1 });
+    const supernatant = await storedSpectrum(lab, { ageDays: 100 });
+    await supernatant.update({ supernatantOfSpectrumId: point.id });
+    const free = await storedSpectrum(lab, { ageDays: 100 });
+    await RetentionPolicy.create({ projectId: lab.project.id, dataClass: "raw", keepDays: 30, onExpiry: "delete", createdBy: lab.user.id });
+    await LegalHold.create({ groupId: lab.group.id, targetType: "series", targetId: series.id, reason: "titration under review", placedBy: lab.user.id, liftedAt: null, liftedBy: null });
+
+    const preview = await previewPolicy({ projectId: lab.project.id, dataClass: "raw", keepDays: 30, onExpiry: "delete" });
+    expect(preview.toDelete.map((r) => r.id)).toEqual([free.id]);
+    expect(preview.protectedItems.find((r) => r.id === supernatant.id)?.why).toContain("titration under review");
+    await expect(deleteSpectrum(supernatant.id, { cause: "owner", actorId: lab.user.id, actorLabel: lab.user.email })).rejects.toThrow(/titration under review/);
+    await runSweep({ projectIds: [lab.project.id] });
+    expect(await exists(supernatant.id)).toBe(true);
+    expect(await exists(free.id)).toBe(false);
+
+    const bundle = await buildBundle({ type: "series", id: series.id }, lab.user.id);
+    const listed = bundle.manifest.spectra.find((x) => x.id === supernatant.id);
+    expect(listed?.supernatantOfSpectrumId).toBe(point.id);
+    expect(listed?.sha256).toBe(supernatant.sha256);
   });
 
   it("refuses a person's delete under hold, with the reason", async () => {

@@ -116,6 +116,9 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
               </dl>
             ) : <p className="text-ink-soft">No sample registered for this spectrum.</p>}
             <p className="mt-2">Parent reference spectrum: {s.reference ? <Link className="text-glow-deep hover:underline" href={`/spectra/${s.reference.id}`}>{s.reference.fileName}</Link> : <span className="text-ink-soft">none set</span>}</p>
+            {s.supernatantOf && (
+              <p className="mt-2" data-testid="supernatant-of">Supernatant of <Link className="text-glow-deep hover:underline" href={`/spectra/${s.supernatantOf.spectrumId}`}>{s.supernatantOf.fileName}</Link>, a point of the series <Link className="text-glow-deep hover:underline" href={`/series/${s.supernatantOf.seriesId}`}>{s.supernatantOf.seriesName}</Link> (read for its depletion composition)</p>
+            )}
           </Panel>
           <Panel title="Acquisition">
             <dl className="grid grid-cols-[7rem_1fr] gap-y-1">
