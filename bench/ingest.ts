@@ -9,7 +9,7 @@
  * there is no build) and its own worker, both on a queue of their own, so a running `npm start`
  * or `npm test` stack is not disturbed.
  *
- * Usage: npm run bench:ingest [-- --files 1000 --parallel 8 --workers 1]
+ * Usage: npm run bench:ingest [-- --files 1000 --parallel 8 --workers 1 --concurrency 2 --files-per-request 1 --profile DIR]
  */
 import { execFileSync, spawn, type ChildProcess } from "node:child_process";
 import { existsSync, readFileSync } from "node:fs";
@@ -28,6 +28,9 @@ const FILES = arg("files", 1000);
 const PARALLEL = arg("parallel", 8);
 const WORKERS = arg("workers", 1);
 const CONCURRENCY = arg("concurrency", 2);
+// Files per upload request: 1 is the upload page (one request per file, for its progress bars);
+// a lab script sending a folder puts several in one request.
+const PER_REQUEST = arg("files-per-request", 1);
 const BENCH_PORT = arg("port", 3099);
 // --profile DIR: write V8 CPU profiles of the app and the worker there (open them in a browser's devtools).
 const PROFILE_DIR = args.includes("--profile") ? path.resolve(args[args.indexOf("--profile") + 1] ?? "bench-profiles") : null;
@@ -85,16 +88,19 @@ async function stopAll() {
 }
 process.on("SIGINT", () => void stopAll().then(() => process.exit(130)));
 
-/** A multipart/form-data body (RFC 7578) with text fields and one file part. */
-function multipartBody(fields: Record<string, string>, fileName: string, bytes: Uint8Array): { body: Buffer; type: string } {
+/** A multipart/form-data body (RFC 7578) with text fields and one part per file. */
+function multipartBody(fields: Record<string, string>, files: { fileName: string; bytes: Uint8Array }[]): { body: Buffer; type: string; count: number } {
   const boundary = `----bench${randomBytes(12).toString("hex")}`;
   const parts: Buffer[] = [];
   for (const [name, value] of Object.entries(fields)) {
     parts.push(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="${name}"\r\n\r\n${value}\r\n`));
   }
-  parts.push(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${fileName}"\r\nContent-Type: text/csv\r\n\r\n`));
-  parts.push(Buffer.from(bytes), Buffer.from(`\r\n--${boundary}--\r\n`));
-  return { body: Buffer.concat(parts), type: `multipart/form-data; boundary=${boundary}` };
+  for (const f of files) {
+    parts.push(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${f.fileName}"\r\nContent-Type: text/csv\r\n\r\n`));
+    parts.push(Buffer.from(f.bytes), Buffer.from("\r\n"));
+  }
+  parts.push(Buffer.from(`--${boundary}--\r\n`));
+  return { body: Buffer.concat(parts), type: `multipart/form-data; boundary=${boundary}`, count: files.length };
 }
 
 function postBody(url: string, b: { body: Buffer; type: string }, headers: Record<string, string>, agent: http.Agent): Promise<{ status: number; text: string }> {
@@ -153,7 +159,7 @@ try {
   const bareProject = await Project.create({ groupId: lab.group.id, name: `Bare storage path ${randomBytes(3).toString("hex")}` });
   const files = Array.from({ length: FILES }, (_, i) => ({ fileName: `bench-${i}.csv`, bytes: enc(syntheticAbsorptionCsv({ seed: 900_000 + i, points: 2000 })) }));
   const mb = files.reduce((s, f) => s + f.bytes.length, 0) / 1024 / 1024;
-  console.log(`\n${FILES} exports of 2,000 points (${mb.toFixed(1)} MiB), ${PARALLEL} uploads in flight, ${WORKERS} worker(s) × concurrency ${CONCURRENCY}, queue ${QUEUE}`);
+  console.log(`\n${FILES} exports of 2,000 points (${mb.toFixed(1)} MiB), ${PER_REQUEST} file(s) per request, ${PARALLEL} requests in flight, ${WORKERS} worker(s) × concurrency ${CONCURRENCY}, queue ${QUEUE}`);
 
   // Warm the app's routes so the first requests do not carry start-up cost.
   const warm = new FormData();
@@ -179,7 +185,8 @@ try {
   // 1. Through the HTTP API until analysed. The multipart bodies are encoded before the clock
   // starts and sent over kept-alive node:http sockets, so the load generator takes as little of
   // the two cores as it can (fetch + FormData cost the client about 8 ms of CPU per upload).
-  const bodies = files.map((f) => multipartBody({ projectId: lab.project.id, technique: "absorption" }, f.fileName, f.bytes));
+  const bodies = Array.from({ length: Math.ceil(files.length / PER_REQUEST) }, (_, i) =>
+    multipartBody({ projectId: lab.project.id, technique: "absorption" }, files.slice(i * PER_REQUEST, (i + 1) * PER_REQUEST)));
   const agent = new http.Agent({ keepAlive: true, maxSockets: PARALLEL });
   const ids: string[] = [];
   const cpu0 = { ...trees(), "bench client": clientCpuMs() };
@@ -188,9 +195,9 @@ try {
   await pool(bodies, PARALLEL, async (b) => {
     const res = await postBody(`http://127.0.0.1:${BENCH_PORT}/api/v1/spectra`, b, { Authorization: `Bearer ${lab.token}` }, agent);
     const body = JSON.parse(res.text) as { files?: { ok: boolean; spectrumId?: string }[] };
-    const out = body.files?.[0];
-    if (res.status !== 201 || !out?.ok || !out.spectrumId) refused += 1;
-    else ids.push(out.spectrumId);
+    const stored = (body.files ?? []).filter((f) => f.ok && f.spectrumId);
+    refused += b.count - stored.length;
+    for (const f of stored) ids.push(f.spectrumId!);
   });
   const tUploaded = performance.now();
   for (;;) {
