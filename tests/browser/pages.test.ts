@@ -1,25 +1,14 @@
-import type { Browser, Page } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { closeDb } from "@/lib/db";
+import type { Page } from "playwright-core";
+import { describe, expect, it } from "vitest";
 import { DEMO, url } from "../helpers/app";
-import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
-import { demoIds } from "../helpers/demo-ids";
+import { demoBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 
 // Sources: HTTP status codes as RFC 9110 defines them (200, 201, 304, 400, 401, 403, 404, 409, 413, 415, 422, 503);
 // every other number checked here is a count or value this test itself created (known truth of its fixtures).
 
 // Every page of the shell, opened by the people who use it, renders its own heading
 // and never the error page.
-let browser: Browser;
-let ids: Awaited<ReturnType<typeof demoIds>>;
-beforeAll(async () => {
-  ids = await demoIds();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await closeDb();
-});
+const demo = demoBrowser();
 
 async function expectPage(page: Page, path: string, heading: string | RegExp, shot: string) {
   const response = await page.goto(url(path));
@@ -31,21 +20,21 @@ async function expectPage(page: Page, path: string, heading: string | RegExp, sh
 
 describe("pages as the people who use them see them", () => {
   it("a group lead walks the shell", async () => {
-    const page = await browser.newPage({ viewport: { width: 1360, height: 900 } });
+    const page = await demo.browser.newPage({ viewport: { width: 1360, height: 900 } });
     await signInThroughForm(page, DEMO.lead);
     await expectPage(page, "/", /Welcome, Mira Castellan/, "lead-overview");
     await expectPage(page, "/samples", "Samples", "lead-samples");
     await expectPage(page, "/spectra", "Spectra", "lead-spectra");
-    await expectPage(page, `/spectra/${ids.privateSpectrum.id}`, "cdse-0412-abs.csv", "lead-spectrum");
+    await expectPage(page, `/spectra/${demo.ids.privateSpectrum.id}`, "cdse-0412-abs.csv", "lead-spectrum");
     await expectPage(page, "/series", "Series", "lead-series");
-    await expectPage(page, `/series/${ids.sharedSeries.id}`, "CdSe + PbS titration", "lead-series-detail");
+    await expectPage(page, `/series/${demo.ids.sharedSeries.id}`, "CdSe + PbS titration", "lead-series-detail");
     await expectPage(page, "/review", "Review", "lead-review");
     await expectPage(page, "/settings", "Settings", "lead-settings");
     await page.close();
   });
 
   it("a data steward reads the audit trail, including sign-ins", async () => {
-    const page = await browser.newPage({ viewport: { width: 1360, height: 900 } });
+    const page = await demo.browser.newPage({ viewport: { width: 1360, height: 900 } });
     await signInThroughForm(page, DEMO.steward);
     await expectPage(page, "/stewardship", "Stewardship", "steward-decisions");
     await expectPage(page, "/stewardship/audit", "Audit trail", "steward-audit");
@@ -54,18 +43,18 @@ describe("pages as the people who use them see them", () => {
   });
 
   it("a collaborator sees the shared series and nothing else", async () => {
-    const page = await browser.newPage({ viewport: { width: 1360, height: 900 } });
+    const page = await demo.browser.newPage({ viewport: { width: 1360, height: 900 } });
     await signInThroughForm(page, DEMO.collaborator);
     await expectPage(page, "/", /Welcome/, "collaborator-overview");
     expect(await page.getByRole("link", { name: "CdSe + PbS titration" }).count()).toBe(1);
     expect(await page.getByText("CdSe PL quench by PbS").count()).toBe(0);
-    const refused = await page.goto(url(`/spectra/${ids.privateSpectrum.id}`));
+    const refused = await page.goto(url(`/spectra/${demo.ids.privateSpectrum.id}`));
     expect(refused?.status()).toBe(404);
     await page.close();
   });
 
   it("a spectroscopist registers a sample and sees the cautions for it", async () => {
-    const page = await browser.newPage({ viewport: { width: 1360, height: 1000 } });
+    const page = await demo.browser.newPage({ viewport: { width: 1360, height: 1000 } });
     await signInThroughForm(page, DEMO.spectroscopist);
     await page.goto(url("/samples/new"));
     const name = `AUR-PbSe-${Date.now().toString(36)}`;

@@ -1,12 +1,9 @@
 import { join } from "node:path";
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { Op } from "sequelize";
-import { closeDb } from "@/lib/db";
 import { Spectrum, models } from "@/models";
 import { DEMO, url } from "../helpers/app";
-import { SCREENSHOT_DIR, launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
-import { demoIds } from "../helpers/demo-ids";
+import { SCREENSHOT_DIR, demoBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 
 // The demo titration (scripts/seed.ts): 0.5 µM CdSe in every mixture binds PbS 1:1, and each
 // point's supernatant spectrum is linked to it. The panel must read them and find that ratio.
@@ -16,22 +13,13 @@ const E1 = 2.148; // the demo CdSe's first exciton, eV (scripts/seed.ts)
 // Yu, Qu, Guo, Peng, Chem. Mater. 2003, 15, 2854: CdSe diameter from the first exciton, ε = 5857·D^2.65.
 const yuEpsilon = (l: number) => 5857 * (1.6122e-9 * l ** 4 - 2.6575e-6 * l ** 3 + 1.6242e-3 * l ** 2 - 0.4277 * l + 41.57) ** 2.65;
 
-let browser: Browser;
-let ids: Awaited<ReturnType<typeof demoIds>>;
-beforeAll(async () => {
-  ids = await demoIds();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await closeDb();
-});
+const demo = demoBrowser();
 
 describe("composition from supernatant depletion", () => {
   it("reads the linked supernatant spectra and finds the 1:1 product; names a bad typed line", async () => {
-    const page = await browser.newPage({ viewport: { width: 1360, height: 1000 } });
+    const page = await demo.browser.newPage({ viewport: { width: 1360, height: 1000 } });
     await signInThroughForm(page, DEMO.lead);
-    await page.goto(url(`/series/${ids.sharedSeries.id}`));
+    await page.goto(url(`/series/${demo.ids.sharedSeries.id}`));
     const panel = page.getByTestId("depletion-panel");
     const readings = panel.getByTestId("depletion-readings");
     await readings.waitFor({ timeout: 60_000 });
@@ -60,7 +48,7 @@ describe("composition from supernatant depletion", () => {
 
     // A supernatant's own page says whose supernatant it is and links back to the series.
     models();
-    const points = await Spectrum.findAll({ where: { seriesId: ids.sharedSeries.id }, attributes: ["id"] });
+    const points = await Spectrum.findAll({ where: { seriesId: demo.ids.sharedSeries.id }, attributes: ["id"] });
     const supernatant = await Spectrum.findOne({ where: { supernatantOfSpectrumId: { [Op.in]: points.map((p) => p.id) } } });
     const point = await Spectrum.findByPk(supernatant!.supernatantOfSpectrumId!);
     await page.goto(url(`/spectra/${supernatant!.id}`));
@@ -73,9 +61,9 @@ describe("composition from supernatant depletion", () => {
   });
 
   it("tells how to link a supernatant where none is linked yet, and links and unlinks one", async () => {
-    const page = await browser.newPage({ viewport: { width: 1360, height: 1000 } });
+    const page = await demo.browser.newPage({ viewport: { width: 1360, height: 1000 } });
     await signInThroughForm(page, DEMO.spectroscopist);
-    await page.goto(url(`/series/${ids.privateSeries.id}`)); // a titration kind of series with no supernatants
+    await page.goto(url(`/series/${demo.ids.privateSeries.id}`)); // a titration kind of series with no supernatants
     const panel = page.getByTestId("depletion-panel");
     expect(await panel.getByLabel("from linked supernatant spectra (0 linked)").isChecked()).toBe(true);
     const empty = panel.getByTestId("depletion-empty");

@@ -1,29 +1,17 @@
-import type { Browser } from "playwright-core";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { closeDb } from "@/lib/db";
+import { describe, expect, it } from "vitest";
 import { DEMO, url } from "../helpers/app";
-import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
-import { demoIds } from "../helpers/demo-ids";
+import { demoBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 
 // The demo titration saturates at 1 equivalent and the PL series has K = 0.08 µM⁻¹
 // (scripts/seed.ts): their pages show those fits and the plots.
 
-let browser: Browser;
-let ids: Awaited<ReturnType<typeof demoIds>>;
-beforeAll(async () => {
-  ids = await demoIds();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await closeDb();
-});
+const demo = demoBrowser();
 
 describe("series pages", () => {
   it("show the saturation fit of the titration and the Stern–Volmer fit of the PL series", async () => {
-    const page = await browser.newPage({ viewport: { width: 1360, height: 1000 } });
+    const page = await demo.browser.newPage({ viewport: { width: 1360, height: 1000 } });
     await signInThroughForm(page, DEMO.lead);
-    await page.goto(url(`/series/${ids.sharedSeries.id}`));
+    await page.goto(url(`/series/${demo.ids.sharedSeries.id}`));
     const saturation = page.getByTestId("fit-saturation");
     await saturation.getByText("at saturation").waitFor();
     const breakpoint = Number(/([\d.]+) ±/.exec((await saturation.textContent()) ?? "")?.[1]);
@@ -31,7 +19,7 @@ describe("series pages", () => {
     await page.locator("[data-testid=series-plot-bleach] canvas").first().waitFor();
     await screenshot(page, "series-titration");
 
-    await page.goto(url(`/series/${ids.privateSeries.id}`));
+    await page.goto(url(`/series/${demo.ids.privateSeries.id}`));
     const sv = page.getByTestId("fit-stern-volmer");
     await sv.getByText("± ").first().waitFor();
     const k = Number(/=\s*([\d.]+) ±/.exec((await sv.textContent()) ?? "")?.[1]);

@@ -1,7 +1,10 @@
 import { mkdirSync } from "node:fs";
 import { join } from "node:path";
 import { chromium, type Browser, type Page } from "playwright-core";
+import { afterAll, beforeAll } from "vitest";
+import { closeDb } from "@/lib/db";
 import { DEMO_PASSWORD, url } from "./app";
+import { demoIds } from "./demo-ids";
 
 export const SCREENSHOT_DIR = join(process.cwd(), "test-results", "screenshots");
 
@@ -31,4 +34,24 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   const path = join(SCREENSHOT_DIR, `${name}.png`);
   await page.screenshot({ path, fullPage: true });
   return path;
+}
+
+export type DemoBrowser = { browser: Browser; ids: Awaited<ReturnType<typeof demoIds>> };
+
+/**
+ * For a test file that drives the demo scenario: launches chromium and looks up the demo's ids
+ * before its tests, and closes the browser and the database pool after them. The returned
+ * object is filled in by then.
+ */
+export function demoBrowser(): DemoBrowser {
+  const suite = {} as DemoBrowser;
+  beforeAll(async () => {
+    suite.ids = await demoIds();
+    suite.browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await suite.browser?.close();
+    await closeDb();
+  });
+  return suite;
 }
