@@ -52,6 +52,22 @@ export async function sharedTargets(actor: Actor): Promise<SharedTargets> {
   };
 }
 
+export type ReadableScope = { memberProjectIds: string[]; sharedProjectIds: string[]; sharedSeriesIds: string[] };
+
+/**
+ * What the actor reads, as ids, for list queries: the projects of its groups, the projects
+ * shared with it, and the series shared with it one by one.
+ */
+export async function readableScope(actor: Actor): Promise<ReadableScope> {
+  models();
+  const groupIds = memberGroupIds(actor);
+  const [members, shared] = await Promise.all([
+    groupIds.length ? Project.findAll({ where: { groupId: { [Op.in]: groupIds } }, attributes: ["id"] }) : Promise.resolve([]),
+    sharedTargets(actor),
+  ]);
+  return { memberProjectIds: members.map((p) => p.id), sharedProjectIds: shared.projectIds, sharedSeriesIds: shared.seriesIds };
+}
+
 export async function canReadProject(actor: Actor, project: Project): Promise<boolean> {
   if (memberGroupIds(actor).includes(project.groupId)) return true;
   return (await sharedTargets(actor)).projectIds.includes(project.id);

@@ -1,7 +1,7 @@
 import { Op, type WhereOptions } from "sequelize";
 import type { Actor } from "@/lib/auth/actor";
-import { memberGroupIds, sharedTargets } from "@/lib/auth/access";
-import { Project, Sample, Spectrum, models } from "@/models";
+import { readableScope } from "@/lib/auth/access";
+import { Project, Sample, Spectrum } from "@/models";
 
 export type SpectrumRow = {
   id: string;
@@ -18,16 +18,11 @@ export const PAGE_SIZE = 50;
 
 /** Spectra the actor reads: members see their groups' projects; collaborators what is shared. */
 export async function readableSpectrumScope(actor: Actor): Promise<WhereOptions<Spectrum> | null> {
-  models();
-  const groupIds = memberGroupIds(actor);
-  const shared = await sharedTargets(actor);
-  const projectIds = groupIds.length
-    ? (await Project.findAll({ where: { groupId: { [Op.in]: groupIds } }, attributes: ["id"] })).map((p) => p.id)
-    : [];
-  const allProjects = [...projectIds, ...shared.projectIds];
+  const scope = await readableScope(actor);
+  const allProjects = [...scope.memberProjectIds, ...scope.sharedProjectIds];
   const or: WhereOptions<Spectrum>[] = [];
   if (allProjects.length) or.push({ projectId: { [Op.in]: allProjects } });
-  if (shared.seriesIds.length) or.push({ seriesId: { [Op.in]: shared.seriesIds } });
+  if (scope.sharedSeriesIds.length) or.push({ seriesId: { [Op.in]: scope.sharedSeriesIds } });
   return or.length ? { [Op.or]: or } : null;
 }
 
