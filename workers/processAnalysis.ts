@@ -1,13 +1,12 @@
 import { UnrecoverableError, type Job } from "bullmq";
 import { z } from "zod";
 import { models } from "@/models";
-import { config } from "@/lib/config";
 import { getObjectBytes } from "@/lib/storage";
 import type { AnalysisJob } from "@/lib/queue";
-import { ENGINE_VERSION, SpectrumFileError, analyzeSpectrum, parseSpectrumFile, type AnalysisOptions, type ParsedSpectrum, type Technique } from "@/lib/engine";
+import { ENGINE_VERSION, SpectrumFileError, analyzeSpectrum, type AnalysisOptions, type ParsedSpectrum } from "@/lib/engine";
 import { columnChoice } from "@/lib/ingest/parameters";
+import { parseRawBytes, parsedRawFile } from "@/lib/rawSpectra";
 import { loadRun, markRunning, type RunToAnalyse } from "./loadRun";
-import { parsedReference } from "./referenceSpectra";
 import { saveAnalysis, saveFailure } from "./saveAnalysis";
 
 const payloadSchema = z.object({ spectrumId: z.string().uuid(), runId: z.string().uuid() }).strict();
@@ -28,34 +27,21 @@ function engineStep<T>(fileName: string, step: () => T): T {
   }
 }
 
-function parseStored(file: { fileName: string; technique: Technique }, bytes: Uint8Array, column: string | number | undefined): ParsedSpectrum {
-  return engineStep(file.fileName, () =>
-    parseSpectrumFile(file.fileName, bytes, {
-      technique: file.technique,
-      maxBytes: config().UPLOAD_MAX_BYTES,
-      ...(column !== undefined ? { column } : {}),
-    }),
-  );
-}
-
 async function loadReference(run: RunToAnalyse): Promise<ParsedSpectrum | undefined> {
   if (!run.referenceSpectrumId) return undefined;
   const reference = run.reference;
   if (!reference) throw new DataFault(`${run.spectrum.fileName}: its reference spectrum was deleted`);
-  return parsedReference(reference.objectKey, reference.columnChoice, async () => {
-    const bytes = await getObjectBytes(reference.objectKey);
-    try {
-      return parseStored(reference, bytes, columnChoice(reference.columnChoice ?? undefined));
-    } catch (error) {
-      if (error instanceof DataFault) throw new DataFault(`reference spectrum ${error.message}`);
-      throw error;
-    }
-  });
+  try {
+    return await parsedRawFile(reference, columnChoice(reference.columnChoice ?? undefined), (parse) => engineStep(reference.fileName, parse));
+  } catch (error) {
+    if (error instanceof DataFault) throw new DataFault(`reference spectrum ${error.message}`);
+    throw error;
+  }
 }
 
 /**
  * Analyses one run: loads it by id (with its spectrum and reference, one query), fetches the
- * raw file (the reference's comes from a small cache of parsed references), parses, analyses
+ * raw file (the reference's comes parsed from lib/rawSpectra's cache), parses, analyses
  * and saves everything in one statement. Unreadable files fail the run with the engine's
  * message and are not retried; service faults are thrown for a retry with backoff.
  */
@@ -76,7 +62,7 @@ export async function processAnalysis(job: Job<AnalysisJob>): Promise<JobSummary
     await markRunning(runId, spectrumId, startedAt);
     const parameters = run.parameters ?? { technique: spectrum.technique };
     const bytes = await getObjectBytes(spectrum.objectKey);
-    const parsed = parseStored(spectrum, bytes, parameters.column);
+    const parsed = engineStep(spectrum.fileName, () => parseRawBytes(spectrum, bytes, parameters.column));
     const parsedReference = await loadReference(run);
     await job.updateProgress({ stage: "analysing" });
 

@@ -1,7 +1,6 @@
-import { config } from "@/lib/config";
-import { parseSpectrumFile, toEnergyAxis } from "@/lib/engine";
+import { toEnergyAxis } from "@/lib/engine";
 import { columnChoice } from "@/lib/ingest/parameters";
-import { getObjectBytes } from "@/lib/storage";
+import { parsedRawFile } from "@/lib/rawSpectra";
 import { Spectrum, models } from "@/models";
 
 export type Evidence = {
@@ -22,13 +21,7 @@ export type Evidence = {
 const MAX_POINTS = 800;
 
 async function energyArrays(spectrum: Spectrum) {
-  const bytes = await getObjectBytes(spectrum.objectKey);
-  const column = columnChoice(spectrum.columnChoice ?? undefined);
-  const parsed = parseSpectrumFile(spectrum.fileName, bytes, {
-    technique: spectrum.technique,
-    maxBytes: config().UPLOAD_MAX_BYTES,
-    ...(column !== undefined ? { column } : {}),
-  });
+  const parsed = await parsedRawFile(spectrum, columnChoice(spectrum.columnChoice ?? undefined));
   const { energy, signal } = toEnergyAxis(parsed.x, parsed.y, parsed.xUnit, { emission: spectrum.technique === "pl" });
   // Ascending energy.
   const idx = Array.from(energy.keys()).sort((a, b) => energy[a]! - energy[b]!);

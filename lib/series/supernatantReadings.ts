@@ -1,18 +1,16 @@
 // Reads the supernatant spectra linked to the points of a series (and, when asked, a spectrum of
 // each pure dot) at the two wavelengths of a depletion analysis. Values are the measured
-// absorbances of the raw files as they arrived; the parsed arrays are kept per file content, so a
-// person changing a wavelength does not fetch and parse the files again.
+// absorbances of the raw files as they arrived; the parsed files come from lib/rawSpectra's cache,
+// so a person changing a wavelength does not fetch and parse the files again.
 import type { Actor } from "@/lib/auth/actor";
 import { canReadSeries } from "@/lib/auth/access";
-import { config } from "@/lib/config";
 import { selectRows } from "@/lib/db";
-import { SpectrumFileError, parseSpectrumFile } from "@/lib/engine";
+import { SpectrumFileError } from "@/lib/engine";
 import type { ParsedSpectrum } from "@/lib/engine/types";
 import { ApiError } from "@/lib/http/respond";
 import { columnChoice } from "@/lib/ingest/parameters";
 import { getReadableSpectrum } from "@/lib/ingest/queries";
-import { SizedLru } from "@/lib/spectrum-view/lruCache";
-import { getObjectBytes } from "@/lib/storage";
+import { parsedRawFile } from "@/lib/rawSpectra";
 import { Series, models } from "@/models";
 import { ABSORBANCE_READING, readAbsorbanceAt } from "./readAbsorbanceAt";
 import type { AbsorbanceReading, ReadingsQuery, SupernatantReadings } from "./supernatantSchemas";
@@ -20,23 +18,8 @@ import type { AbsorbanceReading, ReadingsQuery, SupernatantReadings } from "./su
 type StoredFile = { id: string; fileName: string; objectKey: string; sha256: string; columnChoice: string | null; pathLengthCm: number | null };
 type Parsed = Pick<ParsedSpectrum, "x" | "y" | "xUnit" | "yUnit" | "pathLengthCm">;
 
-const globalCache = globalThis as unknown as { bandkeepParsedAbsorbance?: SizedLru<Parsed> };
-// The raw bytes under a sha256 never change, so an entry never goes stale.
-const parsedCache = (globalCache.bandkeepParsedAbsorbance ??= new SizedLru<Parsed>(32 * 1024 * 1024, (p) => p.x.length * 16 + 128));
-
 async function parsedOf(file: StoredFile): Promise<Parsed> {
-  const key = `${file.sha256}:${file.columnChoice ?? ""}`;
-  const hit = parsedCache.get(key);
-  if (hit) return hit;
-  const column = columnChoice(file.columnChoice ?? undefined);
-  const parsed = parseSpectrumFile(file.fileName, await getObjectBytes(file.objectKey), {
-    technique: "absorption",
-    maxBytes: config().UPLOAD_MAX_BYTES,
-    ...(column !== undefined ? { column } : {}),
-  });
-  const kept: Parsed = { x: parsed.x, y: parsed.y, xUnit: parsed.xUnit, yUnit: parsed.yUnit, ...(parsed.pathLengthCm !== undefined ? { pathLengthCm: parsed.pathLengthCm } : {}) };
-  parsedCache.set(key, kept);
-  return kept;
+  return parsedRawFile({ fileName: file.fileName, technique: "absorption", objectKey: file.objectKey }, columnChoice(file.columnChoice ?? undefined));
 }
 
 /** One file read at both wavelengths; a file that cannot be read, or lacks a wavelength, says so in `error`. */

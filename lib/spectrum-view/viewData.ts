@@ -5,14 +5,13 @@
 import { Op } from "sequelize";
 import { z } from "zod";
 import type { Actor } from "@/lib/auth/actor";
-import { config } from "@/lib/config";
-import { ENGINE_VERSION, SpectrumFileError, parseSpectrumFile } from "@/lib/engine";
+import { ENGINE_VERSION, SpectrumFileError } from "@/lib/engine";
 import type { AnalysisReport, ParsedSpectrum } from "@/lib/engine/types";
 import { ApiError, notFound } from "@/lib/http/respond";
 import { columnChoice } from "@/lib/ingest/parameters";
 import { getReadableSpectrum } from "@/lib/ingest/queries";
 import { redis } from "@/lib/redis";
-import { getObjectBytes } from "@/lib/storage";
+import { parsedRawFile } from "@/lib/rawSpectra";
 import { AnalysisRun, Spectrum, models } from "@/models";
 import { DISPLAY_AXES, type DisplayAxis } from "./axis";
 import { deriveViewArrays, type ViewArrays } from "./deriveViewArrays";
@@ -91,17 +90,16 @@ export async function getRunReport(runId: string): Promise<AnalysisReport> {
   return row.report as AnalysisReport;
 }
 
-function parseStored(spectrum: Spectrum, bytes: Uint8Array, column: string | number | undefined): ParsedSpectrum {
-  try {
-    return parseSpectrumFile(spectrum.fileName, bytes, {
-      technique: spectrum.technique,
-      maxBytes: config().UPLOAD_MAX_BYTES,
-      ...(column !== undefined ? { column } : {}),
-    });
-  } catch (error) {
-    if (error instanceof SpectrumFileError) throw new ApiError(422, "unreadable", error.message);
-    throw error;
-  }
+/** A stored raw file, parsed (from lib/rawSpectra's cache); an unreadable one is a 422. */
+function parsedStored(spectrum: Spectrum, column: string | number | undefined): Promise<ParsedSpectrum> {
+  return parsedRawFile(spectrum, column, (parse) => {
+    try {
+      return parse();
+    } catch (error) {
+      if (error instanceof SpectrumFileError) throw new ApiError(422, "unreadable", error.message);
+      throw error;
+    }
+  });
 }
 
 const globalCache = globalThis as unknown as {
@@ -129,13 +127,12 @@ export async function viewArraysOf(spectrum: Spectrum, run: ViewRun): Promise<{ 
     pending = (async () => {
       const report = await getRunReport(run.id);
       const params = (run.parameters ?? {}) as { column?: string | number };
-      const [bytes, reference] = await Promise.all([
-        getObjectBytes(spectrum.objectKey),
-        run.referenceSpectrumId ? Spectrum.findByPk(run.referenceSpectrumId) : Promise.resolve(null),
-      ]);
+      const reference = run.referenceSpectrumId ? await Spectrum.findByPk(run.referenceSpectrumId) : null;
       if (run.referenceSpectrumId && !reference) throw new ApiError(409, "reference-missing", "the parent reference of this analysis was deleted.");
-      const sample = parseStored(spectrum, bytes, params.column);
-      const parsedRef = reference ? parseStored(reference, await getObjectBytes(reference.objectKey), columnChoice(reference.columnChoice ?? undefined)) : null;
+      const [sample, parsedRef] = await Promise.all([
+        parsedStored(spectrum, params.column),
+        reference ? parsedStored(reference, columnChoice(reference.columnChoice ?? undefined)) : Promise.resolve(null),
+      ]);
       let arrays: ViewArrays;
       try {
         arrays = deriveViewArrays(report, sample, parsedRef);
