@@ -9,6 +9,8 @@ import { DEMO, DEMO_PASSWORD, url } from "../helpers/app";
 import { demoIds } from "../helpers/demo-ids";
 import { sessionCookie } from "../helpers/session";
 
+// Sources: HTTP status codes as RFC 9110 defines them (200, 404); checksums are sha256 (FIPS 180-4) as
+// recorded at upload; JCAMP-DX 4.24 (McDonald & Wilks, Appl. Spectrosc. 1988) read by jcampconverter.
 // Downloads the export bundle of the demo's shared titration series over HTTP (read
 // only), re-reads it: every sha256 against the manifest, every raw file against the
 // sha256 recorded at upload, every JCAMP-DX with the engine's parser and jcampconverter.

@@ -8,6 +8,7 @@ import { Invitation, Membership, Share, User, models } from "@/models";
 import { createLab, createSeries, uniq } from "../helpers/fixtures";
 import { waitFor } from "../helpers/waitFor";
 
+// Sources: every count checked here is of records this test itself created (known truth of its fixtures).
 // An invitation travels through the SMTP fake; its one-time link creates the account,
 // the collaborator membership and the read-only share; a second use is refused; a
 // revoked share ends access at once.

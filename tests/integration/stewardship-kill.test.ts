@@ -6,6 +6,7 @@ import { RetentionPolicy, Spectrum, Tombstone, models } from "@/models";
 import { createLab } from "../helpers/fixtures";
 import { consistency, storedSpectrum } from "./stewardship-fixtures";
 
+// Sources: every count checked here is of spectra this test itself stored (known truth of its fixtures).
 // SIGKILL a sweep process half way — inside the deletion of its third spectrum, after
 // the object is deleted and before the row's transaction commits — then sweep again
 // and check that no row lacks its object and no deleted row's object remains.

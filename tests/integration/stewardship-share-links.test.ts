@@ -8,6 +8,8 @@ import { url } from "../helpers/app";
 import { addMember, createLab, createSample, createSeries, type Lab } from "../helpers/fixtures";
 import { storedSpectrum } from "./stewardship-fixtures";
 
+// Sources: HTTP status codes as RFC 9110 defines them (200, 404); every other number is a count or
+// value this test itself created (known truth of its fixtures).
 // Read-only share links against the running app, PostgreSQL and the storage fake: the
 // page and raw downloads work while the link is in force and only for what it names;
 // expiry, revocation and unknown tokens are refused at the next request.
