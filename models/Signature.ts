@@ -1,7 +1,10 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
-export const SIGNATURE_KINDS = ["bleach", "new-band", "pl-quench", "shift", "broadening"] as const;
-export type SignatureKind = (typeof SIGNATURE_KINDS)[number];
+import { FLAG_KINDS, type FlagKind, type FlagUnit } from "@/lib/registry/flagKinds";
+
+/** The flag kinds (lib/registry/flagKinds.ts); the database checks them (migrations/0005). */
+export const SIGNATURE_KINDS = FLAG_KINDS;
+export type SignatureKind = FlagKind;
 export const REVIEW_STATES = ["awaiting", "confirmed", "dismissed"] as const;
 export type ReviewState = (typeof REVIEW_STATES)[number];
 
@@ -13,6 +16,10 @@ export class Signature extends Model<InferAttributes<Signature>, InferCreationAt
   declare energyEv: number | null;
   declare fraction: number | null;
   declare shiftMeV: number | null;
+  /** The magnitude in its own unit (any kind); fraction and shiftMeV are kept for older readers. */
+  declare magnitude: CreationOptional<number | null>;
+  declare unit: CreationOptional<FlagUnit | null>;
+  declare uncertainty: CreationOptional<number | null>;
   declare significance: number;
   declare details: CreationOptional<Record<string, unknown>>;
   declare reviewState: CreationOptional<ReviewState>;
@@ -25,10 +32,13 @@ export class Signature extends Model<InferAttributes<Signature>, InferCreationAt
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
         runId: { type: DataTypes.UUID, allowNull: false },
         spectrumId: { type: DataTypes.UUID, allowNull: false },
-        kind: { type: DataTypes.ENUM(...SIGNATURE_KINDS), allowNull: false },
+        kind: { type: DataTypes.TEXT, allowNull: false },
         energyEv: { type: DataTypes.DOUBLE, allowNull: true },
         fraction: { type: DataTypes.DOUBLE, allowNull: true },
         shiftMeV: { type: DataTypes.DOUBLE, allowNull: true, field: "shift_mev" },
+        magnitude: { type: DataTypes.DOUBLE, allowNull: true },
+        unit: { type: DataTypes.TEXT, allowNull: true },
+        uncertainty: { type: DataTypes.DOUBLE, allowNull: true },
         significance: { type: DataTypes.DOUBLE, allowNull: false },
         details: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         reviewState: { type: DataTypes.ENUM(...REVIEW_STATES), allowNull: false, defaultValue: "awaiting" },

@@ -1,7 +1,9 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
-export const TECHNIQUES = ["absorption", "pl", "ir"] as const;
-export type Technique = (typeof TECHNIQUES)[number];
+import { TECHNIQUES, type Technique } from "@/lib/registry/techniques";
+
+/** The techniques (lib/registry/techniques.ts); the database checks them (migrations/0005). */
+export { TECHNIQUES, type Technique };
 export const SPECTRUM_STATUSES = ["received", "queued", "analysing", "analysed", "failed"] as const;
 export type SpectrumStatus = (typeof SPECTRUM_STATUSES)[number];
 
@@ -48,7 +50,7 @@ export class Spectrum extends Model<InferAttributes<Spectrum>, InferCreationAttr
         seriesValue: optionalNumber(),
         referenceSpectrumId: { type: DataTypes.UUID, allowNull: true },
         supernatantOfSpectrumId: { type: DataTypes.UUID, allowNull: true },
-        technique: { type: DataTypes.ENUM(...TECHNIQUES), allowNull: false },
+        technique: { type: DataTypes.TEXT, allowNull: false },
         fileName: { type: DataTypes.TEXT, allowNull: false },
         objectKey: { type: DataTypes.TEXT, allowNull: false, unique: true },
         sha256: { type: DataTypes.CHAR(64), allowNull: false },

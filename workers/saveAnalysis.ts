@@ -46,6 +46,9 @@ function signatureRows(report: AnalysisReport) {
     energy_ev: finiteOrNull(f.energyEv),
     fraction: finiteOrNull(f.fraction),
     shift_mev: finiteOrNull(f.shiftMeV),
+    magnitude: finiteOrNull(f.magnitude),
+    unit: f.unit,
+    uncertainty: finiteOrNull(f.uncertainty),
     significance: significanceOf(f.significance),
     details: {
       message: f.message,
@@ -80,10 +83,11 @@ new_peaks AS (
          jsonb_to_recordset($2::jsonb) AS p(energy_ev float8, wavelength_nm float8, height float8, fwhm_mev float8, area float8, is_first_exciton boolean)
 ),
 new_signatures AS (
-  INSERT INTO signatures (run_id, spectrum_id, kind, energy_ev, fraction, shift_mev, significance, details)
-  SELECT t.id, t.spectrum_id, s.kind::signature_kind, s.energy_ev, s.fraction, s.shift_mev, s.significance, s.details
+  INSERT INTO signatures (run_id, spectrum_id, kind, energy_ev, fraction, shift_mev, magnitude, unit, uncertainty, significance, details)
+  SELECT t.id, t.spectrum_id, s.kind, s.energy_ev, s.fraction, s.shift_mev, s.magnitude, s.unit, s.uncertainty, s.significance, s.details
     FROM target t,
-         jsonb_to_recordset($3::jsonb) AS s(kind text, energy_ev float8, fraction float8, shift_mev float8, significance float8, details jsonb)
+         jsonb_to_recordset($3::jsonb) AS s(kind text, energy_ev float8, fraction float8, shift_mev float8, magnitude float8, unit text,
+                                            uncertainty float8, significance float8, details jsonb)
 ),
 finished AS (
   UPDATE analysis_runs r

@@ -1,4 +1,6 @@
 import { ENGINE_VERSION } from './version';
+import { DEFAULT_THRESHOLDS } from '../registry/flagKinds';
+import { TECHNIQUE_SPECS } from '../registry/techniques';
 import { HC_EV_NM } from './constants';
 import { processSpectrum, spectrumToEnergy, type ProcessedSpectrum } from './processSpectrum';
 import { chooseSmoothingWindow } from './signal/chooseSmoothingWindow';
@@ -21,15 +23,8 @@ import type {
   Technique,
 } from './types';
 
-/** Default thresholds (common practice; see docs/analysis-json.md). */
-export const DEFAULT_THRESHOLDS: Readonly<AnalysisThresholds> = {
-  minSignificance: 5,
-  minBleachFraction: 0.05,
-  minQuenchFraction: 0.1,
-  minShiftMeV: 3,
-  minBroadeningFraction: 0.1,
-  minNewBandFraction: 0.03,
-};
+/** Default thresholds (common practice; see docs/analysis-json.md): one per flag kind, from the registry. */
+export { DEFAULT_THRESHOLDS };
 
 function summary(s: ParsedSpectrum): SpectrumSummary {
   return { fileName: s.fileName, columnName: s.columnName, points: s.x.length, xUnit: s.xUnit, yUnit: s.yUnit, xMin: s.x[0]!, xMax: s.x[s.x.length - 1]! };
@@ -96,14 +91,14 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
   let max = 0;
   const sSignal = se.signal;
   for (let i = 0; i < sSignal.length; i++) max = Math.max(max, Math.abs(sSignal[i]!));
-  const ir = technique === 'ir';
-  const baseWindow = chooseSmoothingWindow(n, stepEv, { targetSpanEv: ir ? 0.003 : 0.025 });
+  const spans = TECHNIQUE_SPECS[technique];
+  const baseWindow = chooseSmoothingWindow(n, stepEv, { targetSpanEv: spans.smoothingSpanMeV / 1000 });
   // noise of the sample on the analysis grid (estimated once; processSpectrum reuses it)
   const gridded = resampleUniform(se.energy, se.signal, from, to, n);
   const sampleNoise = estimateCorrelatedNoise(gridded.y, { maxBlockLength: baseWindow });
   const snr = max / Math.max(sampleNoise.sigma, 1e-300);
-  windowSize ??= chooseSmoothingWindow(n, stepEv, { targetSpanEv: ir ? 0.003 : 0.025, signalToNoise: snr });
-  derivativeWindowSize ??= Math.max(windowSize, chooseSmoothingWindow(n, stepEv, { targetSpanEv: ir ? 0.008 : 0.08, signalToNoise: snr }));
+  windowSize ??= chooseSmoothingWindow(n, stepEv, { targetSpanEv: spans.smoothingSpanMeV / 1000, signalToNoise: snr });
+  derivativeWindowSize ??= Math.max(windowSize, chooseSmoothingWindow(n, stepEv, { targetSpanEv: spans.derivativeSpanMeV / 1000, signalToNoise: snr }));
   for (const [name, w] of [['smoothingWindow', windowSize], ['derivativeWindow', derivativeWindowSize]] as const) {
     if (!Number.isInteger(w) || w < 5 || w % 2 === 0 || w > n) {
       throw new RangeError(`${name} must be an odd integer from 5 to the number of grid points`);
@@ -112,7 +107,7 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
   if (!Number.isInteger(polynomial) || polynomial < 2 || polynomial >= windowSize) {
     throw new RangeError('smoothingPolynomial must be an integer from 2 to smoothingWindow - 1');
   }
-  const baseline = options.baseline ?? (technique === 'absorption' ? 'offset' : 'none');
+  const baseline = options.baseline ?? TECHNIQUE_SPECS[technique].baseline;
   const normalization: Normalization = options.normalization ?? { mode: 'none' };
   let factor = 1;
   if (normalization.mode === 'concentration') {

@@ -1,4 +1,5 @@
 import { HC_EV_NM } from './constants';
+import { TECHNIQUE_SPECS } from '../registry/techniques';
 import { toEnergyAxis } from './axis/toEnergyAxis';
 import { resampleUniform } from './axis/resampleUniform';
 import { savitzkyGolayFilter, savitzkyGolayQuadraticBank } from './signal/savitzkyGolayFilter';
@@ -53,7 +54,7 @@ export function spectrumToEnergy(s: ParsedSpectrum, technique: Technique): { ene
     warnings.push(`${s.fileName}: %T converted to absorbance, A = 2 − log10(%T)`);
     if (clipped) warnings.push(`${s.fileName}: ${clipped} point(s) with %T ≤ 0 clipped before conversion`);
   }
-  const emission = technique === 'pl' && s.yUnit === 'counts';
+  const emission = TECHNIQUE_SPECS[technique].jacobian && s.yUnit === 'counts';
   const { energy, signal } = toEnergyAxis(s.x, y, s.xUnit, { emission });
   return { energy, signal, warnings };
 }
@@ -133,7 +134,7 @@ export function processSpectrum(
   const guard = (Math.max(w, wd) - 1) / 2;
   // local noise: the same estimator on ±max(64, 6w) points around each candidate
   const local = { raw, smoothingGain: savitzkyGolayNoiseGain(w, p, 0), halfWidth: 6 * w, maxBlockLength: w };
-  const peakOpts = { sigmaSmoothed, sigmaSecondDerivative, minSignificance: o.minSignificance, edgeGuard: guard, exclude, local, minRelativeAmplitude: o.technique === 'pl' ? 0.01 : 0 };
+  const peakOpts = { sigmaSmoothed, sigmaSecondDerivative, minSignificance: o.minSignificance, edgeGuard: guard, exclude, local, minRelativeAmplitude: TECHNIQUE_SPECS[o.technique].minRelativePeakAmplitude };
   let peaks = findExcitonicPeaks(g.x, smoothed, secondDerivative, peakOpts);
   let first = pickFirstExciton(peaks, smoothed, o.technique);
   let baselineApplied = false;
@@ -194,8 +195,9 @@ export function processSpectrum(
  * 2 % of the largest signal (common practice); for PL, the strongest emission maximum; none for IR.
  */
 export function pickFirstExciton(peaks: ExcitonicPeak[], smoothed: Float64Array, technique: Technique): ExcitonicPeak | null {
-  if (technique === 'ir' || peaks.length === 0) return null;
-  if (technique === 'pl') {
+  const policy = TECHNIQUE_SPECS[technique].firstExciton;
+  if (policy === 'none' || peaks.length === 0) return null;
+  if (policy === 'emission-maximum') {
     let best: ExcitonicPeak | null = null;
     for (const p of peaks) if (p.kind === 'maximum' && (!best || p.height > best.height)) best = p;
     return best ?? peaks.reduce((a, b) => (b.amplitude > a.amplitude ? b : a));

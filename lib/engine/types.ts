@@ -1,6 +1,11 @@
+import type { AnalysisThresholds, FlagKind, FlagUnit } from '../registry/flagKinds';
+import type { Technique } from '../registry/techniques';
+
 export type XUnit = 'nm' | 'um' | 'cm-1' | 'eV';
 export type YUnit = 'absorbance' | 'percent-transmittance' | 'counts';
-export type Technique = 'absorption' | 'pl' | 'ir';
+// Kinds, techniques and thresholds are written once, in lib/registry; re-exported here so the
+// engine's imports keep working.
+export type { AnalysisThresholds, FlagKind, FlagUnit, Technique };
 export type MaterialName = 'CdSe' | 'CdTe' | 'CdS' | 'PbS' | 'PbSe';
 
 export interface ParseOptions {
@@ -48,20 +53,6 @@ export interface ParsedSpectrum {
   warnings: string[];
 }
 
-export interface AnalysisThresholds {
-  /** Smallest significance (magnitude / standard uncertainty) for any flag or peak. Default 5. */
-  minSignificance: number;
-  /** Smallest bleach fraction flagged. Default 0.05. */
-  minBleachFraction: number;
-  /** Smallest PL quench fraction flagged. Default 0.10. */
-  minQuenchFraction: number;
-  /** Smallest |shift| flagged, meV. Default 3. */
-  minShiftMeV: number;
-  /** Smallest relative FWHM change flagged. Default 0.10. */
-  minBroadeningFraction: number;
-  /** Smallest new-band height, as a fraction of the reference's first-exciton (or maximum) signal. Default 0.03. */
-  minNewBandFraction: number;
-}
 
 export type Normalization =
   | { mode: 'none' }
@@ -112,8 +103,6 @@ export interface PeakReport {
   significance: number;
 }
 
-export type FlagKind = 'bleach' | 'new-band' | 'pl-quench' | 'shift' | 'broadening';
-
 export interface FlagReport {
   kind: FlagKind;
   energyEv: number | null;
@@ -121,9 +110,9 @@ export interface FlagReport {
   fraction: number | null;
   shiftMeV: number | null;
   fwhmChangeMeV: number | null;
-  /** The flag's magnitude in its own unit (fraction, meV, or signal units). */
+  /** The flag's magnitude in its own unit (fraction, meV, signal units or a dimensionless ratio). */
   magnitude: number;
-  unit: 'fraction' | 'meV' | 'signal';
+  unit: FlagUnit;
   /** Standard uncertainty of magnitude, from the noise estimate. */
   uncertainty: number;
   /** |magnitude| / uncertainty. */

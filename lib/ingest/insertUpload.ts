@@ -13,7 +13,7 @@ WITH spectrum AS (
   INSERT INTO spectra (project_id, sample_id, series_id, series_value, reference_spectrum_id, technique, file_name, object_key,
                        sha256, size_bytes, content_type, column_choice, path_length_cm, excitation_nm, solvent, material,
                        status, uploaded_by)
-  VALUES ($1, $2, $3, $4, $5, $6::technique, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, 'queued', $17)
+  VALUES ($1, $2, $3, $4, $5, $6::text, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, 'queued', $17)
   RETURNING id
 ),
 run AS (

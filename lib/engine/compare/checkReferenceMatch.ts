@@ -1,4 +1,5 @@
 import type { Technique } from '../types';
+import { TECHNIQUE_SPECS } from '../../registry/techniques';
 
 /** What the match check needs to know of one spectrum (sample or its parent reference). */
 export interface MatchSide {
@@ -51,7 +52,7 @@ export function checkReferenceMatch(sample: MatchSide, reference: MatchSide): Ma
   const toleranceMeV = Math.max(widest, MIN_BAND_TOLERANCE_MEV);
   const distanceMeV = Math.abs(sample.bandEv - reference.bandEv) * 1000;
   if (distanceMeV > toleranceMeV) {
-    const what = sample.technique === 'pl' ? 'emission maxima' : sample.technique === 'ir' ? 'main bands' : 'first excitons';
+    const what = TECHNIQUE_SPECS[sample.technique].firstBandsWord;
     return {
       ok: false,
       reason: `the reference does not match this sample: ${what} ${sample.bandEv.toFixed(3)} eV vs ${reference.bandEv.toFixed(3)} eV (${distanceMeV.toFixed(0)} meV apart, more than ${toleranceMeV.toFixed(0)} meV)`,

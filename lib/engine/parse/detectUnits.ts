@@ -1,4 +1,5 @@
 import type { Technique, XUnit, YUnit } from '../types';
+import { TECHNIQUE_SPECS } from '../../registry/techniques';
 
 /** Reads an X unit from header or metadata text; undefined when none is stated. */
 export function detectXUnit(text: string): XUnit | undefined {
@@ -31,7 +32,7 @@ export function detectTechniqueFromName(fileName: string): Technique | undefined
 
 /** Y unit implied by a technique when nothing else states it. */
 export function yUnitForTechnique(technique: Technique): YUnit {
-  return technique === 'pl' ? 'counts' : 'absorbance';
+  return TECHNIQUE_SPECS[technique].defaultYUnit;
 }
 
 /** Technique guessed from the units. */

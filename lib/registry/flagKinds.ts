@@ -1,0 +1,141 @@
+// The flag kinds the engine raises, written once. The TypeScript union, the zod and OpenAPI
+// enums, the threshold names, defaults, bounds and form fields, the labels, marker colours and
+// the database's CHECK constraint all derive from FLAG_KIND_SPECS (see lib/registry/derive.ts).
+// Plain data and pure functions only: the engine (lib/engine) imports this module.
+
+import { keysOf, mapOf, thresholdDefaultsOf, thresholdSpecsOf, type ThresholdNameOf } from "./derive";
+
+/** Units of a flag's magnitude as the engine reports it. */
+export const FLAG_UNITS = ["fraction", "meV", "signal", "ratio"] as const;
+export type FlagUnit = (typeof FLAG_UNITS)[number];
+
+/** Unit of a threshold as a person types it. */
+export type ThresholdUnit = "fraction" | "meV" | "sigma";
+
+export interface ThresholdSpec {
+  /** The name in AnalysisThresholds, the API's `thresholds` object and the re-run form. */
+  name: string;
+  /** Label of the form field. */
+  label: string;
+  default: number;
+  /** Accepted values lie in (min, max]: every threshold is positive. */
+  min: number;
+  max: number;
+  unit: ThresholdUnit;
+}
+
+export interface KindSpec {
+  /** What the review queue, the viewer and mails call the kind. */
+  label: string;
+  /** Marker and swatch colour in the viewer (our own palette). */
+  colour: string;
+  /** Unit of the magnitude the engine reports for this kind. */
+  unit: FlagUnit;
+  /** Write a "+" before a positive magnitude (a direction matters: shifts, width changes). */
+  signed: boolean;
+  /** Word written after the magnitude ("FWHM"), if any. */
+  suffix?: string;
+  threshold: ThresholdSpec;
+  /** A series chart can plot this kind's magnitude point by point. */
+  seriesPlot: boolean;
+  /** One line for the docs and the OpenAPI description. */
+  description: string;
+}
+
+/** Thresholds that belong to no one kind. */
+export const GENERAL_THRESHOLDS = {
+  minSignificance: { name: "minSignificance", label: "Least significance (σ)", default: 5, min: 0, max: 1000, unit: "sigma" },
+} as const satisfies Record<string, ThresholdSpec>;
+
+export const FLAG_KIND_SPECS = {
+  bleach: {
+    label: "Exciton bleach",
+    colour: "#b7791f",
+    unit: "fraction",
+    signed: false,
+    threshold: { name: "minBleachFraction", label: "Least bleach (fraction)", default: 0.05, min: 0, max: 1, unit: "fraction" },
+    seriesPlot: true,
+    description: "the first-exciton band lost a fraction of its height that a change of concentration does not explain",
+  },
+  "new-band": {
+    label: "New band",
+    colour: "#2f8a5b",
+    unit: "signal",
+    signed: false,
+    threshold: { name: "minNewBandFraction", label: "Least new band (fraction of 1st exciton)", default: 0.03, min: 0, max: 1, unit: "fraction" },
+    seriesPlot: true,
+    description: "a band absent from the reference appeared (height in signal units)",
+  },
+  "pl-quench": {
+    label: "PL quench",
+    colour: "#7c3aed",
+    unit: "fraction",
+    signed: false,
+    threshold: { name: "minQuenchFraction", label: "Least PL quench (fraction)", default: 0.1, min: 0, max: 1, unit: "fraction" },
+    seriesPlot: true,
+    description: "the integrated emission fell by a fraction, after the absorbed-light and inner-filter corrections",
+  },
+  shift: {
+    label: "Exciton shift",
+    colour: "#0e7490",
+    unit: "meV",
+    signed: true,
+    threshold: { name: "minShiftMeV", label: "Least shift (meV)", default: 3, min: 0, max: 1000, unit: "meV" },
+    seriesPlot: true,
+    description: "the first exciton (or emission maximum) moved; negative is a red shift",
+  },
+  broadening: {
+    label: "Broadening",
+    colour: "#be185d",
+    unit: "meV",
+    signed: true,
+    suffix: "FWHM",
+    threshold: { name: "minBroadeningFraction", label: "Least broadening (fraction)", default: 0.1, min: 0, max: 1, unit: "fraction" },
+    seriesPlot: true,
+    description: "the first-exciton (or emission) FWHM changed; negative is a narrowing",
+  },
+  concentration: {
+    label: "Concentration ratio",
+    colour: "#475569",
+    unit: "ratio",
+    signed: false,
+    threshold: { name: "minConcentrationChange", label: "Least concentration change (|ratio − 1|)", default: 0.05, min: 0, max: 1, unit: "fraction" },
+    seriesPlot: true,
+    description: "the sample/reference concentration ratio found when the reference is scaled to the sample (never a bleach)",
+  },
+  "band-change": {
+    label: "Band changed",
+    colour: "#9a3412",
+    unit: "fraction",
+    signed: true,
+    threshold: { name: "minBandChangeFraction", label: "Least band change (fraction)", default: 0.2, min: 0, max: 10, unit: "fraction" },
+    seriesPlot: false,
+    description: "a band present in the reference grew or shrank: sample/reference band ratio − 1",
+  },
+} as const satisfies Record<string, KindSpec>;
+
+export type FlagKind = keyof typeof FLAG_KIND_SPECS;
+
+/** Every kind, in the registry's order (lists, filters, the database check). */
+export const FLAG_KINDS = keysOf(FLAG_KIND_SPECS);
+
+/** Names of every analysis threshold: the general ones, then one per kind. */
+export type ThresholdName = ThresholdNameOf<typeof GENERAL_THRESHOLDS, typeof FLAG_KIND_SPECS>;
+
+/** The engine's thresholds: one number per name. */
+export type AnalysisThresholds = Record<ThresholdName, number>;
+
+/** Every threshold's spec, general ones first, in registry order. */
+export const THRESHOLD_SPECS = thresholdSpecsOf(GENERAL_THRESHOLDS, FLAG_KIND_SPECS);
+export const THRESHOLD_NAMES = THRESHOLD_SPECS.map((t) => t.name) as [ThresholdName, ...ThresholdName[]];
+
+/** Default thresholds (common practice; see docs/analysis-json.md). */
+export const DEFAULT_THRESHOLDS: Readonly<AnalysisThresholds> = Object.freeze(thresholdDefaultsOf(THRESHOLD_SPECS));
+
+export const KIND_LABELS: Readonly<Record<FlagKind, string>> = mapOf(FLAG_KIND_SPECS, "label");
+export const FLAG_COLOURS: Readonly<Record<FlagKind, string>> = mapOf(FLAG_KIND_SPECS, "colour");
+
+/** Narrows a stored or received kind; unknown text is not a kind. */
+export function isFlagKind(k: string): k is FlagKind {
+  return Object.hasOwn(FLAG_KIND_SPECS, k);
+}

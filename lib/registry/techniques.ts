@@ -1,0 +1,131 @@
+// The measurement techniques, written once. The TypeScript union, the upload and API enums, the
+// database's CHECK constraint, labels, the viewer's default axis, the JCAMP-DX data type, the
+// engine's per-technique defaults and the cautions shown all read from TECHNIQUE_SPECS, so code
+// asks "does the Jacobian apply?" instead of "is this PL?".
+// Plain data only: the engine (lib/engine) imports this module.
+
+import { keysOf, mapOf } from "./derive";
+
+/** What a technique's bands are (labels in BAND_ROLE_LABELS). */
+export type BandRole = "excitonic-transition" | "emission-band" | "vibrational-band" | "intraband-candidate";
+
+export const BAND_ROLE_LABELS: Readonly<Record<BandRole, string>> = {
+  "excitonic-transition": "Excitonic transition",
+  "emission-band": "Emission band",
+  "vibrational-band": "Vibrational band",
+  "intraband-candidate": "Intraband candidate",
+};
+
+/** Cautions a technique calls for (texts in lib/hazards.ts). */
+export type TechniqueCaution = "uv-laser-light";
+
+export interface TechniqueSpec {
+  /** Full name (upload form, exports). */
+  label: string;
+  /** Short name for tables. */
+  shortLabel: string;
+  /** The viewer's default axis: wavelength for electronic spectra, wavenumber for vibrational ones. */
+  defaultAxis: "nm" | "cm-1";
+  /** Order in which the trade usually draws the default axis. */
+  defaultDirection: "ascending" | "descending";
+  /** Signal is a density per unit of the axis (emission counts), so the energy Jacobian applies when the axis changes (Mooney & Kambhampati, J. Phys. Chem. Lett. 2013, 4, 3316). */
+  jacobian: boolean;
+  /** Y unit assumed when the file states none. */
+  defaultYUnit: "absorbance" | "counts";
+  /** Word for the values in exports. */
+  valueWord: "absorbance" | "counts";
+  /** What its bands are called. */
+  bandRole: BandRole;
+  /** What "the first band" of a spectrum is: the lowest-energy excitonic peak, the emission maximum, or none. */
+  firstExciton: "lowest-energy-peak" | "emission-maximum" | "none";
+  /** How the first band's comparison is worded ("first exciton", "emission", "main band"). */
+  firstBandWord: string;
+  /** Plural used when two spectra's first bands are compared. */
+  firstBandsWord: string;
+  /** Span of the default smoothing window, meV (common practice: well under a band's width). */
+  smoothingSpanMeV: number;
+  /** Span of the default window for first and second derivatives, meV (common practice). */
+  derivativeSpanMeV: number;
+  /** Baseline treatment when none is asked for. */
+  baseline: "offset" | "none";
+  /** JCAMP-DX ##DATA TYPE (McDonald & Wilks, Appl. Spectrosc. 1988, 42, 151). */
+  jcampDataType: string;
+  /** Smallest relative amplitude a peak must have to be reported (emission: 1 % of the maximum, common practice). */
+  minRelativePeakAmplitude: number;
+  cautions: readonly TechniqueCaution[];
+}
+
+export const TECHNIQUE_SPECS = {
+  absorption: {
+    label: "UV-Vis-NIR absorption",
+    shortLabel: "Absorption",
+    defaultAxis: "nm",
+    defaultDirection: "ascending",
+    jacobian: false,
+    defaultYUnit: "absorbance",
+    valueWord: "absorbance",
+    bandRole: "excitonic-transition",
+    firstExciton: "lowest-energy-peak",
+    firstBandWord: "first exciton",
+    firstBandsWord: "first excitons",
+    smoothingSpanMeV: 25,
+    derivativeSpanMeV: 80,
+    baseline: "offset",
+    jcampDataType: "UV/VIS SPECTRUM",
+    minRelativePeakAmplitude: 0,
+    cautions: [],
+  },
+  pl: {
+    label: "Photoluminescence",
+    shortLabel: "PL emission",
+    defaultAxis: "nm",
+    defaultDirection: "ascending",
+    jacobian: true,
+    defaultYUnit: "counts",
+    valueWord: "counts",
+    bandRole: "emission-band",
+    firstExciton: "emission-maximum",
+    firstBandWord: "emission",
+    firstBandsWord: "emission maxima",
+    smoothingSpanMeV: 25,
+    derivativeSpanMeV: 80,
+    baseline: "none",
+    jcampDataType: "FLUORESCENCE SPECTRUM",
+    minRelativePeakAmplitude: 0.01,
+    cautions: ["uv-laser-light"],
+  },
+  ir: {
+    label: "Mid-IR absorption",
+    shortLabel: "Mid-IR",
+    defaultAxis: "cm-1",
+    defaultDirection: "descending",
+    jacobian: false,
+    defaultYUnit: "absorbance",
+    valueWord: "absorbance",
+    bandRole: "vibrational-band",
+    firstExciton: "none",
+    firstBandWord: "main band",
+    firstBandsWord: "main bands",
+    smoothingSpanMeV: 3,
+    derivativeSpanMeV: 8,
+    baseline: "none",
+    jcampDataType: "INFRARED SPECTRUM",
+    minRelativePeakAmplitude: 0,
+    cautions: [],
+  },
+} as const satisfies Record<string, TechniqueSpec>;
+
+export type Technique = keyof typeof TECHNIQUE_SPECS;
+
+export const TECHNIQUES = keysOf(TECHNIQUE_SPECS);
+export const TECHNIQUE_LABELS: Readonly<Record<Technique, string>> = mapOf(TECHNIQUE_SPECS, "label");
+export const TECHNIQUE_SHORT_LABELS: Readonly<Record<Technique, string>> = mapOf(TECHNIQUE_SPECS, "shortLabel");
+
+/** The spec of a stored or received technique; undefined for text that is not a technique. */
+export function techniqueSpec(t: string): TechniqueSpec | undefined {
+  return Object.hasOwn(TECHNIQUE_SPECS, t) ? TECHNIQUE_SPECS[t as Technique] : undefined;
+}
+
+export function isTechnique(t: string): t is Technique {
+  return Object.hasOwn(TECHNIQUE_SPECS, t);
+}
