@@ -1,3 +1,5 @@
+import { techniqueSpec } from "@/lib/registry/techniques";
+
 // Hazard cautions shown where samples are registered and displayed. Bandkeep does not
 // assess risk: it points people to their institution's rules.
 
@@ -43,4 +45,10 @@ export function hazardsOf(sample: { material: string; coreShell?: string; solven
 /** The stored hazard class: the most serious flag's code, or "none". */
 export function hazardClassOf(sample: { material: string; coreShell?: string; solvent?: string }): string {
   return hazardsOf(sample)[0]?.code ?? "none";
+}
+
+/** True when the technique calls for the UV and laser light caution (lib/registry/techniques.ts). */
+export function usesUvOrLaserLight(technique: string): boolean {
+  const spec = techniqueSpec(technique);
+  return spec !== undefined && spec.cautions.includes("uv-laser-light");
 }

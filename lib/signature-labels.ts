@@ -1,7 +1,2 @@
-export const KIND_LABELS: Record<string, string> = {
-  bleach: "Exciton bleach",
-  "new-band": "New band",
-  "pl-quench": "PL quench",
-  shift: "Exciton shift",
-  broadening: "Broadening",
-};
+// What people call each flag kind: written once in the flag-kind registry.
+export { KIND_LABELS } from "@/lib/registry/flagKinds";

@@ -8,11 +8,12 @@ import { readFileSync, statSync } from 'node:fs';
 import { basename } from 'node:path';
 import { analyzeSpectrum, parseSpectrumFile, SpectrumFileError, isMaterialName, DEFAULT_MAX_BYTES } from '../lib/engine/index';
 import type { AnalysisOptions, ParseOptions, Technique } from '../lib/engine/index';
+import { TECHNIQUES, isTechnique } from '../lib/registry/techniques';
 
 class UsageError extends Error {}
 
 const USAGE =
-  'usage: analyze SAMPLE [--reference REF] [--technique absorption|pl|ir] [--material CdSe|CdTe|CdS|PbS|PbSe] [--path-length-cm L] [--excitation-nm N] [--column NAME|INDEX] [--reference-column NAME|INDEX] [--sizing yu2003|jasieniak2009]';
+  `usage: analyze SAMPLE [--reference REF] [--technique ${TECHNIQUES.join('|')}] [--material CdSe|CdTe|CdS|PbS|PbSe] [--path-length-cm L] [--excitation-nm N] [--column NAME|INDEX] [--reference-column NAME|INDEX] [--sizing yu2003|jasieniak2009]`;
 
 function parseArgs(argv: string[]) {
   const positional: string[] = [];
@@ -55,7 +56,9 @@ function readBytes(path: string): Uint8Array {
 function main(): void {
   const { sample, opts } = parseArgs(process.argv.slice(2));
   const technique = opts['technique'] as Technique | undefined;
-  if (technique && !['absorption', 'pl', 'ir'].includes(technique)) throw new UsageError(`--technique must be absorption, pl or ir, got "${technique}"`);
+  if (technique && !isTechnique(technique)) {
+    throw new UsageError(`--technique must be ${TECHNIQUES.slice(0, -1).join(', ')} or ${TECHNIQUES[TECHNIQUES.length - 1]}, got "${technique}"`);
+  }
   const material = opts['material'];
   if (material !== undefined && !isMaterialName(material)) throw new UsageError(`--material must be CdSe, CdTe, CdS, PbS or PbSe, got "${material}"`);
   const sizing = opts['sizing'];

@@ -68,11 +68,11 @@ export function ReviewQueueTable({ items, headers }: { items: ReviewItem[]; head
               {optimistic.map((i) => (
                 <tr key={i.id} className="border-t border-stone-100 hover:bg-stone-50" data-signature-id={i.id}>
                   <td className="px-2 py-1.5">
-                    <input type="checkbox" name="signatureIds" value={i.id} aria-label={`Select ${KIND_LABELS[i.kind] ?? i.kind} in ${i.fileName}`}
+                    <input type="checkbox" name="signatureIds" value={i.id} aria-label={`Select ${KIND_LABELS[i.kind]} in ${i.fileName}`}
                       checked={selected.includes(i.id)}
                       onChange={(e) => setSelected((s) => (e.target.checked ? [...s, i.id] : s.filter((x) => x !== i.id)))} />
                   </td>
-                  <td className="whitespace-nowrap px-2 py-1.5 font-medium"><Link className="text-glow-deep hover:underline" href={`/review/${i.id}`}>{KIND_LABELS[i.kind] ?? i.kind}</Link></td>
+                  <td className="whitespace-nowrap px-2 py-1.5 font-medium"><Link className="text-glow-deep hover:underline" href={`/review/${i.id}`}>{KIND_LABELS[i.kind]}</Link></td>
                   <td className="px-2 py-1.5">{i.significance.toFixed(1)}σ</td>
                   <td className="whitespace-nowrap px-2 py-1.5">{magnitudeText(i)}{i.energyEv !== null && <span className="block text-xs text-ink-faint">{i.energyEv.toFixed(3)} eV</span>}</td>
                   <td className="max-w-48 truncate px-2 py-1.5"><Link className="hover:underline" href={`/spectra/${i.spectrumId}`}>{i.fileName}</Link></td>

@@ -212,7 +212,7 @@ export function SpectrumChart({
           <div className="pointer-events-none absolute inset-0">
             {/* peaks first, flags after: a flag paints over a peak at nearly the same place and gets the pointer */}
             {[...placed.filter((q) => q.group === "peak"), ...placed.filter((q) => q.group === "flag")].map((m) => {
-              const colour = m.group === "flag" ? (FLAG_COLOURS[m.kind] ?? "#b7791f") : PEAK_COLOUR;
+              const colour = m.kind !== "peak" && m.kind !== "first-exciton" ? FLAG_COLOURS[m.kind] : PEAK_COLOUR;
               const on = active === m.id;
               return (
                 <button

@@ -3,11 +3,11 @@
 import { useCallback, useMemo, useState } from "react";
 import useSWR from "swr";
 import { StatusBadge } from "@/components/ui/StatusBadge";
-import { KIND_LABELS } from "@/lib/signature-labels";
+import { formatFlagMagnitude } from "@/lib/format/quantity";
+import { FLAG_COLOURS, KIND_LABELS } from "@/lib/registry/flagKinds";
 import { AXIS_LABELS, DISPLAY_AXES, energyToAxis, type DisplayAxis } from "@/lib/spectrum-view/axis";
 import { decodeColumns } from "@/lib/spectrum-view/columnsFormat";
 import { payloadFromColumns, type SpectrumDataPayload } from "@/lib/spectrum-view/payload";
-import { FLAG_COLOURS } from "./markerStyle";
 import { SpectrumChart } from "./SpectrumChart";
 import type { FlagRow, Marker, PeakRow } from "./types";
 
@@ -23,13 +23,7 @@ async function fetchData(url: string): Promise<SpectrumDataPayload> {
 
 const num = (v: number | null | undefined, digits: number) => (v === null || v === undefined || !Number.isFinite(v) ? "—" : v.toFixed(digits));
 
-function magnitude(f: FlagRow): string {
-  if (f.kind === "shift") return f.shiftMeV === null ? "—" : `${f.shiftMeV > 0 ? "+" : ""}${f.shiftMeV.toFixed(1)} meV`;
-  if (f.kind === "broadening") return f.fwhmChangeMeV === null ? (f.fraction === null ? "—" : `${(f.fraction * 100).toFixed(1)} %`) : `+${f.fwhmChangeMeV.toFixed(1)} meV FWHM`;
-  if (f.fraction !== null) return `${(f.fraction * 100).toFixed(1)} %`;
-  if (f.magnitude !== null) return `${f.magnitude.toPrecision(3)}${f.unit === "meV" ? " meV" : ""}`;
-  return "—";
-}
+const magnitude = (f: FlagRow): string => formatFlagMagnitude(f);
 
 function position(energyEv: number | null, axis: DisplayAxis): string {
   if (energyEv === null || !(energyEv > 0)) return "—";
@@ -71,10 +65,10 @@ export function SpectrumViewer({
     () => [
       ...flags.filter((f) => f.energyEv !== null && f.energyEv > 0).map((f) => ({
         id: f.id, group: "flag" as const, kind: f.kind, energyEv: f.energyEv!,
-        label: `${KIND_LABELS[f.kind] ?? f.kind} at ${position(f.energyEv, axis)}, ${magnitude(f)}, ${num(f.significance, 1)}σ`,
+        label: `${KIND_LABELS[f.kind]} at ${position(f.energyEv, axis)}, ${magnitude(f)}, ${num(f.significance, 1)}σ`,
       })),
       ...peaks.map((p) => ({
-        id: p.id, group: "peak" as const, kind: p.isFirstExciton ? "first-exciton" : "peak", energyEv: p.energyEv,
+        id: p.id, group: "peak" as const, kind: p.isFirstExciton ? ("first-exciton" as const) : ("peak" as const), energyEv: p.energyEv,
         label: `${p.isFirstExciton ? "First exciton" : "Peak"} at ${position(p.energyEv, axis)}`,
       })),
     ],
@@ -162,11 +156,11 @@ export function SpectrumViewer({
                   title={f.message ?? undefined}
                 >
                   <td className="px-4 py-1.5 font-medium">
-                    <span className="mr-1.5 inline-block h-2.5 w-2.5 rounded-sm align-middle" style={{ background: FLAG_COLOURS[f.kind] ?? "#b7791f" }} aria-hidden />
-                    {KIND_LABELS[f.kind] ?? f.kind}{f.intraband ? " (intraband)" : ""}
+                    <span className="mr-1.5 inline-block h-2.5 w-2.5 rounded-sm align-middle" style={{ background: FLAG_COLOURS[f.kind] }} aria-hidden />
+                    {KIND_LABELS[f.kind]}{f.intraband ? " (intraband)" : ""}
                   </td>
                   <td className="px-4 py-1.5">{position(f.energyEv, axis)}</td>
-                  <td className="px-4 py-1.5">{magnitude(f)}{f.uncertainty !== null && f.unit === "fraction" ? <span className="text-ink-faint"> ± {(f.uncertainty * 100).toFixed(1)} %</span> : null}</td>
+                  <td className="px-4 py-1.5">{formatFlagMagnitude(f, { withUncertainty: true })}</td>
                   <td className="px-4 py-1.5">{num(f.significance, 1)}σ</td>
                   <td className="px-4 py-1.5"><StatusBadge status={f.reviewState} /></td>
                 </tr>

@@ -1,11 +1,5 @@
-// Our own marker colours: flags by kind (drawn from the palette), peaks in a quiet ink.
-export const FLAG_COLOURS: Record<string, string> = {
-  bleach: "#b7791f",
-  "new-band": "#2f8a5b",
-  "pl-quench": "#7c3aed",
-  shift: "#0e7490",
-  broadening: "#be185d",
-};
+// Our own marker colours: flags by kind (from the flag-kind registry), peaks in a quiet ink.
+export { FLAG_COLOURS } from "@/lib/registry/flagKinds";
 export const PEAK_COLOUR = "#8a93a3";
 
 export const SERIES_STYLE = {

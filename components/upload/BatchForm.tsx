@@ -1,6 +1,7 @@
 "use client";
 
 import { Field, inputClass } from "@/components/forms/Field";
+import { TECHNIQUE_LABELS } from "@/lib/registry/techniques";
 import { HazardNotice } from "@/components/ui/HazardNotice";
 import { hazardsOf } from "@/lib/hazards";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "@/lib/ingest/metadata";
@@ -16,7 +17,6 @@ export const EMPTY_VALUES: BatchValues = {
   pathLengthCm: "1", excitationNm: "", solvent: "", column: "", material: "",
 };
 
-const TECHNIQUE_LABELS: Record<string, string> = { absorption: "UV-Vis-NIR absorption", pl: "Photoluminescence", ir: "Mid-IR absorption" };
 
 type Props = {
   choices: UploadChoices;

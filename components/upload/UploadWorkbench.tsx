@@ -3,7 +3,7 @@
 import { useCallback, useMemo, useRef, useState } from "react";
 import { ingestMetadataSchema } from "@/lib/ingest/metadata";
 import type { UploadChoices } from "@/lib/ingest/queries";
-import { LIGHT_CAUTION } from "@/lib/hazards";
+import { LIGHT_CAUTION, usesUvOrLaserLight } from "@/lib/hazards";
 import { BatchForm, EMPTY_VALUES, type BatchValues } from "./BatchForm";
 import type { PickedFile } from "./collectFiles";
 import { DropZone } from "./DropZone";
@@ -104,7 +104,7 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
       <section aria-labelledby="batch-heading" className="rounded-xl border border-stone-200 bg-white p-5">
         <h2 id="batch-heading" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-soft">Describe the batch</h2>
         <BatchForm choices={choices} values={values} errors={errors} disabled={busy} onChange={setValues} />
-        {values.technique === "pl" && <p className="mt-3 text-xs text-caution">{LIGHT_CAUTION}</p>}
+        {usesUvOrLaserLight(values.technique) && <p className="mt-3 text-xs text-caution">{LIGHT_CAUTION}</p>}
       </section>
 
       <DropZone onFiles={addFiles} disabled={busy} />

@@ -1,10 +1,13 @@
 import { z } from "zod";
+import { TECHNIQUES } from "@/lib/registry/techniques";
+import { registryEnum } from "@/lib/registry/schemas";
 
 // The metadata that travels with an upload, checked with the same schema in the
 // browser form, the HTTP API and the seed script. Every field arrives as a string from
 // multipart forms, so numbers are coerced and an empty string means "not given".
 
-export const INGEST_TECHNIQUES = ["absorption", "pl", "ir"] as const;
+/** The techniques an upload may name (lib/registry/techniques.ts). */
+export const INGEST_TECHNIQUES = TECHNIQUES;
 export const INGEST_MATERIALS = ["CdSe", "CdTe", "CdS", "PbS", "PbSe"] as const;
 
 const blankToUndefined = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);
@@ -43,7 +46,7 @@ export const ingestMetadataSchema = z
     projectId: z.preprocess(blankToUndefined, z.string({ error: "choose a project" }).trim().uuid("projectId must be an id (UUID)")),
     technique: z.preprocess(
       blankToUndefined,
-      z.enum(INGEST_TECHNIQUES, { error: "technique must be one of absorption, pl, ir" }),
+      registryEnum("technique", INGEST_TECHNIQUES),
     ),
     sampleId: optionalId("sampleId"),
     referenceSpectrumId: optionalId("referenceSpectrumId"),

@@ -1,4 +1,5 @@
 import { ENGINE_VERSION } from "@/lib/engine/version";
+import { FLAG_KINDS, FLAG_UNITS, THRESHOLD_SPECS } from "@/lib/registry/flagKinds";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "./metadata";
 import { MAX_CONCENTRATION_RATIO, NORMALIZATION_WAVELENGTH_NM } from "./normalization";
 
@@ -179,7 +180,7 @@ export function openApiDocument() {
         get: readOperation("listReviewQueue", "Signatures in the groups the caller leads, filtered, sorted and paged (see docs/api.md)", [
           queryParam("project", "Project id", { type: "string", format: "uuid" }),
           queryParam("sample", "Sample id", { type: "string", format: "uuid" }),
-          queryParam("kind", "Kind of change", { type: "string", enum: ["bleach", "new-band", "pl-quench", "shift", "broadening"] }),
+          queryParam("kind", "Kind of change", { type: "string", enum: [...FLAG_KINDS] }),
           queryParam("state", "Review state", { type: "string", enum: ["awaiting", "confirmed", "dismissed", "all"] }),
           queryParam("minSignificance", "Smallest significance (σ)", { type: "number" }),
           queryParam("from", "Flagged on or after (YYYY-MM-DD)", { type: "string", format: "date" }),
@@ -316,8 +317,10 @@ export function openApiDocument() {
               items: {
                 type: "object",
                 properties: {
-                  id: { type: "string" }, kind: { type: "string", enum: ["bleach", "new-band", "pl-quench", "shift", "broadening"] },
-                  energyEv: nullable("number"), fraction: nullable("number"), shiftMeV: nullable("number"), significance: { type: "number" },
+                  id: { type: "string" }, kind: { type: "string", enum: [...FLAG_KINDS] },
+                  energyEv: nullable("number"), fraction: nullable("number"), shiftMeV: nullable("number"),
+                  magnitude: nullable("number", { description: "the flag's size in its unit" }), unit: { type: ["string", "null"], enum: [...FLAG_UNITS, null] },
+                  uncertainty: nullable("number", { description: "standard uncertainty of magnitude" }), significance: { type: "number" },
                   reviewState: { type: "string" }, message: nullable("string"),
                 },
               },
@@ -379,7 +382,11 @@ export function openApiDocument() {
             column: { type: ["string", "integer", "null"] }, material: { type: ["string", "null"], enum: [...INGEST_MATERIALS, null] },
             pathLengthCm: nullable("number"), excitationNm: nullable("number"), smoothingWindow: nullable("integer"),
             smoothingPolynomial: nullable("integer"), baseline: { type: ["string", "null"], enum: ["none", "offset", "scatter", null] },
-            thresholds: { type: "object" },
+            thresholds: {
+              type: "object",
+              additionalProperties: false,
+              properties: Object.fromEntries(THRESHOLD_SPECS.map((t) => [t.name, { type: "number", exclusiveMinimum: t.min, maximum: t.max, default: t.default, description: t.label }])),
+            },
             normalization: { oneOf: [ref("Normalization"), { type: "null" }] },
             referenceSpectrumId: nullable("string", { format: "uuid" }),
           },

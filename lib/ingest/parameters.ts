@@ -2,6 +2,8 @@ import { sha256Hex } from "@/lib/hash";
 import { z } from "zod";
 import { canonicalJson } from "./canonicalJson";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "./metadata";
+import { THRESHOLD_NAMES, THRESHOLD_SPECS, type ThresholdName } from "@/lib/registry/flagKinds";
+import { thresholdsSchemaOf } from "@/lib/registry/schemas";
 import { normalizationSchema, type NormalizationParameter } from "./normalization";
 
 /**
@@ -23,10 +25,8 @@ export type AnalysisParameters = {
   normalization?: Exclude<NormalizationParameter, { mode: "none" }>;
 };
 
-export const THRESHOLD_NAMES = [
-  "minSignificance", "minBleachFraction", "minQuenchFraction", "minShiftMeV", "minBroadeningFraction", "minNewBandFraction",
-] as const;
-export type ThresholdName = (typeof THRESHOLD_NAMES)[number];
+/** One threshold per flag kind plus the general ones (lib/registry/flagKinds.ts). */
+export { THRESHOLD_NAMES, type ThresholdName };
 
 /** sha256 of the canonical JSON of the parameters and the reference spectrum id. */
 export function parameterHash(parameters: AnalysisParameters, referenceSpectrumId: string | null): string {
@@ -45,6 +45,8 @@ export function materialFromText(text: string | null | undefined): AnalysisParam
   const core = text.split(/[\/\s,;(]/)[0]?.trim().toLowerCase() ?? "";
   return INGEST_MATERIALS.find((m) => m.toLowerCase() === core);
 }
+
+const thresholdsSchema = thresholdsSchemaOf(THRESHOLD_SPECS);
 
 const positive = (label: string) => z.number({ error: `${label} must be a number` }).positive(`${label} must be positive`);
 
@@ -65,7 +67,7 @@ export const reanalysisSchema = z
       .optional(),
     smoothingPolynomial: z.number().int().min(1).max(6).nullable().optional(),
     baseline: z.enum(["none", "offset", "scatter"]).nullable().optional(),
-    thresholds: z.object(Object.fromEntries(THRESHOLD_NAMES.map((n) => [n, positive(n).optional()]))).strict().optional(),
+    thresholds: thresholdsSchema.optional(),
     normalization: normalizationSchema.nullable().optional(),
     referenceSpectrumId: z.string().uuid("referenceSpectrumId must be an id (UUID)").nullable().optional(),
   })

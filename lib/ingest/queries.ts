@@ -11,7 +11,8 @@ export const isId = (s: string) => UUID.test(s);
 
 export type PeakView = { energyEv: number; wavelengthNm: number; height: number; fwhmMeV: number | null; area: number | null; firstExciton: boolean };
 export type FlagView = {
-  id: string; kind: string; energyEv: number | null; fraction: number | null; shiftMeV: number | null; significance: number;
+  id: string; kind: string; energyEv: number | null; fraction: number | null; shiftMeV: number | null;
+  magnitude: number | null; unit: string | null; uncertainty: number | null; significance: number;
   reviewState: string; message: string | null;
 };
 export type AnalysisView = {
@@ -68,7 +69,8 @@ async function analysisView(run: AnalysisRun): Promise<AnalysisView> {
     })),
     firstExciton: fe ? { energyEv: fe.energyEv, wavelengthNm: fe.wavelengthNm, fwhmMeV: fe.fwhmMeV } : null,
     flags: signatures.map((f) => ({
-      id: f.id, kind: f.kind, energyEv: f.energyEv, fraction: f.fraction, shiftMeV: f.shiftMeV, significance: f.significance,
+      id: f.id, kind: f.kind, energyEv: f.energyEv, fraction: f.fraction, shiftMeV: f.shiftMeV,
+      magnitude: f.magnitude, unit: f.unit, uncertainty: f.uncertainty, significance: f.significance,
       reviewState: f.reviewState, message: typeof f.details?.message === "string" ? f.details.message : null,
     })),
     derived: report?.derived ?? null,

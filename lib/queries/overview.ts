@@ -1,4 +1,5 @@
 import { selectRows } from "@/lib/db";
+import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
 import { memberGroupIds } from "@/lib/auth/access";
 import { models } from "@/models";
@@ -8,7 +9,7 @@ export type Overview = {
   awaitingSignatures: number;
   samples: number;
   series: number;
-  recentSignatures: { id: string; kind: string; significance: number; spectrumId: string; fileName: string; createdAt: string }[];
+  recentSignatures: { id: string; kind: FlagKind; significance: number; spectrumId: string; fileName: string; createdAt: string }[];
 };
 
 export async function getOverview(actor: Actor): Promise<Overview | null> {
@@ -28,7 +29,7 @@ export async function getOverview(actor: Actor): Promise<Overview | null> {
          (SELECT count(*) FROM samples WHERE group_id IN (:groupIds)) AS samples,
          (SELECT count(*) FROM series r JOIN projects p ON p.id = r.project_id WHERE p.group_id IN (:groupIds)) AS series`, replacements,
     ),
-    selectRows<{ id: string; kind: string; significance: number; spectrum_id: string; file_name: string; created_at: Date }>(
+    selectRows<{ id: string; kind: FlagKind; significance: number; spectrum_id: string; file_name: string; created_at: Date }>(
       `SELECT g.id, g.kind, g.significance, g.spectrum_id, s.file_name, g.created_at
        FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
        WHERE p.group_id IN (:groupIds) ORDER BY g.created_at DESC LIMIT 8`, replacements,

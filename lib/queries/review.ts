@@ -1,11 +1,15 @@
 import { selectRows } from "@/lib/db";
+import type { Technique } from "@/lib/registry/techniques";
+import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
 import { roleIn } from "@/lib/auth/access";
 import type { QueueQuery } from "@/lib/review/schemas";
 import { models } from "@/models";
 
 export type ReviewItem = {
-  id: string; kind: string; energyEv: number | null; fraction: number | null; shiftMeV: number | null; significance: number;
+  id: string; kind: FlagKind; energyEv: number | null; fraction: number | null; shiftMeV: number | null; significance: number;
+  /** The magnitude in its own unit, whatever the kind (migrations/0005). */
+  magnitude: number | null; unit: string | null; uncertainty: number | null;
   reviewState: string; spectrumId: string; fileName: string; sampleId: string | null; sampleName: string | null;
   projectId: string; projectName: string; createdAt: string; lastDecisionAt: string | null;
 };
@@ -22,7 +26,8 @@ export type ReviewQueue = {
 };
 
 type Row = {
-  id: string; kind: string; energy_ev: number | null; fraction: number | null; shift_mev: number | null; significance: number;
+  id: string; kind: FlagKind; energy_ev: number | null; fraction: number | null; shift_mev: number | null; significance: number;
+  magnitude: number | null; unit: string | null; uncertainty: number | null;
   review_state: string; spectrum_id: string; file_name: string; sample_id: string | null; sample_name: string | null;
   project_id: string; project_name: string; created_at: Date; last_decision_at: Date | null;
 };
@@ -30,7 +35,7 @@ type Row = {
 const ORDER: Record<QueueQuery["sort"], string> = {
   significance: "g.significance",
   date: "g.created_at",
-  kind: "g.kind::text",
+  kind: "g.kind",
   project: "p.name",
   sample: "sm.name",
 };
@@ -40,6 +45,7 @@ export const leadGroupIds = (actor: Actor) => actor.memberships.filter((m) => m.
 function toItem(r: Row): ReviewItem {
   return {
     id: r.id, kind: r.kind, energyEv: r.energy_ev, fraction: r.fraction, shiftMeV: r.shift_mev, significance: r.significance,
+    magnitude: r.magnitude, unit: r.unit, uncertainty: r.uncertainty,
     reviewState: r.review_state, spectrumId: r.spectrum_id, fileName: r.file_name, sampleId: r.sample_id, sampleName: r.sample_name,
     projectId: r.project_id, projectName: r.project_name, createdAt: new Date(r.created_at).toISOString(),
     lastDecisionAt: r.last_decision_at ? new Date(r.last_decision_at).toISOString() : null,
@@ -72,7 +78,7 @@ export async function listReviewQueue(actor: Actor, q: QueueQuery): Promise<Revi
   const [countRow] = await selectRows<{ n: string }>(`SELECT count(*) AS n ${from}`, params);
   const total = Number(countRow?.n ?? 0);
   const rows = await selectRows<Row>(
-    `SELECT g.id, g.kind, g.energy_ev, g.fraction, g.shift_mev, g.significance, g.review_state, g.spectrum_id, s.file_name,
+    `SELECT g.id, g.kind, g.energy_ev, g.fraction, g.shift_mev, g.magnitude, g.unit, g.uncertainty, g.significance, g.review_state, g.spectrum_id, s.file_name,
             s.sample_id, sm.name AS sample_name, p.id AS project_id, p.name AS project_name, g.created_at,
             (SELECT max(v.created_at) FROM reviews v WHERE v.signature_id = g.id) AS last_decision_at
      ${from} ORDER BY ${ORDER[q.sort]} ${dir} NULLS LAST, g.created_at DESC, g.id LIMIT :limit OFFSET :offset`,
@@ -95,17 +101,16 @@ export type SignatureReview = ReviewItem & {
   mayDecide: boolean;
   referenceSpectrumId: string | null;
   referenceFileName: string | null;
-  technique: string;
+  technique: Technique;
   message: string | null;
-  uncertainty: number | null;
   history: ReviewHistoryEntry[];
 };
 
 /** One signature with its decision history, for members of the owning group; null otherwise. */
 export async function getSignatureReview(actor: Actor, id: string): Promise<SignatureReview | null> {
   models();
-  const [r] = await selectRows<Row & { group_id: string; reference_spectrum_id: string | null; reference_file_name: string | null; technique: string; details: Record<string, unknown> }>(
-    `SELECT g.id, g.kind, g.energy_ev, g.fraction, g.shift_mev, g.significance, g.review_state, g.spectrum_id, s.file_name,
+  const [r] = await selectRows<Row & { group_id: string; reference_spectrum_id: string | null; reference_file_name: string | null; technique: Technique; details: Record<string, unknown> }>(
+    `SELECT g.id, g.kind, g.energy_ev, g.fraction, g.shift_mev, g.magnitude, g.unit, g.uncertainty, g.significance, g.review_state, g.spectrum_id, s.file_name,
             s.sample_id, sm.name AS sample_name, p.id AS project_id, p.name AS project_name, g.created_at, p.group_id,
             run.reference_spectrum_id, rs.file_name AS reference_file_name, s.technique, g.details,
             (SELECT max(v.created_at) FROM reviews v WHERE v.signature_id = g.id) AS last_decision_at
@@ -130,7 +135,6 @@ export async function getSignatureReview(actor: Actor, id: string): Promise<Sign
     referenceFileName: r.reference_file_name,
     technique: r.technique,
     message: typeof details.message === "string" ? details.message : null,
-    uncertainty: typeof details.uncertainty === "number" ? details.uncertainty : null,
     history: history.map((h) => ({ id: h.id, decision: h.decision, comment: h.comment, reviewerName: h.reviewer_name, createdAt: new Date(h.created_at).toISOString() })),
   };
 }

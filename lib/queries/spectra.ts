@@ -1,4 +1,5 @@
 import { Op, type WhereOptions } from "sequelize";
+import type { Technique } from "@/lib/registry/techniques";
 import type { Actor } from "@/lib/auth/actor";
 import { readableScope } from "@/lib/auth/access";
 import { Project, Sample, Spectrum } from "@/models";
@@ -6,7 +7,7 @@ import { Project, Sample, Spectrum } from "@/models";
 export type SpectrumRow = {
   id: string;
   fileName: string;
-  technique: string;
+  technique: Technique;
   status: string;
   errorMessage: string | null;
   sampleName: string | null;

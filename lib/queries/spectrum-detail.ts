@@ -1,4 +1,6 @@
 import { selectRows } from "@/lib/db";
+import type { Technique } from "@/lib/registry/techniques";
+import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadSpectrum, canWrite, groupOfSpectrum } from "@/lib/auth/access";
 import { hazardsOf, type HazardFlag } from "@/lib/hazards";
@@ -13,7 +15,7 @@ export type RunSummary = {
 export type SpectrumDetail = {
   id: string;
   fileName: string;
-  technique: string;
+  technique: Technique;
   status: string;
   errorMessage: string | null;
   sha256: string;
@@ -35,7 +37,7 @@ export type SpectrumDetail = {
   shownRun: (RunSummary & { warnings: string[]; derived: Record<string, unknown> | null; report: ReportParameters | null }) | null;
   peaks: { id: string; energyEv: number; wavelengthNm: number; height: number; fwhmMeV: number | null; area: number | null; isFirstExciton: boolean }[];
   signatures: {
-    id: string; kind: string; energyEv: number | null; wavelengthNm: number | null; fraction: number | null; shiftMeV: number | null;
+    id: string; kind: FlagKind; energyEv: number | null; wavelengthNm: number | null; fraction: number | null; shiftMeV: number | null;
     fwhmChangeMeV: number | null; magnitude: number | null; unit: string | null; uncertainty: number | null; significance: number;
     message: string | null; intraband: boolean; reviewState: string;
   }[];
@@ -147,8 +149,8 @@ export async function getSpectrumDetail(actor: Actor, id: string): Promise<Spect
       const d = (s.details ?? {}) as Record<string, unknown>;
       return {
         id: s.id, kind: s.kind, energyEv: s.energyEv, wavelengthNm: num(d.wavelengthNm), fraction: s.fraction, shiftMeV: s.shiftMeV,
-        fwhmChangeMeV: num(d.fwhmChangeMeV), magnitude: num(d.magnitude), unit: typeof d.unit === "string" ? d.unit : null,
-        uncertainty: num(d.uncertainty), significance: s.significance, message: typeof d.message === "string" ? d.message : null,
+        fwhmChangeMeV: num(d.fwhmChangeMeV), magnitude: s.magnitude, unit: s.unit,
+        uncertainty: s.uncertainty, significance: s.significance, message: typeof d.message === "string" ? d.message : null,
         intraband: d.intraband === true, reviewState: s.reviewState,
       };
     }),

@@ -1,4 +1,5 @@
 import { Op } from "sequelize";
+import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
 import { canReview, roleIn } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
@@ -17,7 +18,7 @@ export type DecisionOutcome = {
 };
 
 type Target = {
-  id: string; kind: string; review_state: string; group_id: string; spectrum_id: string; file_name: string;
+  id: string; kind: FlagKind; review_state: string; group_id: string; spectrum_id: string; file_name: string;
   energy_ev: number | null; uploaded_by: string | null;
 };
 

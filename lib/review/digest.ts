@@ -1,4 +1,5 @@
 import { config } from "@/lib/config";
+import type { FlagKind } from "@/lib/registry/flagKinds";
 import { QueryTypes } from "sequelize";
 import { selectRows, sequelize } from "@/lib/db";
 import { sendMail } from "@/lib/mail";
@@ -7,7 +8,7 @@ import { models } from "@/models";
 
 export type DigestSummary = { groups: number; signatures: number; mailed: number };
 
-type Pending = { id: string; kind: string; significance: number; energy_ev: number | null; review_state: string; file_name: string; project_name: string };
+type Pending = { id: string; kind: FlagKind; significance: number; energy_ev: number | null; review_state: string; file_name: string; project_name: string };
 
 /**
  * Mails each group lead who wants it (User.notifyDigest) one digest of the signatures flagged
@@ -42,7 +43,7 @@ export async function runReviewDigest(): Promise<DigestSummary> {
           { replacements: { groupId: group.group_id }, type: QueryTypes.SELECT, transaction },
         );
         const lines = awaiting.map((r) =>
-          `- ${KIND_LABELS[r.kind] ?? r.kind}${r.energy_ev !== null ? ` at ${r.energy_ev.toFixed(3)} eV` : ""}, ${r.significance.toFixed(1)}σ, in ${r.file_name} (${r.project_name})\n  ${base}/review/${r.id}`,
+          `- ${KIND_LABELS[r.kind]}${r.energy_ev !== null ? ` at ${r.energy_ev.toFixed(3)} eV` : ""}, ${r.significance.toFixed(1)}σ, in ${r.file_name} (${r.project_name})\n  ${base}/review/${r.id}`,
         );
         for (const lead of leads) {
           await sendMail(

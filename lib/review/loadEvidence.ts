@@ -1,4 +1,5 @@
 import { toEnergyAxis } from "@/lib/engine";
+import { TECHNIQUE_SPECS } from "@/lib/registry/techniques";
 import { columnChoice } from "@/lib/ingest/parameters";
 import { parsedRawFile } from "@/lib/rawSpectra";
 import { Spectrum, models } from "@/models";
@@ -22,7 +23,7 @@ const MAX_POINTS = 800;
 
 async function energyArrays(spectrum: Spectrum) {
   const parsed = await parsedRawFile(spectrum, columnChoice(spectrum.columnChoice ?? undefined));
-  const { energy, signal } = toEnergyAxis(parsed.x, parsed.y, parsed.xUnit, { emission: spectrum.technique === "pl" });
+  const { energy, signal } = toEnergyAxis(parsed.x, parsed.y, parsed.xUnit, { emission: TECHNIQUE_SPECS[spectrum.technique].jacobian });
   // Ascending energy.
   const idx = Array.from(energy.keys()).sort((a, b) => energy[a]! - energy[b]!);
   return { energy: idx.map((i) => energy[i]!), signal: idx.map((i) => signal[i]!), unit: parsed.yUnit };

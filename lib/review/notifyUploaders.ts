@@ -1,4 +1,5 @@
 import { Op } from "sequelize";
+import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
 import { config } from "@/lib/config";
 import { sendMail } from "@/lib/mail";
@@ -6,7 +7,7 @@ import { KIND_LABELS } from "@/lib/signature-labels";
 import { User, models } from "@/models";
 
 export type DecidedSignature = {
-  signatureId: string; decision: string; previousState: string; kind: string; energyEv: number | null;
+  signatureId: string; decision: string; previousState: string; kind: FlagKind; energyEv: number | null;
   spectrumId: string; fileName: string; uploadedBy: string | null;
 };
 
@@ -22,10 +23,10 @@ export async function notifyUploaders(actor: Actor, decided: DecidedSignature[],
     const mine = decided.filter((d) => d.uploadedBy === person.id);
     const verb = (d: DecidedSignature) => `${d.previousState === "awaiting" ? "" : "revised to "}${d.decision}`;
     const subject = mine.length === 1
-      ? `Bandkeep: ${KIND_LABELS[mine[0]!.kind] ?? mine[0]!.kind} in ${mine[0]!.fileName} ${verb(mine[0]!)}`
+      ? `Bandkeep: ${KIND_LABELS[mine[0]!.kind]} in ${mine[0]!.fileName} ${verb(mine[0]!)}`
       : `Bandkeep: ${mine.length} signatures in your uploads were decided`;
     const lines = mine.map((d) =>
-      `- ${KIND_LABELS[d.kind] ?? d.kind}${d.energyEv !== null ? ` at ${d.energyEv.toFixed(3)} eV` : ""} in ${d.fileName}: ${verb(d)}\n  ${base}/review/${d.signatureId}`,
+      `- ${KIND_LABELS[d.kind]}${d.energyEv !== null ? ` at ${d.energyEv.toFixed(3)} eV` : ""} in ${d.fileName}: ${verb(d)}\n  ${base}/review/${d.signatureId}`,
     );
     const text = [
       `Hello ${person.name},`,

@@ -1,4 +1,5 @@
 import { processSpectrum, spectrumToEnergy, type ProcessOptions } from "@/lib/engine/processSpectrum";
+import { TECHNIQUE_SPECS } from "@/lib/registry/techniques";
 import type { AnalysisReport, ParsedSpectrum } from "@/lib/engine/types";
 
 /** The curves the viewer draws, on the engine's ascending uniform energy grid (eV). */
@@ -55,6 +56,6 @@ export function deriveViewArrays(report: AnalysisReport, sample: ParsedSpectrum,
     smoothed: s.smoothed,
     reference: refSmoothed,
     difference,
-    emission: technique === "pl" && sample.yUnit === "counts",
+    emission: TECHNIQUE_SPECS[technique].jacobian && sample.yUnit === "counts",
   };
 }

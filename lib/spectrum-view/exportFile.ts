@@ -1,4 +1,5 @@
 import { ApiError } from "@/lib/http/respond";
+import { TECHNIQUE_SPECS, type Technique } from "@/lib/registry/techniques";
 import type { AnalysisReport } from "@/lib/engine/types";
 import { toDisplayAxis, type DisplayAxis } from "./axis";
 import type { ViewArrays } from "./deriveViewArrays";
@@ -6,8 +7,8 @@ import { yLabelFor, type SeriesKey } from "./payload";
 import { writeCsv } from "./writeCsv";
 import { resampleLinear, writeJcampDx } from "./writeJcampDx";
 
-type SpectrumRef = { id: string; fileName: string; technique: string };
-type View = { arrays: ViewArrays; technique: string; yUnit: string };
+type SpectrumRef = { id: string; fileName: string; technique: Technique };
+type View = { arrays: ViewArrays; technique: Technique; yUnit: string };
 
 export type ExportRequest =
   | { format: "json"; spectrum: SpectrumRef; runId: string; report: AnalysisReport }
@@ -34,7 +35,7 @@ export function exportFile(req: ExportRequest): ExportedFile {
   }
   const { arrays, technique, yUnit } = req.view;
   const yLabel = yLabelFor(technique, yUnit, arrays.emission, req.axis);
-  const valueWord = arrays.emission || technique === "pl" ? "counts" : "absorbance";
+  const valueWord = arrays.emission ? "counts" : TECHNIQUE_SPECS[technique].valueWord;
   const d = toDisplayAxis(arrays.energyEv, { raw: arrays.raw, smoothed: arrays.smoothed, reference: arrays.reference, difference: arrays.difference }, req.axis, {
     emission: arrays.emission,
   });
@@ -58,7 +59,7 @@ export function exportFile(req: ExportRequest): ExportedFile {
   const fileName = `${base}.${req.series}-${req.axis}.jdx`;
   const body = writeJcampDx({
     title: `${req.spectrum.fileName} (${SERIES_TITLES[req.series]})`,
-    dataType: technique === "ir" ? "INFRARED SPECTRUM" : "UV/VIS SPECTRUM",
+    dataType: TECHNIQUE_SPECS[technique].jcampDataType,
     xUnits: JCAMP_X_UNITS[req.axis],
     yUnits: valueWord === "counts" ? "ARBITRARY UNITS" : "ABSORBANCE",
     x: uniform.x,

@@ -1,4 +1,5 @@
 import { AXIS_LABELS, toDisplayAxis, type DisplayAxis } from "./axis";
+import { TECHNIQUE_SPECS, type Technique } from "@/lib/registry/techniques";
 import type { ViewArrays } from "./deriveViewArrays";
 import { encodeColumns, type Column, type DecodedColumns } from "./columnsFormat";
 import { formatNumber } from "./formatNumber";
@@ -29,14 +30,14 @@ function jsonArray(a: Float64Array, digits: number): string {
   return `${s}]`;
 }
 
-export function yLabelFor(technique: string, yUnit: string, emission: boolean, axis: DisplayAxis): string {
+export function yLabelFor(technique: Technique, yUnit: string, emission: boolean, axis: DisplayAxis): string {
   if (emission) return `Emission (counts per ${AXIS_LABELS[axis].unit})`;
-  if (technique === "pl") return "Emission (as recorded)";
+  if (TECHNIQUE_SPECS[technique].valueWord === "counts") return "Emission (as recorded)";
   if (yUnit === "percent-transmittance") return "Absorbance (from %T)";
   return "Absorbance";
 }
 
-type PayloadMeta = { spectrumId: string; runId: string; technique: string; yUnit: string };
+type PayloadMeta = { spectrumId: string; runId: string; technique: Technique; yUnit: string };
 
 /** The head and curves of the data endpoint on one display axis, before encoding. */
 function displayColumns(arrays: ViewArrays, axis: DisplayAxis, meta: PayloadMeta) {

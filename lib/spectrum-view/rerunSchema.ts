@@ -1,4 +1,7 @@
 import { z } from "zod";
+import { THRESHOLD_SPECS } from "@/lib/registry/flagKinds";
+import { thresholdFieldsOf } from "@/lib/registry/derive";
+import { thresholdSchema } from "@/lib/registry/schemas";
 import { MAX_CONCENTRATION_RATIO, NORMALIZATION_MODES, NORMALIZATION_WAVELENGTH_NM, concentrationRatioInRange } from "@/lib/ingest/normalization";
 
 // The re-run form, parsed with the same schema in the browser (before sending) and in the server
@@ -14,14 +17,8 @@ const numberField = (label: string) =>
     z.number({ error: `${label} must be a number` }).refine(Number.isFinite, `${label} must be a number`).optional(),
   );
 
-export const THRESHOLD_FIELDS = [
-  { name: "minSignificance", label: "Least significance (σ)", hint: "default 5" },
-  { name: "minBleachFraction", label: "Least bleach (fraction)", hint: "default 0.05" },
-  { name: "minQuenchFraction", label: "Least PL quench (fraction)", hint: "default 0.10" },
-  { name: "minShiftMeV", label: "Least shift (meV)", hint: "default 3" },
-  { name: "minBroadeningFraction", label: "Least broadening (fraction)", hint: "default 0.10" },
-  { name: "minNewBandFraction", label: "Least new band (fraction of 1st exciton)", hint: "default 0.03" },
-] as const;
+/** One field per threshold of the flag-kind registry (name, label, default hint, bounds). */
+export const THRESHOLD_FIELDS = thresholdFieldsOf(THRESHOLD_SPECS);
 
 export const rerunFormSchema = z
   .object({
@@ -42,11 +39,7 @@ export const rerunFormSchema = z
     ...Object.fromEntries(
       THRESHOLD_FIELDS.map((f) => [
         f.name,
-        numberField(f.label).pipe(
-          f.name === "minSignificance" || f.name === "minShiftMeV"
-            ? z.number().positive(`${f.label} must be positive`).max(1000, `${f.label} must be at most 1000`).optional()
-            : z.number().positive(`${f.label} must be positive`).max(1, `${f.label} must be at most 1`).optional(),
-        ),
+        numberField(f.label).pipe(thresholdSchema(THRESHOLD_SPECS.find((t) => t.name === f.name)!, f.label).optional()),
       ]),
     ),
     normalizationMode: z.preprocess(blank, z.enum(NORMALIZATION_MODES, { error: "Normalisation must be none, at a wavelength or by concentration" }).optional()),

@@ -3,6 +3,7 @@
 // finished run never changes, so its arrays never go stale; the engine version is in the key so a
 // new engine re-derives.
 import { Op } from "sequelize";
+import type { Technique } from "@/lib/registry/techniques";
 import { z } from "zod";
 import type { Actor } from "@/lib/auth/actor";
 import { ENGINE_VERSION, SpectrumFileError } from "@/lib/engine";
@@ -103,12 +104,12 @@ function parsedStored(spectrum: Spectrum, column: string | number | undefined): 
 }
 
 const globalCache = globalThis as unknown as {
-  bandkeepViewArrays?: SizedLru<{ arrays: ViewArrays; technique: string; yUnit: string }>;
+  bandkeepViewArrays?: SizedLru<{ arrays: ViewArrays; technique: Technique; yUnit: string }>;
   bandkeepViewPayloads?: SizedLru<Buffer>;
-  bandkeepViewInflight?: Map<string, Promise<{ arrays: ViewArrays; technique: string; yUnit: string }>>;
+  bandkeepViewInflight?: Map<string, Promise<{ arrays: ViewArrays; technique: Technique; yUnit: string }>>;
 };
 const MB = 1024 * 1024;
-const arraysCache = (globalCache.bandkeepViewArrays ??= new SizedLru<{ arrays: ViewArrays; technique: string; yUnit: string }>(64 * MB, (v) => v.arrays.energyEv.length * 8 * 5 + 256));
+const arraysCache = (globalCache.bandkeepViewArrays ??= new SizedLru<{ arrays: ViewArrays; technique: Technique; yUnit: string }>(64 * MB, (v) => v.arrays.energyEv.length * 8 * 5 + 256));
 const payloadCache = (globalCache.bandkeepViewPayloads ??= new SizedLru<Buffer>(96 * MB, (b) => b.length));
 const inflight = (globalCache.bandkeepViewInflight ??= new Map());
 const REDIS_TTL_S = 7 * 24 * 3600;
@@ -118,7 +119,7 @@ const payloadKey = (runId: string, axis: DisplayAxis, format: DataFormat) =>
   format === "json" ? `bandkeep:view:v1:${ENGINE_VERSION}:${runId}:${axis}` : `bandkeep:view:v1:${ENGINE_VERSION}:${runId}:${axis}:${format}`;
 
 /** Re-derives (or takes from the in-process cache) the arrays of a finished run. Concurrent callers share one derivation. */
-export async function viewArraysOf(spectrum: Spectrum, run: ViewRun): Promise<{ arrays: ViewArrays; technique: string; yUnit: string }> {
+export async function viewArraysOf(spectrum: Spectrum, run: ViewRun): Promise<{ arrays: ViewArrays; technique: Technique; yUnit: string }> {
   const key = arraysKey(run.id);
   const hit = arraysCache.get(key);
   if (hit) return hit;

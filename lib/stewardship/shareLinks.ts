@@ -5,7 +5,7 @@ import { hashToken } from "@/lib/auth/actor";
 import { canSteward, groupOfTarget, stewardGroupIds } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
 import { selectRows } from "@/lib/db";
-import { hazardsOf, type HazardFlag } from "@/lib/hazards";
+import { hazardsOf, usesUvOrLaserLight, type HazardFlag } from "@/lib/hazards";
 import { Group, Project, Series, Share, Spectrum, models } from "@/models";
 
 // Read-only share links: a random token that names one project or series. Only the
@@ -173,7 +173,7 @@ export async function linkedHazards(type: LinkTargetType, id: string): Promise<{
   for (const r of rows) {
     for (const f of hazardsOf({ material: r.material ?? "", coreShell: r.core_shell ?? "", solvent: r.solvent ?? "" })) if (!flags.has(f.code)) flags.set(f.code, f);
   }
-  return { flags: [...flags.values()], photoluminescence: rows.some((r) => r.technique === "pl") };
+  return { flags: [...flags.values()], photoluminescence: rows.some((r) => usesUvOrLaserLight(r.technique)) };
 }
 
 // --- the steward's list ---

@@ -1,4 +1,5 @@
 import type { Technique, XUnit, YUnit } from "@/lib/engine";
+import { TECHNIQUE_SPECS } from "@/lib/registry/techniques";
 
 export type JcampInput = {
   title: string;
@@ -13,7 +14,6 @@ export type JcampInput = {
   extra?: Record<string, string>;
 };
 
-const DATA_TYPES: Record<Technique, string> = { absorption: "UV/VIS SPECTRUM", pl: "FLUORESCENCE SPECTRUM", ir: "INFRARED SPECTRUM" };
 const X_UNITS: Record<XUnit, string> = { nm: "NANOMETERS", um: "MICROMETERS", "cm-1": "1/CM", eV: "EV" };
 
 const oneLine = (s: string) => s.replace(/[\r\n]+/g, " ").replace(/##/g, "#").trim().slice(0, 200) || "untitled";
@@ -64,7 +64,7 @@ export function writeJcamp(input: JcampInput): string {
   const lines = [
     `##TITLE=${oneLine(input.title)}`,
     "##JCAMP-DX=4.24",
-    `##DATA TYPE=${DATA_TYPES[input.technique]}`,
+    `##DATA TYPE=${TECHNIQUE_SPECS[input.technique].jcampDataType}`,
     `##DATA CLASS=${regular ? "XYDATA" : "PEAK TABLE"}`,
     `##ORIGIN=${oneLine(input.origin)}`,
     `##OWNER=${oneLine(input.owner)}`,

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { TECHNIQUE_SHORT_LABELS } from "@/lib/registry/techniques";
 import Link from "next/link";
 import { requireActor } from "@/lib/auth/actor";
 import { listSpectra } from "@/lib/queries/spectra";
@@ -8,7 +9,6 @@ import { StatusBadge } from "@/components/ui/StatusBadge";
 
 export const metadata: Metadata = { title: "Spectra" };
 
-const TECHNIQUE_LABELS: Record<string, string> = { absorption: "Absorption", pl: "PL emission", ir: "Mid-IR" };
 
 export default async function SpectraPage({ searchParams }: { searchParams: Promise<{ q?: string; status?: string; page?: string }> }) {
   const actor = await requireActor("/spectra");
@@ -42,7 +42,7 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
                 <tr key={s.id} className="border-t border-stone-100 hover:bg-stone-50">
                   <td className="max-w-xs truncate px-3 py-2"><Link className="font-medium text-glow-deep hover:underline" href={`/spectra/${s.id}`}>{s.fileName}</Link>
                     {s.errorMessage && <div className="truncate text-xs text-red-700" title={s.errorMessage}>{s.errorMessage}</div>}</td>
-                  <td className="px-3 py-2">{TECHNIQUE_LABELS[s.technique] ?? s.technique}</td>
+                  <td className="px-3 py-2">{TECHNIQUE_SHORT_LABELS[s.technique]}</td>
                   <td className="px-3 py-2">{s.sampleName ?? "—"}</td>
                   <td className="px-3 py-2 text-ink-soft">{s.projectName}</td>
                   <td className="px-3 py-2"><StatusBadge status={s.status} /></td>

@@ -20,7 +20,7 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
   const sig = /^[0-9a-f-]{36}$/i.test(id) ? await getSignatureReview(actor, id) : null;
   if (!sig) notFound();
   const evidence = await loadEvidence(sig.spectrumId, sig.referenceSpectrumId, sig.energyEv);
-  const label = KIND_LABELS[sig.kind] ?? sig.kind;
+  const label = KIND_LABELS[sig.kind];
   const facts: [string, string][] = [
     ["Magnitude", magnitudeText(sig)],
     ["Energy", sig.energyEv !== null ? `${sig.energyEv.toFixed(3)} eV (${(1239.841984 / sig.energyEv).toFixed(1)} nm)` : "—"],

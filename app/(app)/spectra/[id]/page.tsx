@@ -1,8 +1,9 @@
 import type { Metadata } from "next";
+import { TECHNIQUE_LABELS, TECHNIQUE_SPECS } from "@/lib/registry/techniques";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireActor } from "@/lib/auth/actor";
-import { LIGHT_CAUTION } from "@/lib/hazards";
+import { LIGHT_CAUTION, usesUvOrLaserLight } from "@/lib/hazards";
 import { getSpectrumDetail, type RunSummary } from "@/lib/queries/spectrum-detail";
 import { isDisplayAxis, type DisplayAxis } from "@/lib/spectrum-view/axis";
 import { THRESHOLD_FIELDS } from "@/lib/spectrum-view/rerunSchema";
@@ -54,7 +55,7 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
   const latest = s.latestRun;
   const shown = s.shownRun;
   const p = shown?.report ?? null;
-  const defaultAxis: DisplayAxis = s.technique === "ir" ? "cm-1" : "nm";
+  const defaultAxis: DisplayAxis = TECHNIQUE_SPECS[s.technique].defaultAxis;
   const initialAxis = isDisplayAxis(query.axis) ? query.axis : defaultAxis;
   const inProgress = latest !== null && (latest.status === "queued" || latest.status === "running");
   const hasReference = shown ? shown.referenceSpectrumId !== null : false;
@@ -74,11 +75,11 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
     <>
       <PageHeader
         title={s.fileName}
-        subtitle={<span className="flex items-center gap-2">{s.projectName} · {s.technique === "pl" ? "photoluminescence" : s.technique} <StatusBadge status={s.status} /></span>}
+        subtitle={<span className="flex items-center gap-2">{s.projectName} · {TECHNIQUE_LABELS[s.technique]} <StatusBadge status={s.status} /></span>}
         actions={<a href={`/api/v1/spectra/${s.id}/raw`} className="rounded-md border border-stone-300 bg-white px-3 py-1.5 text-sm hover:bg-stone-50">Download raw file</a>}
       />
       {s.sample && s.sample.hazards.length > 0 && <div className="mb-4"><HazardNotice flags={s.sample.hazards} /></div>}
-      {s.technique === "pl" && (
+      {usesUvOrLaserLight(s.technique) && (
         <p role="note" aria-label="Light safety" className="mb-4 rounded-lg border border-caution/40 bg-caution-soft px-4 py-2 text-sm">
           <span className="font-semibold text-caution">⚠ UV and laser light.</span> {LIGHT_CAUTION} Your institution&apos;s laser safety rules take precedence.
         </p>
