@@ -3,7 +3,7 @@
 // the database's CHECK constraint all derive from FLAG_KIND_SPECS (see lib/registry/derive.ts).
 // Plain data and pure functions only: the engine (lib/engine) imports this module.
 
-import { keysOf, mapOf, thresholdDefaultsOf, thresholdSpecsOf, type ThresholdNameOf } from "./derive";
+import { keysOf, mapOf, thresholdDefaultsOf, thresholdSpecsOf, type KeyOf, type ThresholdNameOf } from "./derive";
 
 /** Units of a flag's magnitude as the engine reports it. */
 export const FLAG_UNITS = ["fraction", "meV", "signal", "ratio"] as const;
@@ -116,26 +116,33 @@ export const FLAG_KIND_SPECS = {
 
 export type FlagKind = keyof typeof FLAG_KIND_SPECS;
 
-/** Every kind, in the registry's order (lists, filters, the database check). */
-export const FLAG_KINDS = keysOf(FLAG_KIND_SPECS);
-
 /** Names of every analysis threshold: the general ones, then one per kind. */
 export type ThresholdName = ThresholdNameOf<typeof GENERAL_THRESHOLDS, typeof FLAG_KIND_SPECS>;
 
 /** The engine's thresholds: one number per name. */
 export type AnalysisThresholds = Record<ThresholdName, number>;
 
-/** Every threshold's spec, general ones first, in registry order. */
-export const THRESHOLD_SPECS = thresholdSpecsOf(GENERAL_THRESHOLDS, FLAG_KIND_SPECS);
-export const THRESHOLD_NAMES = THRESHOLD_SPECS.map((t) => t.name) as [ThresholdName, ...ThresholdName[]];
-
-/** Default thresholds (common practice; see docs/analysis-json.md). */
-export const DEFAULT_THRESHOLDS: Readonly<AnalysisThresholds> = Object.freeze(thresholdDefaultsOf(THRESHOLD_SPECS));
-
-export const KIND_LABELS: Readonly<Record<FlagKind, string>> = mapOf(FLAG_KIND_SPECS, "label");
-export const FLAG_COLOURS: Readonly<Record<FlagKind, string>> = mapOf(FLAG_KIND_SPECS, "colour");
-
-/** Narrows a stored or received kind; unknown text is not a kind. */
-export function isFlagKind(k: string): k is FlagKind {
-  return Object.hasOwn(FLAG_KIND_SPECS, k);
+/** Everything derived from a flag-kind registry; tests call it with an extended registry. */
+export function flagKindRegistry<G extends Record<string, ThresholdSpec>, S extends Record<string, KindSpec>>(general: G, specs: S) {
+  type Kind = KeyOf<S>;
+  type Name = ThresholdNameOf<G, S>;
+  const thresholdSpecs = thresholdSpecsOf(general, specs);
+  return {
+    /** Every kind, in the registry's order (lists, filters, the database check). */
+    FLAG_KINDS: keysOf(specs),
+    /** Every threshold's spec, general ones first, in registry order. */
+    THRESHOLD_SPECS: thresholdSpecs,
+    THRESHOLD_NAMES: thresholdSpecs.map((t) => t.name) as [Name, ...Name[]],
+    /** Default thresholds (common practice; see docs/analysis-json.md). */
+    DEFAULT_THRESHOLDS: Object.freeze(thresholdDefaultsOf(thresholdSpecs)) as Readonly<Record<Name, number>>,
+    KIND_LABELS: mapOf(specs, "label") as Readonly<Record<Kind, string>>,
+    FLAG_COLOURS: mapOf(specs, "colour") as Readonly<Record<Kind, string>>,
+    /** Narrows a stored or received kind; unknown text is not a kind. */
+    isFlagKind: (k: string): k is Kind => Object.hasOwn(specs, k),
+  };
 }
+
+export const { FLAG_KINDS, THRESHOLD_SPECS, THRESHOLD_NAMES, DEFAULT_THRESHOLDS, KIND_LABELS, FLAG_COLOURS, isFlagKind } = flagKindRegistry(
+  GENERAL_THRESHOLDS,
+  FLAG_KIND_SPECS,
+);

@@ -4,7 +4,7 @@
 // asks "does the Jacobian apply?" instead of "is this PL?".
 // Plain data only: the engine (lib/engine) imports this module.
 
-import { keysOf, mapOf } from "./derive";
+import { keysOf, mapOf, type KeyOf } from "./derive";
 
 /** What a technique's bands are (labels in BAND_ROLE_LABELS). */
 export type BandRole = "excitonic-transition" | "emission-band" | "vibrational-band" | "intraband-candidate";
@@ -117,15 +117,17 @@ export const TECHNIQUE_SPECS = {
 
 export type Technique = keyof typeof TECHNIQUE_SPECS;
 
-export const TECHNIQUES = keysOf(TECHNIQUE_SPECS);
-export const TECHNIQUE_LABELS: Readonly<Record<Technique, string>> = mapOf(TECHNIQUE_SPECS, "label");
-export const TECHNIQUE_SHORT_LABELS: Readonly<Record<Technique, string>> = mapOf(TECHNIQUE_SPECS, "shortLabel");
-
-/** The spec of a stored or received technique; undefined for text that is not a technique. */
-export function techniqueSpec(t: string): TechniqueSpec | undefined {
-  return Object.hasOwn(TECHNIQUE_SPECS, t) ? TECHNIQUE_SPECS[t as Technique] : undefined;
+/** Everything derived from a technique registry; tests call it with an extended registry. */
+export function techniqueRegistry<S extends Record<string, TechniqueSpec>>(specs: S) {
+  type Name = KeyOf<S>;
+  return {
+    TECHNIQUES: keysOf(specs),
+    TECHNIQUE_LABELS: mapOf(specs, "label") as Readonly<Record<Name, string>>,
+    TECHNIQUE_SHORT_LABELS: mapOf(specs, "shortLabel") as Readonly<Record<Name, string>>,
+    isTechnique: (t: string): t is Name => Object.hasOwn(specs, t),
+    /** The spec of a stored or received technique; undefined for text that is not a technique. */
+    techniqueSpec: (t: string): TechniqueSpec | undefined => (Object.hasOwn(specs, t) ? specs[t as Name] : undefined),
+  };
 }
 
-export function isTechnique(t: string): t is Technique {
-  return Object.hasOwn(TECHNIQUE_SPECS, t);
-}
+export const { TECHNIQUES, TECHNIQUE_LABELS, TECHNIQUE_SHORT_LABELS, isTechnique, techniqueSpec } = techniqueRegistry(TECHNIQUE_SPECS);
