@@ -3,6 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireActor } from "@/lib/auth/actor";
 import { LIGHT_CAUTION } from "@/lib/hazards";
+import { formatBytes } from "@/lib/format/bytes";
 import { getSpectrumDetail, type RunSummary } from "@/lib/queries/spectrum-detail";
 import { isDisplayAxis, type DisplayAxis } from "@/lib/spectrum-view/axis";
 import { THRESHOLD_FIELDS } from "@/lib/spectrum-view/rerunSchema";
@@ -125,7 +126,7 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
               {s.acquisition.map((a) => (<div key={a.label} className="contents"><dt className="text-ink-soft">{a.label}</dt><dd>{a.value}</dd></div>))}
               <dt className="text-ink-soft">Uploaded</dt><dd>{when(s.createdAt)}</dd>
               <dt className="text-ink-soft">sha256</dt><dd className="truncate font-mono text-xs" title={s.sha256}>{s.sha256}</dd>
-              <dt className="text-ink-soft">Size</dt><dd>{(s.sizeBytes / 1024).toFixed(1)} KiB</dd>
+              <dt className="text-ink-soft">Size</dt><dd>{formatBytes(s.sizeBytes)}</dd>
             </dl>
           </Panel>
           <Panel title="Analysis provenance" testId="provenance">
