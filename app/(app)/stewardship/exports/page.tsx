@@ -22,7 +22,7 @@ export default async function ExportsPage() {
           </li>
         ))}
       </ul>
-      <p className="mt-2 text-xs text-ink-faint">Scripts: GET /api/v1/exports/series/ID or /api/v1/exports/project/ID with a Bearer token. Anyone who may read the series or project may export it.</p>
+      <p className="mt-2 text-xs text-ink-faint">Anyone who may read the series or project may export it; lab scripts can fetch the same bundles through the HTTP API (see the API guide).</p>
     </>
   );
 }
