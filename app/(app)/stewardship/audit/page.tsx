@@ -8,7 +8,7 @@ import { inputClass } from "@/components/forms/Field";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
 
-export const metadata: Metadata = { title: "Audit trail · Stewardship" };
+export const metadata: Metadata = { title: "Audit trail · Data care" };
 
 export default async function AuditPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
   const actor = await requireActor("/stewardship/audit");

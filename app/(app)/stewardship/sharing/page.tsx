@@ -12,7 +12,7 @@ import { inputClass } from "@/components/forms/Field";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { changeRole, inviteMember, removeMember, revokeInvitation, revokeShare, shareWithCollaborator } from "../actions";
 
-export const metadata: Metadata = { title: "Sharing & members · Stewardship" };
+export const metadata: Metadata = { title: "People & sharing · Data care" };
 
 const ROLES = ["spectroscopist", "lead", "steward", "collaborator"] as const;
 
@@ -26,7 +26,7 @@ export default async function SharingPage() {
   ]);
   return (
     <>
-      <PageHeader title="Sharing & members" subtitle="Members of your groups, invitations by e-mail, and read-only shares with collaborators outside the group. Changes take effect at once." />
+      <PageHeader title="People & sharing" subtitle="Members of your groups, invitations by e-mail, and read-only shares with collaborators outside the group. Changes take effect at once." />
       <section className="mb-6 rounded-lg border border-stone-200 bg-white p-4">
         <h2 className="text-base font-semibold">Invite someone</h2>
         <p className="text-sm text-ink-soft">They get an e-mail with a link that works once within 7 days. A collaborator sees only the project or series you choose, read-only.</p>
