@@ -5,4 +5,4 @@ export function magnitudeText(i: FlagMagnitude): string {
   return formatFlagMagnitude(i);
 }
 
-export const dateText = (iso: string) => new Date(iso).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" }) + " UTC";
+export { formatWhen as dateText } from "@/lib/format/dates";
