@@ -1,0 +1,219 @@
+import { solveLinearSystem } from '../signal/solveLinearSystem';
+
+/**
+ * Separates a concentration change and a smooth background from band changes, before any band is
+ * compared: fits S(E) ≈ k·R(E) + k·δ·R'(E) + b₀ + b₁·(E − E_c) + c·(E/E_c)^p on the energies that carry no
+ * claimed band change (the caller's mask: for absorption the continuum well above the band edge,
+ * where absorbance tracks the number of dots rather than their size, plus the transparent region
+ * below the gap, which pins the background).
+ *
+ * Sources and practice: scaling on the high-energy continuum is how concentrations are read from
+ * absorbance (Yu, Qu, Guo & Peng, Chem. Mater. 2003, 15, 2854; Leatherdale et al., J. Phys. Chem.
+ * B 2002, 106, 7619; citations from memory); an offset or a slope from cuvette mismatch and a
+ * scattering tail ∝ λ^−p (p = 4 for small scatterers, flatter for large; Rayleigh) are smooth and
+ * are not bands (common practice).
+ *
+ * The scattering power is chosen among 2, 3 and 4 (p = 1 is the slope) and kept only when it
+ * lowers χ² by at least 25 noise variances (a 5σ improvement for one extra parameter; likelihood
+ * ratio, common practice). The R' term (first-order Taylor shift δ) lets a uniform shift of the
+ * continuum through without biasing k. Local features the smooth model cannot follow (a new band in
+ * the transparent region) are clipped where the caller allows it (`clippable`: the transparent
+ * region, never the continuum k is read from): points where the residual averaged over `clipWindow`
+ * points exceeds 4 standard errors are dropped, with `clipWindow` points either side, and the fit
+ * is repeated (at most 3 times). Linear least squares; k's standard uncertainty from the
+ * covariance with the combined noise σ² = σ_S² + k²σ_R².
+ */
+export interface ConcentrationFit {
+  /** k: sample/reference concentration ratio. */
+  ratio: number;
+  sigmaRatio: number;
+  /** Background on the whole grid (signal units of the sample). */
+  background: Float64Array;
+  /** Background = offset + slope·E + scatter·(E/centreEv)^scatterPower (E in eV). */
+  offset: number;
+  slope: number;
+  centreEv: number;
+  scatter: number;
+  scatterPower: number | null;
+  /** Points used after clipping. */
+  used: number;
+  clipped: number;
+}
+
+const POWERS = [2, 3, 4] as const;
+/** χ² improvement (in noise variances) that a scattering term must bring to be kept. */
+const SCATTER_CHI2_GAIN = 25;
+const CLIP_Z = 4;
+const MAX_CLIP_ROUNDS = 3;
+
+export function fitConcentration(
+  energy: Float64Array,
+  sample: ArrayLike<number>,
+  reference: ArrayLike<number>,
+  referenceSlope: ArrayLike<number>,
+  mask: Uint8Array,
+  o: { sigmaSample: number; sigmaReference: number; clipWindow: number; allowSlopeAndScatter: boolean; clippable: Uint8Array },
+): ConcentrationFit | null {
+  const n = energy.length;
+  if (sample.length !== n || reference.length !== n || mask.length !== n) throw new RangeError('fitConcentration: arrays must share the grid');
+  const use = mask.slice();
+  // centre and scale of the energy columns (conditioning)
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let i = 0; i < n; i++) if (use[i]) {
+    lo = Math.min(lo, energy[i]!);
+    hi = Math.max(hi, energy[i]!);
+  }
+  if (!(hi > lo)) return null;
+  const centre = 0.5 * (lo + hi);
+  const half = 0.5 * (hi - lo);
+  let clipped = 0;
+  let best: { coef: Float64Array; cols: number[]; power: number | null; inv00: number } | null = null;
+  for (let round = 0; round <= MAX_CLIP_ROUNDS; round++) {
+    // one pass: cross-products of the columns [R, 1, u, (E/Ec)^2, (E/Ec)^3, (E/Ec)^4, R'] and S
+    const C = 7;
+    const xtx = new Float64Array(C * C);
+    const xty = new Float64Array(C);
+    let yy = 0;
+    let m = 0;
+    const col = new Float64Array(C);
+    for (let i = 0; i < n; i++) {
+      if (!use[i]) continue;
+      const e = energy[i]!;
+      const t = e / centre;
+      col[0] = reference[i]!;
+      col[1] = 1;
+      col[2] = (e - centre) / half;
+      col[3] = t * t;
+      col[4] = t * t * t;
+      col[5] = t * t * t * t;
+      col[6] = referenceSlope[i]!;
+      const y = sample[i]!;
+      for (let a = 0; a < C; a++) {
+        const ca = col[a]!;
+        xty[a] = xty[a]! + ca * y;
+        for (let b = a; b < C; b++) xtx[a * C + b] = xtx[a * C + b]! + ca * col[b]!;
+      }
+      yy += y * y;
+      m++;
+    }
+    if (m < 16) return null;
+    for (let a = 0; a < C; a++) for (let b = 0; b < a; b++) xtx[a * C + b] = xtx[b * C + a]!;
+    const solve = (cols: number[]) => {
+      const p = cols.length;
+      const A = new Float64Array(p * p);
+      const b = new Float64Array(p);
+      for (let r = 0; r < p; r++) {
+        b[r] = xty[cols[r]!]!;
+        for (let c = 0; c < p; c++) A[r * p + c] = xtx[cols[r]! * C + cols[c]!]!;
+      }
+      const coef = solveLinearSystem(A, b, p);
+      if (!coef.every(Number.isFinite)) return null;
+      let fitted = 0;
+      for (let r = 0; r < p; r++) fitted += coef[r]! * b[r]!;
+      const e0 = new Float64Array(p);
+      e0[0] = 1;
+      const inv00 = solveLinearSystem(A, e0, p)[0]!;
+      return { coef, chi2: yy - fitted, inv00 };
+    };
+    const baseCols = o.allowSlopeAndScatter ? [0, 6, 1, 2] : [0, 6, 1];
+    const base = solve(baseCols);
+    if (!base) return null;
+    const k0 = base.coef[0]!;
+    const noiseVar = o.sigmaSample ** 2 + k0 * k0 * o.sigmaReference ** 2;
+    let chosen: { coef: Float64Array; cols: number[]; power: number | null; inv00: number } = { coef: base.coef, cols: baseCols, power: null, inv00: base.inv00 };
+    if (o.allowSlopeAndScatter) {
+      let bestChi2 = base.chi2;
+      for (const p of POWERS) {
+        const cols = [0, 6, 1, 2, p + 1];
+        const f = solve(cols);
+        if (!f) continue;
+        const scatterPositive = f.coef[4]! > 0;
+        if (scatterPositive && f.chi2 < bestChi2 && base.chi2 - f.chi2 >= SCATTER_CHI2_GAIN * noiseVar) {
+          bestChi2 = f.chi2;
+          chosen = { coef: f.coef, cols, power: p, inv00: f.inv00 };
+        }
+      }
+    }
+    best = chosen;
+    // clip local features the smooth model does not follow
+    const model = (i: number) => {
+      const e = energy[i]!;
+      const t = e / centre;
+      let v = 0;
+      for (let r = 0; r < chosen.cols.length; r++) {
+        const c = chosen.cols[r]!;
+        const x = c === 0 ? reference[i]! : c === 6 ? referenceSlope[i]! : c === 1 ? 1 : c === 2 ? (e - centre) / half : t ** (c - 1);
+        v += chosen.coef[r]! * x;
+      }
+      return v;
+    };
+    if (round === MAX_CLIP_ROUNDS) break;
+    const w = Math.max(1, o.clipWindow);
+    const sigma = Math.sqrt(noiseVar);
+    const resid = new Float64Array(n);
+    for (let i = 0; i < n; i++) if (use[i]) resid[i] = sample[i]! - model(i);
+    // running mean of the residual over w points of each contiguous run of used, clippable points
+    const flag = new Uint8Array(n);
+    let any = false;
+    let runStart = -1;
+    for (let i = 0; i <= n; i++) {
+      if (i < n && use[i] && o.clippable[i]) {
+        if (runStart < 0) runStart = i;
+        continue;
+      }
+      if (runStart < 0) continue;
+      const win = Math.min(w, i - runStart);
+      const limit = (CLIP_Z * sigma) / Math.sqrt(win);
+      let sum = 0;
+      for (let j = runStart; j < runStart + win; j++) sum += resid[j]!;
+      for (let j = runStart; j + win <= i; j++) {
+        if (j > runStart) sum += resid[j + win - 1]! - resid[j - 1]!;
+        if (Math.abs(sum / win) > limit) {
+          any = true;
+          for (let q = Math.max(runStart, j - w); q < Math.min(i, j + win + w); q++) flag[q] = 1;
+        }
+      }
+      runStart = -1;
+    }
+    if (!any) break;
+    let dropped = 0;
+    for (let i = 0; i < n; i++) if (flag[i] && use[i]) {
+      use[i] = 0;
+      dropped++;
+    }
+    if (dropped === 0) break;
+    clipped += dropped;
+  }
+  if (!best) return null;
+  let used = 0;
+  for (let i = 0; i < n; i++) used += use[i]!;
+  const k = best.coef[0]!;
+  if (!(k > 0)) return null;
+  const noiseVar = o.sigmaSample ** 2 + k * k * o.sigmaReference ** 2;
+  const sigmaRatio = Math.sqrt(noiseVar * Math.max(best.inv00, 0));
+  const coefOf = (c: number) => {
+    const j = best.cols.indexOf(c);
+    return j >= 0 ? best.coef[j]! : 0;
+  };
+  const b0 = coefOf(1);
+  const b1 = coefOf(2);
+  const scatter = best.power !== null ? coefOf(best.power + 1) : 0;
+  const background = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const e = energy[i]!;
+    background[i] = b0 + (b1 * (e - centre)) / half + (best.power !== null ? scatter * (e / centre) ** best.power : 0);
+  }
+  return {
+    ratio: k,
+    sigmaRatio,
+    background,
+    offset: b0 - (b1 * centre) / half,
+    slope: b1 / half,
+    centreEv: centre,
+    scatter,
+    scatterPower: best.power,
+    used,
+    clipped,
+  };
+}
