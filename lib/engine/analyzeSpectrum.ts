@@ -52,17 +52,16 @@ const BAND_ROLE: Readonly<Record<Technique, BandRole>> = {
 /**
  * Spans of the smoothing and derivative windows, eV. Defaults (common practice): 25 meV and
  * 80 meV for visible/NIR bands of 60–150 meV FWHM; 3 and 8 meV in the mid-IR. They follow the
- * band when it is narrower: at most a quarter of its FWHM for smoothing and 0.6 of it for the
- * derivatives, so that a 25 meV line is not smoothed into a wider one (a Savitzky–Golay quadratic
- * over ±0.3 FWHM lowers a Gaussian's curvature at its top by ~8 %; computed from the least-squares
- * projection of the quartic term).
+ * band when it is narrower than 100 meV: a quarter of its FWHM for smoothing and 0.8 of it for the
+ * derivatives, so that a 25 meV line is not smoothed into a wider one (the fits then refine the
+ * broadening by convolution, fitShiftBroadening).
  */
 export function followBandWidth(ir: boolean, fwhmMeV: number | null): { smoothingEv: number; derivativeEv: number } {
   const smoothingEv = ir ? 0.003 : 0.025;
   const derivativeEv = ir ? 0.008 : 0.08;
   if (ir || fwhmMeV === null || !(fwhmMeV > 0)) return { smoothingEv, derivativeEv };
   const f = fwhmMeV / 1000;
-  return { smoothingEv: Math.min(smoothingEv, 0.25 * f), derivativeEv: Math.min(derivativeEv, 0.6 * f) };
+  return { smoothingEv: Math.min(smoothingEv, 0.25 * f), derivativeEv: Math.min(derivativeEv, 0.8 * f) };
 }
 
 /**

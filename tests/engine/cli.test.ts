@@ -18,7 +18,7 @@ function run(args: string[]) {
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
-const TOP_FIELDS = ['technique', 'engineVersion', 'sample', 'reference', 'parameters', 'noise', 'peaks', 'firstExciton', 'referenceFirstExciton', 'flags', 'derived', 'warnings'];
+const TOP_FIELDS = ['technique', 'engineVersion', 'sample', 'reference', 'parameters', 'noise', 'peaks', 'firstExciton', 'referenceFirstExciton', 'referenceMatch', 'atmosphericBands', 'flags', 'derived', 'warnings'];
 const FLAG_FIELDS = ['kind', 'energyEv', 'wavelengthNm', 'fraction', 'shiftMeV', 'fwhmChangeMeV', 'magnitude', 'unit', 'uncertainty', 'significance', 'message'];
 
 describe('scripts/analyze.ts', { timeout: 120_000 }, () => {

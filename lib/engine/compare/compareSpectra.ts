@@ -89,8 +89,14 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
     const to = Math.min(n - guard, Math.floor((fx.energyEv + above - E[0]!) / s.step) + 1);
     // S − R noise: raw sample noise plus smoothed reference noise
     const sigmaFit = Math.sqrt(s.sigma ** 2 + r.sigmaSmoothed ** 2);
-    fit = fitShiftBroadening(E, s.raw, r.smoothed, r.firstDerivative, r.secondDerivative, from, to, sigmaFit);
-    if (fit) fitRange = [E[from]!, E[to - 1]!];
+    // the fitted model explains differences over ±1.5 FWHM even where the fit stopped short
+    const wide = Math.max(1.5 * (fx.fwhmMeV / 1000), 6 * s.step);
+    const evaluate = {
+      from: Math.max(guard, Math.min(from, Math.ceil((fx.energyEv - wide - E[0]!) / s.step))),
+      to: Math.min(n - guard, Math.max(to, Math.floor((fx.energyEv + wide - E[0]!) / s.step) + 1)),
+    };
+    fit = fitShiftBroadening(E, s.raw, r.smoothed, r.firstDerivative, r.secondDerivative, from, to, sigmaFit, evaluate);
+    if (fit) fitRange = [E[fit.from]!, E[fit.to - 1]!];
     else warnings.push('shift/broadening fit around the first exciton did not converge');
   }
   if (fit && fx) {
@@ -149,8 +155,9 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
         const k = Math.round((fx.energyEv - E[0]!) / s.step);
         const kk = k - fit.from;
         if (kk >= 0 && kk < fit.model.length) {
-          const noAmp = fit.model[kk]! - fit.alpha * fit.base[kk]!;
-          fraction = (noAmp - s.smoothed[k]!) / Ar;
+          // the reference as the fit moved and broadened it, without amplitude change or offset
+          const followed = fit.model[kk]! - fit.alpha * fit.base[kk]! - fit.offset;
+          fraction = (followed - s.smoothed[k]!) / Ar;
         }
       }
       // noise part, 0.5 % systematic on each of A_s and A_r (SYSTEMATIC_RELATIVE), and the

@@ -13,7 +13,9 @@ export interface ShiftFit {
   broadeningVarianceEv2: number;
   sigmaBroadeningVarianceEv2: number;
   offset: number;
-  /** Model prediction on the window indices [from, to). */
+  /** Coefficient of R'' in the last Taylor step. */
+  gamma: number;
+  /** Model prediction on the indices [from, to) (the evaluation range, which may extend past the fitted window). */
   model: Float64Array;
   /** The (broadened) reference shifted by δ on the window, i.e. the model's part that α scales. */
   base: Float64Array;
@@ -38,22 +40,46 @@ export function fitShiftBroadening(
   from: number,
   to: number,
   noiseSigma: number,
+  evaluate: { from: number; to: number } = { from, to },
 ): ShiftFit | null {
   let fit = fitTaylor(energy, sample, refSmoothed, refD1, refD2, from, to, noiseSigma);
-  if (!fit || !(fit.broadeningVarianceEv2 > 2 * fit.sigmaBroadeningVarianceEv2)) return fit;
-  let total = fit.broadeningVarianceEv2;
+  if (!fit) return null;
   const n = energy.length;
   const step = (energy[n - 1]! - energy[0]!) / (n - 1);
-  for (let round = 0; round < 4; round++) {
-    const margin = Math.ceil(Math.abs(fit.shiftEv) / step) + 2;
-    const blur = (a: Float64Array) => gaussianBlur(a, total, step, Math.max(0, from - margin), Math.min(n, to + margin));
-    const next = fitTaylor(energy, sample, blur(refSmoothed), blur(refD1), blur(refD2), from, to, noiseSigma);
-    if (!next) break;
-    total += next.broadeningVarianceEv2;
-    fit = { ...next, broadeningVarianceEv2: total };
-    if (!(total > 0) || Math.abs(next.broadeningVarianceEv2) < 0.01 * Math.abs(total)) break;
+  let arrays = [refSmoothed, refD2];
+  if (fit.broadeningVarianceEv2 > 2 * fit.sigmaBroadeningVarianceEv2) {
+    let total = fit.broadeningVarianceEv2;
+    for (let round = 0; round < 4; round++) {
+      const margin = Math.ceil(Math.abs(fit.shiftEv) / step) + 2;
+      const a = Math.max(0, Math.min(from, evaluate.from) - margin);
+      const b = Math.min(n, Math.max(to, evaluate.to) + margin);
+      const blur = (y: Float64Array) => gaussianBlur(y, total, step, a, b);
+      const bR = blur(refSmoothed);
+      const bR2 = blur(refD2);
+      const next = fitTaylor(energy, sample, bR, blur(refD1), bR2, from, to, noiseSigma);
+      if (!next) break;
+      total += next.broadeningVarianceEv2;
+      fit = { ...next, broadeningVarianceEv2: total };
+      arrays = [bR, bR2];
+      if (!(total > 0) || Math.abs(next.broadeningVarianceEv2) < 0.01 * Math.abs(total)) break;
+    }
   }
-  return fit;
+  // model and its α-scaled part on the evaluation range
+  const [R, R2] = arrays as [Float64Array, Float64Array];
+  const m = evaluate.to - evaluate.from;
+  const model = new Float64Array(Math.max(m, 0));
+  const base = new Float64Array(Math.max(m, 0));
+  const scale = 1 + fit.alpha;
+  for (let k = 0; k < m; k++) {
+    const t = evaluate.from + k - fit.shiftEv / step;
+    const j = Math.min(Math.max(Math.floor(t), 0), n - 2);
+    const f = t - j;
+    const r0 = R[j]! + f * (R[j + 1]! - R[j]!);
+    const r2 = R2[j]! + f * (R2[j + 1]! - R2[j]!);
+    base[k] = r0;
+    model[k] = scale * r0 + fit.gamma * r2 + fit.offset;
+  }
+  return { ...fit, model, base, from: evaluate.from, to: evaluate.to };
 }
 
 /** Convolution with a unit-area Gaussian of the given variance (eV²) on indices [a, b); other entries copied. Ends repeat the edge value. */
@@ -159,6 +185,7 @@ function fitTaylor(
     broadeningVarianceEv2: (2 * coef[2]!) / scale,
     sigmaBroadeningVarianceEv2: (2 * Math.sqrt(s2 * cov[2 * 4 + 2]!)) / scale,
     offset: coef[3]!,
+    gamma: coef[2]!,
     model,
     base: Float64Array.from(R),
     from,
