@@ -95,7 +95,10 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
       from: Math.max(guard, Math.min(from, Math.ceil((fx.energyEv - wide - E[0]!) / s.step))),
       to: Math.min(n - guard, Math.max(to, Math.floor((fx.energyEv + wide - E[0]!) / s.step) + 1)),
     };
-    fit = fitShiftBroadening(E, s.raw, r.smoothed, r.firstDerivative, r.secondDerivative, from, to, sigmaFit, evaluate);
+    // refined by convolution only from half the flag threshold up (a ≥ 5 % wider line, by default)
+    const f0 = fx.fwhmMeV / 1000;
+    const refineAbove = ((((1 + 0.5 * t.minBroadeningFraction) * f0) ** 2 - f0 * f0) / (8 * Math.LN2)) * 0.8;
+    fit = fitShiftBroadening(E, s.raw, r.smoothed, r.firstDerivative, r.secondDerivative, from, to, sigmaFit, evaluate, refineAbove);
     if (fit) fitRange = [E[fit.from]!, E[fit.to - 1]!];
     else warnings.push('shift/broadening fit around the first exciton did not converge');
   }

@@ -25,7 +25,7 @@ export interface ShiftFit {
 
 /**
  * Shift and broadening fit, refined for broadenings too large for the second-order Taylor term:
- * while the fitted broadening is positive and significant (> 2σ), the reference (and its
+ * while the fitted broadening is positive, significant (> 2σ) and above `refineAboveVarianceEv2`, the reference (and its
  * derivatives) is convolved with a Gaussian of the variance found so far and the remainder is
  * fitted again (at most 4 rounds): the convolution of two Gaussians adds their variances, so the
  * total converges to the exact value for Gaussian broadening where one Taylor step falls short
@@ -41,13 +41,15 @@ export function fitShiftBroadening(
   to: number,
   noiseSigma: number,
   evaluate: { from: number; to: number } = { from, to },
+  /** Refine only broadenings at least this large (variance, eV²): small ones are left to the Taylor step (cost). */
+  refineAboveVarianceEv2 = 0,
 ): ShiftFit | null {
   let fit = fitTaylor(energy, sample, refSmoothed, refD1, refD2, from, to, noiseSigma);
   if (!fit) return null;
   const n = energy.length;
   const step = (energy[n - 1]! - energy[0]!) / (n - 1);
   let arrays = [refSmoothed, refD2];
-  if (fit.broadeningVarianceEv2 > 2 * fit.sigmaBroadeningVarianceEv2) {
+  if (fit.broadeningVarianceEv2 > 2 * fit.sigmaBroadeningVarianceEv2 && fit.broadeningVarianceEv2 >= refineAboveVarianceEv2) {
     let total = fit.broadeningVarianceEv2;
     for (let round = 0; round < 4; round++) {
       const margin = Math.ceil(Math.abs(fit.shiftEv) / step) + 2;
