@@ -80,6 +80,7 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
   // ---- shift and broadening around the reference's first exciton (or main band)
   let fit: ReturnType<typeof fitShiftBroadening> = null;
   let fitRange: [number, number] | null = null;
+  let explain: ReturnType<typeof fitShiftBroadening> = null;
   if (fx && fx.fwhmMeV) {
     // the window follows the band's width: ±1.5 FWHM for an emission band; for absorption the
     // high-energy side stops at +0.5 FWHM, where the next transitions start to overlap (common practice)
@@ -100,6 +101,11 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
     const refineAbove = ((((1 + 0.5 * t.minBroadeningFraction) * f0) ** 2 - f0 * f0) / (8 * Math.LN2)) * 0.8;
     fit = fitShiftBroadening(E, s.raw, r.smoothed, r.firstDerivative, r.secondDerivative, from, to, sigmaFit, evaluate, refineAbove);
     if (fit) fitRange = [E[fit.from]!, E[fit.to - 1]!];
+    // for absorption also a symmetric ±1.5 FWHM fit, used only to explain differences (a shift of
+    // the first exciton alone leaves the next transitions behind; one window cannot serve both)
+    if (o.technique === 'absorption' && (evaluate.from < from || evaluate.to > to)) {
+      explain = fitShiftBroadening(E, s.raw, r.smoothed, r.firstDerivative, r.secondDerivative, evaluate.from, evaluate.to, sigmaFit, evaluate, Infinity);
+    }
     else warnings.push('shift/broadening fit around the first exciton did not converge');
   }
   if (fit && fx) {
@@ -211,6 +217,7 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
     if (fit) {
       value = Math.min(value, sDer[i]! - interpAt(E, rDer, E[i]! - fit.shiftEv));
       if (fitRange && E[i]! >= fitRange[0] && E[i]! <= fitRange[1]) value = Math.min(value, s.smoothed[i]! - fit.model[i - fit.from]!);
+      if (explain && i >= explain.from && i < explain.to) value = Math.min(value, s.smoothed[i]! - explain.model[i - explain.from]!);
     }
     excess[i - lo] = value;
   }
