@@ -103,7 +103,8 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
     if (fit) fitRange = [E[fit.from]!, E[fit.to - 1]!];
     // for absorption also a symmetric ±1.5 FWHM fit, used only to explain differences (a shift of
     // the first exciton alone leaves the next transitions behind; one window cannot serve both)
-    if (o.technique === 'absorption' && (evaluate.from < from || evaluate.to > to)) {
+    const moved = fit && (Math.abs(fit.shiftEv) > 2 * fit.sigmaShiftEv || Math.abs(fit.broadeningVarianceEv2) > 2 * fit.sigmaBroadeningVarianceEv2);
+    if (moved && o.technique === 'absorption' && (evaluate.from < from || evaluate.to > to)) {
       explain = fitShiftBroadening(E, s.raw, r.smoothed, r.firstDerivative, r.secondDerivative, evaluate.from, evaluate.to, sigmaFit, evaluate, Infinity);
     }
     else warnings.push('shift/broadening fit around the first exciton did not converge');

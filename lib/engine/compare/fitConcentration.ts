@@ -72,33 +72,64 @@ export function fitConcentration(
   for (let round = 0; round <= MAX_CLIP_ROUNDS; round++) {
     // one pass: cross-products of the columns [R, 1, u, (E/Ec)^2, (E/Ec)^3, (E/Ec)^4, R'] and S
     const C = 7;
-    const xtx = new Float64Array(C * C);
-    const xty = new Float64Array(C);
+    // scalar accumulators (this pass runs on every sample of a series: kept tight)
+    let s00 = 0, s01 = 0, s02 = 0, s03 = 0, s04 = 0, s05 = 0, s06 = 0, s11 = 0, s12 = 0, s13 = 0, s14 = 0, s15 = 0, s16 = 0, s22 = 0, s23 = 0, s24 = 0, s25 = 0, s26 = 0, s33 = 0, s34 = 0, s35 = 0, s36 = 0, s44 = 0, s45 = 0, s46 = 0, s55 = 0, s56 = 0, s66 = 0;
+    let y0 = 0, y1 = 0, y2 = 0, y3 = 0, y4 = 0, y5 = 0, y6 = 0;
     let yy = 0;
     let m = 0;
-    const col = new Float64Array(C);
     for (let i = 0; i < n; i++) {
       if (!use[i]) continue;
       const e = energy[i]!;
       const t = e / centre;
-      col[0] = reference[i]!;
-      col[1] = 1;
-      col[2] = (e - centre) / half;
-      col[3] = t * t;
-      col[4] = t * t * t;
-      col[5] = t * t * t * t;
-      col[6] = referenceSlope[i]!;
+      const c0 = reference[i]!;
+      const c1 = 1;
+      const c2 = (e - centre) / half;
+      const c3 = t * t;
+      const c4 = c3 * t;
+      const c5 = c4 * t;
+      const c6 = referenceSlope[i]!;
       const y = sample[i]!;
-      for (let a = 0; a < C; a++) {
-        const ca = col[a]!;
-        xty[a] = xty[a]! + ca * y;
-        for (let b = a; b < C; b++) xtx[a * C + b] = xtx[a * C + b]! + ca * col[b]!;
-      }
+      s00 += c0 * c0;
+      s01 += c0 * c1;
+      s02 += c0 * c2;
+      s03 += c0 * c3;
+      s04 += c0 * c4;
+      s05 += c0 * c5;
+      s06 += c0 * c6;
+      s11 += c1 * c1;
+      s12 += c1 * c2;
+      s13 += c1 * c3;
+      s14 += c1 * c4;
+      s15 += c1 * c5;
+      s16 += c1 * c6;
+      s22 += c2 * c2;
+      s23 += c2 * c3;
+      s24 += c2 * c4;
+      s25 += c2 * c5;
+      s26 += c2 * c6;
+      s33 += c3 * c3;
+      s34 += c3 * c4;
+      s35 += c3 * c5;
+      s36 += c3 * c6;
+      s44 += c4 * c4;
+      s45 += c4 * c5;
+      s46 += c4 * c6;
+      s55 += c5 * c5;
+      s56 += c5 * c6;
+      s66 += c6 * c6;
+      y0 += c0 * y;
+      y1 += c1 * y;
+      y2 += c2 * y;
+      y3 += c3 * y;
+      y4 += c4 * y;
+      y5 += c5 * y;
+      y6 += c6 * y;
       yy += y * y;
       m++;
     }
+    const xtx = Float64Array.from([s00, s01, s02, s03, s04, s05, s06, s01, s11, s12, s13, s14, s15, s16, s02, s12, s22, s23, s24, s25, s26, s03, s13, s23, s33, s34, s35, s36, s04, s14, s24, s34, s44, s45, s46, s05, s15, s25, s35, s45, s55, s56, s06, s16, s26, s36, s46, s56, s66]);
+    const xty = Float64Array.from([y0, y1, y2, y3, y4, y5, y6]);
     if (m < 16) return null;
-    for (let a = 0; a < C; a++) for (let b = 0; b < a; b++) xtx[a * C + b] = xtx[b * C + a]!;
     const solve = (cols: number[]) => {
       const p = cols.length;
       const A = new Float64Array(p * p);
@@ -137,22 +168,20 @@ export function fitConcentration(
     }
     best = chosen;
     // clip local features the smooth model does not follow
+    // the chosen model's weight on each of the 7 columns (0 when not in the model)
+    const wcol = new Float64Array(C);
+    for (let r = 0; r < chosen.cols.length; r++) wcol[chosen.cols[r]!] = chosen.coef[r]!;
     const model = (i: number) => {
       const e = energy[i]!;
       const t = e / centre;
-      let v = 0;
-      for (let r = 0; r < chosen.cols.length; r++) {
-        const c = chosen.cols[r]!;
-        const x = c === 0 ? reference[i]! : c === 6 ? referenceSlope[i]! : c === 1 ? 1 : c === 2 ? (e - centre) / half : t ** (c - 1);
-        v += chosen.coef[r]! * x;
-      }
-      return v;
+      const t2 = t * t;
+      return wcol[0]! * reference[i]! + wcol[6]! * referenceSlope[i]! + wcol[1]! + (wcol[2]! * (e - centre)) / half + t2 * (wcol[3]! + t * (wcol[4]! + t * wcol[5]!));
     };
     if (round === MAX_CLIP_ROUNDS) break;
     const w = Math.max(1, o.clipWindow);
     const sigma = Math.sqrt(noiseVar);
     const resid = new Float64Array(n);
-    for (let i = 0; i < n; i++) if (use[i]) resid[i] = sample[i]! - model(i);
+    for (let i = 0; i < n; i++) if (use[i] && o.clippable[i]) resid[i] = sample[i]! - model(i);
     // running mean of the residual over w points of each contiguous run of used, clippable points
     const flag = new Uint8Array(n);
     let any = false;
