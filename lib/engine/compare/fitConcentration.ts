@@ -41,6 +41,22 @@ export interface ConcentrationFit {
 }
 
 const POWERS = [2, 3, 4] as const;
+
+/**
+ * The smooth background offset + slope·E + scatter·(E/centreEv)^scatterPower on an energy axis (eV):
+ * the engine and the viewer (lib/spectrum-view/deriveViewArrays.ts) evaluate it with this one function.
+ */
+export function evaluateBackground(
+  energy: ArrayLike<number>,
+  b: { offset: number; slope: number; centreEv: number; scatter: number; scatterPower: number | null },
+): Float64Array {
+  const out = new Float64Array(energy.length);
+  for (let i = 0; i < out.length; i++) {
+    const e = energy[i]!;
+    out[i] = b.offset + b.slope * e + (b.scatterPower !== null ? b.scatter * (e / b.centreEv) ** b.scatterPower : 0);
+  }
+  return out;
+}
 /** χ² improvement (in noise variances) that a scattering term must bring to be kept. */
 const SCATTER_CHI2_GAIN = 25;
 const CLIP_Z = 4;
@@ -228,20 +244,12 @@ export function fitConcentration(
   const b0 = coefOf(1);
   const b1 = coefOf(2);
   const scatter = best.power !== null ? coefOf(best.power + 1) : 0;
-  const background = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    const e = energy[i]!;
-    background[i] = b0 + (b1 * (e - centre)) / half + (best.power !== null ? scatter * (e / centre) ** best.power : 0);
-  }
+  const params = { offset: b0 - (b1 * centre) / half, slope: b1 / half, centreEv: centre, scatter, scatterPower: best.power };
   return {
     ratio: k,
     sigmaRatio,
-    background,
-    offset: b0 - (b1 * centre) / half,
-    slope: b1 / half,
-    centreEv: centre,
-    scatter,
-    scatterPower: best.power,
+    background: evaluateBackground(energy, params),
+    ...params,
     used,
     clipped,
   };
