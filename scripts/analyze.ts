@@ -2,23 +2,54 @@
  * Command-line analysis: prints one JSON object (docs/analysis-json.md) on stdout.
  * npm run -s analyze -- SAMPLE [--reference REF] [--technique absorption|pl|ir]
  *   [--material CdSe|CdTe|CdS|PbS|PbSe] [--path-length-cm L] [--excitation-nm N] [--column NAME|INDEX]
+ *   [--normalize auto|none|wavelength:NM|concentration:SAMPLE/REF] [--dark-level auto|none]
+ *   [--sample-abs-ex A] [--sample-abs-em A] [--sample-dots-abs-ex A]
+ *   [--reference-abs-ex A] [--reference-abs-em A] [--reference-dots-abs-ex A]
  * Bad input: exit code 2 and one line on stderr.
  */
 import { readFileSync, statSync } from 'node:fs';
 import { basename } from 'node:path';
 import { analyzeSpectrum, parseSpectrumFile, SpectrumFileError, isMaterialName, DEFAULT_MAX_BYTES } from '../lib/engine/index';
-import type { AnalysisOptions, ParseOptions, Technique } from '../lib/engine/index';
+import type { AnalysisOptions, Normalization, ParseOptions, Technique } from '../lib/engine/index';
 import { TECHNIQUES, isTechnique } from '../lib/registry/techniques';
 
 class UsageError extends Error {}
 
 const USAGE =
-  `usage: analyze SAMPLE [--reference REF] [--technique ${TECHNIQUES.join('|')}] [--material CdSe|CdTe|CdS|PbS|PbSe] [--path-length-cm L] [--excitation-nm N] [--column NAME|INDEX] [--reference-column NAME|INDEX] [--sizing yu2003|jasieniak2009]`;
+  `usage: analyze SAMPLE [--reference REF] [--technique ${TECHNIQUES.join('|')}] [--material CdSe|CdTe|CdS|PbS|PbSe] [--path-length-cm L] [--excitation-nm N] [--column NAME|INDEX] [--reference-column NAME|INDEX] [--sizing yu2003|jasieniak2009] [--normalize auto|none|wavelength:NM|concentration:SAMPLE/REF] [--dark-level auto|none] [--sample-abs-ex A] [--sample-abs-em A] [--sample-dots-abs-ex A] [--reference-abs-ex A] [--reference-abs-em A] [--reference-dots-abs-ex A]`;
+
+/** PL absorbance flags and the AnalysisOptions member each one sets. */
+const ABSORBANCE_FLAGS = {
+  'sample-abs-ex': 'sampleAbsorbanceAtExcitation',
+  'sample-abs-em': 'sampleAbsorbanceAtEmission',
+  'sample-dots-abs-ex': 'sampleDotsAbsorbanceAtExcitation',
+  'reference-abs-ex': 'referenceAbsorbanceAtExcitation',
+  'reference-abs-em': 'referenceAbsorbanceAtEmission',
+  'reference-dots-abs-ex': 'referenceDotsAbsorbanceAtExcitation',
+} as const satisfies Record<string, keyof AnalysisOptions>;
+
+/** Reads --normalize: auto, none, wavelength:NM or concentration:SAMPLE/REF. */
+function parseNormalize(v: string): Normalization {
+  if (v === 'auto' || v === 'none') return { mode: v };
+  const wl = /^wavelength:(.+)$/.exec(v);
+  if (wl) {
+    const nm = Number(wl[1]);
+    if (!Number.isFinite(nm) || nm <= 0) throw new UsageError(`--normalize wavelength:NM needs a positive wavelength in nm, got "${wl[1]}"`);
+    return { mode: 'wavelength', wavelengthNm: nm };
+  }
+  const c = /^concentration:([^/]+)\/(.+)$/.exec(v);
+  if (c) {
+    const [a, b] = [Number(c[1]), Number(c[2])];
+    if (!(Number.isFinite(a) && a > 0 && Number.isFinite(b) && b > 0)) throw new UsageError(`--normalize concentration:SAMPLE/REF needs two positive concentrations, got "${c[1]}/${c[2]}"`);
+    return { mode: 'concentration', sampleConcentration: a, referenceConcentration: b };
+  }
+  throw new UsageError(`--normalize must be auto, none, wavelength:NM or concentration:SAMPLE/REF, got "${v}"`);
+}
 
 function parseArgs(argv: string[]) {
   const positional: string[] = [];
   const opts: Record<string, string> = {};
-  const known = new Set(['reference', 'technique', 'material', 'path-length-cm', 'excitation-nm', 'column', 'reference-column', 'sizing']);
+  const known = new Set(['reference', 'technique', 'material', 'path-length-cm', 'excitation-nm', 'column', 'reference-column', 'sizing', 'normalize', 'dark-level', ...Object.keys(ABSORBANCE_FLAGS)]);
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i]!;
     if (a.startsWith('--')) {
@@ -82,6 +113,19 @@ function main(): void {
   const ex = positiveNumber('excitation-nm', opts['excitation-nm']);
   if (ex !== undefined) a.excitationNm = ex;
   if (r) a.reference = r;
+  if (opts['normalize'] !== undefined) a.normalization = parseNormalize(opts['normalize']);
+  const dark = opts['dark-level'];
+  if (dark !== undefined) {
+    if (dark !== 'auto' && dark !== 'none') throw new UsageError(`--dark-level must be auto or none, got "${dark}"`);
+    a.darkLevel = dark;
+  }
+  for (const [flag, member] of Object.entries(ABSORBANCE_FLAGS) as Array<[keyof typeof ABSORBANCE_FLAGS, (typeof ABSORBANCE_FLAGS)[keyof typeof ABSORBANCE_FLAGS]]>) {
+    const v = opts[flag];
+    if (v === undefined) continue;
+    const x = Number(v);
+    if (!Number.isFinite(x) || x < 0) throw new UsageError(`--${flag} must be a non-negative absorbance, got "${v}"`);
+    a[member] = x;
+  }
   const report = analyzeSpectrum(s, a);
   process.stdout.write(JSON.stringify(report, null, 2) + '\n');
 }

@@ -36,7 +36,8 @@ export function NormalizationFields({
           aria-describedby={error ? "rerun-normalizationMode-error" : hasReference ? undefined : "rerun-normalization-no-reference"}
           className={`${inputClass} mt-0.5 py-1 disabled:bg-stone-100 disabled:text-ink-faint`}
         >
-          <option value="">keep ({current ?? "none"})</option>
+          <option value="">keep ({current ?? "automatic"})</option>
+          <option value="auto">automatic (fitted on the continuum)</option>
           <option value="none">none</option>
           <option value="concentration">by concentration</option>
           <option value="wavelength">at a wavelength</option>

@@ -2,7 +2,9 @@ import { ENGINE_VERSION } from './version';
 import { DEFAULT_THRESHOLDS } from '../registry/flagKinds';
 import { TECHNIQUE_SPECS } from '../registry/techniques';
 import { HC_EV_NM } from './constants';
-import { processSpectrum, spectrumToEnergy, type ProcessedSpectrum } from './processSpectrum';
+import { processSpectrum, spectrumToEnergy, type ProcessedSpectrum, type ProcessOptions } from './processSpectrum';
+import { checkReferenceMatch } from './compare/checkReferenceMatch';
+import { autoNormalization } from './compare/autoNormalization';
 import { chooseSmoothingWindow } from './signal/chooseSmoothingWindow';
 import { resampleUniform } from './axis/resampleUniform';
 import { estimateCorrelatedNoise } from './signal/estimateCorrelatedNoise';
@@ -16,7 +18,10 @@ import type {
   AnalysisOptions,
   AnalysisReport,
   AnalysisThresholds,
+  FlagReport,
   Normalization,
+  NormalizationReport,
+  ReferenceMatchReport,
   ParsedSpectrum,
   PeakReport,
   SpectrumSummary,
@@ -30,7 +35,43 @@ function summary(s: ParsedSpectrum): SpectrumSummary {
   return { fileName: s.fileName, columnName: s.columnName, points: s.x.length, xUnit: s.xUnit, yUnit: s.yUnit, xMin: s.x[0]!, xMax: s.x[s.x.length - 1]! };
 }
 
-function peakOut(p: ExcitonicPeak): PeakReport {
+
+/**
+ * Spans of the smoothing and derivative windows, eV. Defaults (common practice): 25 meV and
+ * 80 meV for visible/NIR bands of 60–150 meV FWHM; 3 and 8 meV in the mid-IR. They follow the
+ * band when it is narrower than 100 meV: a quarter of its FWHM for smoothing and 0.8 of it for the
+ * derivatives, so that a 25 meV line is not smoothed into a wider one (the fits then refine the
+ * broadening by convolution, fitShiftBroadening).
+ */
+export function followBandWidth(
+  spec: { smoothingSpanMeV: number; derivativeSpanMeV: number; firstExciton: string },
+  fwhmMeV: number | null,
+): { smoothingEv: number; derivativeEv: number } {
+  const smoothingEv = spec.smoothingSpanMeV / 1000;
+  const derivativeEv = spec.derivativeSpanMeV / 1000;
+  // Techniques without a first band (mid-IR) keep their fixed spans.
+  if (spec.firstExciton === 'none' || fwhmMeV === null || !(fwhmMeV > 0)) return { smoothingEv, derivativeEv };
+  const f = fwhmMeV / 1000;
+  return { smoothingEv: Math.min(smoothingEv, 0.25 * f), derivativeEv: Math.min(derivativeEv, 0.8 * f) };
+}
+
+/**
+ * Warns when the first exciton may be cut by the red end of the data: the absorbance there is more
+ * than half the first exciton's, or the band's low-energy half is not inside the data.
+ */
+function edgeWarnings(s: ProcessedSpectrum): string[] {
+  const fx = s.firstExciton!;
+  const guard = (s.windowSize - 1) / 2;
+  const atEdge = s.smoothed[Math.min(guard, s.smoothed.length - 1)]!;
+  const reachesEdge = fx.height > 0 && atEdge > 0.5 * fx.height;
+  const lowHalf = fx.fwhmMeV ? fx.energyEv - fx.fwhmMeV / 1000 < s.energy[0]! : false;
+  if (!reachesEdge && !lowHalf) return [];
+  return [
+    `first exciton at ${fx.wavelengthNm.toFixed(1)} nm may be cut by the red end of the data (${(HC_EV_NM / s.energy[0]!).toFixed(1)} nm, absorbance there ${atEdge.toFixed(3)} vs ${fx.height.toFixed(3)} at the band): its position, width and the sizes derived from it are uncertain; measure further to the red`,
+  ];
+}
+
+function peakOut(p: ExcitonicPeak, technique: Technique): PeakReport {
   return {
     kind: p.kind,
     energyEv: p.energyEv,
@@ -40,6 +81,7 @@ function peakOut(p: ExcitonicPeak): PeakReport {
     fwhmMeV: p.fwhmMeV,
     area: p.area,
     significance: p.significance,
+    bandRole: TECHNIQUE_SPECS[technique].bandRole,
   };
 }
 
@@ -84,9 +126,6 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
   if (inRange < 16) throw new RangeError('fewer than 16 sample points lie in the range shared with the reference');
   const stepEv = (to - from) / (n - 1);
 
-  // smoothing window from the data (overridable)
-  let windowSize = options.smoothingWindow;
-  let derivativeWindowSize = options.derivativeWindow;
   const polynomial = options.smoothingPolynomial ?? 2;
   let max = 0;
   const sSignal = se.signal;
@@ -97,76 +136,174 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
   const gridded = resampleUniform(se.energy, se.signal, from, to, n);
   const sampleNoise = estimateCorrelatedNoise(gridded.y, { maxBlockLength: baseWindow });
   const snr = max / Math.max(sampleNoise.sigma, 1e-300);
-  windowSize ??= chooseSmoothingWindow(n, stepEv, { targetSpanEv: spans.smoothingSpanMeV / 1000, signalToNoise: snr });
-  derivativeWindowSize ??= Math.max(windowSize, chooseSmoothingWindow(n, stepEv, { targetSpanEv: spans.derivativeSpanMeV / 1000, signalToNoise: snr }));
-  for (const [name, w] of [['smoothingWindow', windowSize], ['derivativeWindow', derivativeWindowSize]] as const) {
-    if (!Number.isInteger(w) || w < 5 || w % 2 === 0 || w > n) {
-      throw new RangeError(`${name} must be an odd integer from 5 to the number of grid points`);
+  const windows = (fwhmMeV: number | null) => {
+    const spans = followBandWidth(TECHNIQUE_SPECS[technique], fwhmMeV);
+    const w = options.smoothingWindow ?? chooseSmoothingWindow(n, stepEv, { targetSpanEv: spans.smoothingEv, signalToNoise: snr });
+    const wd = options.derivativeWindow ?? Math.max(w, chooseSmoothingWindow(n, stepEv, { targetSpanEv: spans.derivativeEv, signalToNoise: snr }));
+    return { w, wd };
+  };
+  let { w: windowSize, wd: derivativeWindowSize } = windows(null);
+  const checkWindows = () => {
+    for (const [name, w] of [['smoothingWindow', windowSize], ['derivativeWindow', derivativeWindowSize]] as const) {
+      if (!Number.isInteger(w) || w < 5 || w % 2 === 0 || w > n) {
+        throw new RangeError(`${name} must be an odd integer from 5 to the number of grid points`);
+      }
     }
-  }
-  if (!Number.isInteger(polynomial) || polynomial < 2 || polynomial >= windowSize) {
-    throw new RangeError('smoothingPolynomial must be an integer from 2 to smoothingWindow - 1');
-  }
+    if (!Number.isInteger(polynomial) || polynomial < 2 || polynomial >= windowSize) {
+      throw new RangeError('smoothingPolynomial must be an integer from 2 to smoothingWindow - 1');
+    }
+  };
+  checkWindows();
   const baseline = options.baseline ?? TECHNIQUE_SPECS[technique].baseline;
-  const normalization: Normalization = options.normalization ?? { mode: 'none' };
-  let factor = 1;
-  if (normalization.mode === 'concentration') {
-    if (!(normalization.sampleConcentration > 0 && normalization.referenceConcentration > 0)) {
-      throw new RangeError('concentrations for normalisation must be positive');
-    }
-    factor = normalization.referenceConcentration / normalization.sampleConcentration;
-  }
-  const procOpts = {
+  const darkLevel = options.darkLevel ?? 'auto';
+  const normalization: Normalization = options.normalization ?? { mode: 'auto' };
+  const procOptsFor = (w: number, wd: number): ProcessOptions => ({
     technique,
-    windowSize,
-    derivativeWindowSize,
+    windowSize: w,
+    derivativeWindowSize: wd,
     polynomial,
     baseline,
     minSignificance: thresholds.minSignificance,
     excitationNm,
     excitationExclusionNm: options.excitationExclusionNm ?? 10,
-  };
+    darkLevel,
+    xUnit: sample.xUnit,
+  });
+  let procOpts = procOptsFor(windowSize, derivativeWindowSize);
   const grid = { from, to, n };
   const sampleGrid = { ...gridded, noise: sampleNoise, noiseMaxBlockLength: baseWindow };
-  let s: ProcessedSpectrum = processSpectrum(se.energy, se.signal, grid, { ...procOpts, scale: factor, gridded: sampleGrid });
+  const processSample = (scale: number, background?: Float64Array) =>
+    processSpectrum(se.energy, se.signal, grid, { ...procOpts, scale, background, gridded: sampleGrid });
   // the reference's processing is memoised per reference object (many samples, one parent)
-  const r: ProcessedSpectrum | null = ref ? processReference(ref, technique, grid, procOpts) : null;
-  if (normalization.mode === 'wavelength') {
-    if (!r) throw new RangeError('normalisation at a wavelength needs a reference');
-    const e = HC_EV_NM / normalization.wavelengthNm;
-    if (!(e >= from && e <= to)) {
-      const [shortNm, longNm] = [HC_EV_NM / to, HC_EV_NM / from];
-      throw new RangeError(
-        `normalisation wavelength ${normalization.wavelengthNm} nm lies outside the range shared by the sample and its reference (${shortNm.toFixed(1)}–${longNm.toFixed(1)} nm)`,
-      );
+  const referenceOpts = () => ({ ...procOpts, xUnit: ref?.xUnit ?? sample.xUnit });
+  let r: ProcessedSpectrum | null = ref ? processReference(ref, technique, grid, referenceOpts()) : null;
+  // windows follow the band: the reference's first exciton (or emission band), else the sample's
+  let plain: ProcessedSpectrum | null = null;
+  if (!ref) plain = processSample(1);
+  const band = (r ?? plain)?.firstExciton ?? null;
+  const followed = windows(band?.fwhmMeV ?? null);
+  if (followed.w !== windowSize || followed.wd !== derivativeWindowSize) {
+    windowSize = followed.w;
+    derivativeWindowSize = followed.wd;
+    checkWindows();
+    procOpts = procOptsFor(windowSize, derivativeWindowSize);
+    if (ref) r = processReference(ref, technique, grid, referenceOpts());
+    plain = null;
+  }
+
+  // concentration and background, before any band is compared
+  let factor = 1;
+  let background: Float64Array | undefined;
+  let details: NormalizationReport = { requested: normalization.mode, applied: 'none', factor: 1, concentrationRatio: 1, concentrationRatioUncertainty: null, background: null, regionsEv: [], reason: '' };
+  let concentrationFlag: FlagReport | null = null;
+  let s: ProcessedSpectrum;
+  switch (normalization.mode) {
+    case 'none':
+      details.reason = 'no scaling: chosen by the caller';
+      s = plain ?? processSample(1);
+      break;
+    case 'concentration': {
+      if (!(normalization.sampleConcentration > 0 && normalization.referenceConcentration > 0)) {
+        throw new RangeError('concentrations for normalisation must be positive');
+      }
+      factor = normalization.referenceConcentration / normalization.sampleConcentration;
+      details = { ...details, applied: 'concentration', factor, concentrationRatio: 1 / factor, reason: 'scaled by the concentrations the caller gave (× c_ref/c_sample)' };
+      s = processSample(factor);
+      break;
     }
-    const k = Math.round((e - from) / stepEv);
-    if (!(Math.abs(s.smoothed[k]!) > 0)) throw new RangeError('sample signal is zero at the normalisation wavelength');
-    factor = r.smoothed[k]! / s.smoothed[k]!;
-    s = processSpectrum(se.energy, se.signal, grid, { ...procOpts, scale: factor, gridded: sampleGrid });
+    case 'wavelength': {
+      if (!r) throw new RangeError('normalisation at a wavelength needs a reference');
+      const e = HC_EV_NM / normalization.wavelengthNm;
+      if (!(e >= from && e <= to)) {
+        const [shortNm, longNm] = [HC_EV_NM / to, HC_EV_NM / from];
+        throw new RangeError(
+          `normalisation wavelength ${normalization.wavelengthNm} nm lies outside the range shared by the sample and its reference (${shortNm.toFixed(1)}–${longNm.toFixed(1)} nm)`,
+        );
+      }
+      const unscaled = plain ?? processSample(1);
+      const k = Math.round((e - from) / stepEv);
+      if (!(Math.abs(unscaled.smoothed[k]!) > 0)) throw new RangeError('sample signal is zero at the normalisation wavelength');
+      factor = r.smoothed[k]! / unscaled.smoothed[k]!;
+      details = { ...details, applied: 'wavelength', factor, concentrationRatio: 1 / factor, reason: `scaled to the reference at ${normalization.wavelengthNm} nm, chosen by the caller` };
+      s = processSample(factor);
+      break;
+    }
+    case 'auto': {
+      const auto = r ? autoNormalization(technique, gridded.x, gridded.y, r, sampleNoise.sigma, derivativeWindowSize, thresholds) : null;
+      if (auto && auto.fit) {
+        factor = 1 / auto.fit.ratio;
+        background = auto.fit.background;
+        details = auto.details;
+        concentrationFlag = auto.flag;
+        s = processSample(factor, background);
+      } else {
+        details.reason = auto ? auto.details.reason : 'no reference: nothing to scale against';
+        s = plain ?? processSample(1);
+      }
+      break;
+    }
   }
   warnings.push(...s.warnings.map((w) => `${sample.fileName}: ${w}`));
   if (r && ref) warnings.push(...r.warnings.map((w) => `${ref.fileName}: ${w}`));
   if (technique === 'pl' && !excitationNm) warnings.push('excitation wavelength unknown: an excitation or scatter line may be reported as a peak');
 
-  const flags = r ? compareSpectra(s, r, { ...options, technique, thresholds, excitationNm }) : { flags: [], warnings: [] };
-  warnings.push(...flags.warnings);
+  // the sample's first exciton is the feature nearest the parent's (a new band below the gap is not it)
+  const followParent = (p: ProcessedSpectrum): ProcessedSpectrum => {
+    if (!r?.firstExciton || !p.firstExciton) return p;
+    const matched = matchFirstExciton(p.peaks, r.firstExciton.energyEv);
+    if (!matched || matched === p.firstExciton) return p;
+    warnings.push(
+      `first exciton taken at ${matched.energyEv.toFixed(3)} eV, the feature nearest the parent's (${r.firstExciton.energyEv.toFixed(3)} eV); the lower-energy feature at ${p.firstExciton.energyEv.toFixed(3)} eV is not treated as the first exciton`,
+    );
+    return { ...p, firstExciton: matched };
+  };
+  s = followParent(s);
 
-  if (r?.firstExciton && s.firstExciton) {
-    const matched = matchFirstExciton(s.peaks, r.firstExciton.energyEv);
-    if (matched && matched !== s.firstExciton) {
-      warnings.push(
-        `first exciton taken at ${matched.energyEv.toFixed(3)} eV, the feature nearest the parent's (${r.firstExciton.energyEv.toFixed(3)} eV); the lower-energy feature at ${s.firstExciton.energyEv.toFixed(3)} eV is not treated as the first exciton`,
-      );
-      s = { ...s, firstExciton: matched };
+  // may the reference be compared with this sample at all? (before any band flag)
+  let referenceMatch: ReferenceMatchReport | null = null;
+  if (r && re) {
+    const side = (p: ProcessedSpectrum, energy: Float64Array) => ({
+      technique,
+      rangeEv: [energy[0]!, energy[energy.length - 1]!] as const,
+      bandEv: p.firstExciton?.energyEv ?? null,
+      fwhmMeV: p.firstExciton?.fwhmMeV ?? null,
+    });
+    const verdict = checkReferenceMatch(side(s, se.energy), side(r, re.energy));
+    referenceMatch = verdict.ok ? { ok: true, toleranceMeV: verdict.toleranceMeV, reason: null } : { ok: false, toleranceMeV: null, reason: verdict.reason };
+    if (!verdict.ok) {
+      warnings.push(`${verdict.reason}: no band flags raised`);
+      if (factor !== 1 || background) {
+        // the fit to a reference that does not match means nothing: report the sample as measured
+        factor = 1;
+        background = undefined;
+        concentrationFlag = null;
+        details = { requested: normalization.mode, applied: 'none', factor: 1, concentrationRatio: 1, concentrationRatioUncertainty: null, background: null, regionsEv: [], reason: 'not scaled: the reference does not match this sample' };
+        s = followParent(processSample(1));
+      }
     }
   }
+
+  const comparison =
+    r && referenceMatch?.ok
+      ? compareSpectra(s, r, {
+          ...options,
+          technique,
+          thresholds,
+          excitationNm,
+          scaleRelativeUncertainty: details.concentrationRatioUncertainty !== null ? details.concentrationRatioUncertainty / details.concentrationRatio : 0,
+        })
+      : { flags: [], warnings: [], atmosphericBands: [] };
+  warnings.push(...comparison.warnings);
+  const flagList = concentrationFlag && referenceMatch?.ok ? [concentrationFlag, ...comparison.flags] : comparison.flags;
+
+  if (technique === 'absorption' && s.firstExciton) warnings.push(...edgeWarnings(s));
 
   const derived = deriveQuantities({
     material: options.material,
     sizingModel: options.sizingModel,
     technique,
     firstExciton: s.firstExciton,
+    peaks: s.peaks,
     energy: s.energy,
     smoothed: s.smoothed,
     pathLengthCm,
@@ -183,7 +320,8 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
       grid: { points: n, minEv: from, maxEv: to, stepMeV: stepEv * 1000 },
       smoothing: { method: 'savitzky-golay', windowSize, derivativeWindowSize, polynomial, edges: 'polynomial-fit' },
       baseline: { mode: baseline, applied: s.baselineApplied },
-      normalization: { ...normalization, factor },
+      normalization: { ...normalization, factor, details },
+      darkLevel: { mode: darkLevel, sample: technique === 'pl' ? s.darkLevel : null, reference: technique === 'pl' && r ? r.darkLevel : null },
       thresholds,
       pathLengthCm,
       excitationNm: excitationNm ?? null,
@@ -197,10 +335,12 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
       sigmaSmoothed: s.sigmaSmoothed,
       referenceSigma: r ? r.sigma : null,
     },
-    peaks: s.peaks.map(peakOut),
-    firstExciton: fx ? peakOut(fx) : null,
-    referenceFirstExciton: r?.firstExciton ? peakOut(r.firstExciton) : null,
-    flags: flags.flags,
+    peaks: s.peaks.map((p) => peakOut(p, technique)),
+    firstExciton: fx ? peakOut(fx, technique) : null,
+    referenceFirstExciton: r?.firstExciton ? peakOut(r.firstExciton, technique) : null,
+    referenceMatch,
+    atmosphericBands: comparison.atmosphericBands,
+    flags: flagList,
     derived: derived.report,
     warnings,
   };

@@ -7,7 +7,9 @@ import { savitzkyGolayNoiseGain } from './signal/savitzkyGolayWeights';
 import { estimateCorrelatedNoise, type CorrelatedNoiseEstimate } from './signal/estimateCorrelatedNoise';
 import { fitBaseline } from './signal/fitBaseline';
 import { findExcitonicPeaks, type ExcitonicPeak } from './peaks/findExcitonicPeaks';
-import type { ParsedSpectrum, Technique } from './types';
+import { lowEnergyHalfWidth } from './peaks/lowEnergyHalfWidth';
+import { fitDarkLevel } from './signal/fitDarkLevel';
+import type { ParsedSpectrum, Technique, XUnit } from './types';
 
 export interface ProcessedSpectrum {
   energy: Float64Array;
@@ -33,6 +35,8 @@ export interface ProcessedSpectrum {
   peaks: ExcitonicPeak[];
   firstExciton: ExcitonicPeak | null;
   exclude: Array<[number, number]>;
+  /** PL dark level subtracted, in counts per unit of the file's X axis (after `scale`); null when none. */
+  darkLevel: number | null;
   warnings: string[];
 }
 
@@ -70,6 +74,12 @@ export interface ProcessOptions {
   excitationNm?: number | undefined;
   excitationExclusionNm: number;
   scale?: number;
+  /** Smooth background (on the grid, in the signal's own units) subtracted before `scale` is applied. */
+  background?: Float64Array | undefined;
+  /** PL: subtract a dark level fitted on the band-free ends ('auto'), recorded per unit of `xUnit`. Default 'none'. */
+  darkLevel?: 'auto' | 'none';
+  /** X unit of the file (for the dark level's Jacobian on the energy axis). */
+  xUnit?: XUnit;
   /**
    * The same signal already on this grid (unscaled) and, optionally, its noise estimate with
    * blocks up to `noiseMaxBlockLength` points: reused instead of resampling and re-estimating.
@@ -99,6 +109,11 @@ export function processSpectrum(
   const g = pre ? { x: pre.x, y: pre.y.slice(), step: pre.step } : resampleUniform(energy, signal, grid.from, grid.to, grid.n);
   const raw = g.y;
   const scale = o.scale ?? 1;
+  const bg = o.background;
+  if (bg) {
+    if (bg.length !== raw.length) throw new RangeError('background must lie on the analysis grid');
+    for (let i = 0; i < raw.length; i++) raw[i] = raw[i]! - bg[i]!;
+  }
   if (scale !== 1) for (let i = 0; i < raw.length; i++) raw[i] = raw[i]! * scale;
   const step = g.step;
   const exclude: Array<[number, number]> = [];
@@ -115,6 +130,15 @@ export function processSpectrum(
   const p = o.polynomial;
   const pd = Math.max(p, 2);
   let smoothed = savitzkyGolayFilter(raw, step, { windowSize: w, polynomial: p, derivative: 0 });
+  let darkLevel: number | null = null;
+  if (o.technique === 'pl' && o.darkLevel === 'auto') {
+    const dark = fitDarkLevel(g.x, raw, smoothed, { exclude, edgeGuard: (w - 1) / 2, xUnit: o.xUnit ?? 'nm' });
+    if (dark.level !== null) {
+      for (let i = 0; i < raw.length; i++) raw[i] = raw[i]! - dark.level * dark.jacobian[i]!;
+      smoothed = savitzkyGolayFilter(raw, step, { windowSize: w, polynomial: p, derivative: 0 });
+      darkLevel = dark.level;
+    } else warnings.push(dark.reason);
+  }
   const wd = o.derivativeWindowSize;
   // the wide window gives the derivatives and the smoothing used for difference spectra; one pass
   const wide =
@@ -137,6 +161,7 @@ export function processSpectrum(
   const peakOpts = { sigmaSmoothed, sigmaSecondDerivative, minSignificance: o.minSignificance, edgeGuard: guard, exclude, local, minRelativeAmplitude: TECHNIQUE_SPECS[o.technique].minRelativePeakAmplitude };
   let peaks = findExcitonicPeaks(g.x, smoothed, secondDerivative, peakOpts);
   let first = pickFirstExciton(peaks, smoothed, o.technique);
+  if (first && o.technique === 'absorption') ({ first, peaks } = withLowEnergyWidth(first, peaks, g.x, smoothed));
   let baselineApplied = false;
   if (o.baseline !== 'none' && o.technique !== 'pl') {
     if (first && first.fwhmMeV) {
@@ -159,6 +184,7 @@ export function processSpectrum(
           peaks = findExcitonicPeaks(g.x, smoothed, secondDerivative, peakOpts);
         }
         first = pickFirstExciton(peaks, smoothed, o.technique);
+        if (first && o.technique === 'absorption') ({ first, peaks } = withLowEnergyWidth(first, peaks, g.x, smoothed));
       } else {
         warnings.push(`baseline (${o.baseline}) not applied: fewer than 8 points in the transparent region below ${below.toFixed(3)} eV`);
       }
@@ -186,8 +212,24 @@ export function processSpectrum(
     peaks,
     firstExciton: first,
     exclude,
+    darkLevel,
     warnings,
   };
+}
+
+/**
+ * The first exciton's FWHM as twice its low-energy half width at half maximum, measured on the
+ * smoothed signal (the high-energy half overlaps the next transitions; common practice, and the
+ * width Jasieniak et al. 2009 scale ε with). Maxima only: a shoulder keeps the width from its
+ * second derivative's zero crossings. The peak is replaced in the list too.
+ */
+function withLowEnergyWidth(first: ExcitonicPeak, peaks: ExcitonicPeak[], energy: Float64Array, smoothed: Float64Array): { first: ExcitonicPeak; peaks: ExcitonicPeak[] } {
+  if (first.kind !== 'maximum') return { first, peaks };
+  const hwhm = lowEnergyHalfWidth(energy, smoothed, first.index);
+  if (hwhm === null) return { first, peaks };
+  const fwhm = 2 * hwhm;
+  const updated: ExcitonicPeak = { ...first, fwhmMeV: fwhm * 1000, area: first.height * fwhm * 1.0644670194312262 };
+  return { first: updated, peaks: peaks.map((q) => (q === first ? updated : q)) };
 }
 
 /**

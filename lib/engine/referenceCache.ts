@@ -67,7 +67,7 @@ export function processReference(
 ): ProcessedSpectrum {
   const re = referenceToEnergy(ref, technique);
   const e = entryFor(ref);
-  const key = JSON.stringify([technique, grid.from, grid.to, grid.n, o.technique, o.windowSize, o.derivativeWindowSize, o.polynomial, o.baseline, o.minSignificance, o.excitationNm ?? null, o.excitationExclusionNm, o.scale ?? 1]);
+  const key = JSON.stringify([technique, grid.from, grid.to, grid.n, o.technique, o.windowSize, o.derivativeWindowSize, o.polynomial, o.baseline, o.minSignificance, o.excitationNm ?? null, o.excitationExclusionNm, o.scale ?? 1, o.darkLevel ?? 'none', o.xUnit ?? null]);
   let p = e.processed.get(key);
   if (!p) {
     p = processSpectrum(re.energy, re.signal, grid, o);

@@ -1,11 +1,11 @@
 import type { AnalysisThresholds, FlagKind, FlagUnit } from '../registry/flagKinds';
-import type { Technique } from '../registry/techniques';
+import type { BandRole, Technique } from '../registry/techniques';
 
 export type XUnit = 'nm' | 'um' | 'cm-1' | 'eV';
 export type YUnit = 'absorbance' | 'percent-transmittance' | 'counts';
 // Kinds, techniques and thresholds are written once, in lib/registry; re-exported here so the
 // engine's imports keep working.
-export type { AnalysisThresholds, FlagKind, FlagUnit, Technique };
+export type { AnalysisThresholds, BandRole, FlagKind, FlagUnit, Technique };
 export type MaterialName = 'CdSe' | 'CdTe' | 'CdS' | 'PbS' | 'PbSe';
 
 export interface ParseOptions {
@@ -55,6 +55,7 @@ export interface ParsedSpectrum {
 
 
 export type Normalization =
+  | { mode: 'auto' }
   | { mode: 'none' }
   | { mode: 'wavelength'; wavelengthNm: number }
   | { mode: 'concentration'; sampleConcentration: number; referenceConcentration: number };
@@ -78,13 +79,24 @@ export interface AnalysisOptions {
   thresholds?: Partial<AnalysisThresholds>;
   /** Half-width of the region around the excitation line excluded from PL integrals, nm. Default 10. */
   excitationExclusionNm?: number;
-  /** Absorbances for PL corrections (absorbed fraction and inner filter). */
+  /**
+   * Absorbances (1 cm path as measured) for comparing PL per absorbed photon: total absorbance at the
+   * excitation and at the emission band, of the sample and of the reference.
+   */
   sampleAbsorbanceAtExcitation?: number;
   referenceAbsorbanceAtExcitation?: number;
   sampleAbsorbanceAtEmission?: number;
   referenceAbsorbanceAtEmission?: number;
+  /**
+   * Absorbance of the dots alone at the excitation, when a quencher or titrant also absorbs there
+   * (sample; reference). Default: the total absorbance at the excitation.
+   */
+  sampleDotsAbsorbanceAtExcitation?: number;
+  referenceDotsAbsorbanceAtExcitation?: number;
   /** Apply the inner-filter correction even when an absorbance exceeds 0.3. Default false. */
   forceInnerFilterCorrection?: boolean;
+  /** PL dark level: 'auto' subtracts a constant (in counts per wavelength unit) fitted on the band-free ends. Default 'auto'. */
+  darkLevel?: 'auto' | 'none';
   /** Points of the uniform energy grid. Default: the number of input points in range (at least 64). */
   gridPoints?: number;
 }
@@ -101,6 +113,8 @@ export interface PeakReport {
   /** Gaussian-equivalent area, amplitude × FWHM × 1.0645, in signal·eV. */
   area: number | null;
   significance: number;
+  /** What the band is, in the words of its technique. */
+  bandRole: BandRole;
 }
 
 export interface FlagReport {
@@ -118,7 +132,47 @@ export interface FlagReport {
   /** |magnitude| / uncertainty. */
   significance: number;
   intraband?: boolean;
+  /** new-band and band-change: what the band is (intraband candidates are broad new mid-IR bands). */
+  bandRole?: BandRole;
+  /** new-band: FWHM of the band in the unexplained difference, meV (null when not measurable). */
+  widthMeV?: number | null;
   message: string;
+}
+
+/** How the sample was scaled and its background removed before the comparison. */
+export interface NormalizationReport {
+  /** What was asked for. */
+  requested: Normalization['mode'];
+  /** What was applied ('auto' resolves to 'fit' or 'none'). */
+  applied: 'fit' | 'none' | 'wavelength' | 'concentration';
+  /** The sample is multiplied by this factor (after any background is subtracted) before the comparison. */
+  factor: number;
+  /** Sample/reference concentration ratio (1/factor), with its standard uncertainty when fitted. */
+  concentrationRatio: number;
+  concentrationRatioUncertainty: number | null;
+  /** Fitted smooth background subtracted from the sample (signal units; E in eV): offset + slope·E + scatter·(E/centreEv)^scatterPower. */
+  background: { offset: number; slope: number; centreEv: number; scatter: number; scatterPower: number | null } | null;
+  /** Energy ranges the fit used, eV. */
+  regionsEv: Array<[number, number]>;
+  /** Why this choice. */
+  reason: string;
+}
+
+export interface DispersionReport {
+  /** Low-energy half width at half maximum of the first exciton, meV. */
+  hwhmMeV: number;
+  /** σ_E = HWHM/√(2 ln 2), meV. */
+  sigmaEnergyMeV: number;
+  /** σ_D = σ_E/|dE/dD| from the sizing curve, nm. */
+  sigmaDiameterNm: number;
+  /** σ_D/D. */
+  relative: number;
+}
+
+export interface TransitionReport {
+  energyEv: number;
+  wavelengthNm: number;
+  kind: 'maximum' | 'shoulder';
 }
 
 export interface DerivedReport {
@@ -128,6 +182,21 @@ export interface DerivedReport {
   extinctionPerMPerCm: number | null;
   molarMassGPerMol: number | null;
   sizingSource: string | null;
+  /** Size dispersion from the first exciton's low-energy half width and the sizing curve's slope. */
+  sizeDispersion: DispersionReport | null;
+  /** CdSe: the other sizing model's diameter and extinction, and whether the two agree within their stated uncertainty. */
+  alternativeSizing: { source: string; diameterNm: number; extinctionPerMPerCm: number; agrees: boolean } | null;
+  /** Excitonic transitions above the first exciton (absorption). */
+  higherTransitions: TransitionReport[];
+  /** First-exciton absorbance over the absorbance at the valley above it (absorption maxima only). */
+  firstExcitonPeakToValley: number | null;
+}
+
+/** Whether the reference may be compared with the sample at all (lib/engine/compare/checkReferenceMatch.ts). */
+export interface ReferenceMatchReport {
+  ok: boolean;
+  toleranceMeV: number | null;
+  reason: string | null;
 }
 
 export interface SpectrumSummary {
@@ -149,7 +218,8 @@ export interface AnalysisReport {
     grid: { points: number; minEv: number; maxEv: number; stepMeV: number };
     smoothing: { method: 'savitzky-golay'; windowSize: number; derivativeWindowSize: number; polynomial: number; edges: 'polynomial-fit' };
     baseline: { mode: 'none' | 'offset' | 'scatter'; applied: boolean };
-    normalization: Normalization & { factor: number };
+    normalization: Normalization & { factor: number; details: NormalizationReport };
+    darkLevel: { mode: 'auto' | 'none'; sample: number | null; reference: number | null };
     thresholds: AnalysisThresholds;
     pathLengthCm: number | null;
     excitationNm: number | null;
@@ -169,6 +239,10 @@ export interface AnalysisReport {
   peaks: PeakReport[];
   firstExciton: (PeakReport & { energyEv: number; wavelengthNm: number; fwhmMeV: number | null }) | null;
   referenceFirstExciton: PeakReport | null;
+  /** null without a reference. When not ok, no flags are raised. */
+  referenceMatch: ReferenceMatchReport | null;
+  /** Mid-IR: atmospheric bands inside the range (CO₂ always masked; water-vapour lines masked when seen). */
+  atmosphericBands: Array<{ name: string; fromCm1: number; toCm1: number; present: boolean; masked: boolean }>;
   flags: FlagReport[];
   derived: DerivedReport;
   warnings: string[];

@@ -4,7 +4,7 @@ import type { Normalization } from "@/lib/engine/types";
 // How a sample is scaled against its parent reference before the difference (the engine's
 // `Normalization`), as a re-run parameter. No server imports: the re-run form uses the bounds too.
 
-export const NORMALIZATION_MODES = ["none", "wavelength", "concentration"] as const;
+export const NORMALIZATION_MODES = ["auto", "none", "wavelength", "concentration"] as const;
 
 /** Accepted normalisation wavelengths: deep UV to the end of the mid-IR (400 cm⁻¹ = 25 000 nm). */
 export const NORMALIZATION_WAVELENGTH_NM = { min: 100, max: 25_000 } as const;
@@ -29,6 +29,7 @@ const concentration = requiredNumber("for mode concentration").positive("must be
 export const normalizationSchema = z.discriminatedUnion(
   "mode",
   [
+    z.object({ mode: z.literal("auto") }).strict(),
     z.object({ mode: z.literal("none") }).strict(),
     z.object({ mode: z.literal("wavelength"), wavelengthNm }).strict(),
     z

@@ -394,8 +394,10 @@ export function openApiDocument() {
         Normalization: {
           description:
             "How the sample is scaled against its parent reference before the difference (needs a reference). " +
-            "The factor used is in the report at parameters.normalization.factor. Mode none clears it, like null.",
+            "The factor used is in the report at parameters.normalization.factor, the reason at parameters.normalization.details.reason. " +
+            "Mode auto (the default) fits a concentration ratio and a smooth background on band-free regions; it clears a stored choice, like null.",
           oneOf: [
+            { type: "object", additionalProperties: false, required: ["mode"], properties: { mode: { const: "auto" } } },
             { type: "object", additionalProperties: false, required: ["mode"], properties: { mode: { const: "none" } } },
             {
               type: "object", additionalProperties: false, required: ["mode", "wavelengthNm"],

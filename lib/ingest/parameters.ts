@@ -21,8 +21,11 @@ export type AnalysisParameters = {
   smoothingPolynomial?: number;
   baseline?: "none" | "offset" | "scatter";
   thresholds?: Partial<Record<ThresholdName, number>>;
-  /** Scaling of the sample against its reference; "none" is stored as absent. */
-  normalization?: Exclude<NormalizationParameter, { mode: "none" }>;
+  /**
+   * Scaling of the sample against its reference. "auto" (the engine's default since engine 2) is
+   * stored as absent; "none" is kept, so a run that asked for no scaling re-runs without it.
+   */
+  normalization?: Exclude<NormalizationParameter, { mode: "auto" }>;
 };
 
 /** One threshold per flag kind plus the general ones (lib/registry/flagKinds.ts). */
@@ -77,13 +80,13 @@ export type ReanalysisInput = z.input<typeof reanalysisSchema>;
 
 /**
  * Applies re-analysis overrides to earlier parameters; returns new parameters without undefined
- * members. Normalisation `{ mode: "none" }` clears it like null, so "none" and "never set" hash alike.
+ * members. Normalisation `{ mode: "auto" }` clears it like null, so "auto" and "never set" hash alike.
  */
 export function mergeParameters(base: AnalysisParameters, changes: z.output<typeof reanalysisSchema>): AnalysisParameters {
   const out: Record<string, unknown> = { ...base };
   for (const [key, value] of Object.entries(changes)) {
     if (key === "referenceSpectrumId" || value === undefined) continue;
-    if (value === null || (key === "normalization" && (value as { mode: string }).mode === "none")) delete out[key];
+    if (value === null || (key === "normalization" && (value as { mode: string }).mode === "auto")) delete out[key];
     else if (key === "thresholds") out.thresholds = { ...(base.thresholds ?? {}), ...(value as object) };
     else out[key] = value;
   }

@@ -1,5 +1,6 @@
 import { processSpectrum, spectrumToEnergy, type ProcessOptions } from "@/lib/engine/processSpectrum";
 import { TECHNIQUE_SPECS } from "@/lib/registry/techniques";
+import { evaluateBackground } from "@/lib/engine/compare/fitConcentration";
 import type { AnalysisReport, ParsedSpectrum } from "@/lib/engine/types";
 
 /** The curves the viewer draws, on the engine's ascending uniform energy grid (eV). */
@@ -38,14 +39,20 @@ export function deriveViewArrays(report: AnalysisReport, sample: ParsedSpectrum,
     minSignificance: p.thresholds?.minSignificance ?? 5,
     excitationNm: p.excitationNm ?? undefined,
     excitationExclusionNm: 10,
+    // engine 2: PL dark level (absent from older reports: none)
+    darkLevel: p.darkLevel?.mode ?? "none",
   };
   const se = spectrumToEnergy(sample, technique);
-  const s = processSpectrum(se.energy, se.signal, grid, { ...o, scale: p.normalization?.factor ?? 1 });
+  // engine 2: the background fitted with the concentration ratio is subtracted before the factor
+  const bg = p.normalization?.details?.background;
+  const gridEnergy = Float64Array.from({ length: grid.n }, (_, i) => grid.from + ((grid.to - grid.from) * i) / (grid.n - 1));
+  const background = bg ? evaluateBackground(gridEnergy, bg) : undefined;
+  const s = processSpectrum(se.energy, se.signal, grid, { ...o, xUnit: sample.xUnit, scale: p.normalization?.factor ?? 1, background });
   let refSmoothed: Float64Array | null = null;
   let difference: Float64Array | null = null;
   if (reference) {
     const re = spectrumToEnergy(reference, technique);
-    const r = processSpectrum(re.energy, re.signal, grid, o);
+    const r = processSpectrum(re.energy, re.signal, grid, { ...o, xUnit: reference.xUnit });
     refSmoothed = r.smoothed;
     difference = new Float64Array(grid.n);
     for (let i = 0; i < grid.n; i++) difference[i] = s.smoothed[i]! - r.smoothed[i]!;

@@ -42,7 +42,7 @@ export const rerunFormSchema = z
         numberField(f.label).pipe(thresholdSchema(THRESHOLD_SPECS.find((t) => t.name === f.name)!, f.label).optional()),
       ]),
     ),
-    normalizationMode: z.preprocess(blank, z.enum(NORMALIZATION_MODES, { error: "Normalisation must be none, at a wavelength or by concentration" }).optional()),
+    normalizationMode: z.preprocess(blank, z.enum(NORMALIZATION_MODES, { error: "Normalisation must be automatic, none, at a wavelength or by concentration" }).optional()),
     normalizationWavelengthNm: numberField("Wavelength"),
     sampleConcentration: numberField("Sample concentration"),
     referenceConcentration: numberField("Reference concentration"),
@@ -105,6 +105,8 @@ export function toReanalysisChanges(v: RerunForm): Record<string, unknown> {
 
 function normalizationChange(v: RerunForm): Record<string, unknown> | undefined {
   switch (v.normalizationMode) {
+    case "auto":
+      return { mode: "auto" };
     case "none":
       return { mode: "none" };
     case "wavelength":

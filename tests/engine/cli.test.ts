@@ -18,7 +18,7 @@ function run(args: string[]) {
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
-const TOP_FIELDS = ['technique', 'engineVersion', 'sample', 'reference', 'parameters', 'noise', 'peaks', 'firstExciton', 'referenceFirstExciton', 'flags', 'derived', 'warnings'];
+const TOP_FIELDS = ['technique', 'engineVersion', 'sample', 'reference', 'parameters', 'noise', 'peaks', 'firstExciton', 'referenceFirstExciton', 'referenceMatch', 'atmosphericBands', 'flags', 'derived', 'warnings'];
 const FLAG_FIELDS = ['kind', 'energyEv', 'wavelengthNm', 'fraction', 'shiftMeV', 'fwhmChangeMeV', 'magnitude', 'unit', 'uncertainty', 'significance', 'message'];
 
 describe('scripts/analyze.ts', { timeout: 120_000 }, () => {
@@ -78,6 +78,17 @@ describe('scripts/analyze.ts', { timeout: 120_000 }, () => {
       expect(r.stderr).not.toMatch(/\n\s+at /);
     });
   }
+
+  it('--normalize: the choice and its reason are in the output; a bad value exits 2 naming the option', () => {
+    const r = run([path.join(dir, 'charged.csv'), '--reference', path.join(dir, 'parent.csv'), '--normalize', 'none']);
+    expect(r.code).toBe(0);
+    const out = JSON.parse(r.stdout) as { parameters: { normalization: { mode: string; details: { applied: string; reason: string } } } };
+    expect(out.parameters.normalization.mode).toBe('none');
+    expect(out.parameters.normalization.details.reason).toMatch(/chosen by the caller/);
+    const bad = run([path.join(dir, 'charged.csv'), '--normalize', 'sideways']);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toContain('--normalize must be auto, none, wavelength:NM or concentration:SAMPLE/REF');
+  });
 
   it('unknown option: exit 2 with the usage line', () => {
     const r = run(['x.csv', '--frobnicate', '1']);

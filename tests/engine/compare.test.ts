@@ -58,11 +58,15 @@ describe('absorption vs parent', () => {
     expect(Math.abs(r.flags[0]!.energyEv! - 1.85)).toBeLessThan(0.015);
     expect(r.flags[0]!.intraband).toBe(false);
   });
-  it('normalisation by concentration undoes a dilution', () => {
+  it('normalisation by concentration undoes a dilution; unscaled (mode none) it reads as a bleach; auto reports the ratio', () => {
     const diluted = absorbanceSpectrum({ bands: PARENT_BANDS.map((b) => ({ ...b, a: b.a * 0.5 })), noise: noise / 2, seed: 8, background: 0.025 });
-    expect(kinds(analyzeSpectrum(diluted, { reference: ref }))).toContain('bleach');
+    expect(kinds(analyzeSpectrum(diluted, { reference: ref, normalization: { mode: 'none' } }))).toContain('bleach');
     const r = analyzeSpectrum(diluted, { reference: ref, normalization: { mode: 'concentration', sampleConcentration: 0.5, referenceConcentration: 1 } });
     expect(r.flags).toEqual([]);
+    // truth: the whole spectrum ×0.5 (generator), so the concentration ratio is 0.5
+    const auto = analyzeSpectrum(diluted, { reference: ref });
+    expect(kinds(auto)).toEqual(['concentration']);
+    expect(Math.abs(auto.flags[0]!.magnitude - 0.5)).toBeLessThan(0.02);
   });
   it('thresholds can be set: a 30 % bleach is not flagged with minBleachFraction 0.5', () => {
     const s = absorbanceSpectrum({ bands: PARENT_BANDS.map((b, i) => (i === 0 ? { ...b, a: b.a * 0.7 } : b)), noise, seed: 3 });
@@ -99,7 +103,7 @@ describe('PL vs parent (energy axis, excitation line excluded)', () => {
     expect(kinds(r)).toEqual(['pl-quench']);
     expect(Math.abs(r.flags[0]!.fraction! - 0.4)).toBeLessThan(0.02);
   });
-  it('quench corrected for absorbed fraction: equal PL from a sample absorbing twice as much is a quench', () => {
+  it('quench per absorbed photon: equal PL from a sample absorbing twice as much is a quench', () => {
     const aS = 0.08;
     const aR = 0.04;
     const r = analyzeSpectrum(plSpectrum({ e: 2.1, sigma: 0.05, area: 2000, noise: 0.5, seed: 14, laserNm: 400 }), {
@@ -108,8 +112,10 @@ describe('PL vs parent (energy axis, excitation line excluded)', () => {
       sampleAbsorbanceAtExcitation: aS,
       referenceAbsorbanceAtExcitation: aR,
     });
-    // expected 1 − (f_R/f_S)·10^((aS − aR)/2) with f = 1 − 10^−A (IUPAC; inner filter, secondary)
-    const expected = 1 - ((1 - 10 ** -aR) / (1 - 10 ** -aS)) * 10 ** ((aS - aR) / 2);
+    // one inner-filter model (right-angle cell viewed at its centre; Lakowicz 2006 §2.12, secondary):
+    // emission per absorbed photon ∝ F·10^(A_ex/2)/A_ex, so 1 − (A_R/A_S)·10^((A_S − A_R)/2) (no
+    // absorbed fraction 1 − 10^−A on top, which would count the primary inner filter twice)
+    const expected = 1 - (aR / aS) * 10 ** ((aS - aR) / 2);
     expect(kinds(r)).toEqual(['pl-quench']);
     expect(Math.abs(r.flags[0]!.fraction! - expected)).toBeLessThan(0.02);
   });

@@ -78,7 +78,9 @@ describe('significance on the real CdSe growth series (real-spectra/cdse-absorba
     expect(r.flags.length).toBeGreaterThan(0);
     for (const f of r.flags) {
       // bleach significance uses the part of the drop not explained by a shift (docs/analysis-json.md)
-      if (f.kind !== 'bleach') expect(f.significance).toBeCloseTo(Math.abs(f.magnitude) / f.uncertainty, 6);
+      // a concentration flag's magnitude is the ratio; its significance is |ratio − 1| / u
+      if (f.kind === 'concentration') expect(f.significance).toBeCloseTo(Math.abs(f.magnitude - 1) / f.uncertainty, 6);
+      else if (f.kind !== 'bleach') expect(f.significance).toBeCloseTo(Math.abs(f.magnitude) / f.uncertainty, 6);
       if (f.unit === 'fraction') {
         // u(fraction) ≥ 0.005·√2·(1 − fraction) for a bleach (A_s/A_r = 1 − fraction)
         expect(f.uncertainty).toBeGreaterThanOrEqual(0.005 * Math.SQRT2 * (1 - f.fraction!) * 0.999);

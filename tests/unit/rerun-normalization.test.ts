@@ -41,7 +41,7 @@ describe("normalisation in the re-analysis schema", () => {
     expect(refusal({ normalization: { mode: "concentration", sampleConcentration: 1 } })).toBe("normalization.referenceConcentration: is required for mode concentration");
     expect(refusal({ normalization: { mode: "concentration", sampleConcentration: 1, referenceConcentration: 1001 } }))
       .toBe("normalization.referenceConcentration: the two concentrations must lie within a factor of 1000 of each other");
-    expect(refusal({ normalization: { mode: "area" } })).toBe("normalization.mode: must be one of none, wavelength, concentration");
+    expect(refusal({ normalization: { mode: "area" } })).toBe("normalization.mode: must be one of auto, none, wavelength, concentration");
     expect(refusal({ normalization: "concentration" })).toBe("normalization: must be an object with a mode, or null");
     expect(refusal({ normalization: { mode: "none", wavelengthNm: 450 } })).toMatch(/^normalization: Unrecognized key/);
   });
@@ -59,14 +59,16 @@ describe("normalisation in the re-analysis schema", () => {
 describe("normalisation in the stored parameters and their hash", () => {
   const byConcentration = { mode: "concentration" as const, sampleConcentration: 0.6, referenceConcentration: 1 };
 
-  it("replaces the whole normalisation, keeps it when absent, clears it with null or mode none", () => {
+  it("replaces the whole normalisation, keeps it when absent, clears it with null or mode auto, keeps an explicit none", () => {
     const withConcentration = mergeParameters(base, reanalysisSchema.parse({ normalization: byConcentration }));
     expect(withConcentration).toEqual({ ...base, normalization: byConcentration });
     const atWavelength = mergeParameters(withConcentration, reanalysisSchema.parse({ normalization: { mode: "wavelength", wavelengthNm: 450 } }));
     expect(atWavelength.normalization).toEqual({ mode: "wavelength", wavelengthNm: 450 });
     expect(mergeParameters(atWavelength, reanalysisSchema.parse({ smoothingWindow: 21 })).normalization).toEqual({ mode: "wavelength", wavelengthNm: 450 });
     expect(mergeParameters(atWavelength, reanalysisSchema.parse({ normalization: null }))).toEqual(base);
-    expect(mergeParameters(atWavelength, reanalysisSchema.parse({ normalization: { mode: "none" } }))).toEqual(base);
+    expect(mergeParameters(atWavelength, reanalysisSchema.parse({ normalization: { mode: "auto" } }))).toEqual(base);
+    // engine 2 defaults to auto: "none" must stay stored so the run is re-run unscaled
+    expect(mergeParameters(atWavelength, reanalysisSchema.parse({ normalization: { mode: "none" } }))).toEqual({ ...base, normalization: { mode: "none" } });
   });
 
   it("a different normalisation is a new run; the same one, however written, is the same run", () => {
@@ -79,9 +81,10 @@ describe("normalisation in the stored parameters and their hash", () => {
     const otherRatio = parameterHash(mergeParameters(base, reanalysisSchema.parse({ normalization: { ...byConcentration, sampleConcentration: 0.5 } })), referenceId);
     const wavelength = parameterHash(mergeParameters(base, reanalysisSchema.parse({ normalization: { mode: "wavelength", wavelengthNm: 450 } })), referenceId);
     const none = parameterHash(mergeParameters(base, reanalysisSchema.parse({ normalization: { mode: "none" } })), referenceId);
+    const auto = parameterHash(mergeParameters(base, reanalysisSchema.parse({ normalization: { mode: "auto" } })), referenceId);
     expect(reordered).toBe(concentration);
-    expect(new Set([plain, concentration, otherRatio, wavelength]).size).toBe(4);
-    expect(none).toBe(plain);
+    expect(new Set([plain, concentration, otherRatio, wavelength, none]).size).toBe(5);
+    expect(auto).toBe(plain);
   });
 });
 
@@ -95,6 +98,8 @@ describe("the re-run form's normalisation fields", () => {
     expect(wavelength.success && toReanalysisChanges(wavelength.data)).toEqual({ normalization: { mode: "wavelength", wavelengthNm: 450 } });
     const none = form({ normalizationMode: "none" });
     expect(none.success && toReanalysisChanges(none.data)).toEqual({ normalization: { mode: "none" } });
+    const auto = form({ normalizationMode: "auto" });
+    expect(auto.success && toReanalysisChanges(auto.data)).toEqual({ normalization: { mode: "auto" } });
     const kept = form({ normalizationMode: "", smoothingWindow: "21" });
     expect(kept.success && toReanalysisChanges(kept.data)).toEqual({ smoothingWindow: 21 });
   });
@@ -114,7 +119,7 @@ describe("the re-run form's normalisation fields", () => {
     expect(errorsOf({ normalizationMode: "concentration", sampleConcentration: "1", referenceConcentration: "2000" })).toEqual({
       referenceConcentration: ["The two concentrations must lie within a factor of 1000 of each other"],
     });
-    expect(errorsOf({ normalizationMode: "area" })).toEqual({ normalizationMode: ["Normalisation must be none, at a wavelength or by concentration"] });
+    expect(errorsOf({ normalizationMode: "area" })).toEqual({ normalizationMode: ["Normalisation must be automatic, none, at a wavelength or by concentration"] });
   });
 
   it("accepts a normalisation exactly when the API schema does", () => {

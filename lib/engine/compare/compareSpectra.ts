@@ -1,14 +1,24 @@
-import { CM1_PER_EV, FWHM_PER_SIGMA, HC_EV_NM } from '../constants';
+import { CM1_PER_EV, HC_EV_NM } from '../constants';
 import { savitzkyGolayNoiseGain } from '../signal/savitzkyGolayWeights';
 import type { ProcessedSpectrum } from '../processSpectrum';
 import type { AnalysisThresholds, FlagReport, Technique } from '../types';
 import { findLocalMaxima } from '../peaks/findLocalMaxima';
 import { peakProminences } from '../peaks/peakProminences';
 import { fitShiftBroadening } from './fitShiftBroadening';
-import { innerFilterFactor } from '../derived/innerFilterFactor';
+import { peakWidths } from '../peaks/peakWidths';
+import { emissionPerAbsorbedPhoton } from '../derived/emissionPerAbsorbedPhoton';
+import { atmosphericBandsInRange, type AtmosphericBandReport } from './atmosphericBands';
 
-/** Mid-IR upper edge used to call a new band intraband: 4000 cm⁻¹ ≈ 0.496 eV (common practice). */
+/** Mid-IR upper edge for an intraband candidate: 4000 cm⁻¹ ≈ 0.496 eV (common practice). */
 export const MID_IR_MAX_EV = 0.496;
+
+/**
+ * Smallest FWHM of a new mid-IR band offered as an intraband (1Se–1Pe) candidate: 100 cm⁻¹. The
+ * intraband absorption of n-doped dots is broad, typically hundreds of cm⁻¹ (Shim &
+ * Guyot-Sionnest, Nature 2000, 407, 981; from memory), while vibrational bands of ligands and
+ * residues are tens of cm⁻¹ or narrower (common practice).
+ */
+export const MIN_INTRABAND_FWHM_CM1 = 100;
 
 /**
  * Relative systematic standard uncertainty of a measured signal (photometric accuracy, baseline,
@@ -26,7 +36,18 @@ export interface CompareOptions {
   referenceAbsorbanceAtExcitation?: number | undefined;
   sampleAbsorbanceAtEmission?: number | undefined;
   referenceAbsorbanceAtEmission?: number | undefined;
+  sampleDotsAbsorbanceAtExcitation?: number | undefined;
+  referenceDotsAbsorbanceAtExcitation?: number | undefined;
   forceInnerFilterCorrection?: boolean | undefined;
+  /** Relative standard uncertainty of the concentration scaling applied to the sample (0 when none was fitted). */
+  scaleRelativeUncertainty?: number | undefined;
+}
+
+export interface ComparisonResult {
+  flags: FlagReport[];
+  warnings: string[];
+  /** Mid-IR: atmospheric bands inside the range, masked before any band flag. */
+  atmosphericBands: AtmosphericBandReport[];
 }
 
 function interpAt(e: Float64Array, y: Float64Array, x: number): number {
@@ -45,8 +66,9 @@ function interpAt(e: Float64Array, y: Float64Array, x: number): number {
  * significance |magnitude|/uncertainty. A flag needs both its magnitude threshold and the
  * significance threshold.
  */
-export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: CompareOptions): { flags: FlagReport[]; warnings: string[] } {
+export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: CompareOptions): ComparisonResult {
   const t = o.thresholds;
+  const scaleRel = o.scaleRelativeUncertainty ?? 0;
   const flags: FlagReport[] = [];
   const warnings: string[] = [];
   const n = s.energy.length;
@@ -58,14 +80,33 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
   // ---- shift and broadening around the reference's first exciton (or main band)
   let fit: ReturnType<typeof fitShiftBroadening> = null;
   let fitRange: [number, number] | null = null;
+  let explain: ReturnType<typeof fitShiftBroadening> = null;
   if (fx && fx.fwhmMeV) {
-    const half = Math.max(1.5 * (fx.fwhmMeV / 1000), 6 * s.step);
-    const from = Math.max(guard, Math.ceil((fx.energyEv - half - E[0]!) / s.step));
-    const to = Math.min(n - guard, Math.floor((fx.energyEv + half - E[0]!) / s.step) + 1);
+    // the window follows the band's width: ±1.5 FWHM for an emission band; for absorption the
+    // high-energy side stops at +0.5 FWHM, where the next transitions start to overlap (common practice)
+    const below = Math.max(1.5 * (fx.fwhmMeV / 1000), 6 * s.step);
+    const above = Math.max((o.technique === 'absorption' ? 0.5 : 1.5) * (fx.fwhmMeV / 1000), 6 * s.step);
+    const from = Math.max(guard, Math.ceil((fx.energyEv - below - E[0]!) / s.step));
+    const to = Math.min(n - guard, Math.floor((fx.energyEv + above - E[0]!) / s.step) + 1);
     // S − R noise: raw sample noise plus smoothed reference noise
     const sigmaFit = Math.sqrt(s.sigma ** 2 + r.sigmaSmoothed ** 2);
-    fit = fitShiftBroadening(E, s.raw, r.smoothed, r.firstDerivative, r.secondDerivative, from, to, sigmaFit);
-    if (fit) fitRange = [E[from]!, E[to - 1]!];
+    // the fitted model explains differences over ±1.5 FWHM even where the fit stopped short
+    const wide = Math.max(1.5 * (fx.fwhmMeV / 1000), 6 * s.step);
+    const evaluate = {
+      from: Math.max(guard, Math.min(from, Math.ceil((fx.energyEv - wide - E[0]!) / s.step))),
+      to: Math.min(n - guard, Math.max(to, Math.floor((fx.energyEv + wide - E[0]!) / s.step) + 1)),
+    };
+    // refined by convolution only from half the flag threshold up (a ≥ 5 % wider line, by default)
+    const f0 = fx.fwhmMeV / 1000;
+    const refineAbove = ((((1 + 0.5 * t.minBroadeningFraction) * f0) ** 2 - f0 * f0) / (8 * Math.LN2)) * 0.8;
+    fit = fitShiftBroadening(E, s.raw, r.smoothed, r.firstDerivative, r.secondDerivative, from, to, sigmaFit, evaluate, refineAbove);
+    if (fit) fitRange = [E[fit.from]!, E[fit.to - 1]!];
+    // for absorption also a symmetric ±1.5 FWHM fit, used only to explain differences (a shift of
+    // the first exciton alone leaves the next transitions behind; one window cannot serve both)
+    const moved = fit && (Math.abs(fit.shiftEv) > 2 * fit.sigmaShiftEv || Math.abs(fit.broadeningVarianceEv2) > 2 * fit.sigmaBroadeningVarianceEv2);
+    if (moved && o.technique === 'absorption' && (evaluate.from < from || evaluate.to > to)) {
+      explain = fitShiftBroadening(E, s.raw, r.smoothed, r.firstDerivative, r.secondDerivative, evaluate.from, evaluate.to, sigmaFit, evaluate, Infinity);
+    }
     else warnings.push('shift/broadening fit around the first exciton did not converge');
   }
   if (fit && fx) {
@@ -83,6 +124,7 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
         unit: 'meV',
         uncertainty: fit.sigmaShiftEv * 1000,
         significance: sig,
+        bandRole: o.technique === 'pl' ? 'emission-band' : 'excitonic-transition',
         message: `${o.technique === 'pl' ? 'emission' : 'first exciton'} ${shiftMeV < 0 ? 'red' : 'blue'}-shifted by ${Math.abs(shiftMeV).toFixed(1)} meV`,
       });
     }
@@ -104,31 +146,37 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
         unit: 'meV',
         uncertainty: sigDF * 1000,
         significance: sigB,
+        bandRole: o.technique === 'pl' ? 'emission-band' : 'excitonic-transition',
         message: `${o.technique === 'pl' ? 'emission' : 'first-exciton'} FWHM ${dF > 0 ? 'broadened' : 'narrowed'} by ${Math.abs(dF * 1000).toFixed(1)} meV (${((100 * dF) / f0).toFixed(1)} %)`,
       });
     }
   }
 
-  // ---- bleach at the reference's first-exciton energy (absorption)
-  if (fx && o.technique !== 'pl') {
+  // ---- bleach at the reference's first-exciton energy (absorption), net of any shift/broadening:
+  // the drop of the band after following it (fitted model without its amplitude change minus the
+  // sample, at E*), so a shift's share of the drop at a fixed energy is not counted as bleach.
+  if (fx && o.technique === 'absorption') {
     const Ar = interpAt(E, r.smoothed, fx.energyEv);
     const As = interpAt(E, s.smoothed, fx.energyEv);
     if (Ar > 0) {
-      const fraction = (Ar - As) / Ar;
-      // noise part, plus 0.5 % systematic on each of A_s and A_r (SYSTEMATIC_RELATIVE)
-      const sigma = Math.sqrt((s.sigmaSmoothed / Ar) ** 2 + ((As * r.sigmaSmoothed) / (Ar * Ar)) ** 2 + 2 * (SYSTEMATIC_RELATIVE * (As / Ar)) ** 2);
-      // part of the drop not explained by a shift, broadening or offset
-      let unexplained = fraction;
+      const gross = (Ar - As) / Ar;
+      let fraction = gross;
       if (fit) {
         const k = Math.round((fx.energyEv - E[0]!) / s.step);
         const kk = k - fit.from;
         if (kk >= 0 && kk < fit.model.length) {
-          const noAmp = fit.model[kk]! - fit.alpha * interpAt(E, r.smoothed, E[k]! - fit.shiftEv);
-          unexplained = (noAmp - s.smoothed[k]!) / Ar;
+          // the reference as the fit moved and broadened it, without amplitude change or offset
+          const followed = fit.model[kk]! - fit.alpha * fit.base[kk]! - fit.offset;
+          fraction = (followed - s.smoothed[k]!) / Ar;
         }
       }
-      const sig = sigma > 0 ? unexplained / sigma : 0;
-      if (fraction >= t.minBleachFraction && unexplained >= t.minBleachFraction && sig >= t.minSignificance) {
+      // noise part, 0.5 % systematic on each of A_s and A_r (SYSTEMATIC_RELATIVE), and the
+      // concentration scale's own uncertainty
+      const ratio = 1 - fraction;
+      const sigma = Math.sqrt((s.sigmaSmoothed / Ar) ** 2 + ((As * r.sigmaSmoothed) / (Ar * Ar)) ** 2 + 2 * (SYSTEMATIC_RELATIVE * ratio) ** 2 + (scaleRel * ratio) ** 2);
+      const sig = sigma > 0 ? fraction / sigma : 0;
+      if (fraction >= t.minBleachFraction && sig >= t.minSignificance) {
+        const netOfShift = fit && Math.abs(gross - fraction) > 1e-9;
         flags.push({
           kind: 'bleach',
           energyEv: fx.energyEv,
@@ -140,7 +188,8 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
           unit: 'fraction',
           uncertainty: sigma,
           significance: sig,
-          message: `first-exciton absorbance down ${(100 * fraction).toFixed(1)} % at ${fx.wavelengthNm.toFixed(1)} nm`,
+          bandRole: 'excitonic-transition',
+          message: `first-exciton absorbance down ${(100 * fraction).toFixed(1)} % at ${fx.wavelengthNm.toFixed(1)} nm${netOfShift ? ` (band followed through its shift; ${(100 * gross).toFixed(1)} % at the fixed wavelength)` : ''}`,
         });
       }
     }
@@ -169,10 +218,28 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
     if (fit) {
       value = Math.min(value, sDer[i]! - interpAt(E, rDer, E[i]! - fit.shiftEv));
       if (fitRange && E[i]! >= fitRange[0] && E[i]! <= fitRange[1]) value = Math.min(value, s.smoothed[i]! - fit.model[i - fit.from]!);
+      if (explain && i >= explain.from && i < explain.to) value = Math.min(value, s.smoothed[i]! - explain.model[i - explain.from]!);
     }
     excess[i - lo] = value;
   }
+  // mid-IR: atmospheric residues masked before anything is searched for (atmosphericBands.ts)
+  let atmosphericBands: AtmosphericBandReport[] = [];
+  if (o.technique === 'ir') {
+    const rawDiff = new Float64Array(n);
+    const smoothDiff = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      rawDiff[i] = s.raw[i]! - r.raw[i]!;
+      smoothDiff[i] = sDer[i]! - rDer[i]!;
+    }
+    atmosphericBands = atmosphericBandsInRange(E, excess, lo, rawDiff, smoothDiff, sigmaDiffRaw, sigmaD, t.minSignificance);
+    for (const b of atmosphericBands) {
+      if (b.present) warnings.push(`${b.name} (${b.fromCm1}–${b.toCm1} cm⁻¹) seen in the difference: atmospheric, ${b.masked ? 'masked' : 'not masked'} before band flags`);
+    }
+  }
   const uncertaintyAt = (i: number) => Math.sqrt(sigmaD ** 2 + SYSTEMATIC_RELATIVE ** 2 * (sDer[i]! ** 2 + rDer[i]! ** 2));
+  // a band of the reference that grew is a changed band, not a new one (mid-IR: band-change below)
+  const referenceBands = o.technique === 'ir' ? r.peaks : [];
+  const hasCounterpart = (e: number) => referenceBands.some((p) => Math.abs(p.energyEv - e) <= Math.max((p.fwhmMeV ?? 0) / 1000, wd * s.step));
   const candidates: FlagReport[] = [];
   const maxima = findLocalMaxima(excess);
   // prominences only when some maximum passes the height thresholds (none in most noise-only pairs)
@@ -206,7 +273,14 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
     const prom = prominences[k]!;
     if (!(prom >= t.minSignificance * u && prom / scale >= t.minNewBandFraction)) continue;
     const e = bandTop(E, excess, lo, j, leftBases[k]!, rightBases[k]!);
-    const intraband = e <= MID_IR_MAX_EV;
+    if (hasCounterpart(e)) continue;
+    // FWHM at half its prominence in the unexplained difference (scipy.signal.peak_widths definition)
+    const wp = peakWidths(padded, [j + 1], [prom], [leftPadded[k]!], [rightPadded[k]!], 0.5).widths[0]!;
+    const widthMeV = wp > 0 ? wp * s.step * 1000 : null;
+    const widthCm1 = widthMeV !== null ? (widthMeV / 1000) * CM1_PER_EV : null;
+    const intraband = o.technique === 'ir' && e <= MID_IR_MAX_EV && widthCm1 !== null && widthCm1 >= MIN_INTRABAND_FWHM_CM1;
+    const where = `${e.toFixed(3)} eV (${(HC_EV_NM / e).toFixed(0)} nm, ${(e * CM1_PER_EV).toFixed(0)} cm⁻¹)`;
+    const wide = widthCm1 !== null ? `, FWHM ${o.technique === 'ir' ? `${widthCm1.toFixed(0)} cm⁻¹` : `${widthMeV!.toFixed(0)} meV`}` : '';
     candidates.push({
       kind: 'new-band',
       energyEv: e,
@@ -219,7 +293,12 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
       uncertainty: u,
       significance: sig,
       intraband,
-      message: `new band at ${e.toFixed(3)} eV (${(HC_EV_NM / e).toFixed(0)} nm, ${(e * CM1_PER_EV).toFixed(0)} cm⁻¹)${intraband ? ', in the mid-IR: intraband' : ''}`,
+      widthMeV,
+      ...(o.technique === 'ir' ? { bandRole: intraband ? ('intraband-candidate' as const) : ('vibrational-band' as const) } : o.technique === 'pl' ? { bandRole: 'emission-band' as const } : {}),
+      message:
+        o.technique === 'ir'
+          ? `new ${intraband ? 'broad ' : ''}band at ${(e * CM1_PER_EV).toFixed(0)} cm⁻¹ (${e.toFixed(3)} eV)${wide}, with no counterpart in the reference${intraband ? ': intraband candidate' : ''}`
+          : `new ${o.technique === 'pl' ? 'emission ' : ''}band at ${where}${wide}`,
     });
   }
   // one flag per band: the strongest candidate within ± one derivative window
@@ -230,6 +309,45 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
   }
   kept.sort((a, b) => a.energyEv! - b.energyEv!);
   flags.push(...kept);
+
+  // ---- mid-IR: bands of the reference that grew or shrank (ratio of the band tops)
+  if (o.technique === 'ir') {
+    const masked = (e: number) => atmosphericBands.some((b) => b.masked && e * CM1_PER_EV >= b.fromCm1 && e * CM1_PER_EV <= b.toCm1);
+    for (const p of r.peaks) {
+      if (p.kind !== 'maximum' || p.index < guard || p.index >= n - guard || masked(p.energyEv)) continue;
+      const Rv = r.smoothed[p.index]!;
+      if (!(Rv > 0)) continue;
+      // the sample's top within ± half the band's FWHM (follows a small shift)
+      const reach = Math.max(1, Math.round((p.fwhmMeV ?? 0) / 1000 / 2 / s.step));
+      let Sv = -Infinity;
+      let at = p.index;
+      for (let i = Math.max(0, p.index - reach); i <= Math.min(n - 1, p.index + reach); i++) if (s.smoothed[i]! > Sv) {
+        Sv = s.smoothed[i]!;
+        at = i;
+      }
+      const ratio = Sv / Rv;
+      const change = ratio - 1;
+      const sigma = Math.sqrt((s.sigmaSmoothed / Rv) ** 2 + ((Sv * r.sigmaSmoothed) / (Rv * Rv)) ** 2 + 2 * (SYSTEMATIC_RELATIVE * ratio) ** 2 + (scaleRel * ratio) ** 2);
+      const sig = sigma > 0 ? Math.abs(change) / sigma : 0;
+      if (Math.abs(change) >= t.minBandChangeFraction && sig >= t.minSignificance) {
+        const e = E[at]!;
+        flags.push({
+          kind: 'band-change',
+          energyEv: e,
+          wavelengthNm: HC_EV_NM / e,
+          fraction: change,
+          shiftMeV: null,
+          fwhmChangeMeV: null,
+          magnitude: change,
+          unit: 'fraction',
+          uncertainty: sigma,
+          significance: sig,
+          bandRole: 'vibrational-band',
+          message: `band at ${(p.energyEv * CM1_PER_EV).toFixed(0)} cm⁻¹ ${change > 0 ? 'grew' : 'shrank'} to ${ratio.toFixed(2)}× the reference's`,
+        });
+      }
+    }
+  }
 
   // ---- PL quench on the energy axis
   if (o.technique === 'pl') {
@@ -245,24 +363,40 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
     Fs *= s.step;
     Fr *= s.step;
     if (!o.excitationNm) warnings.push('excitation wavelength unknown: the PL integral may include the excitation/scatter line');
+    // emission per photon absorbed by the dots (emissionPerAbsorbedPhoton: one inner-filter model)
     let corr = 1;
+    let corrected = false;
+    let notCorrected = 'not corrected for absorbance';
     if (o.sampleAbsorbanceAtExcitation !== undefined && o.referenceAbsorbanceAtExcitation !== undefined) {
-      const fS = 1 - 10 ** -o.sampleAbsorbanceAtExcitation;
-      const fR = 1 - 10 ** -o.referenceAbsorbanceAtExcitation;
-      if (fS > 0 && fR > 0) corr *= fR / fS;
-      const ifS = innerFilterFactor(o.sampleAbsorbanceAtExcitation, o.sampleAbsorbanceAtEmission ?? 0, o.forceInnerFilterCorrection);
-      const ifR = innerFilterFactor(o.referenceAbsorbanceAtExcitation, o.referenceAbsorbanceAtEmission ?? 0, o.forceInnerFilterCorrection);
-      corr *= ifS.factor / ifR.factor;
-      warnings.push(...ifS.warnings.map((w) => `sample: ${w}`), ...ifR.warnings.map((w) => `reference: ${w}`));
+      if (o.sampleAbsorbanceAtEmission === undefined || o.referenceAbsorbanceAtEmission === undefined) {
+        warnings.push('absorbance at the emission band not given for both spectra: taken as 0 (no secondary inner-filter correction)');
+      }
+      const cs = emissionPerAbsorbedPhoton(
+        { excitation: o.sampleAbsorbanceAtExcitation, emission: o.sampleAbsorbanceAtEmission ?? 0, dotsAtExcitation: o.sampleDotsAbsorbanceAtExcitation },
+        o.forceInnerFilterCorrection,
+      );
+      const cr = emissionPerAbsorbedPhoton(
+        { excitation: o.referenceAbsorbanceAtExcitation, emission: o.referenceAbsorbanceAtEmission ?? 0, dotsAtExcitation: o.referenceDotsAbsorbanceAtExcitation },
+        o.forceInnerFilterCorrection,
+      );
+      if (cs.applied && cr.applied) {
+        corr = cs.factor / cr.factor;
+        corrected = true;
+        warnings.push(...cs.warnings.map((w) => `sample: ${w}`), ...cr.warnings.map((w) => `reference: ${w}`));
+      } else {
+        const why = !cs.applied ? `sample: ${cs.reason}` : !cr.applied ? `reference: ${cr.reason}` : '';
+        notCorrected = `not corrected for absorbance: ${why}`;
+        warnings.push(`emission not corrected for absorbance (${why})`);
+      }
     } else {
-      warnings.push('absorbances at the excitation wavelength not given: PL quench not corrected for absorbed fraction or inner filter');
+      warnings.push('absorbances at the excitation not given: emission compared as measured, not per absorbed photon (a dilution reads as a drop)');
     }
     if (Fr > 0 && count > 0) {
       const ratio = (Fs / Fr) * corr;
       const fraction = 1 - ratio;
       const sFs = s.sigma * s.step * Math.sqrt(count);
       const sFr = r.sigma * s.step * Math.sqrt(count);
-      const sigma = Math.abs(ratio) * Math.sqrt((sFs / Math.max(Math.abs(Fs), 1e-300)) ** 2 + (sFr / Fr) ** 2 + 2 * SYSTEMATIC_RELATIVE ** 2);
+      const sigma = Math.abs(ratio) * Math.sqrt((sFs / Math.max(Math.abs(Fs), 1e-300)) ** 2 + (sFr / Fr) ** 2 + 2 * SYSTEMATIC_RELATIVE ** 2 + scaleRel ** 2);
       const sig = sigma > 0 ? fraction / sigma : 0;
       if (fraction >= t.minQuenchFraction && sig >= t.minSignificance) {
         flags.push({
@@ -276,19 +410,20 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
           unit: 'fraction',
           uncertainty: sigma,
           significance: sig,
-          message: `integrated PL down ${(100 * fraction).toFixed(1)} %`,
+          bandRole: 'emission-band',
+          message: corrected
+            ? `emission per absorbed photon down ${(100 * fraction).toFixed(1)} %`
+            : `emission down ${(100 * fraction).toFixed(1)} % (${notCorrected})`,
         });
       } else if (fraction <= -t.minQuenchFraction && -sig >= t.minSignificance) {
-        warnings.push(`integrated PL up ${(-100 * fraction).toFixed(1)} % against the reference`);
+        warnings.push(`integrated emission${corrected ? ' per absorbed photon' : ''} up ${(-100 * fraction).toFixed(1)} % against the reference`);
       }
     } else {
       warnings.push('reference PL integral is not positive: quench not computed');
     }
   }
-  void FWHM_PER_SIGMA;
-  return { flags, warnings };
+  return { flags, warnings, atmosphericBands };
 }
-
 /**
  * Energy of a difference band's top: vertex of a least-squares parabola through the points of
  * its peak (between its prominence bases) that lie above 80 % of the way from the higher base

@@ -33,7 +33,7 @@ export interface ExcitonicPeakOptions {
   local?: { raw: ArrayLike<number>; smoothingGain: number; halfWidth?: number; maxBlockLength?: number };
 }
 
-export interface ExcitonicPeak extends PeakReport {
+export interface ExcitonicPeak extends Omit<PeakReport, 'bandRole'> {
   index: number;
 }
 

@@ -16,6 +16,12 @@ def answer(req):
         y = np.asarray(req["y"], dtype=float)
         out = savgol_filter(y, req["window"], req["poly"], deriv=req["deriv"], delta=req["delta"], mode="interp")
         return out.tolist()
+    if op == "lstsq":
+        # ordinary least squares of y on the given columns (numpy.linalg.lstsq)
+        a = np.asarray(req["columns"], dtype=float).T
+        y = np.asarray(req["y"], dtype=float)
+        coef, *_ = np.linalg.lstsq(a, y, rcond=None)
+        return coef.tolist()
     if op == "coeffs":
         return savgol_coeffs(req["window"], req["poly"], deriv=req["deriv"], use="dot").tolist()
     if op == "peaks":

@@ -1,0 +1,256 @@
+import { solveLinearSystem } from '../signal/solveLinearSystem';
+
+/**
+ * Separates a concentration change and a smooth background from band changes, before any band is
+ * compared: fits S(E) ≈ k·R(E) + k·δ·R'(E) + b₀ + b₁·(E − E_c) + c·(E/E_c)^p on the energies that carry no
+ * claimed band change (the caller's mask: for absorption the continuum well above the band edge,
+ * where absorbance tracks the number of dots rather than their size, plus the transparent region
+ * below the gap, which pins the background).
+ *
+ * Sources and practice: scaling on the high-energy continuum is how concentrations are read from
+ * absorbance (Yu, Qu, Guo & Peng, Chem. Mater. 2003, 15, 2854; Leatherdale et al., J. Phys. Chem.
+ * B 2002, 106, 7619; citations from memory); an offset or a slope from cuvette mismatch and a
+ * scattering tail ∝ λ^−p (p = 4 for small scatterers, flatter for large; Rayleigh) are smooth and
+ * are not bands (common practice).
+ *
+ * The scattering power is chosen among 2, 3 and 4 (p = 1 is the slope) and kept only when it
+ * lowers χ² by at least 25 noise variances (a 5σ improvement for one extra parameter; likelihood
+ * ratio, common practice). The R' term (first-order Taylor shift δ) lets a uniform shift of the
+ * continuum through without biasing k. Local features the smooth model cannot follow (a new band in
+ * the transparent region) are clipped where the caller allows it (`clippable`: the transparent
+ * region, never the continuum k is read from): points where the residual averaged over `clipWindow`
+ * points exceeds 4 standard errors are dropped, with `clipWindow` points either side, and the fit
+ * is repeated (at most 3 times). Linear least squares; k's standard uncertainty from the
+ * covariance with the combined noise σ² = σ_S² + k²σ_R².
+ */
+export interface ConcentrationFit {
+  /** k: sample/reference concentration ratio. */
+  ratio: number;
+  sigmaRatio: number;
+  /** Background on the whole grid (signal units of the sample). */
+  background: Float64Array;
+  /** Background = offset + slope·E + scatter·(E/centreEv)^scatterPower (E in eV). */
+  offset: number;
+  slope: number;
+  centreEv: number;
+  scatter: number;
+  scatterPower: number | null;
+  /** Points used after clipping. */
+  used: number;
+  clipped: number;
+}
+
+const POWERS = [2, 3, 4] as const;
+
+/**
+ * The smooth background offset + slope·E + scatter·(E/centreEv)^scatterPower on an energy axis (eV):
+ * the engine and the viewer (lib/spectrum-view/deriveViewArrays.ts) evaluate it with this one function.
+ */
+export function evaluateBackground(
+  energy: ArrayLike<number>,
+  b: { offset: number; slope: number; centreEv: number; scatter: number; scatterPower: number | null },
+): Float64Array {
+  const out = new Float64Array(energy.length);
+  for (let i = 0; i < out.length; i++) {
+    const e = energy[i]!;
+    out[i] = b.offset + b.slope * e + (b.scatterPower !== null ? b.scatter * (e / b.centreEv) ** b.scatterPower : 0);
+  }
+  return out;
+}
+/** χ² improvement (in noise variances) that a scattering term must bring to be kept. */
+const SCATTER_CHI2_GAIN = 25;
+const CLIP_Z = 4;
+const MAX_CLIP_ROUNDS = 3;
+
+export function fitConcentration(
+  energy: Float64Array,
+  sample: ArrayLike<number>,
+  reference: ArrayLike<number>,
+  referenceSlope: ArrayLike<number>,
+  mask: Uint8Array,
+  o: { sigmaSample: number; sigmaReference: number; clipWindow: number; allowSlopeAndScatter: boolean; clippable: Uint8Array },
+): ConcentrationFit | null {
+  const n = energy.length;
+  if (sample.length !== n || reference.length !== n || mask.length !== n) throw new RangeError('fitConcentration: arrays must share the grid');
+  const use = mask.slice();
+  // centre and scale of the energy columns (conditioning)
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let i = 0; i < n; i++) if (use[i]) {
+    lo = Math.min(lo, energy[i]!);
+    hi = Math.max(hi, energy[i]!);
+  }
+  if (!(hi > lo)) return null;
+  const centre = 0.5 * (lo + hi);
+  const half = 0.5 * (hi - lo);
+  let clipped = 0;
+  let best: { coef: Float64Array; cols: number[]; power: number | null; inv00: number } | null = null;
+  for (let round = 0; round <= MAX_CLIP_ROUNDS; round++) {
+    // one pass: cross-products of the columns [R, 1, u, (E/Ec)^2, (E/Ec)^3, (E/Ec)^4, R'] and S
+    const C = 7;
+    // scalar accumulators (this pass runs on every sample of a series: kept tight)
+    let s00 = 0, s01 = 0, s02 = 0, s03 = 0, s04 = 0, s05 = 0, s06 = 0, s11 = 0, s12 = 0, s13 = 0, s14 = 0, s15 = 0, s16 = 0, s22 = 0, s23 = 0, s24 = 0, s25 = 0, s26 = 0, s33 = 0, s34 = 0, s35 = 0, s36 = 0, s44 = 0, s45 = 0, s46 = 0, s55 = 0, s56 = 0, s66 = 0;
+    let y0 = 0, y1 = 0, y2 = 0, y3 = 0, y4 = 0, y5 = 0, y6 = 0;
+    let yy = 0;
+    let m = 0;
+    for (let i = 0; i < n; i++) {
+      if (!use[i]) continue;
+      const e = energy[i]!;
+      const t = e / centre;
+      const c0 = reference[i]!;
+      const c1 = 1;
+      const c2 = (e - centre) / half;
+      const c3 = t * t;
+      const c4 = c3 * t;
+      const c5 = c4 * t;
+      const c6 = referenceSlope[i]!;
+      const y = sample[i]!;
+      s00 += c0 * c0;
+      s01 += c0 * c1;
+      s02 += c0 * c2;
+      s03 += c0 * c3;
+      s04 += c0 * c4;
+      s05 += c0 * c5;
+      s06 += c0 * c6;
+      s11 += c1 * c1;
+      s12 += c1 * c2;
+      s13 += c1 * c3;
+      s14 += c1 * c4;
+      s15 += c1 * c5;
+      s16 += c1 * c6;
+      s22 += c2 * c2;
+      s23 += c2 * c3;
+      s24 += c2 * c4;
+      s25 += c2 * c5;
+      s26 += c2 * c6;
+      s33 += c3 * c3;
+      s34 += c3 * c4;
+      s35 += c3 * c5;
+      s36 += c3 * c6;
+      s44 += c4 * c4;
+      s45 += c4 * c5;
+      s46 += c4 * c6;
+      s55 += c5 * c5;
+      s56 += c5 * c6;
+      s66 += c6 * c6;
+      y0 += c0 * y;
+      y1 += c1 * y;
+      y2 += c2 * y;
+      y3 += c3 * y;
+      y4 += c4 * y;
+      y5 += c5 * y;
+      y6 += c6 * y;
+      yy += y * y;
+      m++;
+    }
+    const xtx = Float64Array.from([s00, s01, s02, s03, s04, s05, s06, s01, s11, s12, s13, s14, s15, s16, s02, s12, s22, s23, s24, s25, s26, s03, s13, s23, s33, s34, s35, s36, s04, s14, s24, s34, s44, s45, s46, s05, s15, s25, s35, s45, s55, s56, s06, s16, s26, s36, s46, s56, s66]);
+    const xty = Float64Array.from([y0, y1, y2, y3, y4, y5, y6]);
+    if (m < 16) return null;
+    const solve = (cols: number[]) => {
+      const p = cols.length;
+      const A = new Float64Array(p * p);
+      const b = new Float64Array(p);
+      for (let r = 0; r < p; r++) {
+        b[r] = xty[cols[r]!]!;
+        for (let c = 0; c < p; c++) A[r * p + c] = xtx[cols[r]! * C + cols[c]!]!;
+      }
+      const coef = solveLinearSystem(A, b, p);
+      if (!coef.every(Number.isFinite)) return null;
+      let fitted = 0;
+      for (let r = 0; r < p; r++) fitted += coef[r]! * b[r]!;
+      const e0 = new Float64Array(p);
+      e0[0] = 1;
+      const inv00 = solveLinearSystem(A, e0, p)[0]!;
+      return { coef, chi2: yy - fitted, inv00 };
+    };
+    const baseCols = o.allowSlopeAndScatter ? [0, 6, 1, 2] : [0, 6, 1];
+    const base = solve(baseCols);
+    if (!base) return null;
+    const k0 = base.coef[0]!;
+    const noiseVar = o.sigmaSample ** 2 + k0 * k0 * o.sigmaReference ** 2;
+    let chosen: { coef: Float64Array; cols: number[]; power: number | null; inv00: number } = { coef: base.coef, cols: baseCols, power: null, inv00: base.inv00 };
+    if (o.allowSlopeAndScatter) {
+      let bestChi2 = base.chi2;
+      for (const p of POWERS) {
+        const cols = [0, 6, 1, 2, p + 1];
+        const f = solve(cols);
+        if (!f) continue;
+        const scatterPositive = f.coef[4]! > 0;
+        if (scatterPositive && f.chi2 < bestChi2 && base.chi2 - f.chi2 >= SCATTER_CHI2_GAIN * noiseVar) {
+          bestChi2 = f.chi2;
+          chosen = { coef: f.coef, cols, power: p, inv00: f.inv00 };
+        }
+      }
+    }
+    best = chosen;
+    // clip local features the smooth model does not follow
+    // the chosen model's weight on each of the 7 columns (0 when not in the model)
+    const wcol = new Float64Array(C);
+    for (let r = 0; r < chosen.cols.length; r++) wcol[chosen.cols[r]!] = chosen.coef[r]!;
+    const model = (i: number) => {
+      const e = energy[i]!;
+      const t = e / centre;
+      const t2 = t * t;
+      return wcol[0]! * reference[i]! + wcol[6]! * referenceSlope[i]! + wcol[1]! + (wcol[2]! * (e - centre)) / half + t2 * (wcol[3]! + t * (wcol[4]! + t * wcol[5]!));
+    };
+    if (round === MAX_CLIP_ROUNDS) break;
+    const w = Math.max(1, o.clipWindow);
+    const sigma = Math.sqrt(noiseVar);
+    const resid = new Float64Array(n);
+    for (let i = 0; i < n; i++) if (use[i] && o.clippable[i]) resid[i] = sample[i]! - model(i);
+    // running mean of the residual over w points of each contiguous run of used, clippable points
+    const flag = new Uint8Array(n);
+    let any = false;
+    let runStart = -1;
+    for (let i = 0; i <= n; i++) {
+      if (i < n && use[i] && o.clippable[i]) {
+        if (runStart < 0) runStart = i;
+        continue;
+      }
+      if (runStart < 0) continue;
+      const win = Math.min(w, i - runStart);
+      const limit = (CLIP_Z * sigma) / Math.sqrt(win);
+      let sum = 0;
+      for (let j = runStart; j < runStart + win; j++) sum += resid[j]!;
+      for (let j = runStart; j + win <= i; j++) {
+        if (j > runStart) sum += resid[j + win - 1]! - resid[j - 1]!;
+        if (Math.abs(sum / win) > limit) {
+          any = true;
+          for (let q = Math.max(runStart, j - w); q < Math.min(i, j + win + w); q++) flag[q] = 1;
+        }
+      }
+      runStart = -1;
+    }
+    if (!any) break;
+    let dropped = 0;
+    for (let i = 0; i < n; i++) if (flag[i] && use[i]) {
+      use[i] = 0;
+      dropped++;
+    }
+    if (dropped === 0) break;
+    clipped += dropped;
+  }
+  if (!best) return null;
+  let used = 0;
+  for (let i = 0; i < n; i++) used += use[i]!;
+  const k = best.coef[0]!;
+  if (!(k > 0)) return null;
+  const noiseVar = o.sigmaSample ** 2 + k * k * o.sigmaReference ** 2;
+  const sigmaRatio = Math.sqrt(noiseVar * Math.max(best.inv00, 0));
+  const coefOf = (c: number) => {
+    const j = best.cols.indexOf(c);
+    return j >= 0 ? best.coef[j]! : 0;
+  };
+  const b0 = coefOf(1);
+  const b1 = coefOf(2);
+  const scatter = best.power !== null ? coefOf(best.power + 1) : 0;
+  const params = { offset: b0 - (b1 * centre) / half, slope: b1 / half, centreEv: centre, scatter, scatterPower: best.power };
+  return {
+    ratio: k,
+    sigmaRatio,
+    background: evaluateBackground(energy, params),
+    ...params,
+    used,
+    clipped,
+  };
+}
