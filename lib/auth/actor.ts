@@ -17,18 +17,20 @@ export type Actor = {
   via: "session" | "token";
 };
 
-type ActorRow = { id: string; email: string; name: string; is_site_admin: boolean; group_id: string | null; group_name: string | null; group_slug: string | null; role: Role | null };
+type ActorRow = { id: string; email: string; name: string; is_site_admin: boolean; session_version: number; group_id: string | null; group_name: string | null; group_slug: string | null; role: Role | null };
 
 /** A person with their memberships, in one query. */
-export async function loadActor(userId: string, via: Actor["via"]): Promise<Actor | null> {
+export async function loadActor(userId: string, via: Actor["via"], sessionVersion?: number): Promise<Actor | null> {
   const rows = await selectRows<ActorRow>(
-    `SELECT u.id, u.email, u.name, u.is_site_admin, m.group_id, g.name AS group_name, g.slug AS group_slug, m.role
+    `SELECT u.id, u.email, u.name, u.is_site_admin, u.session_version, m.group_id, g.name AS group_name, g.slug AS group_slug, m.role
      FROM users u LEFT JOIN memberships m ON m.user_id = u.id LEFT JOIN groups g ON g.id = m.group_id
      WHERE u.id = :userId`,
     { userId },
   );
   const first = rows[0];
   if (!first) return null;
+  // A session signed out (or otherwise revoked) since it was issued.
+  if (sessionVersion !== undefined && first.session_version !== sessionVersion) return null;
   const memberships = rows
     .filter((r) => r.group_id !== null && r.role !== null)
     .map((r) => ({ groupId: r.group_id!, groupName: r.group_name ?? "", groupSlug: r.group_slug ?? "", role: r.role! }))
@@ -39,8 +41,8 @@ export async function loadActor(userId: string, via: Actor["via"]): Promise<Acto
 /** The signed-in person of this request, or null. */
 export async function currentActor(): Promise<Actor | null> {
   const session = await getServerSession(authOptions);
-  const id = (session?.user as { id?: string } | undefined)?.id;
-  return id ? loadActor(id, "session") : null;
+  const user = session?.user as { id?: string; sessionVersion?: number } | undefined;
+  return user?.id ? loadActor(user.id, "session", user.sessionVersion ?? 0) : null;
 }
 
 /** For pages: the signed-in person, or a redirect to sign-in. */
