@@ -1,4 +1,5 @@
 import { Op, type WhereOptions } from "sequelize";
+import { csvLine } from "@/lib/csv/csvCell";
 import { z } from "zod";
 import type { Actor } from "@/lib/auth/actor";
 import { AuditEvent, Membership, models } from "@/models";
@@ -53,10 +54,6 @@ export async function auditActions(actor: Actor): Promise<string[]> {
 
 /** RFC 4180 CSV; cells that a spreadsheet would run as a formula are prefixed with '. */
 export function auditCsv(rows: AuditRow[]): string {
-  const cell = (v: string) => {
-    const safe = /^[=+\-@\t\r]/.test(v) ? `'${v}` : v;
-    return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
-  };
-  const lines = ["id,at,actor,action,target,details", ...rows.map((r) => [r.id, r.at, r.actor, r.action, r.target, r.details].map(cell).join(","))];
+  const lines = ["id,at,actor,action,target,details", ...rows.map((r) => csvLine([r.id, r.at, r.actor, r.action, r.target, r.details]))];
   return lines.join("\r\n") + "\r\n";
 }

@@ -32,7 +32,8 @@ export const revokeApiToken = protectedAction(z.object({ id: z.string().uuid() }
   return { ok: true, message: "Token revoked: scripts using it are refused from now on." };
 });
 
-const checkbox = z.union([z.literal("on"), z.undefined()]).transform((v) => v === "on");
+// An unticked checkbox sends no field at all: a missing key is "off" (optional, not a union with undefined).
+const checkbox = z.literal("on").optional().transform((v) => v === "on");
 
 export const saveNotifications = protectedAction(
   z.object({ notifyDigest: checkbox, notifyDecisions: checkbox }),
