@@ -90,6 +90,7 @@ describe("an upload of unbounded length", () => {
     clearInterval(sampler);
     sample();
 
+    console.info(`upload-memory: sent ${(outcome.sent / 2 ** 20).toFixed(0)} MiB, answer ${outcome.status ?? outcome.error}, peak app RSS ${(peak / 2 ** 20).toFixed(0)} MiB`);
     // The app either answered 413 while we were still sending, or closed the connection.
     if (outcome.status !== undefined) expect(outcome.status).toBe(413);
     else expect(outcome.error).toMatch(/ECONNRESET|EPIPE|socket hang up/);

@@ -8,7 +8,7 @@ import { redeemUnlockToken } from "@/lib/auth/rate-limit";
 // Open to people without a session, like accepting an invitation: the one-time token mailed
 // to the account's owner is the credential (random, stored hashed in Redis, expiring).
 
-const schema = z.object({ token: z.string().regex(/^[A-Za-z0-9_-]{20,64}$/, "token: this link is not complete.") });
+const schema = z.object({ token: z.string({ error: "token: this link is not complete." }).regex(/^[A-Za-z0-9_-]{20,64}$/, "token: this link is not complete.") });
 
 export async function unlockAccountAction(_previous: ActionState, formData: FormData): Promise<ActionState> {
   const parsed = schema.safeParse({ token: formData.get("token") });
