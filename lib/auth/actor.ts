@@ -1,5 +1,6 @@
 import { getServerSession } from "next-auth";
 import { redirect } from "next/navigation";
+import { Op } from "sequelize";
 import { selectRows } from "@/lib/db";
 import { sha256Hex } from "@/lib/hash";
 import { ApiToken, models } from "@/models";
@@ -84,7 +85,7 @@ async function actorFromToken(token: string): Promise<Actor | null> {
   if (TOKEN_CACHE_MS > 0) listenForRevocations();
   const epoch = TOKEN_CACHE_MS > 0 ? revocationEpoch() : null;
   models();
-  const row = await ApiToken.findOne({ where: { tokenHash, revokedAt: null } });
+  const row = await ApiToken.findOne({ where: { tokenHash, revokedAt: null, [Op.or]: [{ expiresAt: null }, { expiresAt: { [Op.gt]: new Date() } }] } });
   if (!row) {
     tokenCache.delete(tokenHash);
     return null;
@@ -97,7 +98,8 @@ async function actorFromToken(token: string): Promise<Actor | null> {
   // Cached only while revocations are heard, and not when one arrived during this lookup.
   if (actor && epoch !== null && revocationEpoch() === epoch) {
     if (tokenCache.size > 1000) tokenCache.clear();
-    tokenCache.set(tokenHash, { actor, until: Date.now() + TOKEN_CACHE_MS });
+    // Never past the token's expiry.
+    tokenCache.set(tokenHash, { actor, until: Math.min(Date.now() + TOKEN_CACHE_MS, row.expiresAt?.getTime() ?? Infinity) });
   }
   return actor;
 }
