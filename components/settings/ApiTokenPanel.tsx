@@ -4,15 +4,15 @@ import { useActionState } from "react";
 import { createApiToken, revokeApiToken } from "@/app/(app)/settings/actions";
 import { initialActionState } from "@/lib/actions/protected-state";
 import { inputClass } from "@/components/forms/Field";
+import { formatDay, formatWhen } from "@/lib/format/dates";
 
 type Token = { id: string; name: string; prefix: string; createdAt: string; lastUsedAt: string | null; revokedAt: string | null; expiresAt: string | null };
 
-const day = (iso: string) => new Date(iso).toLocaleDateString("en-GB", { timeZone: "UTC" });
 function tokenState(t: Token): string {
   if (t.revokedAt) return "revoked";
-  if (t.expiresAt && new Date(t.expiresAt).getTime() <= Date.now()) return `expired ${day(t.expiresAt)}`;
-  const used = t.lastUsedAt ? `last used ${new Date(t.lastUsedAt).toLocaleString("en-GB")}` : "never used";
-  return t.expiresAt ? `${used}; expires ${day(t.expiresAt)}` : used;
+  if (t.expiresAt && new Date(t.expiresAt).getTime() <= Date.now()) return `expired ${formatDay(t.expiresAt)}`;
+  const used = t.lastUsedAt ? `last used ${formatWhen(t.lastUsedAt)}` : "never used";
+  return t.expiresAt ? `${used}; expires ${formatDay(t.expiresAt)}` : used;
 }
 
 function RevokeButton({ id }: { id: string }) {
