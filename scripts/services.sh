@@ -111,9 +111,12 @@ start_postgres() {
   if as_pg "$bin/pg_ctl" -D "$data" status >/dev/null 2>&1; then
     log "PostgreSQL already running on $PGPORT_LOCAL"
   else
-    touch "$LOG_DIR/postgres.log"; [ "$(id -u)" = 0 ] && chown postgres "$LOG_DIR/postgres.log"
-    as_pg "$bin/pg_ctl" -D "$data" -l "$LOG_DIR/postgres.log" -w \
-      -o "-k $sock -h 127.0.0.1 -p $PGPORT_LOCAL" start >/dev/null || die "PostgreSQL did not start, see $LOG_DIR/postgres.log"
+    # The server writes its own log, so it lives where the postgres user can write.
+    local pglog="$LOG_DIR/postgres.log"
+    [ "$cluster" = "$BANDKEEP_DATA_DIR" ] || pglog="$cluster/postgres.log"
+    touch "$pglog"; [ "$(id -u)" = 0 ] && chown postgres "$pglog"
+    as_pg "$bin/pg_ctl" -D "$data" -l "$pglog" -w \
+      -o "-k $sock -h 127.0.0.1 -p $PGPORT_LOCAL" start >/dev/null || die "PostgreSQL did not start, see $pglog"
     log "PostgreSQL on 127.0.0.1:$PGPORT_LOCAL"
   fi
   ensure_db_roles
