@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/lib/db";
 import { User, models } from "@/models";
 import { url } from "../helpers/app";
-import { createUser } from "../helpers/fixtures";
+import { createLab } from "../helpers/fixtures";
 import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 
 // Issue #11, item 6: an unticked checkbox sends no field at all (HTML Living Standard,
@@ -23,7 +23,7 @@ const COMBINATIONS = [
 
 describe("notification settings", () => {
   it("round-trip every combination of the two boxes", async () => {
-    const { user } = await createUser("notify");
+    const { user } = await createLab("spectroscopist");
     const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signInThroughForm(page, user.email, "test-password");
     const digest = page.getByLabel(/digest of new signatures/);
