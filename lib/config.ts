@@ -4,6 +4,7 @@ import { z } from "zod";
 // defaults). A missing or malformed variable is reported by name, all at once.
 const schema = z.object({
   DATABASE_URL: z.string().url(),
+  MIGRATION_DATABASE_URL: z.string().url().optional(),
   REDIS_URL: z.string().url(),
   S3_ENDPOINT: z.string().url().optional(),
   S3_BUCKET: z.string().min(1),

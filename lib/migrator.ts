@@ -3,14 +3,14 @@ import { join, basename } from "node:path";
 import { pathToFileURL } from "node:url";
 import type { QueryInterface } from "sequelize";
 import { SequelizeStorage, Umzug, type MigrationParams } from "umzug";
-import { sequelize } from "./db";
+import { migrationSequelize } from "./db";
 
 export type Migration = (params: MigrationParams<QueryInterface>) => Promise<void>;
 
 const migrationsDir = join(process.cwd(), "migrations");
 
 export function migrator(): Umzug<QueryInterface> {
-  const db = sequelize();
+  const db = migrationSequelize();
   const files = readdirSync(migrationsDir)
     .filter((f) => /^\d{4}-.*\.ts$/.test(f))
     .sort();

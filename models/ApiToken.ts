@@ -8,6 +8,8 @@ export class ApiToken extends Model<InferAttributes<ApiToken>, InferCreationAttr
   declare prefix: string;
   declare lastUsedAt: Date | null;
   declare revokedAt: Date | null;
+  /** null: never expires (migration 0006). */
+  declare expiresAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
 
   static initialize(sequelize: Sequelize) {
@@ -20,6 +22,7 @@ export class ApiToken extends Model<InferAttributes<ApiToken>, InferCreationAttr
         prefix: { type: DataTypes.TEXT, allowNull: false },
         lastUsedAt: { type: DataTypes.DATE, allowNull: true },
         revokedAt: { type: DataTypes.DATE, allowNull: true },
+        expiresAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
       },
       { sequelize, modelName: "ApiToken", tableName: "api_tokens", updatedAt: false },

@@ -14,7 +14,10 @@ export SMTP_PORT_LOCAL="${SMTP_PORT_LOCAL:-$((25250 + off))}"
 export MAIL_VIEW_PORT_LOCAL="${MAIL_VIEW_PORT_LOCAL:-$((25350 + off))}"
 export PORT="${PORT:-$((3000 + off * 10))}"
 
-export DATABASE_URL="${DATABASE_URL:-postgres://postgres@127.0.0.1:$PGPORT_LOCAL/bandkeep}"
+# The app and worker connect as a least-privilege role; migrations run as the owner role
+# (scripts/services.sh creates both on the local server; see README, "Managed services").
+export DATABASE_URL="${DATABASE_URL:-postgres://bandkeep_app@127.0.0.1:$PGPORT_LOCAL/bandkeep}"
+export MIGRATION_DATABASE_URL="${MIGRATION_DATABASE_URL:-postgres://bandkeep_owner@127.0.0.1:$PGPORT_LOCAL/bandkeep}"
 export REDIS_URL="${REDIS_URL:-redis://127.0.0.1:$REDIS_PORT_LOCAL}"
 export S3_ENDPOINT="${S3_ENDPOINT:-http://127.0.0.1:$S3_PORT_LOCAL}"
 export S3_BUCKET="${S3_BUCKET:-bandkeep-$PROFILE}"

@@ -12,6 +12,7 @@ import { createServer } from "node:http";
 import { availableParallelism } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
+import { CLIENT_ADDRESS_HEADER, clientAddress, trustedProxies } from "./client-address.mjs";
 
 const argv = process.argv.slice(2);
 const option = (flag, fallback) => (argv.includes(flag) ? argv[argv.indexOf(flag) + 1] : fallback);
@@ -53,7 +54,12 @@ if (cluster.isPrimary) {
   const app = next({ dev: false, dir, hostname, port });
   const handle = app.getRequestHandler();
   await app.prepare();
-  const server = createServer((req, res) => handle(req, res));
+  const proxies = trustedProxies(process.env.TRUSTED_PROXIES);
+  const server = createServer((req, res) => {
+    // The app reads the client's address only from this header, which we always overwrite.
+    req.headers[CLIENT_ADDRESS_HEADER] = clientAddress(req.socket.remoteAddress, req.headers["x-forwarded-for"], proxies);
+    return handle(req, res);
+  });
   // Above the usual proxy idle timeouts, as `next start` does, so kept-alive sockets are not cut mid-request.
   server.keepAliveTimeout = 65_000;
   server.listen(port, hostname);

@@ -44,11 +44,64 @@ as_pg() {
   if [ "$(id -u)" = 0 ]; then runuser -u postgres -- "$@"; else "$@"; fi
 }
 
+# Where the cluster lives: under the data folder, unless we are root and the postgres user
+# cannot reach that folder (a clone under a mode-700 home, say), where initdb would fail with
+# "Permission denied"; then under the postgres user's home, one folder per data folder.
+pg_cluster_dir() {
+  if [ "$(id -u)" = 0 ] && ! runuser -u postgres -- test -x "$BANDKEEP_DATA_DIR" 2>/dev/null; then
+    local home
+    home=$(getent passwd postgres | cut -d: -f6)
+    echo "${home:-/var/lib/postgresql}/bandkeep-$(printf '%s' "$BANDKEEP_DATA_DIR" | sha256sum | cut -c1-12)"
+  else
+    echo "$BANDKEEP_DATA_DIR"
+  fi
+}
+
+url_user() { local u="${1#*://}"; u="${u%%@*}"; echo "${u%%:*}"; }
+url_db() { local d="${1##*/}"; echo "${d%%\?*}"; }
+
+# The two database roles: the owner runs migrations (and owns the database), the app role
+# gets row access only (migrations/0006 grants it). A database made by an earlier version
+# as the postgres superuser is handed to the owner role.
+ensure_db_roles() {
+  local owner app db
+  owner=$(url_user "$MIGRATION_DATABASE_URL"); app=$(url_user "$DATABASE_URL"); db=$(url_db "$DATABASE_URL")
+  local su=(psql -h 127.0.0.1 -p "$PGPORT_LOCAL" -U postgres -v ON_ERROR_STOP=1 -qtA)
+  "${su[@]}" -d postgres >/dev/null <<SQL || die "could not create the database roles $owner and $app"
+DO \$\$ BEGIN
+  IF NOT EXISTS (SELECT FROM pg_roles WHERE rolname = '$owner') THEN CREATE ROLE "$owner" LOGIN CREATEDB; END IF;
+  IF NOT EXISTS (SELECT FROM pg_roles WHERE rolname = '$app') THEN CREATE ROLE "$app" LOGIN; END IF;
+END \$\$;
+SQL
+  if ! "${su[@]}" -d postgres -c "select 1 from pg_database where datname='$db'" | grep -q 1; then
+    "${su[@]}" -d postgres -c "create database \"$db\" owner \"$owner\"" >/dev/null || die "could not create database $db"
+  fi
+  "${su[@]}" -d "$db" >/dev/null <<SQL || die "could not hand database $db to $owner"
+ALTER DATABASE "$db" OWNER TO "$owner";
+DO \$\$ DECLARE r record; BEGIN
+  FOR r IN SELECT c.relname, c.relkind FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace
+           WHERE n.nspname = 'public' AND c.relkind IN ('r','p','v','m','S') AND pg_get_userbyid(c.relowner) <> '$owner' LOOP
+    IF r.relkind = 'S' THEN EXECUTE format('ALTER SEQUENCE public.%I OWNER TO %I', r.relname, '$owner');
+    ELSE EXECUTE format('ALTER TABLE public.%I OWNER TO %I', r.relname, '$owner'); END IF;
+  END LOOP;
+  FOR r IN SELECT p.oid::regprocedure AS sig FROM pg_proc p JOIN pg_namespace n ON n.oid = p.pronamespace
+           WHERE n.nspname = 'public' AND pg_get_userbyid(p.proowner) <> '$owner' LOOP
+    EXECUTE format('ALTER FUNCTION %s OWNER TO %I', r.sig, '$owner');
+  END LOOP;
+  FOR r IN SELECT t.typname FROM pg_type t JOIN pg_namespace n ON n.oid = t.typnamespace
+           WHERE n.nspname = 'public' AND t.typtype = 'e' AND pg_get_userbyid(t.typowner) <> '$owner' LOOP
+    EXECUTE format('ALTER TYPE public.%I OWNER TO %I', r.typname, '$owner');
+  END LOOP;
+END \$\$;
+SQL
+}
+
 start_postgres() {
-  local bin data sock
-  bin=$(pg_bin); data="$BANDKEEP_DATA_DIR/pg"; sock="$BANDKEEP_DATA_DIR/pgsock"
+  local bin data sock cluster
+  bin=$(pg_bin); cluster=$(pg_cluster_dir); data="$cluster/pg"; sock="$cluster/pgsock"
+  [ "$cluster" = "$BANDKEEP_DATA_DIR" ] || log "the postgres user cannot reach $BANDKEEP_DATA_DIR: keeping the cluster in $cluster"
   mkdir -p "$data" "$sock"
-  [ "$(id -u)" = 0 ] && chown postgres:postgres "$data" "$sock"
+  if [ "$(id -u)" = 0 ]; then chown postgres:postgres "$data" "$sock"; [ "$cluster" = "$BANDKEEP_DATA_DIR" ] || chown postgres:postgres "$cluster"; fi
   chmod 700 "$data"
   if [ ! -f "$data/PG_VERSION" ]; then
     log "initdb $data"
@@ -58,21 +111,27 @@ start_postgres() {
   if as_pg "$bin/pg_ctl" -D "$data" status >/dev/null 2>&1; then
     log "PostgreSQL already running on $PGPORT_LOCAL"
   else
-    touch "$LOG_DIR/postgres.log"; [ "$(id -u)" = 0 ] && chown postgres "$LOG_DIR/postgres.log"
-    as_pg "$bin/pg_ctl" -D "$data" -l "$LOG_DIR/postgres.log" -w \
-      -o "-k $sock -h 127.0.0.1 -p $PGPORT_LOCAL" start >/dev/null || die "PostgreSQL did not start, see $LOG_DIR/postgres.log"
+    # The server writes its own log, so it lives where the postgres user can write.
+    local pglog="$LOG_DIR/postgres.log"
+    [ "$cluster" = "$BANDKEEP_DATA_DIR" ] || pglog="$cluster/postgres.log"
+    touch "$pglog"; [ "$(id -u)" = 0 ] && chown postgres "$pglog"
+    as_pg "$bin/pg_ctl" -D "$data" -l "$pglog" -w \
+      -o "-k $sock -h 127.0.0.1 -p $PGPORT_LOCAL" start >/dev/null || die "PostgreSQL did not start, see $pglog"
     log "PostgreSQL on 127.0.0.1:$PGPORT_LOCAL"
   fi
-  local db
-  db="${DATABASE_URL##*/}"; db="${db%%\?*}"
-  if ! psql -h 127.0.0.1 -p "$PGPORT_LOCAL" -U postgres -tAc "select 1 from pg_database where datname='$db'" postgres | grep -q 1; then
-    psql -h 127.0.0.1 -p "$PGPORT_LOCAL" -U postgres -qc "create database \"$db\"" postgres >/dev/null || die "could not create database $db"
-  fi
+  ensure_db_roles
+}
+
+# Removes the cluster's files (npm test starts from a fresh one).
+wipe_postgres() {
+  local cluster
+  cluster=$(pg_cluster_dir)
+  rm -rf "$cluster/pg" "$cluster/pgsock"
 }
 
 stop_postgres() {
   local bin data
-  bin=$(pg_bin); data="$BANDKEEP_DATA_DIR/pg"
+  bin=$(pg_bin); data="$(pg_cluster_dir)/pg"
   [ -f "$data/PG_VERSION" ] || return 0
   as_pg "$bin/pg_ctl" -D "$data" -m fast stop >/dev/null 2>&1 || true
 }

@@ -16,7 +16,8 @@ log "lint"
 node node_modules/eslint/bin/eslint.js --max-warnings=0 .
 
 stop_all
-rm -rf "$BANDKEEP_DATA_DIR/pg" "$BANDKEEP_DATA_DIR/redis" "$S3_LOCAL_DIR" "$LOG_DIR"/*.log
+wipe_postgres
+rm -rf "$BANDKEEP_DATA_DIR/redis" "$S3_LOCAL_DIR" "$LOG_DIR"/*.log
 trap 'stop_all' EXIT
 start_services
 node --import tsx scripts/migrate.ts up

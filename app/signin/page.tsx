@@ -3,13 +3,9 @@ import { redirect } from "next/navigation";
 import { currentActor } from "@/lib/auth/actor";
 import { Logo } from "@/components/shell/Logo";
 import { SignInForm } from "@/components/auth/SignInForm";
+import { safeReturnPath } from "@/lib/http/returnPath";
 
 export const metadata: Metadata = { title: "Sign in" };
-
-function safeReturnPath(value: string | string[] | undefined): string {
-  const path = Array.isArray(value) ? value[0] : value;
-  return path && path.startsWith("/") && !path.startsWith("//") ? path : "/";
-}
 
 export default async function SignInPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const returnTo = safeReturnPath((await searchParams).callbackUrl);

@@ -2,6 +2,8 @@
 
 import { signIn } from "next-auth/react";
 import { useState, type FormEvent } from "react";
+import { safeReturnPath } from "@/lib/http/returnPath";
+import { SIGN_IN_REFUSALS, type SignInRefusal } from "@/lib/auth/signInRefusals";
 
 export function SignInForm({ returnTo }: { returnTo: string }) {
   const [error, setError] = useState<string | null>(null);
@@ -19,14 +21,13 @@ export function SignInForm({ returnTo }: { returnTo: string }) {
     });
     setPending(false);
     if (!result || result.error) {
-      setError(
-        result?.error && result.error !== "CredentialsSignin"
-          ? result.error
-          : "That e-mail and password do not match an account.",
-      );
+      // Only our own refusal codes are shown; anything else (an outage's raw message) stays in the server log.
+      const code = result?.error ?? "CredentialsSignin";
+      setError(code === "CredentialsSignin" ? SIGN_IN_REFUSALS.mismatch
+        : code in SIGN_IN_REFUSALS ? SIGN_IN_REFUSALS[code as SignInRefusal] : SIGN_IN_REFUSALS.unavailable);
       return;
     }
-    window.location.assign(returnTo);
+    window.location.assign(safeReturnPath(returnTo));
   }
 
   return (

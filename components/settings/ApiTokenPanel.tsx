@@ -4,9 +4,16 @@ import { useActionState } from "react";
 import { createApiToken, revokeApiToken } from "@/app/(app)/settings/actions";
 import { initialActionState } from "@/lib/actions/protected-state";
 import { inputClass } from "@/components/forms/Field";
-import { formatWhen } from "@/lib/format/dates";
+import { formatDay, formatWhen } from "@/lib/format/dates";
 
-type Token = { id: string; name: string; prefix: string; createdAt: string; lastUsedAt: string | null; revokedAt: string | null };
+type Token = { id: string; name: string; prefix: string; createdAt: string; lastUsedAt: string | null; revokedAt: string | null; expiresAt: string | null };
+
+function tokenState(t: Token): string {
+  if (t.revokedAt) return "revoked";
+  if (t.expiresAt && new Date(t.expiresAt).getTime() <= Date.now()) return `expired ${formatDay(t.expiresAt)}`;
+  const used = t.lastUsedAt ? `last used ${formatWhen(t.lastUsedAt)}` : "never used";
+  return t.expiresAt ? `${used}; expires ${formatDay(t.expiresAt)}` : used;
+}
 
 function RevokeButton({ id }: { id: string }) {
   const [, action, pending] = useActionState(revokeApiToken, initialActionState);
@@ -27,6 +34,15 @@ export function ApiTokenPanel({ tokens }: { tokens: Token[] }) {
           <input name="name" placeholder="e.g. titration-robot" aria-label="Token name" aria-invalid={!!state.fieldErrors?.name} className={`${inputClass} w-64`} />
           {state.fieldErrors?.name && <p role="alert" className="mt-1 text-sm text-red-700">{state.fieldErrors.name.join(" ")}</p>}
         </div>
+        <label className="flex items-center gap-1 text-sm">
+          <span className="text-ink-soft">Expires</span>
+          <select name="lifetime" defaultValue="90" aria-label="Token lifetime" className={`${inputClass} w-32`}>
+            <option value="30">in 30 days</option>
+            <option value="90">in 90 days</option>
+            <option value="365">in a year</option>
+            <option value="never">never</option>
+          </select>
+        </label>
         <button disabled={pending} className="rounded-md bg-glow px-3 py-1.5 text-sm font-medium text-white hover:bg-glow-deep disabled:opacity-60">Create token</button>
       </form>
       {state.ok && state.message && (
@@ -43,7 +59,7 @@ export function ApiTokenPanel({ tokens }: { tokens: Token[] }) {
           {tokens.map((t) => (
             <li key={t.id} className="flex items-center justify-between px-3 py-2 text-sm">
               <span><span className="font-medium">{t.name}</span> <code className="text-xs text-ink-soft">{t.prefix}…</code>
-                <span className="ml-2 text-xs text-ink-faint">{t.revokedAt ? "revoked" : t.lastUsedAt ? `last used ${formatWhen(t.lastUsedAt)}` : "never used"}</span></span>
+                <span className="ml-2 text-xs text-ink-faint">{tokenState(t)}</span></span>
               {!t.revokedAt && <RevokeButton id={t.id} />}
             </li>
           ))}

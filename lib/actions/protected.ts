@@ -27,9 +27,12 @@ export function protectedAction<S extends z.ZodType>(
   run: (input: z.infer<S>, actor: Actor) => Promise<ActionState | void>,
 ) {
   return async (_previous: ActionState, formData: FormData): Promise<ActionState> => {
-    const values = formValues(formData);
+    // The caller first, before anything of the request is read: every export of a
+    // "use server" module is an endpoint anyone can call with any arguments.
     const actor = await currentActor();
-    if (!actor) return { ok: false, message: "Your session has ended. Sign in again.", values };
+    if (!actor) return { ok: false, message: "Your session has ended. Sign in again." };
+    if (!(formData instanceof FormData)) return { ok: false, message: "This action takes a form." };
+    const values = formValues(formData);
     const raw: Record<string, unknown> = { ...values };
     for (const key of new Set(formData.keys())) {
       const all = formData.getAll(key).filter((v): v is string => typeof v === "string");

@@ -1,5 +1,6 @@
 import { getServerSession } from "next-auth";
 import { redirect } from "next/navigation";
+import { Op } from "sequelize";
 import { selectRows } from "@/lib/db";
 import { sha256Hex } from "@/lib/hash";
 import { ApiToken, models } from "@/models";
@@ -17,18 +18,20 @@ export type Actor = {
   via: "session" | "token";
 };
 
-type ActorRow = { id: string; email: string; name: string; is_site_admin: boolean; group_id: string | null; group_name: string | null; group_slug: string | null; role: Role | null };
+type ActorRow = { id: string; email: string; name: string; is_site_admin: boolean; session_version: number; group_id: string | null; group_name: string | null; group_slug: string | null; role: Role | null };
 
 /** A person with their memberships, in one query. */
-export async function loadActor(userId: string, via: Actor["via"]): Promise<Actor | null> {
+export async function loadActor(userId: string, via: Actor["via"], sessionVersion?: number): Promise<Actor | null> {
   const rows = await selectRows<ActorRow>(
-    `SELECT u.id, u.email, u.name, u.is_site_admin, m.group_id, g.name AS group_name, g.slug AS group_slug, m.role
+    `SELECT u.id, u.email, u.name, u.is_site_admin, u.session_version, m.group_id, g.name AS group_name, g.slug AS group_slug, m.role
      FROM users u LEFT JOIN memberships m ON m.user_id = u.id LEFT JOIN groups g ON g.id = m.group_id
      WHERE u.id = :userId`,
     { userId },
   );
   const first = rows[0];
   if (!first) return null;
+  // A session signed out (or otherwise revoked) since it was issued.
+  if (sessionVersion !== undefined && first.session_version !== sessionVersion) return null;
   const memberships = rows
     .filter((r) => r.group_id !== null && r.role !== null)
     .map((r) => ({ groupId: r.group_id!, groupName: r.group_name ?? "", groupSlug: r.group_slug ?? "", role: r.role! }))
@@ -39,8 +42,8 @@ export async function loadActor(userId: string, via: Actor["via"]): Promise<Acto
 /** The signed-in person of this request, or null. */
 export async function currentActor(): Promise<Actor | null> {
   const session = await getServerSession(authOptions);
-  const id = (session?.user as { id?: string } | undefined)?.id;
-  return id ? loadActor(id, "session") : null;
+  const user = session?.user as { id?: string; sessionVersion?: number } | undefined;
+  return user?.id ? loadActor(user.id, "session", user.sessionVersion ?? 0) : null;
 }
 
 /** For pages: the signed-in person, or a redirect to sign-in. */
@@ -82,7 +85,7 @@ async function actorFromToken(token: string): Promise<Actor | null> {
   if (TOKEN_CACHE_MS > 0) listenForRevocations();
   const epoch = TOKEN_CACHE_MS > 0 ? revocationEpoch() : null;
   models();
-  const row = await ApiToken.findOne({ where: { tokenHash, revokedAt: null } });
+  const row = await ApiToken.findOne({ where: { tokenHash, revokedAt: null, [Op.or]: [{ expiresAt: null }, { expiresAt: { [Op.gt]: new Date() } }] } });
   if (!row) {
     tokenCache.delete(tokenHash);
     return null;
@@ -95,7 +98,8 @@ async function actorFromToken(token: string): Promise<Actor | null> {
   // Cached only while revocations are heard, and not when one arrived during this lookup.
   if (actor && epoch !== null && revocationEpoch() === epoch) {
     if (tokenCache.size > 1000) tokenCache.clear();
-    tokenCache.set(tokenHash, { actor, until: Date.now() + TOKEN_CACHE_MS });
+    // Never past the token's expiry.
+    tokenCache.set(tokenHash, { actor, until: Math.min(Date.now() + TOKEN_CACHE_MS, row.expiresAt?.getTime() ?? Infinity) });
   }
   return actor;
 }

@@ -3,6 +3,7 @@ import { ConnectionError } from "sequelize";
 import { ZodError } from "zod";
 import type { Actor } from "@/lib/auth/actor";
 import { actorFromRequest } from "@/lib/auth/actor";
+import { crossSiteWrite } from "./sameOrigin";
 
 // One error shape for the whole HTTP API:
 // { "error": { "code": "not-found", "message": "…", "field": "sampleId" } }
@@ -54,6 +55,10 @@ export function withActor<C>(handler: Handler<C>) {
     try {
       const actor = await actorFromRequest(request);
       if (!actor) throw unauthenticated();
+      if (actor.via === "session") {
+        const refusal = crossSiteWrite(request);
+        if (refusal) throw new ApiError(403, "cross-site", `A signed-in write must come from Bandkeep's own pages (${refusal}); scripts send a Bearer API token.`);
+      }
       return await handler(request, { ...context, actor });
     } catch (error) {
       return errorResponse(error);

@@ -1,6 +1,8 @@
 import { z } from "zod";
 import { TECHNIQUES } from "@/lib/registry/techniques";
 import { registryEnum } from "@/lib/registry/schemas";
+import { parseDecimal } from "@/lib/text/parseDecimal";
+import { columnNameSchema, isPlainText, plainTextMessage } from "@/lib/text/plainText";
 
 // The metadata that travels with an upload, checked with the same schema in the
 // browser form, the HTTP API and the seed script. Every field arrives as a string from
@@ -12,8 +14,8 @@ export const INGEST_MATERIALS = ["CdSe", "CdTe", "CdS", "PbS", "PbSe"] as const;
 
 const blankToUndefined = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);
 
-const isPlainText = (s: string) => !/[<>]/.test(s) && !/[\u0000-\u001f\u007f]/.test(s);
-const markupMessage = (label: string) => `${label} must be plain text (no <, > or control characters)`;
+/** Form text to a number, strictly ("0x10" is not 16); anything else is passed on for zod to refuse. */
+const strictNumber = (v: unknown) => (typeof v === "string" ? parseDecimal(v) : v);
 
 function optionalText(label: string, max: number) {
   return z.preprocess(
@@ -22,15 +24,15 @@ function optionalText(label: string, max: number) {
       .string()
       .trim()
       .max(max, `${label} is longer than ${max} characters`)
-      .refine(isPlainText, markupMessage(label))
+      .refine(isPlainText, plainTextMessage(label))
       .optional(),
   );
 }
 
 function optionalNumber(label: string, min: number, max: number, unit: string) {
   return z.preprocess(
-    blankToUndefined,
-    z.coerce
+    (v) => strictNumber(blankToUndefined(v)),
+    z
       .number({ error: `${label} must be a number` })
       .refine(Number.isFinite, `${label} must be a finite number`)
       .refine((n) => n > min && n <= max, `${label} must be above ${min} and at most ${max} ${unit}`)
@@ -52,8 +54,8 @@ export const ingestMetadataSchema = z
     referenceSpectrumId: optionalId("referenceSpectrumId"),
     seriesId: optionalId("seriesId"),
     seriesValue: z.preprocess(
-      blankToUndefined,
-      z.coerce
+      (v) => strictNumber(blankToUndefined(v)),
+      z
         .number({ error: "seriesValue must be a number" })
         .refine(Number.isFinite, "seriesValue must be a finite number")
         .optional(),
@@ -61,7 +63,7 @@ export const ingestMetadataSchema = z
     pathLengthCm: optionalNumber("pathLengthCm", 0, 100, "cm"),
     excitationNm: optionalNumber("excitationNm", 100, 3000, "nm"),
     solvent: optionalText("solvent", 100),
-    column: optionalText("column", 100),
+    column: z.preprocess(blankToUndefined, columnNameSchema.optional()),
     material: z.preprocess(
       blankToUndefined,
       z.enum(INGEST_MATERIALS, { error: `material must be one of ${INGEST_MATERIALS.join(", ")}` }).optional(),

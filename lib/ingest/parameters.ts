@@ -1,4 +1,5 @@
 import { sha256Hex } from "@/lib/hash";
+import { columnNameSchema } from "@/lib/text/plainText";
 import { z } from "zod";
 import { canonicalJson } from "./canonicalJson";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "./metadata";
@@ -56,7 +57,7 @@ const positive = (label: string) => z.number({ error: `${label} must be a number
 /** Changes a person may ask for when re-running an analysis; absent members keep the earlier value, null clears. */
 export const reanalysisSchema = z
   .object({
-    column: z.union([z.string().trim().min(1).max(100), z.number().int().min(1)]).nullable().optional(),
+    column: z.union([columnNameSchema, z.number().int().min(1)]).nullable().optional(),
     material: z.enum(INGEST_MATERIALS).nullable().optional(),
     pathLengthCm: positive("pathLengthCm").max(100).nullable().optional(),
     excitationNm: positive("excitationNm").min(100).max(3000).nullable().optional(),

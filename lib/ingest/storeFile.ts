@@ -1,4 +1,5 @@
 import { UniqueConstraintError } from "sequelize";
+import { fileNameProblem } from "@/lib/text/plainText";
 import { AnalysisRun, Spectrum, models } from "@/models";
 import { recordAudit } from "@/lib/audit";
 import { deleteObject, newRawObjectKey, putObject, sha256Hex } from "@/lib/storage";
@@ -61,6 +62,8 @@ export async function storeFile(
   maxBytes: number,
 ): Promise<StoredFile> {
   const fileName = cleanFileName(file.fileName);
+  const nameProblem = fileNameProblem(file.fileName);
+  if (nameProblem) throw new IngestError(400, "invalid-file-name", `${fileName.replace(/[\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]/g, "?")}: ${nameProblem}`, "file");
   if (file.bytes.length === 0) throw new IngestError(400, "empty-file", `${fileName}: the file is empty (0 bytes)`, "file");
   if (file.bytes.length > maxBytes) {
     throw new IngestError(413, "too-large", `${fileName}: ${file.bytes.length} bytes is over the upload limit of ${maxBytes} bytes`, "file");

@@ -1,7 +1,8 @@
 import { Op, type WhereOptions } from "sequelize";
+import { csvLine } from "@/lib/csv/csvCell";
 import { z } from "zod";
 import type { Actor } from "@/lib/auth/actor";
-import { AuditEvent, Membership, models } from "@/models";
+import { AuditEvent, models } from "@/models";
 
 export type AuditRow = { id: string; at: string; actor: string; action: string; target: string; details: string };
 
@@ -20,13 +21,18 @@ export type AuditFilter = Partial<z.infer<typeof auditFilterSchema>> & { limit?:
 
 const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 
-/** Audit events of the groups the actor stewards, and sign-ins of their members. */
+/**
+ * Audit events of the groups the actor stewards. Personal events (no group: sign-ins with
+ * their address, API tokens by name) belong to their person: a steward sees their own, a
+ * site admin sees everyone's. A person who is also in another group, or a collaborator with
+ * a share, does not show their sign-ins to that group's stewards.
+ */
 export async function listAuditEvents(actor: Actor, filter: AuditFilter = {}): Promise<AuditRow[]> {
   models();
   const groupIds = actor.memberships.filter((m) => m.role === "steward").map((m) => m.groupId);
   if (groupIds.length === 0) return [];
-  const memberIds = (await Membership.findAll({ where: { groupId: { [Op.in]: groupIds } }, attributes: ["userId"] })).map((m) => m.userId);
-  const conditions: WhereOptions[] = [{ [Op.or]: [{ groupId: { [Op.in]: groupIds } }, { groupId: null, actorId: { [Op.in]: memberIds } }] }];
+  const personal: WhereOptions = actor.isSiteAdmin ? { groupId: null } : { groupId: null, actorId: actor.id };
+  const conditions: WhereOptions[] = [{ [Op.or]: [{ groupId: { [Op.in]: groupIds } }, personal] }];
   if (filter.action) conditions.push({ action: filter.action });
   if (filter.actor) conditions.push({ actorLabel: { [Op.iLike]: `%${escapeLike(filter.actor)}%` } });
   if (filter.target) {
@@ -53,10 +59,6 @@ export async function auditActions(actor: Actor): Promise<string[]> {
 
 /** RFC 4180 CSV; cells that a spreadsheet would run as a formula are prefixed with '. */
 export function auditCsv(rows: AuditRow[]): string {
-  const cell = (v: string) => {
-    const safe = /^[=+\-@\t\r]/.test(v) ? `'${v}` : v;
-    return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
-  };
-  const lines = ["id,at,actor,action,target,details", ...rows.map((r) => [r.id, r.at, r.actor, r.action, r.target, r.details].map(cell).join(","))];
+  const lines = ["id,at,actor,action,target,details", ...rows.map((r) => csvLine([r.id, r.at, r.actor, r.action, r.target, r.details]))];
   return lines.join("\r\n") + "\r\n";
 }

@@ -1,12 +1,5 @@
+import { csvCell as field } from "@/lib/csv/csvCell";
 import type { SeriesDetail } from "@/lib/queries/series-detail";
-
-/** RFC 4180 field: quoted when it holds a comma, quote or line break; formula-like text is prefixed with ' for spreadsheets. */
-function field(v: string | number | null): string {
-  if (v === null) return "";
-  if (typeof v === "number") return Number.isFinite(v) ? String(v) : "";
-  const safe = /^[=+\-@\t\r]/.test(v) ? `'${v}` : v;
-  return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
-}
 
 /** The series table (one row per spectrum) followed by its fits, as CSV lines with a header row each. */
 export function seriesCsv(series: SeriesDetail): string {

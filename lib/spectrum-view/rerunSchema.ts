@@ -2,6 +2,7 @@ import { z } from "zod";
 import { THRESHOLD_SPECS } from "@/lib/registry/flagKinds";
 import { thresholdFieldsOf } from "@/lib/registry/derive";
 import { thresholdSchema } from "@/lib/registry/schemas";
+import { parseDecimal } from "@/lib/text/parseDecimal";
 import { MAX_CONCENTRATION_RATIO, NORMALIZATION_MODES, NORMALIZATION_WAVELENGTH_NM, concentrationRatioInRange } from "@/lib/ingest/normalization";
 
 // The re-run form, parsed with the same schema in the browser (before sending) and in the server
@@ -12,7 +13,7 @@ const numberField = (label: string) =>
   z.preprocess(
     (v) => {
       const b = blank(v);
-      return typeof b === "string" ? Number(b.trim().replace(",", ".")) : b;
+      return typeof b === "string" ? parseDecimal(b) : b;
     },
     z.number({ error: `${label} must be a number` }).refine(Number.isFinite, `${label} must be a number`).optional(),
   );

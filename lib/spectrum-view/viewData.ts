@@ -49,31 +49,34 @@ export type ViewRun = Pick<AnalysisRun, "id" | "status" | "parameters" | "refere
  * the latest finished one. 409 while nothing has finished; 422 with the engine's message when the
  * analysis failed.
  */
-// A chart zoomed or reloaded asks for the same curves many times a second: a found
-// (spectrum, run) pair is kept per person for LOOKUP_CACHE_MS, so a burst repeats
-// neither the access check nor the run lookup. Refusals are never kept.
-const LOOKUP_CACHE_MS = 2000;
-const lookupCache = new Map<string, { until: number; found: { spectrum: Spectrum; run: ViewRun } }>();
+// A chart zoomed or reloaded asks for the same curves many times a second: the run found for
+// a (spectrum, run) pair is kept for RUN_CACHE_MS, so a burst does not repeat the run lookup.
+// The access check is never cached: a revoked share or a removed member is refused at once.
+const RUN_CACHE_MS = 2000;
+const runCache = new Map<string, { until: number; run: ViewRun }>();
 
 export async function findViewRun(actor: Actor, spectrumId: string, runId?: string): Promise<{ spectrum: Spectrum; run: ViewRun }> {
-  const key = `${actor.id}|${spectrumId}|${runId ?? ""}`;
-  const hit = lookupCache.get(key);
-  if (hit && hit.until > Date.now()) return hit.found;
-  const found = await lookupViewRun(actor, spectrumId, runId);
-  if (lookupCache.size > 5000) lookupCache.clear();
-  lookupCache.set(key, { until: Date.now() + LOOKUP_CACHE_MS, found });
+  const spectrum = await getReadableSpectrum(actor, spectrumId);
+  if (!spectrum) throw notFound(`spectrum ${spectrumId.slice(0, 80)}`);
+  const key = `${spectrumId}|${runId ?? ""}`;
+  const hit = runCache.get(key);
+  if (hit && hit.until > Date.now()) return { spectrum, run: hit.run };
+  const found = checkedRun(spectrum, await lookupRun(spectrumId, runId), runId);
+  if (runCache.size > 5000) runCache.clear();
+  runCache.set(key, { until: Date.now() + RUN_CACHE_MS, run: found.run }); // only a finished run gets here
   return found;
 }
 
-async function lookupViewRun(actor: Actor, spectrumId: string, runId?: string): Promise<{ spectrum: Spectrum; run: ViewRun }> {
-  const spectrum = await getReadableSpectrum(actor, spectrumId);
-  if (!spectrum) throw notFound(`spectrum ${spectrumId.slice(0, 80)}`);
+async function lookupRun(spectrumId: string, runId?: string): Promise<ViewRun | null> {
   models();
   const attributes = ["id", "status", "parameters", "referenceSpectrumId", "engineVersion", "errorMessage"];
-  const run = runId
+  return runId
     ? await AnalysisRun.findOne({ where: { id: runId, spectrumId }, attributes })
     : ((await AnalysisRun.findOne({ where: { spectrumId, status: "done" }, order: [["createdAt", "DESC"]], attributes })) ??
       (await AnalysisRun.findOne({ where: { spectrumId, status: { [Op.ne]: "done" } }, order: [["createdAt", "DESC"]], attributes })));
+}
+
+function checkedRun(spectrum: Spectrum, run: ViewRun | null, runId?: string): { spectrum: Spectrum; run: ViewRun } {
   if (!run) {
     if (runId) throw new ApiError(404, "not-found", `run ${runId} of this spectrum was not found.`, "run");
     if (spectrum.status === "failed") throw new ApiError(422, "analysis-failed", spectrum.errorMessage ?? "the file could not be read");

@@ -1,3 +1,4 @@
+import { csvCell as cell } from "@/lib/csv/csvCell";
 import { AXIS_LABELS, type DisplayArrays, type DisplayAxis } from "./axis";
 
 export const CSV_X_HEADERS: Record<DisplayAxis, string> = { nm: "wavelength (nm)", ev: "energy (eV)", "cm-1": "wavenumber (cm-1)" };
@@ -7,10 +8,6 @@ export interface CsvOptions {
   metadata?: Record<string, string | number>;
   /** Header name of each series column; series without a name here are written under their key. */
   columnNames?: Record<string, string>;
-}
-
-function cell(text: string): string {
-  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
 /**
@@ -25,7 +22,7 @@ export function writeCsv<K extends string>(data: DisplayArrays<K>, options: CsvO
   const n = data.x.length;
   for (const k of keys) if (data.series[k]!.length !== n) throw new RangeError(`series ${k} has ${data.series[k]!.length} values for ${n} points`);
   const lines: string[] = [];
-  for (const [k, v] of Object.entries(options.metadata ?? {})) lines.push(`${cell(k)},${cell(String(v))}`);
+  for (const [k, v] of Object.entries(options.metadata ?? {})) lines.push(`${cell(k)},${cell(v)}`);
   lines.push([CSV_X_HEADERS[data.axis], ...keys.map((k) => options.columnNames?.[k] ?? k)].map(cell).join(","));
   for (let i = 0; i < n; i++) {
     let row = String(data.x[i]);

@@ -1,4 +1,5 @@
 import { sha256Hex } from "@/lib/hash";
+import { csvLine } from "@/lib/csv/csvCell";
 import { strToU8, zipSync, type Zippable } from "fflate";
 import { Op } from "sequelize";
 import { ENGINE_VERSION, parseSpectrumFile, type ParsedSpectrum } from "@/lib/engine";
@@ -35,7 +36,7 @@ export type Manifest = {
 const safeName = (s: string) => s.replace(/[^A-Za-z0-9._-]+/g, "_").slice(0, 80) || "file";
 
 function processedCsv(p: ParsedSpectrum): string {
-  const rows = [`x_${p.xUnit},y_${p.yUnit}`];
+  const rows = [csvLine([`x_${p.xUnit}`, `y_${p.yUnit}`])];
   for (let i = 0; i < p.x.length; i++) rows.push(`${p.x[i]},${p.y[i]}`);
   return rows.join("\n") + "\n";
 }

@@ -1,5 +1,7 @@
 // Where the running test stack is (scripts/test.sh starts it and exports these).
 export const APP_URL = process.env.APP_URL ?? `http://127.0.0.1:${process.env.PORT ?? 3100}`;
+/** Browsers send their page's origin with every write; cookie-authenticated writes need it (lib/http/sameOrigin.ts). */
+export const APP_ORIGIN = new URL(APP_URL).origin;
 export const DEMO_PASSWORD = "bandkeep-demo";
 
 export const DEMO = {

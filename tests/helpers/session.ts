@@ -10,14 +10,14 @@ export type SignInResult = { ok: boolean; cookie: string; error?: string };
  * Signs in through next-auth's credentials flow over HTTP, as a browser would:
  * CSRF token first, then the credentials callback; returns the session cookie.
  */
-export async function signInOverHttp(email: string, password: string): Promise<SignInResult> {
+export async function signInOverHttp(email: string, password: string, extraHeaders: Record<string, string> = {}): Promise<SignInResult> {
   const csrfResponse = await fetch(url("/api/auth/csrf"));
   const { csrfToken } = (await csrfResponse.json()) as { csrfToken: string };
   const jar = cookiesOf(csrfResponse);
   const response = await fetch(url("/api/auth/callback/credentials"), {
     method: "POST",
     redirect: "manual",
-    headers: { "content-type": "application/x-www-form-urlencoded", cookie: jar.join("; ") },
+    headers: { ...extraHeaders, "content-type": "application/x-www-form-urlencoded", cookie: jar.join("; ") },
     body: new URLSearchParams({ csrfToken, email, password, json: "true" }),
   });
   const all = [...jar, ...cookiesOf(response)];

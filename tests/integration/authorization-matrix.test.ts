@@ -1,10 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/lib/db";
 import { Membership, models } from "@/models";
-import { DEMO, DEMO_PASSWORD, url } from "../helpers/app";
+import { APP_ORIGIN, DEMO, DEMO_PASSWORD, url } from "../helpers/app";
 import { demoIds } from "../helpers/demo-ids";
 import { createLab, createUser } from "../helpers/fixtures";
-import { sessionCookie } from "../helpers/session";
+import { sessionCookie, signInOverHttp } from "../helpers/session";
 
 // Sources: HTTP status codes as RFC 9110 defines them (200, 201, 304, 400, 401, 403, 404, 409, 413, 415, 422, 503);
 // every other number checked here is a count or value this test itself created (known truth of its fixtures).
@@ -16,15 +16,19 @@ import { sessionCookie } from "../helpers/session";
 // are in this table (a caller who is refused the page is refused its forms' data), each
 // action re-checks the role itself in app/(app)/stewardship/actions.ts, and the browser
 // test (tests/browser/stewardship-steward.test.ts) drives the steward's forms end to end.
-// Calling an action over raw HTTP needs Next's private action protocol, so it is not done here.
+// tests/integration/server-actions-anonymous.test.ts calls every action over raw HTTP
+// without a session; tests/integration/cross-site.test.ts plays the page of another origin.
+//
+// revokedSession: the steward's session cookie, copied before the steward signed out. It
+// must get exactly what an anonymous caller gets.
 
-type Persona = "anonymous" | "collaboratorShared" | "collaboratorUnshared" | "spectroscopist" | "lead" | "steward" | "otherGroup";
-const PERSONAS: Persona[] = ["anonymous", "collaboratorShared", "collaboratorUnshared", "spectroscopist", "lead", "steward", "otherGroup"];
+type Persona = "anonymous" | "revokedSession" | "collaboratorShared" | "collaboratorUnshared" | "spectroscopist" | "lead" | "steward" | "otherGroup";
+const PERSONAS: Persona[] = ["anonymous", "revokedSession", "collaboratorShared", "collaboratorUnshared", "spectroscopist", "lead", "steward", "otherGroup"];
 
 /** ok: 200 with content; steward-only: 200 with the "for data stewards" notice; signin: redirect; or an HTTP status. */
 type Outcome = "ok" | "steward-only" | "signin" | 401 | 403 | 404;
 type Ids = Awaited<ReturnType<typeof demoIds>>;
-type Row = { what: string; path: (ids: Ids) => string; expect: Record<Persona, Outcome> };
+type Row = { what: string; path: (ids: Ids) => string; expect: Record<Exclude<Persona, "revokedSession">, Outcome> };
 
 const stewardPage = (path: string): Row => ({
   what: `page ${path}`, path: () => path,
@@ -74,6 +78,17 @@ beforeAll(async () => {
   const { user } = await createUser("collab-unshared");
   await Membership.create({ groupId: ids.project.groupId, userId: user.id, role: "collaborator" });
   cookies.collaboratorUnshared = await sessionCookie(user.email, "test-password");
+  // Another steward of the group signs in, keeps a copy of the cookie, and signs out.
+  const revoked = await createUser("steward-signed-out");
+  await Membership.create({ groupId: ids.project.groupId, userId: revoked.user.id, role: "steward" });
+  const signedIn = await signInOverHttp(revoked.user.email, "test-password");
+  const { csrfToken } = (await (await fetch(url("/api/auth/csrf"), { headers: { cookie: signedIn.cookie } })).json()) as { csrfToken: string };
+  await fetch(url("/api/auth/signout"), {
+    method: "POST", redirect: "manual",
+    headers: { cookie: signedIn.cookie, origin: APP_ORIGIN, "content-type": "application/x-www-form-urlencoded" },
+    body: new URLSearchParams({ csrfToken, json: "true" }),
+  });
+  cookies.revokedSession = signedIn.cookie;
 });
 afterAll(closeDb);
 
@@ -97,7 +112,7 @@ describe("authorization matrix", () => {
     it(row.what, async () => {
       const got: Partial<Record<Persona, Outcome>> = {};
       for (const p of PERSONAS) got[p] = await outcomeOf(row.path(ids), p);
-      expect(got).toEqual(row.expect);
+      expect(got).toEqual({ ...row.expect, revokedSession: row.expect.anonymous });
     }, 120_000);
   }
 
@@ -114,5 +129,13 @@ describe("authorization matrix", () => {
     const csv = await (await fetch(url("/api/v1/audit?format=csv"), { headers: { cookie } })).text();
     expect(csv).not.toContain(DEMO.spectroscopist);
     expect((await fetch(url(`/api/v1/exports/project/${ids.project.id}`), { headers: { cookie } })).status).toBe(404);
+  });
+
+  it("shows a person's own events (sign-ins with their address) to nobody else, not even their group's steward", async () => {
+    // The collaborator signed in above; the group's steward reads the audit trail.
+    const csv = await (await fetch(url("/api/v1/audit?format=csv"), { headers: { cookie: cookies.steward! } })).text();
+    const personal = csv.split("\r\n").filter((line) => line.includes(DEMO.collaborator) && /,sign-in(-refused)?,/.test(line));
+    expect(personal).toEqual([]);
+    expect(csv).toMatch(new RegExp(`${DEMO.steward.replace(/[.@]/g, "\\$&")},sign-in,`)); // the steward's own sign-in is there
   });
 });

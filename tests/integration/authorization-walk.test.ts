@@ -3,7 +3,7 @@ import { readdirSync, statSync } from "node:fs";
 import { join, relative } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, selectRows } from "@/lib/db";
-import { DEMO, DEMO_PASSWORD, url } from "../helpers/app";
+import { APP_ORIGIN, DEMO, DEMO_PASSWORD, url } from "../helpers/app";
 import { demoIds } from "../helpers/demo-ids";
 import { sessionCookie } from "../helpers/session";
 
@@ -99,7 +99,7 @@ async function call(c: Call, cookie?: string): Promise<Response> {
   return fetch(url(path), {
     method: c.method,
     redirect: "manual",
-    headers: { ...(cookie ? { cookie } : {}), ...(c.contentType ? { "content-type": c.contentType } : {}) },
+    headers: { ...(cookie ? { cookie, origin: APP_ORIGIN } : {}), ...(c.contentType ? { "content-type": c.contentType } : {}) },
     body,
   });
 }

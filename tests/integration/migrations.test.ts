@@ -3,11 +3,14 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import pg from "pg";
 
 // Runs every migration down to nothing and up again on a scratch database of the
-// test PostgreSQL server, and checks that the constraints live in the database.
-const base = new URL(process.env.DATABASE_URL ?? "postgres://postgres@127.0.0.1:54339/bandkeep");
+// test PostgreSQL server, and checks that the constraints live in the database. It needs the
+// owner role's powers (create a database, run migrations), so it uses MIGRATION_DATABASE_URL.
+const base = new URL(process.env.MIGRATION_DATABASE_URL ?? "postgres://bandkeep_owner@127.0.0.1:54339/bandkeep");
 const scratchName = `bandkeep_migrations_${process.pid}`;
 const scratchUrl = new URL(base);
 scratchUrl.pathname = `/${scratchName}`;
+const scratchAppUrl = new URL(process.env.DATABASE_URL ?? "postgres://bandkeep_app@127.0.0.1:54339/bandkeep");
+scratchAppUrl.pathname = `/${scratchName}`;
 
 async function admin(sql: string) {
   const client = new pg.Client({ connectionString: base.toString() });
@@ -17,7 +20,7 @@ async function admin(sql: string) {
 
 function migrate(...args: string[]): string {
   return execFileSync(process.execPath, ["--import", "tsx", "scripts/migrate.ts", ...args], {
-    env: { ...process.env, DATABASE_URL: scratchUrl.toString() },
+    env: { ...process.env, MIGRATION_DATABASE_URL: scratchUrl.toString(), DATABASE_URL: scratchAppUrl.toString() },
     encoding: "utf8",
   });
 }
@@ -94,5 +97,9 @@ describe("migrations", () => {
     const row = (await client.query("INSERT INTO audit_events (action) VALUES ('probe') RETURNING id")).rows[0];
     await expect(client.query("UPDATE audit_events SET action = 'edited' WHERE id = $1", [row.id])).rejects.toThrow(/append-only/);
     await expect(client.query("DELETE FROM audit_events WHERE id = $1", [row.id])).rejects.toThrow(/append-only/);
+    // 0006: even the owner's "clear the actor, keep id, action and details" update is refused, and so is TRUNCATE.
+    await expect(client.query("UPDATE audit_events SET actor_id = NULL, actor_label = 'someone else', at = now() - interval '1 year' WHERE id = $1", [row.id])).rejects.toThrow(/append-only/);
+    await expect(client.query("TRUNCATE audit_events")).rejects.toThrow(/append-only/);
+    expect((await client.query("SELECT action FROM audit_events WHERE id = $1", [row.id])).rows[0].action).toBe("probe");
   });
 });

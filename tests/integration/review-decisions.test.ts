@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, selectRows } from "@/lib/db";
 import { runReviewDigest } from "@/lib/review/digest";
-import { DEMO, DEMO_PASSWORD, url } from "../helpers/app";
+import { APP_ORIGIN, DEMO, DEMO_PASSWORD, url } from "../helpers/app";
 import { sessionCookie } from "../helpers/session";
 import { waitFor } from "../helpers/waitFor";
 
@@ -40,7 +40,7 @@ afterAll(closeDb);
 function decide(id: string, who: string, payload: unknown) {
   return fetch(url(`/api/v1/signatures/${id}/decisions`), {
     method: "POST",
-    headers: { cookie: cookies[who]!, "content-type": "application/json" },
+    headers: { cookie: cookies[who]!, origin: APP_ORIGIN, "content-type": "application/json" },
     body: JSON.stringify(payload),
   });
 }

@@ -5,7 +5,7 @@ import { depletionComposition } from "@/lib/fits/depletionComposition";
 import { overlapFromPure, rowsFromReadings } from "@/lib/series/depletionRows";
 import type { SupernatantReadings } from "@/lib/series/supernatantSchemas";
 import { getJson, upload } from "../helpers/api";
-import { DEMO, DEMO_PASSWORD, url } from "../helpers/app";
+import { APP_ORIGIN, DEMO, DEMO_PASSWORD, url } from "../helpers/app";
 import { demoIds } from "../helpers/demo-ids";
 import { addMember, appUrl, createLab, createSeries, type Lab } from "../helpers/fixtures";
 import { sessionCookie } from "../helpers/session";
@@ -244,7 +244,7 @@ describe("the demo titration's supernatants and the collaborator it is shared wi
     expect((await fetch(url(`/api/v1/spectra/${one}/raw`), { headers: { cookie: cookies.collaborator! } })).status).toBe(200);
     expect((await fetch(url(`/api/v1/spectra/${one}`), { headers: { cookie: cookies.otherGroup! } })).status).toBe(404);
     const link = await fetch(url(`/api/v1/series/${ids.sharedSeries.id}/supernatants`), {
-      method: "POST", headers: { cookie: cookies.collaborator!, "content-type": "application/json" },
+      method: "POST", headers: { cookie: cookies.collaborator!, origin: APP_ORIGIN, "content-type": "application/json" },
       body: JSON.stringify({ supernatantSpectrumId: one, pointSpectrumId: null }),
     });
     expect(link.status).toBe(403); // read-only collaborator

@@ -3,17 +3,20 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { ActionRefused, protectedAction } from "@/lib/actions/protected";
-import { issueApiToken } from "@/lib/api-tokens";
+import { TOKEN_LIFETIMES, issueApiToken, type TokenLifetime } from "@/lib/api-tokens";
 import { forgetApiToken } from "@/lib/auth/actor";
 import { announceTokenRevoked } from "@/lib/auth/tokenRevocations";
 import { recordAudit } from "@/lib/audit";
 import { ApiToken, User, models } from "@/models";
 
 export const createApiToken = protectedAction(
-  z.object({ name: z.string().trim().min(1, "Name the token after the script that uses it.").max(100, "At most 100 characters.") }),
-  async ({ name }, actor) => {
-    const { id, secret } = await issueApiToken(actor.id, name);
-    await recordAudit({ actorId: actor.id, actorLabel: actor.email, action: "api-token-created", targetType: "api-token", targetId: id, details: { name } });
+  z.object({
+    name: z.string().trim().min(1, "Name the token after the script that uses it.").max(100, "At most 100 characters."),
+    lifetime: z.enum(Object.keys(TOKEN_LIFETIMES) as [TokenLifetime, ...TokenLifetime[]], { error: "lifetime: choose never, 30, 90 or 365 days." }).default("never"),
+  }),
+  async ({ name, lifetime }, actor) => {
+    const { id, secret } = await issueApiToken(actor.id, name, lifetime);
+    await recordAudit({ actorId: actor.id, actorLabel: actor.email, action: "api-token-created", targetType: "api-token", targetId: id, details: { name, lifetime } });
     revalidatePath("/settings");
     return { ok: true, message: secret };
   },
@@ -32,7 +35,8 @@ export const revokeApiToken = protectedAction(z.object({ id: z.string().uuid() }
   return { ok: true, message: "Token revoked: scripts using it are refused from now on." };
 });
 
-const checkbox = z.union([z.literal("on"), z.undefined()]).transform((v) => v === "on");
+// An unticked checkbox sends no field at all: a missing key is "off" (optional, not a union with undefined).
+const checkbox = z.literal("on").optional().transform((v) => v === "on");
 
 export const saveNotifications = protectedAction(
   z.object({ notifyDigest: checkbox, notifyDecisions: checkbox }),

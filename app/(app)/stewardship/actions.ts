@@ -2,7 +2,6 @@
 
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
-import { Op } from "sequelize";
 import { z } from "zod";
 import { ActionRefused, protectedAction } from "@/lib/actions/protected";
 import type { Actor } from "@/lib/auth/actor";
@@ -243,12 +242,6 @@ export const revokeShare = protectedAction(z.object({ id: id("id") }), async (in
   revalidatePath("/stewardship/sharing");
   return { ok: true, message: "Share revoked: access ended at once." };
 });
-
-/** For tests and the members list: ids of live shares of a user in a group. */
-export async function liveShareCount(groupId: string, userId: string): Promise<number> {
-  models();
-  return Share.count({ where: { groupId, granteeUserId: userId, revokedAt: null, [Op.or]: [{ expiresAt: null }, { expiresAt: { [Op.gt]: new Date() } }] } });
-}
 
 // --- read-only share links (stewards) ---
 

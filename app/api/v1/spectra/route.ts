@@ -1,4 +1,6 @@
 import { NextResponse } from "next/server";
+import { mediaTypeOf } from "@/lib/http/mediaType";
+import { readBoundedForm } from "@/lib/http/readBoundedForm";
 import { ApiError, withActor } from "@/lib/http/respond";
 import { INGEST_FIELDS, ingestFiles, ingestLimits, type IncomingFile } from "@/lib/ingest";
 import { toApiError } from "@/lib/ingest/apiErrors";
@@ -13,22 +15,12 @@ const KNOWN_FIELDS = new Set<string>(["file", ...INGEST_FIELDS]);
  * zips of exports) and the metadata fields applied to all of them.
  */
 export const POST = withActor(async (request, { actor }) => {
-  const type = request.headers.get("content-type") ?? "";
-  if (!type.toLowerCase().startsWith("multipart/form-data")) {
+  if (mediaTypeOf(request) !== "multipart/form-data") {
     throw new ApiError(415, "unsupported-media-type", "send the files as multipart/form-data (field \"file\")");
   }
   const limits = ingestLimits();
   const requestLimit = Number(process.env.UPLOAD_REQUEST_MAX_BYTES ?? limits.maxFileBytes * 5);
-  const length = Number(request.headers.get("content-length") ?? "0");
-  if (length > requestLimit) {
-    throw new ApiError(413, "too-large", `the request is ${length} bytes, over the limit of ${requestLimit} bytes per request; send fewer files at a time`);
-  }
-  let form: FormData;
-  try {
-    form = await request.formData();
-  } catch {
-    throw new ApiError(400, "invalid-body", "the request body is not readable multipart/form-data");
-  }
+  const form = await readBoundedForm(request, requestLimit);
   const metadata: Record<string, string> = {};
   const files: IncomingFile[] = [];
   for (const [name, value] of form.entries()) {

@@ -1,4 +1,5 @@
 import { NextResponse } from "next/server";
+import { isJson } from "@/lib/http/mediaType";
 import { revalidatePath } from "next/cache";
 import { ApiError, notFound, withActor } from "@/lib/http/respond";
 import { SupernatantLinkRefused, seriesForLinking, setSupernatantLink } from "@/lib/series/supernatantLinks";
@@ -27,7 +28,7 @@ export const POST = withActor<Ctx>(async (request, { actor, params }) => {
   const { id } = await params;
   if (!UUID.test(id)) throw notFound(`series ${id.slice(0, 80)}`);
   await seriesForLinking(actor, id).catch((error: unknown) => { throw apiErrorOf(error); });
-  if (!(request.headers.get("content-type") ?? "").includes("application/json")) {
+  if (!isJson(request)) {
     throw new ApiError(415, "unsupported-media-type", "Send JSON: {\"supernatantSpectrumId\": \"…\", \"pointSpectrumId\": \"…\" | null}.");
   }
   let body: unknown;

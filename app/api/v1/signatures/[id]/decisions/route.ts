@@ -1,4 +1,5 @@
 import { NextResponse } from "next/server";
+import { isJson } from "@/lib/http/mediaType";
 import { revalidatePath } from "next/cache";
 import { ApiError, notFound, withActor } from "@/lib/http/respond";
 import { getSignatureReview } from "@/lib/queries/review";
@@ -27,7 +28,7 @@ export const POST = withActor<Ctx>(async (request, { actor, params }) => {
   const review = UUID.test(id) ? await getSignatureReview(actor, id) : null;
   if (!review) throw notFound(`signature ${id.slice(0, 80)}`);
   if (!review.mayDecide) throw new ApiError(403, "forbidden", "Only a lead of the group that owns the spectrum can confirm or dismiss its signatures.");
-  if (!(request.headers.get("content-type") ?? "").includes("application/json")) {
+  if (!isJson(request)) {
     throw new ApiError(415, "unsupported-media-type", "Send the decision as JSON: {\"decision\": \"confirmed\" | \"dismissed\", \"comment\": \"…\"}.");
   }
   let body: unknown;

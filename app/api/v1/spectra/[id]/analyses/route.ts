@@ -1,4 +1,5 @@
 import { NextResponse } from "next/server";
+import { isJson } from "@/lib/http/mediaType";
 import { ApiError, withActor } from "@/lib/http/respond";
 import { requestReanalysis } from "@/lib/ingest";
 import { toApiError } from "@/lib/ingest/apiErrors";
@@ -9,11 +10,10 @@ export const dynamic = "force-dynamic";
 /** POST /api/v1/spectra/{id}/analyses — a new analysis run with changed parameters (JSON body); earlier runs are kept. */
 export const POST = withActor<{ params: Promise<{ id: string }> }>(async (request, { actor, params }) => {
   const { id } = await params;
-  const type = request.headers.get("content-type") ?? "";
   let body: unknown = {};
   const text = await request.text();
   if (text.trim() !== "") {
-    if (!type.toLowerCase().startsWith("application/json")) throw new ApiError(415, "unsupported-media-type", "send the parameters as application/json");
+    if (!isJson(request)) throw new ApiError(415, "unsupported-media-type", "send the parameters as application/json");
     try {
       body = JSON.parse(text);
     } catch {
