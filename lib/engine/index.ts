@@ -1,5 +1,7 @@
 export { ENGINE_VERSION } from './version';
 export { SpectrumFileError } from './errors';
+export { parseSpectrumBytes } from './parse/parseSpectrumBytes';
+export { looksLikeSpreadsheet } from './parse/looksLikeSpreadsheet';
 export { parseSpectrumFile, DEFAULT_MAX_BYTES, DEFAULT_MAX_LINE_LENGTH, DEFAULT_MIN_POINTS } from './parse/parseSpectrumFile';
 export { analyzeSpectrum, DEFAULT_THRESHOLDS } from './analyzeSpectrum';
 export { MATERIALS, isMaterialName } from './derived/materials';
