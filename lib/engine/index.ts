@@ -15,3 +15,5 @@ export { savitzkyGolayFilter } from './signal/savitzkyGolayFilter';
 export { estimateNoise } from './signal/estimateNoise';
 export { HC_EV_NM, CM1_PER_EV, AVOGADRO } from './constants';
 export type * from './types';
+export { Y_KINDS, Y_KIND_NAMES, X_UNITS, X_UNIT_NAMES, yKindOf, readChoiceOptions } from './parse/readChoice';
+export type { YKind, ReadChoice } from './parse/readChoice';

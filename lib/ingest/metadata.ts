@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { X_UNIT_NAMES, Y_KIND_NAMES } from "@/lib/engine/parse/readChoice";
 
 // The metadata that travels with an upload, checked with the same schema in the
 // browser form, the HTTP API and the seed script. Every field arrives as a string from
@@ -35,6 +36,12 @@ function optionalNumber(label: string, min: number, max: number, unit: string) {
   );
 }
 
+const optionalCount = (label: string) =>
+  z.preprocess(
+    blankToUndefined,
+    z.coerce.number({ error: `${label} must be a whole number` }).int(`${label} must be a whole number`).min(1, `${label} counts from 1`).max(1000).optional(),
+  );
+
 const optionalId = (label: string) =>
   z.preprocess(blankToUndefined, z.string().trim().uuid(`${label} must be an id (UUID)`).optional());
 
@@ -59,6 +66,11 @@ export const ingestMetadataSchema = z
     excitationNm: optionalNumber("excitationNm", 100, 3000, "nm"),
     solvent: optionalText("solvent", 100),
     column: optionalText("column", 100),
+    xUnit: z.preprocess(blankToUndefined, z.enum(X_UNIT_NAMES, { error: `xUnit must be one of ${X_UNIT_NAMES.join(", ")}` }).optional()),
+    yKind: z.preprocess(blankToUndefined, z.enum(Y_KIND_NAMES, { error: `yKind must be one of ${Y_KIND_NAMES.join(", ")}` }).optional()),
+    block: optionalCount("block"),
+    pair: optionalCount("pair"),
+    sheet: optionalText("sheet", 100),
     material: z.preprocess(
       blankToUndefined,
       z.enum(INGEST_MATERIALS, { error: `material must be one of ${INGEST_MATERIALS.join(", ")}` }).optional(),
@@ -76,5 +88,5 @@ export type IngestMetadata = z.output<typeof ingestMetadataSchema>;
 /** Field names the HTTP API reads from a multipart form besides `file`. */
 export const INGEST_FIELDS = [
   "projectId", "technique", "sampleId", "referenceSpectrumId", "seriesId", "seriesValue",
-  "pathLengthCm", "excitationNm", "solvent", "column", "material",
+  "pathLengthCm", "excitationNm", "solvent", "column", "material", "xUnit", "yKind", "block", "pair", "sheet",
 ] as const;

@@ -65,11 +65,16 @@ const isHeaderRow = (row: string[] | undefined, dc: boolean) =>
 
 const KEY_VALUE = /^[^:=]{1,80}[:=]/;
 
-/** A line of group names above the column names: two or more names, fewer than the columns, not "key: value". */
+/**
+ * A line of group names above the column names: fewer names than columns, none of them a number
+ * or "key: value"; two or more names, or one that does not stand in the first cell (a metadata
+ * line starts there).
+ */
 function isGroupRow(row: string[] | undefined, header: string[], dc: boolean): boolean {
   if (!row || isBlank(row)) return false;
   const filled = row.map((c, i) => [c, i] as const).filter(([c]) => c.length > 0);
-  if (filled.length < 2 || filled.length >= header.filter((c) => c.length > 0).length) return false;
+  if (filled.length >= header.filter((c) => c.length > 0).length) return false;
+  if (filled.length === 1 && filled[0]![1] === 0) return false;
   if (filled.some(([c]) => KEY_VALUE.test(c) || numeric(c, dc))) return false;
   return filled.every(([, i]) => i < header.length);
 }
