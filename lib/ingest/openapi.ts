@@ -1,6 +1,7 @@
 import { ENGINE_VERSION } from "@/lib/engine/version";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "./metadata";
 import { MAX_CONCENTRATION_RATIO, NORMALIZATION_WAVELENGTH_NM } from "./normalization";
+import { X_UNIT_NAMES, Y_KIND_NAMES } from "@/lib/engine/parse/readChoice";
 
 const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
 const errorResponse = (description: string) => ({ description, content: { "application/json": { schema: ref("Error") } } });
@@ -244,7 +245,7 @@ export function openApiDocument() {
           type: "object",
           required: ["file", "projectId", "technique"],
           properties: {
-            file: { type: "array", items: { type: "string", contentMediaType: "application/octet-stream" }, description: "One or more exports (CSV/TSV/text or JCAMP-DX) or zips of them" },
+            file: { type: "array", items: { type: "string", contentMediaType: "application/octet-stream" }, description: "One or more exports (CSV/TSV/text in UTF-8, UTF-16 or a single-byte encoding, JCAMP-DX, .xlsx) or zips of them" },
             projectId: { type: "string", format: "uuid" },
             technique: { type: "string", enum: [...INGEST_TECHNIQUES] },
             sampleId: { type: "string", format: "uuid" },
@@ -256,6 +257,11 @@ export function openApiDocument() {
             solvent: { type: "string", maxLength: 100 },
             column: { type: "string", maxLength: 100, description: "Y column: header name, or zero-based index (0 is the X column)" },
             material: { type: "string", enum: [...INGEST_MATERIALS], description: "Core material for sizing; defaults from the sample" },
+            xUnit: { type: "string", enum: [...X_UNIT_NAMES], description: "X unit, for files whose header does not state it (or to override it); docs/ingest.md says when it is inferred" },
+            yKind: { type: "string", enum: [...Y_KIND_NAMES], description: "What the Y values are, when the file does not say" },
+            block: { type: "integer", minimum: 1, description: "Block to read when the file holds several blocks one after another (default 1)" },
+            pair: { type: "integer", minimum: 1, description: "X,Y pair to read when the file holds pairs side by side" },
+            sheet: { type: "string", maxLength: 100, description: "Spreadsheet (.xlsx) sheet: name or 1-based number; default the first sheet with a numeric table" },
           },
         },
         UploadOutcome: {
@@ -377,6 +383,8 @@ export function openApiDocument() {
           description: "Members left out keep their earlier value; null clears one",
           properties: {
             column: { type: ["string", "integer", "null"] }, material: { type: ["string", "null"], enum: [...INGEST_MATERIALS, null] },
+            xUnit: { type: ["string", "null"], enum: [...X_UNIT_NAMES, null] }, yKind: { type: ["string", "null"], enum: [...Y_KIND_NAMES, null] },
+            block: nullable("integer"), pair: nullable("integer"), sheet: nullable("string"),
             pathLengthCm: nullable("number"), excitationNm: nullable("number"), smoothingWindow: nullable("integer"),
             smoothingPolynomial: nullable("integer"), baseline: { type: ["string", "null"], enum: ["none", "offset", "scatter", null] },
             thresholds: { type: "object" },
