@@ -45,6 +45,25 @@ const optionalCount = (label: string) =>
 const optionalId = (label: string) =>
   z.preprocess(blankToUndefined, z.string().trim().uuid(`${label} must be an id (UUID)`).optional());
 
+/** How to read a file (column, units, block, pair, sheet): shared by uploads and previews. */
+export const readFields = {
+  column: optionalText("column", 100),
+  xUnit: z.preprocess(blankToUndefined, z.enum(X_UNIT_NAMES, { error: `xUnit must be one of ${X_UNIT_NAMES.join(", ")}` }).optional()),
+  yKind: z.preprocess(blankToUndefined, z.enum(Y_KIND_NAMES, { error: `yKind must be one of ${Y_KIND_NAMES.join(", ")}` }).optional()),
+  block: optionalCount("block"),
+  pair: optionalCount("pair"),
+  sheet: optionalText("sheet", 100),
+};
+
+/** The fields of a preview: how to read the file, and the technique (which settles an unstated Y kind). */
+export const previewFieldsSchema = z
+  .object({
+    technique: z.preprocess(blankToUndefined, z.enum(INGEST_TECHNIQUES, { error: "technique must be one of absorption, pl, ir" }).optional()),
+    ...readFields,
+  })
+  .strict();
+export const PREVIEW_FIELDS = ["technique", "column", "xUnit", "yKind", "block", "pair", "sheet"] as const;
+
 export const ingestMetadataSchema = z
   .object({
     projectId: z.preprocess(blankToUndefined, z.string({ error: "choose a project" }).trim().uuid("projectId must be an id (UUID)")),
@@ -65,12 +84,7 @@ export const ingestMetadataSchema = z
     pathLengthCm: optionalNumber("pathLengthCm", 0, 100, "cm"),
     excitationNm: optionalNumber("excitationNm", 100, 3000, "nm"),
     solvent: optionalText("solvent", 100),
-    column: optionalText("column", 100),
-    xUnit: z.preprocess(blankToUndefined, z.enum(X_UNIT_NAMES, { error: `xUnit must be one of ${X_UNIT_NAMES.join(", ")}` }).optional()),
-    yKind: z.preprocess(blankToUndefined, z.enum(Y_KIND_NAMES, { error: `yKind must be one of ${Y_KIND_NAMES.join(", ")}` }).optional()),
-    block: optionalCount("block"),
-    pair: optionalCount("pair"),
-    sheet: optionalText("sheet", 100),
+    ...readFields,
     material: z.preprocess(
       blankToUndefined,
       z.enum(INGEST_MATERIALS, { error: `material must be one of ${INGEST_MATERIALS.join(", ")}` }).optional(),

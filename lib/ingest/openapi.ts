@@ -62,6 +62,40 @@ export function openApiDocument() {
           },
         },
       },
+      "/api/v1/spectra/preview": {
+        post: {
+          operationId: "previewSpectrumFile",
+          summary: "Read one file as an upload would, without storing it: encoding, layout, units (and where they came from), columns, a thinned curve, what would be created",
+          requestBody: {
+            required: true,
+            content: {
+              "multipart/form-data": {
+                schema: {
+                  type: "object",
+                  required: ["file"],
+                  properties: {
+                    file: { type: "string", contentMediaType: "application/octet-stream" },
+                    technique: { type: "string", enum: [...INGEST_TECHNIQUES] },
+                    column: { type: "string", maxLength: 100 },
+                    xUnit: { type: "string", enum: [...X_UNIT_NAMES] },
+                    yKind: { type: "string", enum: [...Y_KIND_NAMES] },
+                    block: { type: "integer", minimum: 1 },
+                    pair: { type: "integer", minimum: 1 },
+                    sheet: { type: "string", maxLength: 100 },
+                  },
+                },
+              },
+            },
+          },
+          responses: {
+            "200": { description: "`{ok: true, encoding, layout, xUnit, xUnitSource, yKind, column, traces, plot, creates, ...}` or `{ok: false, error}` for a file that cannot be read (the engine's one-line message)", content: { "application/json": { schema: { type: "object" } } } },
+            "400": errorResponse("A field refused (the message names it), or no file"),
+            "401": errorResponse("No valid token or session"),
+            "413": errorResponse("Over the size limit for one file"),
+            "415": errorResponse("Body is not multipart/form-data"),
+          },
+        },
+      },
       "/api/v1/spectra/{id}": {
         get: {
           operationId: "getSpectrum",
