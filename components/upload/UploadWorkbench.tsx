@@ -237,7 +237,14 @@ function FileRow({ item, busy, onRemove, onOverrides, onApplyToBatch }: FileRowP
             <li key={`${o.fileName}-${i}`} className="flex min-w-0 items-start gap-2 text-xs">
               {isBatch && <span className="w-56 shrink-0 truncate text-ink-soft" title={o.fileName}>{o.fileName}</span>}
               {o.ok ? (
-                <LiveStatus spectrumId={o.spectrumId} duplicate={o.duplicate} />
+                <span className="min-w-0">
+                  <LiveStatus spectrumId={o.spectrumId} duplicate={o.duplicate} />
+                  {o.differences && o.differences.length > 0 && (
+                    <span role="status" className="mt-0.5 block text-caution" data-testid="duplicate-differences">
+                      These bytes were already stored with other details ({o.differences.map((d) => `${d.label}: ${d.stored ?? "not set"} stored, ${d.sent} sent`).join("; ")}). The stored details were kept; change them on the spectrum&apos;s page (a re-run takes a new column, unit or path length).
+                    </span>
+                  )}
+                </span>
               ) : (
                 <span role="alert" className="text-red-800">{o.error.message}</span>
               )}

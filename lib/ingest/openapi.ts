@@ -307,6 +307,11 @@ export function openApiDocument() {
                 ok: { const: true }, fileName: { type: "string" }, zip: { type: "string" }, spectrumId: { type: "string", format: "uuid" },
                 runId: nullable("string", { format: "uuid" }), status: ref("SpectrumState"), duplicate: { type: "boolean" },
                 queued: { type: "boolean" }, sha256: { type: "string" }, sizeBytes: { type: "integer" }, url: { type: "string" },
+                differences: {
+                  type: "array",
+                  description: "For a duplicate: details sent that differ from the stored ones; the stored ones were kept",
+                  items: { type: "object", properties: { field: { type: "string" }, label: { type: "string" }, stored: nullable("string"), sent: { type: "string" } } },
+                },
               },
             },
             {

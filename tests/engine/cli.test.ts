@@ -109,7 +109,7 @@ describe('scripts/analyze.ts', { timeout: 120_000 }, () => {
     });
     it('a headerless file in an ambiguous range is refused until --x-unit says the unit', () => {
       const bare = path.join(dir, 'bare.txt');
-      // near-IR scan written high to low, 2000 → 1200: nm or cm-1 (docs/ingest.md, rule 4)
+      // near-IR scan written high to low, 2000 → 1200: nm or cm-1 (docs/ingest.md, rule 5)
       writeFileSync(bare, Array.from({ length: 200 }, (_, i) => `${2000 - 4 * i}\t${(0.2 + 0.1 * Math.exp(-(((1500 - (2000 - 4 * i)) / 60) ** 2))).toFixed(5)}`).join('\n'));
       const refused = run([bare, '--technique', 'absorption']);
       expect(refused.code).toBe(2);

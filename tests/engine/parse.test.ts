@@ -164,7 +164,7 @@ describe('rejected files name the file, the place and the problem', () => {
     bad('x.csv', enc(lines.join('\n')), /line 16.*X value "x14" is not a number/);
   });
   it('unknown units with no user choice; accepted when the user chooses', () => {
-    // 2000 → 1981 written high to low fits both a near-IR scan in nm and an IR scan in cm-1 (docs/ingest.md rule 4)
+    // 2000 → 1981 written high to low fits both a near-IR scan in nm and an IR scan in cm-1 (docs/ingest.md rule 5)
     const text = `a,b\n${Array.from({ length: 20 }, (_, i) => `${2000 - i},${i}`).join('\n')}`;
     bad('u.csv', enc(text), /X unit unknown.*could be nm or cm⁻¹/);
     bad('u.csv', enc(text), /Y unit unknown/, { xUnit: 'nm' });

@@ -8,14 +8,8 @@ export type XUnitInference =
  * Infers the X unit of a headerless column from its values, only where the ranges used for
  * optical spectra of nanocrystals do not overlap (common practice; the rules are listed in
  * docs/ingest.md). Returns the candidates instead when two units fit the same numbers.
- * Rules, on the smallest (lo) and largest (hi) value:
- *  1. 1.0 ≤ lo, hi ≤ 6.5 → eV (near-IR to UV photon energies; µm spectra of the mid-IR go past 6.5)
- *  2. 2.5 ≤ lo, 6.5 < hi ≤ 30 → µm (mid-IR wavelengths)
- *  3. 150 ≤ lo, hi ≤ 1100 → nm (UV–visible–near-IR wavelengths; an IR scan stays above 400 cm⁻¹ and runs past 1100)
- *  4. 150 ≤ lo, hi ≤ 2600, written low to high → nm (PbS/PbSe near-IR); high to low → nm or cm⁻¹
- *  5. 200 ≤ lo, 3000 ≤ hi ≤ 8000, written high to low → cm⁻¹ (IR spectrometers list wavenumbers descending);
- *     low to high: cm⁻¹ when hi > 3300 (past the near-IR range of nm exports), otherwise nm or cm⁻¹
- * Anything else is not inferred.
+ * The rules, on the smallest (lo) and largest (hi) value, are numbered and explained in
+ * docs/ingest.md ("X unit without a header").
  */
 export function inferXUnit(x: ArrayLike<number>): XUnitInference {
   const n = x.length;
