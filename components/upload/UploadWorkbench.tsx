@@ -27,7 +27,7 @@ type Item = {
 };
 
 /** The batch fields that change how a file is read (and so its preview). */
-const READ_KEYS = ["technique", "column", "xUnit", "yKind", "block", "pair", "sheet"] as const;
+const READ_KEYS = ["projectId", "technique", "column", "xUnit", "yKind", "block", "pair", "sheet"] as const;
 
 function readFieldsFor(values: BatchValues, overrides: FileOverrides): Record<string, string> {
   const fields: Record<string, string> = {};

@@ -58,11 +58,12 @@ export const readFields = {
 /** The fields of a preview: how to read the file, and the technique (which settles an unstated Y kind). */
 export const previewFieldsSchema = z
   .object({
+    projectId: z.preprocess(blankToUndefined, z.string({ error: "choose a project" }).trim().uuid("projectId must be an id (UUID)")),
     technique: z.preprocess(blankToUndefined, z.enum(INGEST_TECHNIQUES, { error: "technique must be one of absorption, pl, ir" }).optional()),
     ...readFields,
   })
   .strict();
-export const PREVIEW_FIELDS = ["technique", "column", "xUnit", "yKind", "block", "pair", "sheet"] as const;
+export const PREVIEW_FIELDS = ["projectId", "technique", "column", "xUnit", "yKind", "block", "pair", "sheet"] as const;
 
 export const ingestMetadataSchema = z
   .object({

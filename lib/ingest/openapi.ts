@@ -72,9 +72,10 @@ export function openApiDocument() {
               "multipart/form-data": {
                 schema: {
                   type: "object",
-                  required: ["file"],
+                  required: ["file", "projectId"],
                   properties: {
                     file: { type: "string", contentMediaType: "application/octet-stream" },
+                    projectId: { type: "string", format: "uuid", description: "The project the file is meant for (same access as an upload)" },
                     technique: { type: "string", enum: [...INGEST_TECHNIQUES] },
                     column: { type: "string", maxLength: 100 },
                     xUnit: { type: "string", enum: [...X_UNIT_NAMES] },
@@ -91,6 +92,8 @@ export function openApiDocument() {
             "200": { description: "`{ok: true, encoding, layout, xUnit, xUnitSource, yKind, column, traces, plot, creates, ...}` or `{ok: false, error}` for a file that cannot be read (the engine's one-line message)", content: { "application/json": { schema: { type: "object" } } } },
             "400": errorResponse("A field refused (the message names it), or no file"),
             "401": errorResponse("No valid token or session"),
+            "403": errorResponse("No write access to the project's group"),
+            "404": errorResponse("Project not found"),
             "413": errorResponse("Over the size limit for one file"),
             "415": errorResponse("Body is not multipart/form-data"),
           },

@@ -1,4 +1,7 @@
 import { parseSpectrumBytes, readChoiceOptions, SpectrumFileError, X_UNITS, Y_KINDS, yKindOf, type ParsedSpectrum, type ReadChoice, type TraceInfo } from "@/lib/engine";
+import { Project, models } from "@/models";
+import type { Actor } from "@/lib/auth/actor";
+import { canReadProject, canWrite } from "@/lib/auth/access";
 import { IngestError } from "./errors";
 import { looksLikeZip } from "./expandZip";
 import { previewFieldsSchema } from "./metadata";
@@ -57,16 +60,23 @@ function thin(x: Float64Array, y: Float64Array): { x: number[]; y: number[] } {
  * on offer, a thinned curve for a small plot, and what would be created. An unreadable file is
  * an answer too (`ok: false` with the engine's one-line message), not an error.
  */
-export async function previewFile(fileName: string, bytes: Uint8Array, fields: Record<string, string>, maxBytes: number): Promise<FilePreview> {
+export async function previewFile(actor: Actor, fileName: string, bytes: Uint8Array, fields: Record<string, string>, maxBytes: number): Promise<FilePreview> {
   const parsedFields = previewFieldsSchema.safeParse(fields);
   if (!parsedFields.success) {
     const issue = parsedFields.error.issues[0]!;
     throw new IngestError(400, "invalid", issue.message, String(issue.path[0] ?? "file"));
   }
+  // The same access as an upload into the project: previews are for people who may store files there.
+  models();
+  const project = await Project.findByPk(parsedFields.data.projectId);
+  if (!project || !(await canReadProject(actor, project))) {
+    throw new IngestError(404, "not-found", `project ${parsedFields.data.projectId} was not found`, "projectId");
+  }
+  if (!canWrite(actor, project.groupId)) throw new IngestError(403, "forbidden", `you may not add spectra to project "${project.name}"`, "projectId");
   if (bytes.length === 0) return { ok: false, fileName, error: `${fileName}: the file is empty (0 bytes)` };
   if (bytes.length > maxBytes) return { ok: false, fileName, error: `${fileName}: ${bytes.length} bytes is over the upload limit of ${maxBytes} bytes` };
   if (looksLikeZip(fileName, bytes)) return { ok: false, fileName, error: `${fileName}: a zip is expanded when uploaded; each of its files is read then` };
-  const { technique, ...rest } = parsedFields.data;
+  const { technique, projectId: _projectId, ...rest } = parsedFields.data;
   const choice: ReadChoice = {};
   if (rest.column !== undefined) choice.column = /^\d+$/.test(rest.column) ? Number(rest.column) : rest.column;
   for (const key of ["block", "pair", "sheet", "xUnit", "yKind"] as const) {

@@ -12,10 +12,10 @@ const KNOWN_FIELDS = new Set<string>(["file", ...PREVIEW_FIELDS]);
 
 /**
  * POST /api/v1/spectra/preview — multipart/form-data with one `file` and the reading fields
- * (technique, column, xUnit, yKind, block, pair, sheet). Reads the file as an upload would and
+ * (projectId, technique, column, xUnit, yKind, block, pair, sheet). Reads the file as an upload would and
  * answers what it found; stores nothing.
  */
-export const POST = withActor(async (request) => {
+export const POST = withActor(async (request, { actor }) => {
   if (!(request.headers.get("content-type") ?? "").toLowerCase().startsWith("multipart/form-data")) {
     throw new ApiError(415, "unsupported-media-type", "send the file as multipart/form-data (field \"file\")");
   }
@@ -40,7 +40,7 @@ export const POST = withActor(async (request) => {
   }
   if (!file) throw new ApiError(400, "no-file", "no file was sent (use the form field \"file\")", "file");
   try {
-    const preview = await previewFile(file.name || "unnamed", new Uint8Array(await file.arrayBuffer()), fields, maxFileBytes);
+    const preview = await previewFile(actor, file.name || "unnamed", new Uint8Array(await file.arrayBuffer()), fields, maxFileBytes);
     return NextResponse.json(preview);
   } catch (error) {
     throw toApiError(error);
