@@ -1,4 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
+import type { ReadChoice } from "@/lib/engine/parse/readChoice";
 
 import { TECHNIQUES, type Technique } from "@/lib/registry/techniques";
 
@@ -23,6 +24,8 @@ export class Spectrum extends Model<InferAttributes<Spectrum>, InferCreationAttr
   declare sizeBytes: number;
   declare contentType: CreationOptional<string>;
   declare columnChoice: string | null;
+  /** Block, pair, sheet, chosen X unit or Y kind (migrations/0008); the column stays in columnChoice. */
+  declare readOptions: CreationOptional<ReadChoice>;
   declare axisUnit: string | null;
   declare valueUnit: string | null;
   declare pathLengthCm: number | null;
@@ -57,6 +60,7 @@ export class Spectrum extends Model<InferAttributes<Spectrum>, InferCreationAttr
         sizeBytes: { type: DataTypes.BIGINT, allowNull: false, get() { return Number(this.getDataValue("sizeBytes")); } },
         contentType: { type: DataTypes.TEXT, allowNull: false, defaultValue: "application/octet-stream" },
         columnChoice: { type: DataTypes.TEXT, allowNull: true },
+        readOptions: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         axisUnit: { type: DataTypes.TEXT, allowNull: true },
         valueUnit: { type: DataTypes.TEXT, allowNull: true },
         pathLengthCm: optionalNumber(),

@@ -5,18 +5,44 @@
  *   [--normalize auto|none|wavelength:NM|concentration:SAMPLE/REF] [--dark-level auto|none]
  *   [--sample-abs-ex A] [--sample-abs-em A] [--sample-dots-abs-ex A]
  *   [--reference-abs-ex A] [--reference-abs-em A] [--reference-dots-abs-ex A]
+ *   [--x-unit nm|um|cm-1|eV] [--y-kind absorbance|transmittance-percent|intensity] [--block N] [--pair N] [--sheet NAME|N]
  * Bad input: exit code 2 and one line on stderr.
  */
 import { readFileSync, statSync } from 'node:fs';
 import { basename } from 'node:path';
-import { analyzeSpectrum, parseSpectrumFile, SpectrumFileError, isMaterialName, DEFAULT_MAX_BYTES } from '../lib/engine/index';
-import type { AnalysisOptions, Normalization, ParseOptions, Technique } from '../lib/engine/index';
+import { analyzeSpectrum, parseSpectrumBytes, SpectrumFileError, isMaterialName, DEFAULT_MAX_BYTES, X_UNIT_NAMES, Y_KIND_NAMES, readChoiceOptions } from '../lib/engine/index';
+import type { AnalysisOptions, Normalization, ParseOptions, ReadChoice, Technique, XUnit, YKind } from '../lib/engine/index';
 import { TECHNIQUES, isTechnique } from '../lib/registry/techniques';
 
 class UsageError extends Error {}
 
+/** Options that say how to read the files (they apply to the sample and the reference alike). */
+const READ_OPTIONS = ['x-unit', 'y-kind', 'block', 'pair', 'sheet'] as const;
+
+function readChoice(opts: Record<string, string>): ReadChoice {
+  const choice: ReadChoice = {};
+  const xUnit = opts['x-unit'];
+  if (xUnit !== undefined) {
+    if (!(X_UNIT_NAMES as string[]).includes(xUnit)) throw new UsageError(`--x-unit must be ${X_UNIT_NAMES.join(', ')}, got "${xUnit}"`);
+    choice.xUnit = xUnit as XUnit;
+  }
+  const yKind = opts['y-kind'];
+  if (yKind !== undefined) {
+    if (!(Y_KIND_NAMES as string[]).includes(yKind)) throw new UsageError(`--y-kind must be ${Y_KIND_NAMES.join(', ')}, got "${yKind}"`);
+    choice.yKind = yKind as YKind;
+  }
+  for (const key of ['block', 'pair'] as const) {
+    const v = opts[key];
+    if (v === undefined) continue;
+    if (!/^[1-9]\d*$/.test(v)) throw new UsageError(`--${key} must be a whole number from 1, got "${v}"`);
+    choice[key] = Number(v);
+  }
+  if (opts['sheet'] !== undefined) choice.sheet = /^\d+$/.test(opts['sheet']) ? Number(opts['sheet']) : opts['sheet'];
+  return choice;
+}
+
 const USAGE =
-  `usage: analyze SAMPLE [--reference REF] [--technique ${TECHNIQUES.join('|')}] [--material CdSe|CdTe|CdS|PbS|PbSe] [--path-length-cm L] [--excitation-nm N] [--column NAME|INDEX] [--reference-column NAME|INDEX] [--sizing yu2003|jasieniak2009] [--normalize auto|none|wavelength:NM|concentration:SAMPLE/REF] [--dark-level auto|none] [--sample-abs-ex A] [--sample-abs-em A] [--sample-dots-abs-ex A] [--reference-abs-ex A] [--reference-abs-em A] [--reference-dots-abs-ex A]`;
+  `usage: analyze SAMPLE [--reference REF] [--technique ${TECHNIQUES.join('|')}] [--material CdSe|CdTe|CdS|PbS|PbSe] [--path-length-cm L] [--excitation-nm N] [--column NAME|INDEX] [--reference-column NAME|INDEX] [--sizing yu2003|jasieniak2009] [--normalize auto|none|wavelength:NM|concentration:SAMPLE/REF] [--dark-level auto|none] [--sample-abs-ex A] [--sample-abs-em A] [--sample-dots-abs-ex A] [--reference-abs-ex A] [--reference-abs-em A] [--reference-dots-abs-ex A] [--x-unit nm|um|cm-1|eV] [--y-kind absorbance|transmittance-percent|intensity] [--block N] [--pair N] [--sheet NAME|N]`;
 
 /** PL absorbance flags and the AnalysisOptions member each one sets. */
 const ABSORBANCE_FLAGS = {
@@ -49,7 +75,7 @@ function parseNormalize(v: string): Normalization {
 function parseArgs(argv: string[]) {
   const positional: string[] = [];
   const opts: Record<string, string> = {};
-  const known = new Set(['reference', 'technique', 'material', 'path-length-cm', 'excitation-nm', 'column', 'reference-column', 'sizing', 'normalize', 'dark-level', ...Object.keys(ABSORBANCE_FLAGS)]);
+  const known = new Set(['reference', 'technique', 'material', 'path-length-cm', 'excitation-nm', 'column', 'reference-column', 'sizing', 'normalize', 'dark-level', ...Object.keys(ABSORBANCE_FLAGS), ...READ_OPTIONS]);
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i]!;
     if (a.startsWith('--')) {
@@ -84,7 +110,7 @@ function readBytes(path: string): Uint8Array {
   return new Uint8Array(readFileSync(path));
 }
 
-function main(): void {
+async function main(): Promise<void> {
   const { sample, opts } = parseArgs(process.argv.slice(2));
   const technique = opts['technique'] as Technique | undefined;
   if (technique && !isTechnique(technique)) {
@@ -94,16 +120,17 @@ function main(): void {
   if (material !== undefined && !isMaterialName(material)) throw new UsageError(`--material must be CdSe, CdTe, CdS, PbS or PbSe, got "${material}"`);
   const sizing = opts['sizing'];
   if (sizing !== undefined && sizing !== 'yu2003' && sizing !== 'jasieniak2009') throw new UsageError('--sizing must be yu2003 or jasieniak2009');
+  const choice = readChoice(opts);
   const colArg = (v: string | undefined) => (v === undefined ? undefined : /^\d+$/.test(v) ? Number(v) : v);
   const parseOpts = (col: string | undefined): ParseOptions => {
-    const o: ParseOptions = {};
+    const o: ParseOptions = readChoiceOptions(choice);
     const c = colArg(col);
     if (c !== undefined) o.column = c;
     if (technique) o.technique = technique;
     return o;
   };
-  const s = parseSpectrumFile(basename(sample), readBytes(sample), parseOpts(opts['column']));
-  const r = opts['reference'] ? parseSpectrumFile(basename(opts['reference']), readBytes(opts['reference']), parseOpts(opts['reference-column'] ?? opts['column'])) : undefined;
+  const s = await parseSpectrumBytes(basename(sample), readBytes(sample), parseOpts(opts['column']));
+  const r = opts['reference'] ? await parseSpectrumBytes(basename(opts['reference']), readBytes(opts['reference']), parseOpts(opts['reference-column'] ?? opts['column'])) : undefined;
   const a: AnalysisOptions & { reference?: typeof s } = {};
   if (technique) a.technique = technique;
   if (material) a.material = material;
@@ -130,10 +157,8 @@ function main(): void {
   process.stdout.write(JSON.stringify(report, null, 2) + '\n');
 }
 
-try {
-  main();
-} catch (e) {
+main().catch((e: unknown) => {
   const msg = e instanceof SpectrumFileError || e instanceof UsageError || e instanceof RangeError ? e.message : `internal error: ${e instanceof Error ? e.message : String(e)}`;
   process.stderr.write(`analyze: ${msg.split('\n')[0]}\n`);
   process.exitCode = e instanceof SpectrumFileError || e instanceof UsageError || e instanceof RangeError ? 2 : 1;
-}
+});

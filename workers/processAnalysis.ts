@@ -4,8 +4,8 @@ import { models } from "@/models";
 import { getObjectBytes } from "@/lib/storage";
 import type { AnalysisJob } from "@/lib/queue";
 import { ENGINE_VERSION, SpectrumFileError, analyzeSpectrum, type AnalysisOptions, type ParsedSpectrum } from "@/lib/engine";
-import { columnChoice } from "@/lib/ingest/parameters";
-import { parseRawBytes, parsedRawFile } from "@/lib/rawSpectra";
+import { readChoiceOf } from "@/lib/ingest/parameters";
+import { parseRawBytes, parsedRawFile, storedReadChoice } from "@/lib/rawSpectra";
 import { loadRun, markRunning, type RunToAnalyse } from "./loadRun";
 import { saveAnalysis, saveFailure } from "./saveAnalysis";
 
@@ -20,11 +20,23 @@ function engineStep<T>(fileName: string, step: () => T): T {
   try {
     return step();
   } catch (error) {
-    if (error instanceof SpectrumFileError) throw new DataFault(error.message);
-    if (error instanceof RangeError || error instanceof TypeError) throw new DataFault(`${fileName}: ${error.message}`);
-    console.error(JSON.stringify({ level: "error", msg: "engine error", fileName, error: String(error) }));
-    throw new DataFault(`${fileName}: the analysis stopped on an internal error; the raw file is kept`);
+    throw asDataFault(fileName, error);
   }
+}
+
+async function engineStepAsync<T>(fileName: string, step: () => Promise<T>): Promise<T> {
+  try {
+    return await step();
+  } catch (error) {
+    throw asDataFault(fileName, error);
+  }
+}
+
+function asDataFault(fileName: string, error: unknown): DataFault {
+  if (error instanceof SpectrumFileError) return new DataFault(error.message);
+  if (error instanceof RangeError || error instanceof TypeError) return new DataFault(`${fileName}: ${error.message}`);
+  console.error(JSON.stringify({ level: "error", msg: "engine error", fileName, error: String(error) }));
+  return new DataFault(`${fileName}: the analysis stopped on an internal error; the raw file is kept`);
 }
 
 async function loadReference(run: RunToAnalyse): Promise<ParsedSpectrum | undefined> {
@@ -32,7 +44,7 @@ async function loadReference(run: RunToAnalyse): Promise<ParsedSpectrum | undefi
   const reference = run.reference;
   if (!reference) throw new DataFault(`${run.spectrum.fileName}: its reference spectrum was deleted`);
   try {
-    return await parsedRawFile(reference, columnChoice(reference.columnChoice ?? undefined), (parse) => engineStep(reference.fileName, parse));
+    return await parsedRawFile(reference, storedReadChoice(reference), (parse) => engineStepAsync(reference.fileName, parse));
   } catch (error) {
     if (error instanceof DataFault) throw new DataFault(`reference spectrum ${error.message}`);
     throw error;
@@ -62,7 +74,7 @@ export async function processAnalysis(job: Job<AnalysisJob>): Promise<JobSummary
     await markRunning(runId, spectrumId, startedAt);
     const parameters = run.parameters ?? { technique: spectrum.technique };
     const bytes = await getObjectBytes(spectrum.objectKey);
-    const parsed = engineStep(spectrum.fileName, () => parseRawBytes(spectrum, bytes, parameters.column));
+    const parsed = await engineStepAsync(spectrum.fileName, () => parseRawBytes(spectrum, bytes, readChoiceOf(parameters)));
     const parsedReference = await loadReference(run);
     await job.updateProgress({ stage: "analysing" });
 

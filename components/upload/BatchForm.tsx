@@ -6,15 +6,18 @@ import { HazardNotice } from "@/components/ui/HazardNotice";
 import { hazardsOf } from "@/lib/hazards";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "@/lib/ingest/metadata";
 import type { UploadChoices } from "@/lib/ingest/queries";
+import { X_UNITS, X_UNIT_NAMES, Y_KINDS, Y_KIND_NAMES } from "@/lib/engine/parse/readChoice";
 
 export type BatchValues = {
   projectId: string; technique: string; sampleId: string; referenceSpectrumId: string; seriesId: string; seriesValue: string;
   pathLengthCm: string; excitationNm: string; solvent: string; column: string; material: string;
+  xUnit: string; yKind: string; block: string; pair: string; sheet: string;
 };
 
 export const EMPTY_VALUES: BatchValues = {
   projectId: "", technique: "absorption", sampleId: "", referenceSpectrumId: "", seriesId: "", seriesValue: "",
   pathLengthCm: "1", excitationNm: "", solvent: "", column: "", material: "",
+  xUnit: "", yKind: "", block: "", pair: "", sheet: "",
 };
 
 
@@ -99,6 +102,27 @@ export function BatchForm({ choices, values, errors, disabled, onChange }: Props
       </Field>
       <Field name="column" label="Signal column" hint="Header name or number; empty: the first signal column" errors={errors.column}>
         <input {...attrs("column")} maxLength={100} />
+      </Field>
+      <Field name="xUnit" label="X unit" hint="Empty: as the header says, or inferred from the values" errors={errors.xUnit}>
+        <select {...attrs("xUnit")}>
+          <option value="">As the file says</option>
+          {X_UNIT_NAMES.map((u) => <option key={u} value={u}>{X_UNITS[u].label}</option>)}
+        </select>
+      </Field>
+      <Field name="yKind" label="Signal kind" hint="Empty: as the file or technique says" errors={errors.yKind}>
+        <select {...attrs("yKind")}>
+          <option value="">As the file says</option>
+          {Y_KIND_NAMES.map((k) => <option key={k} value={k}>{Y_KINDS[k].label}</option>)}
+        </select>
+      </Field>
+      <Field name="block" label="Block" hint="For files with several blocks one after another; empty: the first" errors={errors.block}>
+        <input {...attrs("block")} inputMode="numeric" />
+      </Field>
+      <Field name="pair" label="X,Y pair" hint="For files with X,Y pairs side by side" errors={errors.pair}>
+        <input {...attrs("pair")} inputMode="numeric" />
+      </Field>
+      <Field name="sheet" label="Spreadsheet sheet" hint="Name or number; empty: the first sheet with numbers" errors={errors.sheet}>
+        <input {...attrs("sheet")} maxLength={100} />
       </Field>
       <Field name="material" label="Core material for sizing" hint="Empty: taken from the sample" errors={errors.material}>
         <select {...attrs("material")}>

@@ -1,6 +1,6 @@
 "use client";
 
-import { useCallback, useMemo, useRef, useState } from "react";
+import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { ingestMetadataSchema } from "@/lib/ingest/metadata";
 import type { UploadChoices } from "@/lib/ingest/queries";
 import { LIGHT_CAUTION, usesUvOrLaserLight } from "@/lib/hazards";
@@ -10,6 +10,8 @@ import type { PickedFile } from "./collectFiles";
 import { DropZone } from "./DropZone";
 import { LiveStatus } from "./LiveStatus";
 import { sendFile, type UploadOutcome } from "./sendFile";
+import { FilePreviewPanel, type FileOverrides } from "./FilePreviewPanel";
+import { requestPreview, type PreviewAnswer } from "./requestPreview";
 
 type Item = {
   key: string;
@@ -18,7 +20,22 @@ type Item = {
   progress: number;
   outcomes: UploadOutcome[];
   localError?: string;
+  overrides: FileOverrides;
+  preview?: PreviewAnswer | "loading";
+  /** The reading fields the preview was made with; a change asks again. */
+  previewKey?: string;
 };
+
+/** The batch fields that change how a file is read (and so its preview). */
+const READ_KEYS = ["projectId", "technique", "column", "xUnit", "yKind", "block", "pair", "sheet"] as const;
+
+function readFieldsFor(values: BatchValues, overrides: FileOverrides): Record<string, string> {
+  const fields: Record<string, string> = {};
+  for (const k of READ_KEYS) fields[k] = values[k];
+  if (overrides.column) fields.column = overrides.column;
+  if (overrides.xUnit) fields.xUnit = overrides.xUnit;
+  return fields;
+}
 
 const PARALLEL = 3;
 let counter = 0;
@@ -42,6 +59,7 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
           phase: "ready" as const,
           progress: 0,
           outcomes: [],
+          overrides: {},
           localError: p.file.size === 0 ? `${p.name}: the file is empty` : p.file.size > maxBytes ? `${p.name}: ${formatBytes(p.file.size)} is over the ${formatBytes(maxBytes)} limit` : undefined,
         })),
       ]);
@@ -52,6 +70,25 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
   const update = (key: string, change: Partial<Item>) => setItems((old) => old.map((i) => (i.key === key ? { ...i, ...change } : i)));
 
   const ready = items.filter((i) => i.phase === "ready" && !i.localError);
+
+  // Each waiting file is read once per set of reading fields (the batch's and its own).
+  useEffect(() => {
+    for (const item of items) {
+      if (item.phase !== "ready" || item.localError) continue;
+      const fields = readFieldsFor(values, item.overrides);
+      const key = JSON.stringify(fields);
+      if (item.previewKey === key) continue;
+      update(item.key, { preview: "loading", previewKey: key });
+      void requestPreview(item.picked.file, item.picked.name, fields).then((preview) =>
+        setItems((old) => old.map((i) => (i.key === item.key && i.previewKey === key ? { ...i, preview } : i))),
+      );
+    }
+  }, [items, values]);
+
+  const applyToBatch = (overrides: FileOverrides) => {
+    setValues((v) => ({ ...v, ...(overrides.column ? { column: overrides.column } : {}), ...(overrides.xUnit ? { xUnit: overrides.xUnit } : {}) }));
+    setItems((old) => old.map((i) => ({ ...i, overrides: {} })));
+  };
   const counts = useMemo(() => {
     const outcomes = items.flatMap((i) => i.outcomes);
     return {
@@ -81,7 +118,8 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
       for (let item = queue.shift(); item && !controller.signal.aborted; item = queue.shift()) {
         const key = item.key;
         update(key, { phase: "sending", progress: 0 });
-        const result = await sendFile(item.picked.file, item.picked.name, values, (p) => update(key, { progress: p }), controller.signal);
+        const fields = { ...values, ...readFieldsFor(values, item.overrides) };
+        const result = await sendFile(item.picked.file, item.picked.name, fields, (p) => update(key, { progress: p }), controller.signal);
         if (result.status === 400 && result.error?.field && result.error.field in values) {
           setErrors((e) => ({ ...e, [result.error!.field as keyof BatchValues]: [result.error!.message] }));
         }
@@ -145,7 +183,14 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
         ) : (
           <ul className="divide-y divide-stone-100 rounded-lg border border-stone-200 bg-white" data-testid="file-list">
             {items.map((item) => (
-              <FileRow key={item.key} item={item} onRemove={() => setItems((old) => old.filter((i) => i.key !== item.key))} />
+              <FileRow
+                key={item.key}
+                item={item}
+                busy={busy}
+                onRemove={() => setItems((old) => old.filter((i) => i.key !== item.key))}
+                onOverrides={(overrides) => update(item.key, { overrides })}
+                onApplyToBatch={() => applyToBatch(item.overrides)}
+              />
             ))}
           </ul>
         )}
@@ -154,7 +199,9 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
   );
 }
 
-function FileRow({ item, onRemove }: { item: Item; onRemove: () => void }) {
+type FileRowProps = { item: Item; busy: boolean; onRemove: () => void; onOverrides: (o: FileOverrides) => void; onApplyToBatch: () => void };
+
+function FileRow({ item, busy, onRemove, onOverrides, onApplyToBatch }: FileRowProps) {
   const { picked, phase, progress, outcomes, localError } = item;
   const isBatch = outcomes.length > 1 || outcomes.some((o) => o.zip);
   return (
@@ -177,13 +224,23 @@ function FileRow({ item, onRemove }: { item: Item; onRemove: () => void }) {
         </span>
       </div>
       {localError && <p role="alert" className="mt-1 text-xs text-red-800">{localError}</p>}
+      {phase === "ready" && !localError && (
+        <FilePreviewPanel fileName={picked.name} preview={item.preview} overrides={item.overrides} disabled={busy} onChange={onOverrides} onApplyToBatch={onApplyToBatch} />
+      )}
       {outcomes.length > 0 && (
         <ul className={isBatch ? "mt-1 space-y-1 border-l-2 border-stone-100 pl-3" : "mt-1"}>
           {outcomes.map((o, i) => (
             <li key={`${o.fileName}-${i}`} className="flex min-w-0 items-start gap-2 text-xs">
               {isBatch && <span className="w-56 shrink-0 truncate text-ink-soft" title={o.fileName}>{o.fileName}</span>}
               {o.ok ? (
-                <LiveStatus spectrumId={o.spectrumId} duplicate={o.duplicate} />
+                <span className="min-w-0">
+                  <LiveStatus spectrumId={o.spectrumId} duplicate={o.duplicate} />
+                  {o.differences && o.differences.length > 0 && (
+                    <span role="status" className="mt-0.5 block text-caution" data-testid="duplicate-differences">
+                      These bytes were already stored with other details ({o.differences.map((d) => `${d.label}: ${d.stored ?? "not set"} stored, ${d.sent} sent`).join("; ")}). The stored details were kept; change them on the spectrum&apos;s page (a re-run takes a new column, unit or path length).
+                    </span>
+                  )}
+                </span>
               ) : (
                 <span role="alert" className="text-red-800">{o.error.message}</span>
               )}

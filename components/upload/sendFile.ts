@@ -2,7 +2,10 @@
 // upload progress. Resolves with the API's JSON body and status; never rejects on HTTP errors.
 
 export type UploadOutcome =
-  | { ok: true; fileName: string; zip?: string; spectrumId: string; runId: string | null; status: string; duplicate: boolean; queued: boolean }
+  | {
+      ok: true; fileName: string; zip?: string; spectrumId: string; runId: string | null; status: string; duplicate: boolean; queued: boolean;
+      differences?: Array<{ field: string; label: string; stored: string | null; sent: string }>;
+    }
   | { ok: false; fileName: string; zip?: string; error: { status: number; code: string; message: string; field?: string } };
 
 export type SendResult = { status: number; files: UploadOutcome[]; error?: { code: string; message: string; field?: string } };

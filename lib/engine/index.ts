@@ -1,5 +1,7 @@
 export { ENGINE_VERSION } from './version';
 export { SpectrumFileError } from './errors';
+export { parseSpectrumBytes } from './parse/parseSpectrumBytes';
+export { looksLikeSpreadsheet } from './parse/looksLikeSpreadsheet';
 export { parseSpectrumFile, DEFAULT_MAX_BYTES, DEFAULT_MAX_LINE_LENGTH, DEFAULT_MIN_POINTS } from './parse/parseSpectrumFile';
 export { analyzeSpectrum, DEFAULT_THRESHOLDS } from './analyzeSpectrum';
 export { MATERIALS, isMaterialName } from './derived/materials';
@@ -13,3 +15,5 @@ export { savitzkyGolayFilter } from './signal/savitzkyGolayFilter';
 export { estimateNoise } from './signal/estimateNoise';
 export { HC_EV_NM, CM1_PER_EV, AVOGADRO } from './constants';
 export type * from './types';
+export { Y_KINDS, Y_KIND_NAMES, X_UNITS, X_UNIT_NAMES, yKindOf, readChoiceOptions } from './parse/readChoice';
+export type { YKind, ReadChoice } from './parse/readChoice';

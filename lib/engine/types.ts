@@ -7,6 +7,29 @@ export type YUnit = 'absorbance' | 'percent-transmittance' | 'counts';
 // engine's imports keep working.
 export type { AnalysisThresholds, BandRole, FlagKind, FlagUnit, Technique };
 export type MaterialName = 'CdSe' | 'CdTe' | 'CdS' | 'PbS' | 'PbSe';
+/** How the table of a text or spreadsheet file is laid out. */
+export type TableLayout = 'x-then-y' | 'pairs' | 'blocks';
+/** Where the X unit came from: the file's own text, the values (see inferXUnit), or the person's choice. */
+export type UnitSource = 'file' | 'values' | 'chosen';
+
+/** One Y series a file offers: a Y column, the Y of one X,Y pair, or a Y column of one block. */
+export interface TraceInfo {
+  /** 1-based block number (blocks follow one another, each with its own header). */
+  block: number;
+  /** 1-based pair number when the block is laid out as X,Y pairs side by side. */
+  pair?: number;
+  /** Zero-based column index of the Y values in the block. */
+  column: number;
+  /** Zero-based column index of the X values this Y goes with. */
+  xColumn: number;
+  /** The column's header text (or "column N"). */
+  name: string;
+  /** Header with its group-header line, e.g. "Probe A / Absorbance"; unique within the file's choices. */
+  label: string;
+  group?: string;
+  /** A series value written in the header ("0.5 eq", "10 µM", "t = 30 s"). */
+  seriesValue?: { value: number; unit: string };
+}
 
 export interface ParseOptions {
   /** Y column to use: a header name, or a zero-based column index in the file (0 is the X column, so 1 is the first Y column). Default: the first Y column. */
@@ -15,6 +38,12 @@ export interface ParseOptions {
   xUnit?: XUnit;
   /** Y unit when the file does not state one (or to override it). */
   yUnit?: YUnit;
+  /** 1-based block to read when the file holds several blocks one after another. Default 1. */
+  block?: number;
+  /** 1-based X,Y pair to read when the file holds pairs side by side (instead of `column`). */
+  pair?: number;
+  /** Spreadsheet sheet, by name or 1-based number. Default: the first sheet with a numeric table. */
+  sheet?: string | number;
   /** Technique hint; used to infer the Y unit when nothing else states it. */
   technique?: Technique;
   /** Largest accepted file, bytes. Default 20 MiB (20 * 1024 * 1024). */
@@ -27,7 +56,22 @@ export interface ParseOptions {
 
 export interface ParsedSpectrum {
   fileName: string;
-  format: 'delimited' | 'jcamp-dx';
+  format: 'delimited' | 'jcamp-dx' | 'spreadsheet';
+  // The members below are set by parseSpectrumFile; spectra built in code may leave them out.
+  /** Text encoding the file was decoded from ("xlsx" for a spreadsheet). */
+  encoding?: string;
+  layout?: TableLayout;
+  /** Where the X unit came from. */
+  xUnitSource?: UnitSource;
+  /** Every Y series the file offers (for column choice, previews and splitting a file). */
+  traces?: TraceInfo[];
+  /** 1-based block read. */
+  block?: number;
+  /** 1-based pair read, for a pairs layout. */
+  pair?: number;
+  /** Sheet read, and all sheet names, for a spreadsheet. */
+  sheet?: string;
+  sheets?: string[];
   /** X in the file's own unit, sorted ascending, duplicates averaged. */
   x: Float64Array;
   /** Y matching x. */

@@ -1,4 +1,5 @@
 import { Unzip, UnzipInflate, unzipSync } from "fflate";
+import { looksLikeSpreadsheet } from "@/lib/engine/parse/looksLikeSpreadsheet";
 import { IngestError } from "./errors";
 import type { IngestLimits } from "./limits";
 
@@ -7,9 +8,13 @@ export type ZipEntry = { fileName: string; bytes: Uint8Array };
 const ZIP_MAGIC = [0x50, 0x4b, 0x03, 0x04];
 const EMPTY_ZIP_MAGIC = [0x50, 0x4b, 0x05, 0x06];
 
-/** True when the bytes start like a zip archive (or the name says so). */
+/**
+ * True when the bytes start like a zip archive (or the name says so). A spreadsheet (.xlsx) is a
+ * zip too, but it is one file to read as a table, never unpacked.
+ */
 export function looksLikeZip(fileName: string, bytes: Uint8Array): boolean {
   const starts = (m: number[]) => m.every((b, i) => bytes[i] === b);
+  if (!/\.zip$/i.test(fileName) && looksLikeSpreadsheet(fileName, bytes)) return false;
   return starts(ZIP_MAGIC) || starts(EMPTY_ZIP_MAGIC) || /\.zip$/i.test(fileName);
 }
 

@@ -2,6 +2,13 @@ import { QueryTypes } from "sequelize";
 import { sequelize } from "@/lib/db";
 import { ENGINE_VERSION } from "@/lib/engine/version";
 import type { IngestContext } from "./prepareIngest";
+import { readChoiceOf, type AnalysisParameters } from "./parameters";
+
+/** What spectra.read_options holds: the read choice without the column (kept in column_choice). */
+export function storedReadOptions(parameters: AnalysisParameters) {
+  const { column: _column, ...rest } = readChoiceOf(parameters);
+  return rest;
+}
 
 /*
  * The spectrum, its first analysis run and the audit event of the upload, in one statement:
@@ -12,8 +19,8 @@ const INSERT_UPLOAD_SQL = `
 WITH spectrum AS (
   INSERT INTO spectra (project_id, sample_id, series_id, series_value, reference_spectrum_id, technique, file_name, object_key,
                        sha256, size_bytes, content_type, column_choice, path_length_cm, excitation_nm, solvent, material,
-                       status, uploaded_by)
-  VALUES ($1, $2, $3, $4, $5, $6::text, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, 'queued', $17)
+                       status, uploaded_by, read_options)
+  VALUES ($1, $2, $3, $4, $5, $6::text, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, 'queued', $17, $23::jsonb)
   RETURNING id
 ),
 run AS (
@@ -67,6 +74,7 @@ export async function insertUpload(row: UploadRow): Promise<{ spectrumId: string
       JSON.stringify(parameters),
       context.actor.email,
       context.project.groupId,
+      JSON.stringify(storedReadOptions(parameters)),
     ],
     type: QueryTypes.SELECT,
   });

@@ -3,6 +3,7 @@ import { TECHNIQUES } from "@/lib/registry/techniques";
 import { registryEnum } from "@/lib/registry/schemas";
 import { parseDecimal } from "@/lib/text/parseDecimal";
 import { columnNameSchema, isPlainText, plainTextMessage } from "@/lib/text/plainText";
+import { X_UNIT_NAMES, Y_KIND_NAMES } from "@/lib/engine/parse/readChoice";
 
 // The metadata that travels with an upload, checked with the same schema in the
 // browser form, the HTTP API and the seed script. Every field arrives as a string from
@@ -40,8 +41,34 @@ function optionalNumber(label: string, min: number, max: number, unit: string) {
   );
 }
 
+const optionalCount = (label: string) =>
+  z.preprocess(
+    blankToUndefined,
+    z.coerce.number({ error: `${label} must be a whole number` }).int(`${label} must be a whole number`).min(1, `${label} counts from 1`).max(1000).optional(),
+  );
+
 const optionalId = (label: string) =>
   z.preprocess(blankToUndefined, z.string().trim().uuid(`${label} must be an id (UUID)`).optional());
+
+/** How to read a file (column, units, block, pair, sheet): shared by uploads and previews. */
+export const readFields = {
+  column: z.preprocess(blankToUndefined, columnNameSchema.optional()),
+  xUnit: z.preprocess(blankToUndefined, z.enum(X_UNIT_NAMES, { error: `xUnit must be one of ${X_UNIT_NAMES.join(", ")}` }).optional()),
+  yKind: z.preprocess(blankToUndefined, z.enum(Y_KIND_NAMES, { error: `yKind must be one of ${Y_KIND_NAMES.join(", ")}` }).optional()),
+  block: optionalCount("block"),
+  pair: optionalCount("pair"),
+  sheet: optionalText("sheet", 100),
+};
+
+/** The fields of a preview: how to read the file, and the technique (which settles an unstated Y kind). */
+export const previewFieldsSchema = z
+  .object({
+    projectId: z.preprocess(blankToUndefined, z.string({ error: "choose a project" }).trim().uuid("projectId must be an id (UUID)")),
+    technique: z.preprocess(blankToUndefined, registryEnum("technique", INGEST_TECHNIQUES).optional()),
+    ...readFields,
+  })
+  .strict();
+export const PREVIEW_FIELDS = ["projectId", "technique", "column", "xUnit", "yKind", "block", "pair", "sheet"] as const;
 
 export const ingestMetadataSchema = z
   .object({
@@ -63,7 +90,7 @@ export const ingestMetadataSchema = z
     pathLengthCm: optionalNumber("pathLengthCm", 0, 100, "cm"),
     excitationNm: optionalNumber("excitationNm", 100, 3000, "nm"),
     solvent: optionalText("solvent", 100),
-    column: z.preprocess(blankToUndefined, columnNameSchema.optional()),
+    ...readFields,
     material: z.preprocess(
       blankToUndefined,
       z.enum(INGEST_MATERIALS, { error: `material must be one of ${INGEST_MATERIALS.join(", ")}` }).optional(),
@@ -81,5 +108,5 @@ export type IngestMetadata = z.output<typeof ingestMetadataSchema>;
 /** Field names the HTTP API reads from a multipart form besides `file`. */
 export const INGEST_FIELDS = [
   "projectId", "technique", "sampleId", "referenceSpectrumId", "seriesId", "seriesValue",
-  "pathLengthCm", "excitationNm", "solvent", "column", "material",
+  "pathLengthCm", "excitationNm", "solvent", "column", "material", "xUnit", "yKind", "block", "pair", "sheet",
 ] as const;

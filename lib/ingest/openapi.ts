@@ -2,6 +2,7 @@ import { ENGINE_VERSION } from "@/lib/engine/version";
 import { FLAG_KINDS, FLAG_UNITS, THRESHOLD_SPECS } from "@/lib/registry/flagKinds";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "./metadata";
 import { MAX_CONCENTRATION_RATIO, NORMALIZATION_WAVELENGTH_NM } from "./normalization";
+import { X_UNIT_NAMES, Y_KIND_NAMES } from "@/lib/engine/parse/readChoice";
 
 const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
 const errorResponse = (description: string) => ({ description, content: { "application/json": { schema: ref("Error") } } });
@@ -59,6 +60,43 @@ export function openApiDocument() {
             "413": errorResponse("File, zip or request over a limit"),
             "415": errorResponse("Body is not multipart/form-data"),
             "503": errorResponse("Storage or database unreachable; nothing was stored for the file(s) concerned"),
+          },
+        },
+      },
+      "/api/v1/spectra/preview": {
+        post: {
+          operationId: "previewSpectrumFile",
+          summary: "Read one file as an upload would, without storing it: encoding, layout, units (and where they came from), columns, a thinned curve, what would be created",
+          requestBody: {
+            required: true,
+            content: {
+              "multipart/form-data": {
+                schema: {
+                  type: "object",
+                  required: ["file", "projectId"],
+                  properties: {
+                    file: { type: "string", contentMediaType: "application/octet-stream" },
+                    projectId: { type: "string", format: "uuid", description: "The project the file is meant for (same access as an upload)" },
+                    technique: { type: "string", enum: [...INGEST_TECHNIQUES] },
+                    column: { type: "string", maxLength: 100 },
+                    xUnit: { type: "string", enum: [...X_UNIT_NAMES] },
+                    yKind: { type: "string", enum: [...Y_KIND_NAMES] },
+                    block: { type: "integer", minimum: 1 },
+                    pair: { type: "integer", minimum: 1 },
+                    sheet: { type: "string", maxLength: 100 },
+                  },
+                },
+              },
+            },
+          },
+          responses: {
+            "200": { description: "`{ok: true, encoding, layout, xUnit, xUnitSource, yKind, column, traces, plot, creates, ...}` or `{ok: false, error}` for a file that cannot be read (the engine's one-line message)", content: { "application/json": { schema: { type: "object" } } } },
+            "400": errorResponse("A field refused (the message names it), or no file"),
+            "401": errorResponse("No valid token or session"),
+            "403": errorResponse("No write access to the project's group"),
+            "404": errorResponse("Project not found"),
+            "413": errorResponse("Over the size limit for one file"),
+            "415": errorResponse("Body is not multipart/form-data"),
           },
         },
       },
@@ -245,7 +283,7 @@ export function openApiDocument() {
           type: "object",
           required: ["file", "projectId", "technique"],
           properties: {
-            file: { type: "array", items: { type: "string", contentMediaType: "application/octet-stream" }, description: "One or more exports (CSV/TSV/text or JCAMP-DX) or zips of them" },
+            file: { type: "array", items: { type: "string", contentMediaType: "application/octet-stream" }, description: "One or more exports (CSV/TSV/text in UTF-8, UTF-16 or a single-byte encoding, JCAMP-DX, .xlsx) or zips of them" },
             projectId: { type: "string", format: "uuid" },
             technique: { type: "string", enum: [...INGEST_TECHNIQUES] },
             sampleId: { type: "string", format: "uuid" },
@@ -257,6 +295,11 @@ export function openApiDocument() {
             solvent: { type: "string", maxLength: 100 },
             column: { type: "string", maxLength: 100, description: "Y column: header name, or zero-based index (0 is the X column)" },
             material: { type: "string", enum: [...INGEST_MATERIALS], description: "Core material for sizing; defaults from the sample" },
+            xUnit: { type: "string", enum: [...X_UNIT_NAMES], description: "X unit, for files whose header does not state it (or to override it); docs/ingest.md says when it is inferred" },
+            yKind: { type: "string", enum: [...Y_KIND_NAMES], description: "What the Y values are, when the file does not say" },
+            block: { type: "integer", minimum: 1, description: "Block to read when the file holds several blocks one after another (default 1)" },
+            pair: { type: "integer", minimum: 1, description: "X,Y pair to read when the file holds pairs side by side" },
+            sheet: { type: "string", maxLength: 100, description: "Spreadsheet (.xlsx) sheet: name or 1-based number; default the first sheet with a numeric table" },
           },
         },
         UploadOutcome: {
@@ -268,6 +311,11 @@ export function openApiDocument() {
                 ok: { const: true }, fileName: { type: "string" }, zip: { type: "string" }, spectrumId: { type: "string", format: "uuid" },
                 runId: nullable("string", { format: "uuid" }), status: ref("SpectrumState"), duplicate: { type: "boolean" },
                 queued: { type: "boolean" }, sha256: { type: "string" }, sizeBytes: { type: "integer" }, url: { type: "string" },
+                differences: {
+                  type: "array",
+                  description: "For a duplicate: details sent that differ from the stored ones; the stored ones were kept",
+                  items: { type: "object", properties: { field: { type: "string" }, label: { type: "string" }, stored: nullable("string"), sent: { type: "string" } } },
+                },
               },
             },
             {
@@ -380,6 +428,8 @@ export function openApiDocument() {
           description: "Members left out keep their earlier value; null clears one",
           properties: {
             column: { type: ["string", "integer", "null"] }, material: { type: ["string", "null"], enum: [...INGEST_MATERIALS, null] },
+            xUnit: { type: ["string", "null"], enum: [...X_UNIT_NAMES, null] }, yKind: { type: ["string", "null"], enum: [...Y_KIND_NAMES, null] },
+            block: nullable("integer"), pair: nullable("integer"), sheet: nullable("string"),
             pathLengthCm: nullable("number"), excitationNm: nullable("number"), smoothingWindow: nullable("integer"),
             smoothingPolynomial: nullable("integer"), baseline: { type: ["string", "null"], enum: ["none", "offset", "scatter", null] },
             thresholds: {

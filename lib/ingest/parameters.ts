@@ -1,6 +1,8 @@
 import { sha256Hex } from "@/lib/hash";
 import { columnNameSchema } from "@/lib/text/plainText";
 import { z } from "zod";
+import { X_UNIT_NAMES, Y_KIND_NAMES, type ReadChoice, type YKind } from "@/lib/engine/parse/readChoice";
+import type { XUnit } from "@/lib/engine/types";
 import { canonicalJson } from "./canonicalJson";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "./metadata";
 import { THRESHOLD_NAMES, THRESHOLD_SPECS, type ThresholdName } from "@/lib/registry/flagKinds";
@@ -15,6 +17,12 @@ import { normalizationSchema, type NormalizationParameter } from "./normalizatio
 export type AnalysisParameters = {
   technique: (typeof INGEST_TECHNIQUES)[number];
   column?: string | number;
+  /** How to read the file besides the column (see ReadChoice); absent means "as the file says". */
+  block?: number;
+  pair?: number;
+  sheet?: string;
+  xUnit?: XUnit;
+  yKind?: YKind;
   material?: (typeof INGEST_MATERIALS)[number];
   pathLengthCm?: number;
   excitationNm?: number;
@@ -43,6 +51,15 @@ export function columnChoice(raw: string | undefined): string | number | undefin
   return /^\d+$/.test(raw) ? Number(raw) : raw;
 }
 
+/** The read choice stored with a run's parameters (the column included). */
+export function readChoiceOf(parameters: Pick<AnalysisParameters, "column" | "block" | "pair" | "sheet" | "xUnit" | "yKind">): ReadChoice {
+  const out: ReadChoice = {};
+  for (const key of ["column", "block", "pair", "sheet", "xUnit", "yKind"] as const) {
+    if (parameters[key] !== undefined) (out as Record<string, unknown>)[key] = parameters[key];
+  }
+  return out;
+}
+
 /** Guesses the engine's material name from a sample's free-text material ("CdSe/ZnS" → CdSe). */
 export function materialFromText(text: string | null | undefined): AnalysisParameters["material"] {
   if (!text) return undefined;
@@ -59,6 +76,11 @@ export const reanalysisSchema = z
   .object({
     column: z.union([columnNameSchema, z.number().int().min(1)]).nullable().optional(),
     material: z.enum(INGEST_MATERIALS).nullable().optional(),
+    block: z.number().int().min(1).max(1000).nullable().optional(),
+    pair: z.number().int().min(1).max(1000).nullable().optional(),
+    sheet: z.string().trim().min(1).max(100).nullable().optional(),
+    xUnit: z.enum(X_UNIT_NAMES, { error: `xUnit must be one of ${X_UNIT_NAMES.join(", ")}` }).nullable().optional(),
+    yKind: z.enum(Y_KIND_NAMES, { error: `yKind must be one of ${Y_KIND_NAMES.join(", ")}` }).nullable().optional(),
     pathLengthCm: positive("pathLengthCm").max(100).nullable().optional(),
     excitationNm: positive("excitationNm").min(100).max(3000).nullable().optional(),
     smoothingWindow: z

@@ -68,6 +68,9 @@ export async function prepareIngest(actor: Actor, input: IngestMetadataInput | R
   const parameters: AnalysisParameters = { technique: metadata.technique };
   const column = columnChoice(metadata.column);
   if (column !== undefined) parameters.column = column;
+  for (const key of ["block", "pair", "sheet", "xUnit", "yKind"] as const) {
+    if (metadata[key] !== undefined) (parameters as Record<string, unknown>)[key] = metadata[key];
+  }
   const material = metadata.material ?? materialFromText(sample?.material);
   if (material) parameters.material = material;
   if (metadata.pathLengthCm !== undefined) parameters.pathLengthCm = metadata.pathLengthCm;

@@ -5,6 +5,7 @@ import { canReadSpectrum, canWrite } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
 import { ENGINE_VERSION } from "@/lib/engine/version";
 import { enqueueRun } from "./enqueueRun";
+import { storedReadOptions } from "./insertUpload";
 import { IngestError } from "./errors";
 import { mergeParameters, parameterHash, reanalysisSchema, type AnalysisParameters, type ReanalysisInput } from "./parameters";
 
@@ -53,6 +54,11 @@ export async function requestReanalysis(spectrumId: string, changes: ReanalysisI
     throw new IngestError(400, "invalid", "normalization: needs a parent reference spectrum, and the run would have none", "normalization");
   }
   const hash = parameterHash(parameters, referenceSpectrumId);
+  // The spectrum is read the way its newest run reads it, so references, viewer and exports agree.
+  const readUpdate = {
+    columnChoice: parameters.column === undefined ? null : String(parameters.column),
+    readOptions: storedReadOptions(parameters),
+  };
 
   const { run, created, requeue } = await db.transaction(async (transaction) => {
     const existing = await AnalysisRun.findOne({
@@ -63,7 +69,7 @@ export async function requestReanalysis(spectrumId: string, changes: ReanalysisI
     if (existing) {
       if (existing.status === "failed") {
         await existing.update({ status: "queued", errorMessage: null, startedAt: null, finishedAt: null, durationMs: null }, { transaction });
-        await spectrum.update({ status: "queued", errorMessage: null }, { transaction });
+        await spectrum.update({ status: "queued", errorMessage: null, ...readUpdate }, { transaction });
         return { run: existing, created: false, requeue: true };
       }
       return { run: existing, created: false, requeue: existing.status !== "done" };
@@ -75,7 +81,7 @@ export async function requestReanalysis(spectrumId: string, changes: ReanalysisI
       },
       { transaction },
     );
-    await spectrum.update({ status: "queued", errorMessage: null }, { transaction });
+    await spectrum.update({ status: "queued", errorMessage: null, ...readUpdate }, { transaction });
     await recordAudit(
       {
         actorId: actor.id, actorLabel: actor.email, groupId: project.groupId, action: "analysis.request",

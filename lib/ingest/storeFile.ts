@@ -6,6 +6,7 @@ import { deleteObject, newRawObjectKey, putObject, sha256Hex } from "@/lib/stora
 import { enqueueRun } from "./enqueueRun";
 import { insertUpload } from "./insertUpload";
 import { IngestError } from "./errors";
+import { detailDifferences, type DetailDifference } from "./detailDifferences";
 import type { IngestContext } from "./prepareIngest";
 import { parameterHash } from "./parameters";
 import { isTransientFault } from "./transient";
@@ -20,6 +21,8 @@ export type StoredFile = {
   queued: boolean;
   sha256: string;
   sizeBytes: number;
+  /** For a duplicate: the details sent that differ from the stored ones (the stored ones were kept). */
+  differences?: DetailDifference[];
 };
 
 /** File names as stored: no control characters, no leading slashes, at most 255 characters. */
@@ -34,6 +37,8 @@ function cleanContentType(type: string | undefined): string {
 }
 
 async function duplicateOf(context: IngestContext, existing: Spectrum, fileName: string): Promise<StoredFile> {
+  // Nothing is changed silently: differing details are reported (and audited), the stored ones kept.
+  const differences = detailDifferences(context, existing);
   const latest = await AnalysisRun.findOne({ where: { spectrumId: existing.id }, order: [["createdAt", "DESC"]], attributes: ["id"] });
   await recordAudit({
     actorId: context.actor.id,
@@ -42,11 +47,11 @@ async function duplicateOf(context: IngestContext, existing: Spectrum, fileName:
     action: "spectrum.upload-duplicate",
     targetType: "spectrum",
     targetId: existing.id,
-    details: { fileName, sha256: existing.sha256 },
+    details: { fileName, sha256: existing.sha256, ...(differences.length ? { differences } : {}) },
   });
   return {
     fileName, spectrumId: existing.id, runId: latest?.id ?? null, status: existing.status, duplicate: true, queued: false,
-    sha256: existing.sha256, sizeBytes: existing.sizeBytes,
+    sha256: existing.sha256, sizeBytes: existing.sizeBytes, ...(differences.length ? { differences } : {}),
   };
 }
 

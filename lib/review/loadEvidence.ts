@@ -1,7 +1,6 @@
 import { toEnergyAxis } from "@/lib/engine";
 import { TECHNIQUE_SPECS } from "@/lib/registry/techniques";
-import { columnChoice } from "@/lib/ingest/parameters";
-import { parsedRawFile } from "@/lib/rawSpectra";
+import { parsedRawFile, storedReadChoice } from "@/lib/rawSpectra";
 import { Spectrum, models } from "@/models";
 
 export type Evidence = {
@@ -22,7 +21,7 @@ export type Evidence = {
 const MAX_POINTS = 800;
 
 async function energyArrays(spectrum: Spectrum) {
-  const parsed = await parsedRawFile(spectrum, columnChoice(spectrum.columnChoice ?? undefined));
+  const parsed = await parsedRawFile(spectrum, storedReadChoice(spectrum));
   const { energy, signal } = toEnergyAxis(parsed.x, parsed.y, parsed.xUnit, { emission: TECHNIQUE_SPECS[spectrum.technique].jacobian });
   // Ascending energy.
   const idx = Array.from(energy.keys()).sort((a, b) => energy[a]! - energy[b]!);

@@ -8,18 +8,18 @@ import { selectRows } from "@/lib/db";
 import { SpectrumFileError } from "@/lib/engine";
 import type { ParsedSpectrum } from "@/lib/engine/types";
 import { ApiError } from "@/lib/http/respond";
-import { columnChoice } from "@/lib/ingest/parameters";
+import type { ReadChoice } from "@/lib/engine";
 import { getReadableSpectrum } from "@/lib/ingest/queries";
-import { parsedRawFile } from "@/lib/rawSpectra";
+import { parsedRawFile, storedReadChoice } from "@/lib/rawSpectra";
 import { Series, models } from "@/models";
 import { ABSORBANCE_READING, readAbsorbanceAt } from "./readAbsorbanceAt";
 import type { AbsorbanceReading, ReadingsQuery, SupernatantReadings } from "./supernatantSchemas";
 
-type StoredFile = { id: string; fileName: string; objectKey: string; sha256: string; columnChoice: string | null; pathLengthCm: number | null };
+type StoredFile = { id: string; fileName: string; objectKey: string; sha256: string; columnChoice: string | null; readOptions: ReadChoice | null; pathLengthCm: number | null };
 type Parsed = Pick<ParsedSpectrum, "x" | "y" | "xUnit" | "yUnit" | "pathLengthCm">;
 
 async function parsedOf(file: StoredFile): Promise<Parsed> {
-  return parsedRawFile({ fileName: file.fileName, technique: "absorption", objectKey: file.objectKey }, columnChoice(file.columnChoice ?? undefined));
+  return parsedRawFile({ fileName: file.fileName, technique: "absorption", objectKey: file.objectKey }, storedReadChoice(file));
 }
 
 /** One file read at both wavelengths; a file that cannot be read, or lacks a wavelength, says so in `error`. */
@@ -53,7 +53,7 @@ async function pureSpectrum(actor: Actor, id: string | undefined, field: "pureA"
   if (spectrum.technique !== "absorption") throw new ApiError(400, "invalid", `${field}: ${spectrum.fileName} is not an absorption spectrum`, field);
   return {
     id: spectrum.id, fileName: spectrum.fileName, objectKey: spectrum.objectKey, sha256: spectrum.sha256,
-    columnChoice: spectrum.columnChoice, pathLengthCm: spectrum.pathLengthCm,
+    columnChoice: spectrum.columnChoice, readOptions: spectrum.readOptions, pathLengthCm: spectrum.pathLengthCm,
   };
 }
 
@@ -70,11 +70,11 @@ export async function getSupernatantReadings(actor: Actor, seriesId: string, que
   const rows = await selectRows<{
     id: string; file_name: string; series_value: number | null;
     sup_id: string | null; sup_file_name: string | null; sup_object_key: string | null; sup_sha256: string | null;
-    sup_column_choice: string | null; sup_path_length_cm: number | null;
+    sup_column_choice: string | null; sup_read_options: ReadChoice | null; sup_path_length_cm: number | null;
   }>(
     `SELECT p.id, p.file_name, p.series_value,
        s.id AS sup_id, s.file_name AS sup_file_name, s.object_key AS sup_object_key, s.sha256 AS sup_sha256,
-       s.column_choice AS sup_column_choice, s.path_length_cm AS sup_path_length_cm
+       s.column_choice AS sup_column_choice, s.read_options AS sup_read_options, s.path_length_cm AS sup_path_length_cm
      FROM spectra p LEFT JOIN spectra s ON s.supernatant_of_spectrum_id = p.id
      WHERE p.series_id = :id
      ORDER BY p.series_value NULLS LAST, p.created_at`, { id: series.id },
@@ -85,7 +85,7 @@ export async function getSupernatantReadings(actor: Actor, seriesId: string, que
       spectrumId: r.id, fileName: r.file_name, seriesValue: r.series_value,
       supernatant: await read(r.sup_id ? {
         id: r.sup_id, fileName: r.sup_file_name!, objectKey: r.sup_object_key!, sha256: r.sup_sha256!,
-        columnChoice: r.sup_column_choice, pathLengthCm: r.sup_path_length_cm,
+        columnChoice: r.sup_column_choice, readOptions: r.sup_read_options, pathLengthCm: r.sup_path_length_cm,
       } : null),
     }))),
     read(pureA),

@@ -9,10 +9,11 @@ import type { Actor } from "@/lib/auth/actor";
 import { ENGINE_VERSION, SpectrumFileError } from "@/lib/engine";
 import type { AnalysisReport, ParsedSpectrum } from "@/lib/engine/types";
 import { ApiError, notFound } from "@/lib/http/respond";
-import { columnChoice } from "@/lib/ingest/parameters";
+import { readChoiceOf, type AnalysisParameters } from "@/lib/ingest/parameters";
+import type { ReadChoice } from "@/lib/engine";
 import { getReadableSpectrum } from "@/lib/ingest/queries";
 import { redis } from "@/lib/redis";
-import { parsedRawFile } from "@/lib/rawSpectra";
+import { parsedRawFile, storedReadChoice } from "@/lib/rawSpectra";
 import { AnalysisRun, Spectrum, models } from "@/models";
 import { DISPLAY_AXES, type DisplayAxis } from "./axis";
 import { deriveViewArrays, type ViewArrays } from "./deriveViewArrays";
@@ -95,10 +96,10 @@ export async function getRunReport(runId: string): Promise<AnalysisReport> {
 }
 
 /** A stored raw file, parsed (from lib/rawSpectra's cache); an unreadable one is a 422. */
-function parsedStored(spectrum: Spectrum, column: string | number | undefined): Promise<ParsedSpectrum> {
-  return parsedRawFile(spectrum, column, (parse) => {
+function parsedStored(spectrum: Spectrum, choice: ReadChoice): Promise<ParsedSpectrum> {
+  return parsedRawFile(spectrum, choice, async (parse) => {
     try {
-      return parse();
+      return await parse();
     } catch (error) {
       if (error instanceof SpectrumFileError) throw new ApiError(422, "unreadable", error.message);
       throw error;
@@ -130,12 +131,12 @@ export async function viewArraysOf(spectrum: Spectrum, run: ViewRun): Promise<{ 
   if (!pending) {
     pending = (async () => {
       const report = await getRunReport(run.id);
-      const params = (run.parameters ?? {}) as { column?: string | number };
+      const params = (run.parameters ?? {}) as AnalysisParameters;
       const reference = run.referenceSpectrumId ? await Spectrum.findByPk(run.referenceSpectrumId) : null;
       if (run.referenceSpectrumId && !reference) throw new ApiError(409, "reference-missing", "the parent reference of this analysis was deleted.");
       const [sample, parsedRef] = await Promise.all([
-        parsedStored(spectrum, params.column),
-        reference ? parsedStored(reference, columnChoice(reference.columnChoice ?? undefined)) : Promise.resolve(null),
+        parsedStored(spectrum, readChoiceOf(params)),
+        reference ? parsedStored(reference, storedReadChoice(reference)) : Promise.resolve(null),
       ]);
       let arrays: ViewArrays;
       try {

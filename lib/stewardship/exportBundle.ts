@@ -2,9 +2,9 @@ import { sha256Hex } from "@/lib/hash";
 import { csvLine } from "@/lib/csv/csvCell";
 import { strToU8, zipSync, type Zippable } from "fflate";
 import { Op } from "sequelize";
-import { ENGINE_VERSION, parseSpectrumFile, type ParsedSpectrum } from "@/lib/engine";
+import { ENGINE_VERSION, parseSpectrumBytes, readChoiceOptions, type ParsedSpectrum } from "@/lib/engine";
 import { hazardsOf } from "@/lib/hazards";
-import { columnChoice } from "@/lib/ingest/parameters";
+import { storedReadChoice } from "@/lib/rawSpectra";
 import { getObjectBytes } from "@/lib/storage";
 import { AnalysisRun, Group, Project, Sample, Series, Spectrum, models } from "@/models";
 import { writeJcamp } from "./writeJcamp";
@@ -115,7 +115,7 @@ export async function buildBundle(target: { type: "project" | "series"; id: stri
     own.push(rawPath);
     let note: string | undefined;
     try {
-      const parsed = parseSpectrumFile(s.fileName, raw, { technique: s.technique, ...(s.columnChoice ? { column: columnChoice(s.columnChoice) } : {}) });
+      const parsed = await parseSpectrumBytes(s.fileName, raw, { technique: s.technique, ...readChoiceOptions(storedReadChoice(s)) });
       add(`processed/${base}.csv`, strToU8(processedCsv(parsed)), "processed-csv");
       const jdx = writeJcamp({
         title: s.fileName, technique: s.technique, x: parsed.x, y: parsed.y, xUnit: parsed.xUnit, yUnit: parsed.yUnit,

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { ENGINE_VERSION } from '../../lib/engine/index';
@@ -95,5 +95,78 @@ describe('scripts/analyze.ts', { timeout: 120_000 }, () => {
     expect(r.code).toBe(2);
     expect(r.stderr.trim().split('\n')).toHaveLength(1);
     expect(r.stderr).toContain('unknown option --frobnicate');
+  });
+
+  describe('reading options: --x-unit, --y-kind, --pair, --block, --sheet', () => {
+    // Cells of the real CdSe export (PROVENANCE.md), re-laid out here by test code.
+    const src = readFileSync(path.join(realDir, 'cdse-absorbance-growth-series.csv'), 'utf8').split(/\r?\n/).filter((l) => l.trim());
+    const head = src[0]!.split(',');
+    const rows = src.slice(1).map((l) => l.split(','));
+    const k240 = head.indexOf('240 s');
+    const k30 = head.indexOf('30 s');
+    const firstExciton = (args: string[]) => {
+      const r = run(args);
+      expect(r.stderr).toBe('');
+      expect(r.code).toBe(0);
+      return JSON.parse(r.stdout) as { firstExciton: { wavelengthNm: number } | null; peaks: unknown[]; sample: { xUnit: string; yUnit: string; points: number } };
+    };
+    it('--pair 2 on a side-by-side file gives the same analysis as --column "240 s" on the original', () => {
+      const pairs = path.join(dir, 'pairs.csv');
+      writeFileSync(pairs, ['Серия А,,Серия Б,', 'λ (nm),A,λ (nm),A', ...rows.map((r) => `${r[0]},${r[k30]},${r[0]},${r[k240]}`)].join('\n'));
+      const a = firstExciton([pairs, '--pair', '2', '--technique', 'absorption']);
+      const b = firstExciton([path.join(realDir, 'cdse-absorbance-growth-series.csv'), '--column', '240 s']);
+      expect(a.peaks).toEqual(b.peaks);
+      expect(a.firstExciton).toEqual(b.firstExciton);
+    });
+    it('a headerless file in an ambiguous range is refused until --x-unit says the unit', () => {
+      const bare = path.join(dir, 'bare.txt');
+      // near-IR scan written high to low, 2000 → 1200: nm or cm-1 (docs/ingest.md, rule 5)
+      writeFileSync(bare, Array.from({ length: 200 }, (_, i) => `${2000 - 4 * i}\t${(0.2 + 0.1 * Math.exp(-(((1500 - (2000 - 4 * i)) / 60) ** 2))).toFixed(5)}`).join('\n'));
+      const refused = run([bare, '--technique', 'absorption']);
+      expect(refused.code).toBe(2);
+      expect(refused.stderr).toMatch(/bare\.txt.*X unit unknown.*choose the X unit/);
+      const ok = firstExciton([bare, '--x-unit', 'nm', '--y-kind', 'absorbance', '--technique', 'absorption']);
+      expect(ok.sample.xUnit).toBe('nm');
+      expect(ok.sample.yUnit).toBe('absorbance');
+    });
+    it('--y-kind transmittance-percent is the engine\'s percent-transmittance', () => {
+      const r = firstExciton([path.join(realDir, 'cdse-absorbance-growth-series.csv'), '--y-kind', 'transmittance-percent', '--technique', 'ir']);
+      expect(r.sample.yUnit).toBe('percent-transmittance');
+    });
+    it('--block 2 reads the second block', () => {
+      const blocks = path.join(dir, 'blocks.csv');
+      const block = (k: number) => [`Wavelength (nm),${head[k]}`, ...rows.map((r) => `${r[0]},${r[k]}`)];
+      writeFileSync(blocks, [...block(k30), '', ...block(k240)].join('\n'));
+      const a = firstExciton([blocks, '--block', '2', '--technique', 'absorption']);
+      const b = firstExciton([path.join(realDir, 'cdse-absorbance-growth-series.csv'), '--column', '240 s']);
+      expect(a.peaks).toEqual(b.peaks);
+    });
+    it('--sheet picks a spreadsheet sheet; a sheet without numbers says what to do', async () => {
+      const ExcelJS = (await import('exceljs')).default;
+      const wb = new ExcelJS.Workbook();
+      wb.addWorksheet('Notes').addRow(['notes only']);
+      const ws = wb.addWorksheet('Results');
+      ws.addRow(['Wavelength (nm)', '240 s']);
+      for (const r of rows) ws.addRow([Number(r[0]), Number(r[k240])]);
+      const book = path.join(dir, 'book.xlsx');
+      writeFileSync(book, new Uint8Array(await wb.xlsx.writeBuffer()));
+      const a = firstExciton([book, '--sheet', 'Results', '--y-kind', 'absorbance']);
+      const b = firstExciton([path.join(realDir, 'cdse-absorbance-growth-series.csv'), '--column', '240 s']);
+      expect(a.peaks).toEqual(b.peaks);
+      const refused = run([book, '--sheet', 'Notes']);
+      expect(refused.code).toBe(2);
+      expect(refused.stderr.trim()).toBe("analyze: book.xlsx: no numeric table found on sheet 'Notes'; export the sheet as CSV or choose another sheet");
+    });
+    it('bad option values exit 2 naming the option', () => {
+      for (const [args, re] of [
+        [['x.csv', '--x-unit', 'angstrom'], /--x-unit must be nm, um, cm-1, eV/],
+        [['x.csv', '--y-kind', 'od'], /--y-kind must be absorbance, transmittance-percent, intensity/],
+        [['x.csv', '--pair', '0'], /--pair must be a whole number from 1/],
+      ] as const) {
+        const r = run([...args]);
+        expect(r.code).toBe(2);
+        expect(r.stderr).toMatch(re);
+      }
+    });
   });
 });

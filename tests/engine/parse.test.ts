@@ -164,10 +164,13 @@ describe('rejected files name the file, the place and the problem', () => {
     bad('x.csv', enc(lines.join('\n')), /line 16.*X value "x14" is not a number/);
   });
   it('unknown units with no user choice; accepted when the user chooses', () => {
-    const text = `a,b\n${Array.from({ length: 20 }, (_, i) => `${400 + i},${i}`).join('\n')}`;
-    bad('u.csv', enc(text), /X unit unknown/);
+    // 2000 → 1981 written high to low fits both a near-IR scan in nm and an IR scan in cm-1 (docs/ingest.md rule 5)
+    const text = `a,b\n${Array.from({ length: 20 }, (_, i) => `${2000 - i},${i}`).join('\n')}`;
+    bad('u.csv', enc(text), /X unit unknown.*could be nm or cm⁻¹/);
     bad('u.csv', enc(text), /Y unit unknown/, { xUnit: 'nm' });
-    expect(parseSpectrumFile('u.csv', enc(text), { xUnit: 'nm', yUnit: 'counts' }).x.length).toBe(20);
+    const s = parseSpectrumFile('u.csv', enc(text), { xUnit: 'nm', yUnit: 'counts' });
+    expect(s.x.length).toBe(20);
+    expect(s.xUnitSource).toBe('chosen');
   });
   it('over the size limit (option, default 20 MiB)', () => bad('big.csv', enc(good(100)), /over the 100-byte limit/, { maxBytes: 100 }));
   it('line over the length limit (option, default 1 MiB)', () => {

@@ -1,4 +1,5 @@
 // A corpus of files and requests that must be refused with a clear message, generated here.
+import ExcelJS from "exceljs";
 import { gzipSync, strToU8, zipSync } from "fflate";
 import { enc, syntheticAbsorptionCsv } from "./spectra";
 
@@ -13,6 +14,13 @@ export type BadCase = {
 };
 
 const good = () => syntheticAbsorptionCsv({ seed: Math.floor(Math.random() * 1e9), points: 200 });
+
+/** A real .xlsx (written by exceljs when this module loads) whose only sheet holds words. */
+const wordsOnlyWorkbook = await (async () => {
+  const wb = new ExcelJS.Workbook();
+  wb.addWorksheet("Results").addRow(["sample", "comment"]);
+  return new Uint8Array(await wb.xlsx.writeBuffer());
+})();
 
 export function badCorpus(maxBytes: number): BadCase[] {
   const u = () => Math.random().toString(36).slice(2, 8);
@@ -46,7 +54,8 @@ export function badCorpus(maxBytes: number): BadCase[] {
     { name: "too few points", fileName: `few-${u()}.csv`, bytes: lines(["400,0.1", "401,0.2", "402,0.3"]) },
     { name: "HTML page", fileName: `page-${u()}.csv`, bytes: enc("<!doctype html><html><body><script>alert(1)</script></body></html>") },
     { name: "JSON document", fileName: `doc-${u()}.json`, bytes: enc(JSON.stringify({ x: [1, 2, 3], y: [4, 5, 6] })) },
-    { name: "UTF-16 with NULs", fileName: `utf16-${u()}.csv`, bytes: new Uint8Array(Buffer.from(`\ufeff${fullText.slice(0, 2000)}`, "utf16le")) },
+    { name: "UTF-16 byte-order mark on binary bytes", fileName: `utf16-${u()}.csv`, bytes: Uint8Array.from([0xff, 0xfe, ...binary]), expect: /UTF-16.*binary/ },
+    { name: "spreadsheet with no numbers", fileName: `words-${u()}.xlsx`, bytes: wordsOnlyWorkbook, expect: /no numeric table found on sheet 'Results'/ },
     { name: "broken JCAMP-DX", fileName: `broken-${u()}.jdx`, bytes: enc("##TITLE=broken\n##JCAMP-DX=4.24\n##XYDATA=(X++(Y..Y))\n1 2 3\n##END=\n") },
     { name: "ragged rows", fileName: `ragged-${u()}.csv`, bytes: lines(ramp(100, (i) => (i % 2 ? `${400 + i},0.1,0.2,0.3` : `${400 + i}`))) },
     { name: "column that does not exist", fileName: `col-${u()}.csv`, bytes: enc(good()), fields: { column: "transmittance-B" } },

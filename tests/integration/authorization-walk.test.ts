@@ -42,6 +42,7 @@ const ROUTES: Record<string, Call[]> = {
   "api/v1/projects": [{ method: "GET", path: () => "/api/v1/projects" }],
   "api/v1/openapi.json": [{ method: "GET", path: () => "/api/v1/openapi.json" }],
   "api/v1/spectra": [{ method: "POST", path: () => "/api/v1/spectra" }],
+  "api/v1/spectra/preview": [{ method: "POST", path: () => "/api/v1/spectra/preview" }],
   "api/v1/spectra/[id]": [{ method: "GET", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}` }],
   "api/v1/spectra/[id]/raw": [{ method: "GET", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/raw` }],
   "api/v1/spectra/[id]/analyses": [

@@ -71,3 +71,17 @@ describe("expandZip", () => {
     expect(looksLikeZip("x.csv", strToU8("1,2"))).toBe(false);
   });
 });
+
+describe("spreadsheets are files, not zips", () => {
+  it("a real .xlsx (written by exceljs) is not expanded, whatever its name; a zip of CSVs still is", async () => {
+    const ExcelJS = (await import("exceljs")).default;
+    const wb = new ExcelJS.Workbook();
+    wb.addWorksheet("Results").addRow(["Wavelength (nm)", "Absorbance"]);
+    const book = new Uint8Array(await wb.xlsx.writeBuffer());
+    expect(book[0]).toBe(0x50); // "PK": the workbook is a zip container (ECMA-376 Part 2, Open Packaging Conventions)
+    expect(looksLikeZip("run.xlsx", book)).toBe(false);
+    expect(looksLikeZip("upload.bin", book)).toBe(false);
+    expect(looksLikeZip("csvs.zip", zipSync({ "a.csv": strToU8("1,2\n") }))).toBe(true);
+    expect(looksLikeZip("a.bin", zipSync({ "a.csv": strToU8("1,2\n") }))).toBe(true);
+  });
+});
