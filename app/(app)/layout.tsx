@@ -3,10 +3,15 @@ import { requireActor } from "@/lib/auth/actor";
 import { navFor, ROLE_LABELS } from "@/lib/navigation";
 import { Logo } from "@/components/shell/Logo";
 import { NavRail } from "@/components/shell/NavRail";
+import { leadGroupIds } from "@/lib/queries/review";
+import { awaitingReviewCounts } from "@/lib/review/counts";
 import { SignOutButton } from "@/components/shell/SignOutButton";
 
 export default async function AppLayout({ children }: { children: ReactNode }) {
   const actor = await requireActor();
+  const leads = leadGroupIds(actor);
+  // The same count as the queue and Overview (lib/review/counts.ts); only leads see review state.
+  const toReview = leads.length > 0 ? (await awaitingReviewCounts(leads)).total : 0;
   return (
     <div className="flex min-h-screen">
       <aside className="sticky top-0 flex h-screen w-60 shrink-0 flex-col bg-dusk px-3 py-4">
@@ -14,7 +19,7 @@ export default async function AppLayout({ children }: { children: ReactNode }) {
           <Logo />
           <span className="text-lg font-semibold tracking-tight text-white">Bandkeep</span>
         </div>
-        <NavRail items={navFor(actor)} />
+        <NavRail items={navFor(actor)} awaitingReview={toReview} />
         <div className="mt-auto border-t border-dusk-line px-2 pt-3">
           <p className="truncate text-sm text-white" data-testid="signed-in-as">{actor.name}</p>
           <ul className="mb-2 mt-1 space-y-0.5">

@@ -2,6 +2,7 @@ import { selectRows } from "@/lib/db";
 import type { Actor } from "@/lib/auth/actor";
 import { roleIn } from "@/lib/auth/access";
 import type { QueueQuery } from "@/lib/review/schemas";
+import { CURRENT_SIGNATURE } from "@/lib/review/counts";
 import { models } from "@/models";
 
 export type ReviewItem = {
@@ -64,8 +65,8 @@ export async function listReviewQueue(actor: Actor, q: QueueQuery): Promise<Revi
   if (q.minSignificance !== undefined) { where.push("g.significance >= :minSig"); params.minSig = q.minSignificance; }
   if (q.from) { where.push("g.created_at >= CAST(:from AS date)"); params.from = q.from; }
   if (q.to) { where.push("g.created_at < CAST(:to AS date) + 1"); params.to = q.to; }
-  // Only flags of each spectrum's latest finished run: a re-analysis replaces the earlier ones.
-  where.push(`g.run_id = (SELECT r.id FROM analysis_runs r WHERE r.spectrum_id = s.id AND r.status = 'done' ORDER BY r.created_at DESC LIMIT 1)`);
+  // Only flags of each spectrum's newest finished run: a re-analysis supersedes the earlier ones.
+  where.push(CURRENT_SIGNATURE);
   const from = `FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
      LEFT JOIN samples sm ON sm.id = s.sample_id WHERE ${where.join(" AND ")}`;
   const dir = q.dir === "asc" ? "ASC" : "DESC";

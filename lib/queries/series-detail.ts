@@ -4,6 +4,7 @@ import { canReadSeries, canWrite } from "@/lib/auth/access";
 import type { AnalysisReport } from "@/lib/engine";
 import { analyseSeries, type SeriesFits } from "@/lib/series/analyseSeries";
 import { pointMetrics } from "@/lib/series/pointMetrics";
+import { CURRENT_SIGNATURE } from "@/lib/review/counts";
 import { Project, Series, models } from "@/models";
 
 export type SeriesPoint = {
@@ -30,7 +31,7 @@ export async function getSeriesPoints(seriesId: string): Promise<SeriesPoint[]> 
     `SELECT s.id, s.file_name, s.series_value, s.status, s.technique, s.reference_spectrum_id,
        CASE WHEN run.report IS NULL THEN NULL ELSE jsonb_build_object('flags', run.report->'flags', 'peaks', run.report->'peaks',
          'firstExciton', run.report->'firstExciton', 'referenceFirstExciton', run.report->'referenceFirstExciton') END AS report,
-       (SELECT count(*) FROM signatures g WHERE g.run_id = run.id AND g.review_state = 'awaiting') AS awaiting
+       (SELECT count(*) FROM signatures g WHERE g.spectrum_id = s.id AND ${CURRENT_SIGNATURE} AND g.review_state = 'awaiting') AS awaiting
      FROM spectra s
      LEFT JOIN LATERAL (SELECT r.id, r.report FROM analysis_runs r WHERE r.spectrum_id = s.id AND r.status = 'done' ORDER BY r.created_at DESC LIMIT 1) run ON true
      WHERE s.series_id = :id
