@@ -1,3 +1,5 @@
+import { listParentCandidates, parentSampleIds } from "@/lib/queries/parentChoices";
+import type { ParentCandidate } from "@/lib/parents/orderParentChoices";
 import { Op } from "sequelize";
 import { AnalysisRun, Group, Peak, Project, Sample, Series, Signature, Spectrum, models } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
@@ -152,9 +154,10 @@ export async function listWritableProjects(actor: Actor): Promise<WritableProjec
 
 export type UploadChoices = {
   projects: (WritableProject & {
-    samples: { id: string; name: string; material: string; coreShell: string; solvent: string }[];
+    samples: { id: string; name: string; material: string; coreShell: string; solvent: string; parentIds: string[] }[];
     series: { id: string; name: string; variableName: string; variableUnit: string }[];
-    references: { id: string; fileName: string; technique: string; createdAt: string }[];
+    /** Candidate parent references (analysed spectra only), ordered per sample by components/parents/ParentPicker. */
+    references: ParentCandidate[];
   })[];
 };
 
@@ -167,24 +170,17 @@ export async function getUploadChoices(actor: Actor): Promise<UploadChoices> {
   const [samples, series, references] = await Promise.all([
     Sample.findAll({ where: { groupId: { [Op.in]: groupIds } }, order: [["name", "ASC"]], limit: 2000 }),
     Series.findAll({ where: { projectId: { [Op.in]: projectIds } }, order: [["name", "ASC"]] }),
-    Spectrum.findAll({
-      where: { projectId: { [Op.in]: projectIds }, status: "analysed" },
-      attributes: ["id", "projectId", "fileName", "technique", "createdAt"],
-      order: [["createdAt", "DESC"]],
-      limit: 1000,
-    }),
+    listParentCandidates(projectIds),
   ]);
+  const parents = await parentSampleIds(samples.map((s) => s.id));
   return {
     projects: projects.map((p) => ({
       ...p,
       samples: samples
         .filter((s) => s.groupId === p.groupId && (s.projectId === null || s.projectId === p.id))
-        .map((s) => ({ id: s.id, name: s.name, material: s.material, coreShell: s.coreShell, solvent: s.solvent })),
+        .map((s) => ({ id: s.id, name: s.name, material: s.material, coreShell: s.coreShell, solvent: s.solvent, parentIds: parents.get(s.id) ?? [] })),
       series: series.filter((s) => s.projectId === p.id).map((s) => ({ id: s.id, name: s.name, variableName: s.variableName, variableUnit: s.variableUnit })),
-      references: references
-        .filter((r) => r.projectId === p.id)
-        .slice(0, 200)
-        .map((r) => ({ id: r.id, fileName: r.fileName, technique: r.technique, createdAt: r.createdAt.toISOString() })),
+      references: references.get(p.id) ?? [],
     })),
   };
 }
