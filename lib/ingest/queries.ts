@@ -3,7 +3,7 @@ import type { ParentCandidate } from "@/lib/parents/orderParentChoices";
 import { Op } from "sequelize";
 import { AnalysisRun, Group, Peak, Project, Sample, Series, Signature, Spectrum, models } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
-import { WRITER_ROLES, canReadSeries, canReadSpectrum } from "@/lib/auth/access";
+import { WRITER_ROLES, canReadSeries, canReadSpectrum, groupOfSpectrum, memberGroupIds } from "@/lib/auth/access";
 import type { AnalysisReport } from "@/lib/engine";
 
 // Reads behind the scripts' API and the upload page, reshaped into the JSON they serve.
@@ -14,7 +14,8 @@ export const isId = (s: string) => UUID.test(s);
 export type PeakView = { energyEv: number; wavelengthNm: number; height: number; fwhmMeV: number | null; area: number | null; firstExciton: boolean };
 export type FlagView = {
   id: string; kind: string; energyEv: number | null; fraction: number | null; shiftMeV: number | null; significance: number;
-  reviewState: string; message: string | null;
+  /** Members of the owning group only; null for a collaborator (review state is the group's own business). */
+  reviewState: string | null; message: string | null;
 };
 export type AnalysisView = {
   runId: string;
@@ -54,7 +55,7 @@ export function spectrumView(s: Spectrum): SpectrumView {
   };
 }
 
-async function analysisView(run: AnalysisRun): Promise<AnalysisView> {
+async function analysisView(run: AnalysisRun, showReview: boolean): Promise<AnalysisView> {
   const [peaks, signatures] = await Promise.all([
     Peak.findAll({ where: { runId: run.id }, order: [["energyEv", "ASC"]] }),
     Signature.findAll({ where: { runId: run.id }, order: [["significance", "DESC"]] }),
@@ -71,7 +72,7 @@ async function analysisView(run: AnalysisRun): Promise<AnalysisView> {
     firstExciton: fe ? { energyEv: fe.energyEv, wavelengthNm: fe.wavelengthNm, fwhmMeV: fe.fwhmMeV } : null,
     flags: signatures.map((f) => ({
       id: f.id, kind: f.kind, energyEv: f.energyEv, fraction: f.fraction, shiftMeV: f.shiftMeV, significance: f.significance,
-      reviewState: f.reviewState, message: typeof f.details?.message === "string" ? f.details.message : null,
+      reviewState: showReview ? f.reviewState : null, message: typeof f.details?.message === "string" ? f.details.message : null,
     })),
     derived: report?.derived ?? null,
     warnings: report?.warnings ?? [],
@@ -87,7 +88,7 @@ export async function getSpectrumStatus(actor: Actor, id: string) {
   const runs = await AnalysisRun.findAll({ where: { spectrumId: id }, order: [["createdAt", "DESC"]] });
   return {
     spectrum: spectrumView(spectrum),
-    analysis: runs[0] ? await analysisView(runs[0]) : null,
+    analysis: runs[0] ? await analysisView(runs[0], memberGroupIds(actor).includes((await groupOfSpectrum(spectrum)) ?? "")) : null,
     runs: runs.map((r) => ({ id: r.id, status: r.status, engineVersion: r.engineVersion, parameterHash: r.parameterHash, createdAt: r.createdAt.toISOString() })),
   };
 }
