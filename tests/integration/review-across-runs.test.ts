@@ -36,7 +36,7 @@ let lab: Lab;
 let uploader: { token: string; user: { id: string; email: string } };
 let sampleSpectrumId: string;
 /** Two more bleached samples, left awaiting review, for the counts and the mail. */
-let otherSpectrumIds: string[] = [];
+const otherSpectrumIds: string[] = [];
 
 type Sig = { id: string; run_id: string; kind: string; energy_ev: number | null; fraction: number | null; review_state: string;
   matched_signature_id: string | null; superseded_by_run_id: string | null };
