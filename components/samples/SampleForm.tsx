@@ -16,8 +16,9 @@ export function SampleForm({ groups, projects, samples }: { groups: { id: string
   const [material, setMaterial] = useState(v.material ?? "");
   const [coreShell, setCoreShell] = useState(v.coreShell ?? "");
   const [solvent, setSolvent] = useState(v.solvent ?? "");
+  const [ligand, setLigand] = useState(v.ligand ?? "");
   const e = state.fieldErrors ?? {};
-  const hazards = hazardsOf({ material, coreShell, solvent });
+  const hazards = hazardsOf({ material, coreShell, ligand, solvent });
 
   return (
     <form action={action} className="grid max-w-3xl gap-4 md:grid-cols-2" noValidate>
@@ -42,7 +43,7 @@ export function SampleForm({ groups, projects, samples }: { groups: { id: string
         <input id="coreShell" name="coreShell" value={coreShell} onChange={(ev) => setCoreShell(ev.target.value)} className={inputClass} />
       </Field>
       <Field name="ligand" label="Ligand" errors={e.ligand}>
-        <input id="ligand" name="ligand" defaultValue={v.ligand} className={inputClass} />
+        <input id="ligand" name="ligand" value={ligand} onChange={(ev) => setLigand(ev.target.value)} className={inputClass} />
       </Field>
       <Field name="solvent" label="Solvent" errors={e.solvent}>
         <input id="solvent" name="solvent" value={solvent} onChange={(ev) => setSolvent(ev.target.value)} className={inputClass} />

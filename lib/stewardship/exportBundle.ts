@@ -142,8 +142,8 @@ export async function buildBundle(target: { type: "project" | "series"; id: stri
   }
   const hazardLines = new Set<string>();
   const samplesOut = samples.map((x) => {
-    const flags = hazardsOf({ material: x.material, coreShell: x.coreShell, solvent: x.solvent });
-    flags.forEach((f) => hazardLines.add(`${x.name}: ${f.caution}`));
+    const flags = hazardsOf({ material: x.material, coreShell: x.coreShell, ligand: x.ligand, solvent: x.solvent });
+    flags.forEach((f) => hazardLines.add(`${x.name}: ${f.caution} Source: ${f.source}.`));
     return { id: x.id, name: x.name, material: x.material, coreShell: x.coreShell, ligand: x.ligand, solvent: x.solvent, hazardClass: x.hazardClass, cautions: flags.map((f) => f.caution) };
   });
   const head: Omit<Manifest, "files"> = {

@@ -165,13 +165,13 @@ export async function linkedProject(projectId: string): Promise<LinkedProject | 
 /** Safety cautions for the samples (and the materials recorded on spectra) under a shared target, one per hazard. */
 export async function linkedHazards(type: LinkTargetType, id: string): Promise<{ flags: HazardFlag[]; photoluminescence: boolean }> {
   const column = type === "series" ? "series_id" : "project_id";
-  const rows = await selectRows<{ material: string | null; core_shell: string | null; solvent: string | null; technique: string }>(
-    `SELECT DISTINCT coalesce(sa.material, s.material) AS material, sa.core_shell, coalesce(nullif(s.solvent, ''), sa.solvent) AS solvent, s.technique
+  const rows = await selectRows<{ material: string | null; core_shell: string | null; ligand: string | null; solvent: string | null; technique: string }>(
+    `SELECT DISTINCT coalesce(sa.material, s.material) AS material, sa.core_shell, sa.ligand, coalesce(nullif(s.solvent, ''), sa.solvent) AS solvent, s.technique
      FROM spectra s LEFT JOIN samples sa ON sa.id = s.sample_id WHERE s.${column} = :id`, { id },
   );
   const flags = new Map<string, HazardFlag>();
   for (const r of rows) {
-    for (const f of hazardsOf({ material: r.material ?? "", coreShell: r.core_shell ?? "", solvent: r.solvent ?? "" })) if (!flags.has(f.code)) flags.set(f.code, f);
+    for (const f of hazardsOf({ material: r.material ?? "", coreShell: r.core_shell ?? "", ligand: r.ligand ?? "", solvent: r.solvent ?? "" })) if (!flags.has(f.code)) flags.set(f.code, f);
   }
   return { flags: [...flags.values()], photoluminescence: rows.some((r) => r.technique === "pl") };
 }

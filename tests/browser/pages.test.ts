@@ -36,7 +36,7 @@ describe("pages as the people who use them see them", () => {
   it("a data steward reads the audit trail, including sign-ins", async () => {
     const page = await demo.browser.newPage({ viewport: { width: 1360, height: 900 } });
     await signInThroughForm(page, DEMO.steward);
-    await expectPage(page, "/stewardship", "Stewardship", "steward-decisions");
+    await expectPage(page, "/stewardship", "Clean-up due", "steward-cleanup-due");
     await expectPage(page, "/stewardship/audit", "Audit trail", "steward-audit");
     expect(await page.getByTestId("audit-table").textContent()).toContain("sign-in");
     await page.close();
@@ -61,10 +61,10 @@ describe("pages as the people who use them see them", () => {
     await page.getByLabel("Batch name").fill(name);
     await page.getByLabel("Material").fill("PbSe");
     await page.getByLabel("Solvent").fill("toluene");
-    expect(await page.getByRole("note", { name: "Safety cautions" }).textContent()).toContain("Lead compounds");
+    expect(await page.getByRole("note", { name: "Safety cautions" }).textContent()).toContain("Lead compound: may damage fertility or the unborn child");
     await page.getByRole("button", { name: "Register sample" }).click();
     await expect.poll(() => page.getByRole("heading", { level: 1 }).textContent()).toBe(name);
-    expect(await page.getByRole("note", { name: "Safety cautions" }).textContent()).toContain("Toluene is flammable");
+    expect(await page.getByRole("note", { name: "Safety cautions" }).textContent()).toContain("Toluene: highly flammable liquid and vapour");
     await screenshot(page, "spectroscopist-new-sample");
     // The same name again is refused beside the field, and the form keeps its values.
     await page.goto(url("/samples/new"));

@@ -7,7 +7,7 @@ import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser
 const EXPECTED_NAV: Record<keyof typeof DEMO, string[]> = {
   lead: ["Overview", "Upload", "Samples", "Spectra", "Series", "Review", "Settings"],
   spectroscopist: ["Overview", "Upload", "Samples", "Spectra", "Series", "Settings"],
-  steward: ["Overview", "Samples", "Spectra", "Series", "Stewardship", "Settings"],
+  steward: ["Overview", "Samples", "Spectra", "Series", "Data care", "Settings"],
   collaborator: ["Overview", "Series", "Settings"],
   otherGroup: ["Overview", "Upload", "Samples", "Spectra", "Series", "Settings"],
 };
@@ -51,7 +51,7 @@ describe("signing in as each demo role", () => {
     await screenshot(page, "samples-list");
     await page.getByRole("link", { name: "AUR-CdSe-0412", exact: true }).click();
     const note = page.getByRole("note", { name: "Safety cautions" });
-    await expect.poll(() => note.textContent()).toContain("Cadmium compounds are toxic");
+    await expect.poll(() => note.textContent()).toContain("Cadmium compound: may cause cancer");
     expect(await note.textContent()).toContain("chemical hygiene plan");
     await screenshot(page, "sample-cadmium-caution");
     await context.close();

@@ -5,6 +5,7 @@ import { listSpectra } from "@/lib/queries/spectra";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
+import { formatWhen } from "@/lib/format/dates";
 
 export const metadata: Metadata = { title: "Spectra" };
 
@@ -46,7 +47,7 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
                   <td className="px-3 py-2">{s.sampleName ?? "—"}</td>
                   <td className="px-3 py-2 text-ink-soft">{s.projectName}</td>
                   <td className="px-3 py-2"><StatusBadge status={s.status} /></td>
-                  <td className="tabular px-3 py-2 text-ink-soft">{new Date(s.createdAt).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}</td>
+                  <td className="tabular px-3 py-2 text-ink-soft">{formatWhen(s.createdAt)}</td>
                 </tr>
               ))}
             </tbody>
