@@ -109,7 +109,7 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
                         </Link>
                       </p>
                     )}
-                    {h.comment ? <p className="mt-1 whitespace-pre-wrap">{h.comment}</p> : <p className="mt-1 text-ink-faint">No comment.</p>}
+                    {h.origin === "carried" ? null : h.comment ? <p className="mt-1 whitespace-pre-wrap">{h.comment}</p> : <p className="mt-1 text-ink-faint">No comment.</p>}
                   </li>
                 ))}
               </ol>
