@@ -18,6 +18,8 @@ const schema = z.object({
   APP_URL: z.string().url().default("http://127.0.0.1:3000"),
   BANDKEEP_QUEUE: z.string().min(1).default("bandkeep-analysis"),
   UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(20 * 1024 * 1024),
+  /** Decision mail to one person waits this long for more decisions, then goes as one message. */
+  NOTICE_WINDOW_MS: z.coerce.number().int().min(0).default(60_000),
 });
 
 export type AppConfig = z.infer<typeof schema>;

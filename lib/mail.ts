@@ -12,6 +12,11 @@ export function mailer(): Transporter {
   return globalForMail.bandkeepMail;
 }
 
+/**
+ * Sends a plain-text message built by nodemailer: UTF-8 throughout (RFC 2047 words in the subject,
+ * quoted-printable body), so σ, µ, ⁻¹ and accents arrive intact. The text's last line is ended
+ * with a line break, as every line of a message is (RFC 5322), so a MIME reader gives it back exactly.
+ */
 export async function sendMail(to: string, subject: string, text: string): Promise<void> {
-  await mailer().sendMail({ from: config().MAIL_FROM, to, subject, text });
+  await mailer().sendMail({ from: config().MAIL_FROM, to, subject, text: text.endsWith("\n") ? text : `${text}\n` });
 }

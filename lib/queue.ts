@@ -36,3 +36,20 @@ export function analysisQueue(): Queue<AnalysisJob> {
 export async function enqueueAnalysis(job: AnalysisJob): Promise<void> {
   await analysisQueue().add("analyse", job, { jobId: `run-${job.runId}` });
 }
+
+export type NoticeJob = { recipientId: string };
+
+const globalForNotices = globalThis as unknown as { bandkeepNoticeQueue?: Queue<NoticeJob> };
+
+/** Decision mail, one delayed job per person per window (lib/review/notices.ts); enqueue only from the app. */
+export function noticeQueue(): Queue<NoticeJob> {
+  if (!globalForNotices.bandkeepNoticeQueue) {
+    globalForNotices.bandkeepNoticeQueue = new Queue<NoticeJob>(`${config().BANDKEEP_QUEUE}-notices`, {
+      connection: { ...connectionOptions(), enableOfflineQueue: false, maxRetriesPerRequest: 1 },
+      // Finished jobs are removed so that their ids (the oldest unsent notice) can be scheduled again by the safety net.
+      defaultJobOptions: { attempts: 5, backoff: { type: "exponential", delay: 2000 }, removeOnComplete: true, removeOnFail: true },
+    });
+    globalForNotices.bandkeepNoticeQueue.on("error", () => {});
+  }
+  return globalForNotices.bandkeepNoticeQueue;
+}

@@ -23,6 +23,11 @@ export class Signature extends Model<InferAttributes<Signature>, InferCreationAt
   declare significance: number;
   declare details: CreationOptional<Record<string, unknown>>;
   declare reviewState: CreationOptional<ReviewState>;
+  /** The same band in the run before this one (lib/review/matchSignatures.ts). */
+  declare matchedSignatureId: CreationOptional<string | null>;
+  /** Set when a newer finished run replaced this signature's run: it leaves the queue and every count. */
+  declare supersededByRunId: CreationOptional<string | null>;
+  declare supersededAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -42,6 +47,9 @@ export class Signature extends Model<InferAttributes<Signature>, InferCreationAt
         significance: { type: DataTypes.DOUBLE, allowNull: false },
         details: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         reviewState: { type: DataTypes.ENUM(...REVIEW_STATES), allowNull: false, defaultValue: "awaiting" },
+        matchedSignatureId: { type: DataTypes.UUID, allowNull: true },
+        supersededByRunId: { type: DataTypes.UUID, allowNull: true },
+        supersededAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

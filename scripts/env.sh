@@ -34,6 +34,8 @@ export NEXT_TELEMETRY_DISABLED=1
 # The SDK version is pinned for Node 20 (see README); its Node 22 notice is noise here.
 export AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED=true
 export BANDKEEP_QUEUE="${BANDKEEP_QUEUE:-bandkeep-analysis}"
+# Decision mail waits this long for more decisions to the same person (shorter under test).
+if [ "$PROFILE" = "test" ]; then export NOTICE_WINDOW_MS="${NOTICE_WINDOW_MS:-3000}"; else export NOTICE_WINDOW_MS="${NOTICE_WINDOW_MS:-60000}"; fi
 
 RUN_DIR="$BANDKEEP_DATA_DIR/run"
 LOG_DIR="$BANDKEEP_DATA_DIR/log"

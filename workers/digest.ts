@@ -6,6 +6,7 @@ import { Queue, Worker } from "bullmq";
 import { config } from "@/lib/config";
 import { connectionOptions } from "@/lib/queue";
 import { runReviewDigest, type DigestSummary } from "@/lib/review/digest";
+import { scheduleAllPendingNotices } from "@/lib/review/notices";
 
 const log = (level: "info" | "warn", msg: string, extra: Record<string, unknown> = {}) =>
   console[level === "info" ? "log" : "warn"](JSON.stringify({ at: new Date().toISOString(), level, msg, pid: process.pid, ...extra }));
@@ -21,7 +22,15 @@ void queue
   .upsertJobScheduler("review-digest", { every: everyMs }, { name: "review-digest", opts: { removeOnComplete: { count: 100 }, removeOnFail: { count: 100 }, attempts: 3, backoff: { type: "exponential", delay: 5000 } } })
   .catch((error: Error) => log("warn", "digest schedule not set", { error: error.message }));
 
-const worker = new Worker<Record<string, never>, DigestSummary>(queueName, async () => runReviewDigest(), { connection, concurrency: 1 });
+const worker = new Worker<Record<string, never>, DigestSummary>(
+  queueName,
+  async () => {
+    // Decision mail whose job was lost (Redis down when the decision was saved) goes out now.
+    await scheduleAllPendingNotices().catch((error: Error) => log("warn", "pending decision mail not scheduled", { error: error.message }));
+    return runReviewDigest();
+  },
+  { connection, concurrency: 1 },
+);
 worker.on("completed", (_job, summary) => {
   if (summary.signatures > 0) log("info", "review digest sent", summary);
 });

@@ -8,6 +8,7 @@ import { memoryGuard } from "./memoryGuard";
 import { processAnalysis, type JobSummary } from "./processAnalysis";
 import { sweepWaitingRuns } from "./sweepWaitingRuns";
 import "./digest";
+import "./notices";
 import "./retention";
 
 const log = (level: "info" | "warn" | "error", msg: string, extra: Record<string, unknown> = {}) =>

@@ -2,6 +2,8 @@ import { Op, QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "@/lib/db";
 import { AnalysisRun, Spectrum, models } from "@/models";
 import type { AnalysisReport } from "@/lib/engine";
+import { applyCarry, planCarry, type CarryPlan } from "@/lib/review/carryDecisions";
+import { bandWidthAt } from "@/lib/review/matchSignatures";
 
 const finiteOrNull = (n: unknown): number | null => (typeof n === "number" && Number.isFinite(n) ? n : null);
 /** Significance is NOT NULL: an unbounded one (zero noise) is stored as a large finite number. */
@@ -40,8 +42,9 @@ function peakRows(report: AnalysisReport) {
     }));
 }
 
-function signatureRows(report: AnalysisReport) {
-  return report.flags.map((f) => ({
+function signatureRows(report: AnalysisReport, plan: CarryPlan) {
+  return report.flags.map((f, i) => ({
+    id: plan.ids[i]!,
     kind: f.kind,
     energy_ev: finiteOrNull(f.energyEv),
     fraction: finiteOrNull(f.fraction),
@@ -50,6 +53,9 @@ function signatureRows(report: AnalysisReport) {
     unit: f.unit,
     uncertainty: finiteOrNull(f.uncertainty),
     significance: significanceOf(f.significance),
+    review_state: plan.states[i]!,
+    matched_signature_id: plan.matched[i]!,
+    digested_at: plan.digestedAt[i]!,
     details: {
       message: f.message,
       magnitude: finiteOrNull(f.magnitude),
@@ -57,14 +63,15 @@ function signatureRows(report: AnalysisReport) {
       uncertainty: finiteOrNull(f.uncertainty),
       wavelengthNm: finiteOrNull(f.wavelengthNm),
       fwhmChangeMeV: finiteOrNull(f.fwhmChangeMeV),
+      widthMeV: bandWidthAt(report, finiteOrNull(f.energyEv)),
       ...(f.intraband !== undefined ? { intraband: f.intraband } : {}),
     },
   }));
 }
 
 /*
- * One statement, so one round trip and one implicit transaction. The run row is locked first
- * (FOR UPDATE) and nothing is written when it is already done: after waiting for a duplicate
+ * The run's own rows in one statement, inside saveAnalysis's transaction. The run row is locked
+ * first (FOR UPDATE) and nothing is written when it is already done: after waiting for a duplicate
  * job's lock, PostgreSQL re-checks `status <> 'done'` on the newest row version, so a retried or
  * duplicated job writes once. Peaks and signatures of the run are replaced (there are none unless
  * an earlier write of the same run was undone with its transaction; the deletes keep it exact).
@@ -83,11 +90,14 @@ new_peaks AS (
          jsonb_to_recordset($2::jsonb) AS p(energy_ev float8, wavelength_nm float8, height float8, fwhm_mev float8, area float8, is_first_exciton boolean)
 ),
 new_signatures AS (
-  INSERT INTO signatures (run_id, spectrum_id, kind, energy_ev, fraction, shift_mev, magnitude, unit, uncertainty, significance, details)
-  SELECT t.id, t.spectrum_id, s.kind, s.energy_ev, s.fraction, s.shift_mev, s.magnitude, s.unit, s.uncertainty, s.significance, s.details
+  INSERT INTO signatures (id, run_id, spectrum_id, kind, energy_ev, fraction, shift_mev, magnitude, unit, uncertainty, significance, details,
+                          review_state, matched_signature_id, digested_at, superseded_by_run_id, superseded_at)
+  SELECT s.id, t.id, t.spectrum_id, s.kind, s.energy_ev, s.fraction, s.shift_mev, s.magnitude, s.unit, s.uncertainty, s.significance, s.details,
+         s.review_state::review_state, s.matched_signature_id, s.digested_at, $11::uuid, CASE WHEN $11::uuid IS NULL THEN NULL ELSE now() END
     FROM target t,
-         jsonb_to_recordset($3::jsonb) AS s(kind text, energy_ev float8, fraction float8, shift_mev float8, magnitude float8, unit text,
-                                            uncertainty float8, significance float8, details jsonb)
+         jsonb_to_recordset($3::jsonb) AS s(id uuid, kind text, energy_ev float8, fraction float8, shift_mev float8, magnitude float8, unit text,
+                                             uncertainty float8, significance float8, details jsonb,
+                                             review_state text, matched_signature_id uuid, digested_at timestamptz)
 ),
 finished AS (
   UPDATE analysis_runs r
@@ -110,27 +120,42 @@ spectrum AS (
 SELECT count(*)::int AS wrote FROM finished`;
 
 /**
- * Writes a finished analysis atomically and idempotently (see SAVE_ANALYSIS_SQL). Returns false
- * when the run was already done (or is gone).
+ * Writes a finished analysis atomically and idempotently, in one transaction: the run is locked,
+ * the signatures it replaces are matched with its flags (lib/review/carryDecisions.ts), then the
+ * run's rows (SAVE_ANALYSIS_SQL), the replaced signatures' marks and the carried history rows are
+ * written. Returns false when the run was already done (or is gone).
  */
 export async function saveAnalysis(input: SaveInput): Promise<boolean> {
   const { report } = input;
-  const rows = await sequelize().query<{ wrote: number }>(SAVE_ANALYSIS_SQL, {
-    bind: [
-      input.runId,
-      JSON.stringify(peakRows(report)),
-      JSON.stringify(signatureRows(report)),
-      JSON.stringify(report),
-      finiteOrNull(report.noise?.sigma),
-      input.engineVersion,
-      input.startedAt,
-      Math.max(0, Math.round(input.durationMs)),
-      input.axisUnit,
-      input.valueUnit,
-    ],
-    type: QueryTypes.SELECT,
+  return sequelize().transaction(async (transaction) => {
+    const [run] = await sequelize().query<{ id: string; spectrum_id: string; created_at: Date }>(
+      `SELECT id, spectrum_id, created_at FROM analysis_runs WHERE id = :id AND status <> 'done' FOR UPDATE`,
+      { replacements: { id: input.runId }, type: QueryTypes.SELECT, transaction },
+    );
+    if (!run) return false;
+    const target = { id: run.id, spectrumId: run.spectrum_id, createdAt: new Date(run.created_at) };
+    const plan = await planCarry(transaction, target, report);
+    const rows = await sequelize().query<{ wrote: number }>(SAVE_ANALYSIS_SQL, {
+      bind: [
+        input.runId,
+        JSON.stringify(peakRows(report)),
+        JSON.stringify(signatureRows(report, plan)),
+        JSON.stringify(report),
+        finiteOrNull(report.noise?.sigma),
+        input.engineVersion,
+        input.startedAt,
+        Math.max(0, Math.round(input.durationMs)),
+        input.axisUnit,
+        input.valueUnit,
+        plan.supersededByRunId,
+      ],
+      type: QueryTypes.SELECT,
+      transaction,
+    });
+    if ((rows[0]?.wrote ?? 0) === 0) return false;
+    await applyCarry(transaction, target, plan);
+    return true;
   });
-  return (rows[0]?.wrote ?? 0) > 0;
 }
 
 /**

@@ -4,6 +4,8 @@ import { navFor, ROLE_LABELS } from "@/lib/navigation";
 import { Logo } from "@/components/shell/Logo";
 import { MobileMenu } from "@/components/shell/MobileMenu";
 import { NavRail } from "@/components/shell/NavRail";
+import { leadGroupIds } from "@/lib/queries/review";
+import { awaitingReviewCounts } from "@/lib/review/counts";
 import { SignOutButton } from "@/components/shell/SignOutButton";
 
 function Brand() {
@@ -34,19 +36,22 @@ function WhoAmI({ actor }: { actor: Actor }) {
 export default async function AppLayout({ children }: { children: ReactNode }) {
   const actor = await requireActor();
   const items = navFor(actor);
+  const leads = leadGroupIds(actor);
+  // The same count as the queue and Overview (lib/review/counts.ts); only leads see review state.
+  const toReview = leads.length > 0 ? (await awaitingReviewCounts(leads)).total : 0;
   return (
     <div className="min-h-screen md:flex">
       <aside className="sticky top-0 hidden h-screen w-60 shrink-0 flex-col bg-dusk px-3 py-4 md:flex">
         <div className="mb-6">
           <Brand />
         </div>
-        <NavRail items={items} />
+        <NavRail items={items} awaitingReview={toReview} />
         <div className="mt-auto">
           <WhoAmI actor={actor} />
         </div>
       </aside>
       <MobileMenu brand={<Brand />}>
-        <NavRail items={items} />
+        <NavRail items={items} awaitingReview={toReview} />
         <div className="mt-3">
           <WhoAmI actor={actor} />
         </div>

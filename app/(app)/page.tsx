@@ -52,7 +52,7 @@ export default async function OverviewPage() {
         <Stat label="Spectra" value={total} href="/spectra" />
         <Stat label="Being analysed" value={(overview.spectraByStatus.queued ?? 0) + (overview.spectraByStatus.analysing ?? 0)} />
         <Stat label="Could not read" value={overview.spectraByStatus.failed ?? 0} href="/spectra?status=failed" />
-        <Stat label="Signatures to review" value={overview.awaitingSignatures} />
+        <Stat label="Signatures to review" value={overview.awaitingSignatures} href={actor.memberships.some((m) => m.role === "lead") ? "/review" : undefined} />
         <Stat label="Samples" value={overview.samples} href="/samples" />
       </div>
       {total === 0 ? (

@@ -2,7 +2,7 @@
 
 import Link from "next/link";
 import { useActionState, useOptimistic, useState } from "react";
-import { decideAction } from "@/app/(app)/review/actions";
+import { decideAction, undoAction } from "@/app/(app)/review/actions";
 import { initialActionState } from "@/lib/actions/protected-state";
 import type { ReviewItem } from "@/lib/queries/review";
 import { KIND_LABELS } from "@/lib/signature-labels";
@@ -13,27 +13,34 @@ export type SortHeader = { key: string; label: string; href: string; active: "as
 
 /**
  * The queue: checkbox selection and one decision with a comment for the whole selection. Rows
- * change state at once (optimistic); the server's answer follows. A batch can be switched to the
- * other decision right after, which records a revision and keeps the history.
+ * change state at once (optimistic); the server's answer appears beside the buttons. A batch can
+ * be undone right after: each signature returns to the state it had, and the history says so.
  */
 export function ReviewQueueTable({ items, headers }: { items: ReviewItem[]; headers: SortHeader[] }) {
   const [state, formAction, pending] = useActionState(decideAction, initialActionState);
+  const [undoState, undoFormAction, undoing] = useActionState(undoAction, initialActionState);
   const [optimistic, markDecided] = useOptimistic(items, (current, change: { ids: string[]; decision: string }) =>
     current.map((i) => (change.ids.includes(i.id) ? { ...i, reviewState: change.decision } : i)),
   );
   const [selected, setSelected] = useState<string[]>([]);
-  const [lastBatch, setLastBatch] = useState<{ ids: string[]; decision: string } | null>(null);
+  const [undone, setUndone] = useState<string[] | undefined>(undefined);
   const allSelected = selected.length > 0 && selected.length === items.length;
 
   const submit = (formData: FormData) => {
     const ids = formData.getAll("signatureIds").map(String);
     const decision = String(formData.get("decision") ?? "");
     markDecided({ ids, decision });
-    setLastBatch({ ids, decision });
     setSelected([]);
     formAction(formData);
   };
-  const other = lastBatch?.decision === "confirmed" ? "dismissed" : "confirmed";
+  const undo = (formData: FormData) => {
+    setUndone(state.written);
+    undoFormAction(formData);
+  };
+  // The undo answer belongs to the batch it undid; a newer decision shows its own answer.
+  const showUndo = undone !== undefined && undone === state.written && undoState.message;
+  const result = showUndo ? undoState : state;
+  const canUndo = state.ok && (state.written?.length ?? 0) > 0 && !pending && !showUndo;
 
   return (
     <div>
@@ -48,6 +55,15 @@ export function ReviewQueueTable({ items, headers }: { items: ReviewItem[]; head
             className="rounded-md bg-leaf px-2 py-1.5 text-sm font-medium text-white hover:opacity-90 disabled:opacity-40">Confirm selected</button>
           <button name="decision" value="dismissed" disabled={pending || selected.length === 0}
             className="rounded-md border border-stone-300 bg-white px-2 py-1.5 text-sm font-medium hover:bg-stone-50 disabled:opacity-40">Dismiss selected</button>
+          <div className="flex min-h-8 w-full flex-wrap items-center gap-3 text-sm" role="status" data-testid="batch-result">
+            {result.message && <span className={result.ok ? "text-leaf" : "text-red-700"}>{result.message}</span>}
+            {canUndo && (
+              <button type="submit" formAction={undo} disabled={undoing} name="reviewIds" value={(state.written ?? []).join(",")}
+                className="rounded-md border border-stone-300 bg-white px-2 py-1 text-xs hover:bg-stone-50 disabled:opacity-40">
+                Undo this decision
+              </button>
+            )}
+          </div>
         </div>
         <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm" data-testid="review-queue">
@@ -86,18 +102,6 @@ export function ReviewQueueTable({ items, headers }: { items: ReviewItem[]; head
           </table>
         </div>
       </form>
-      <div className="mt-3 flex min-h-8 flex-wrap items-center gap-3 text-sm" role="status">
-        {state.message && <span className={state.ok ? "text-leaf" : "text-red-700"}>{state.message}</span>}
-        {state.ok && lastBatch && !pending && (
-          <form action={submit}>
-            {lastBatch.ids.map((id) => <input key={id} type="hidden" name="signatureIds" value={id} />)}
-            <input type="hidden" name="comment" value={`Revised right after deciding: switched to ${other}.`} />
-            <button name="decision" value={other} className="rounded-md border border-stone-300 bg-white px-2 py-1 text-xs hover:bg-stone-50">
-              Undo: mark them {other} instead
-            </button>
-          </form>
-        )}
-      </div>
     </div>
   );
 }

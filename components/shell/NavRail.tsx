@@ -4,7 +4,8 @@ import Link from "next/link";
 import { usePathname } from "next/navigation";
 import type { NavItem } from "@/lib/navigation";
 
-export function NavRail({ items }: { items: NavItem[] }) {
+/** The rail; `awaitingReview` puts the count of signatures awaiting review beside the Review entry. */
+export function NavRail({ items, awaitingReview = 0 }: { items: NavItem[]; awaitingReview?: number }) {
   const pathname = usePathname();
   return (
     <nav aria-label="Main" className="flex flex-col gap-0.5">
@@ -19,7 +20,13 @@ export function NavRail({ items }: { items: NavItem[] }) {
               active ? "bg-dusk-light text-white" : "text-stone-300 hover:bg-dusk-light/60 hover:text-white"
             }`}
           >
-            <span className="block text-sm font-medium">{item.label}</span>
+            <span className="flex items-center justify-between text-sm font-medium">
+              {item.label}
+              {item.href === "/review" && awaitingReview > 0 && (
+                <span data-testid="nav-awaiting-review" aria-label={`${awaitingReview} awaiting review`}
+                  className="tabular rounded-full bg-glow px-1.5 text-xs font-semibold text-white">{awaitingReview}</span>
+              )}
+            </span>
             <span className={`block text-xs ${active ? "text-stone-300" : "text-stone-500 group-hover:text-stone-400"}`}>{item.hint}</span>
           </Link>
         );

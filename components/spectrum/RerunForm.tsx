@@ -4,6 +4,8 @@ import { useActionState, useState } from "react";
 import { inputClass } from "@/components/forms/Field";
 import { initialActionState, type ActionState } from "@/lib/actions/protected-state";
 import { THRESHOLD_FIELDS, fieldErrorsOf, rerunFormSchema } from "@/lib/spectrum-view/rerunSchema";
+import { ParentPicker } from "@/components/parents/ParentPicker";
+import type { ParentCandidate, ParentTarget } from "@/lib/parents/orderParentChoices";
 import { NormalizationFields } from "./NormalizationFields";
 import { RunProgress } from "./RunProgress";
 
@@ -18,14 +20,18 @@ type Current = {
  * fields before anything is sent) and in the server action.
  */
 export function RerunForm({
-  spectrumId, current, hasReference, action,
+  spectrumId, current, hasReference, action, parents,
 }: {
   spectrumId: string;
   current: Current;
   /** Whether a re-run would compare against a parent reference (normalisation needs one). */
   hasReference: boolean;
   action: (state: ActionState, form: FormData) => Promise<ActionState>;
+  /** The parent picker's choices and the reference the next run starts from. */
+  parents?: { candidates: ParentCandidate[]; target: ParentTarget; currentId: string | null };
 }) {
+  const [parentId, setParentId] = useState(parents?.currentId ?? "");
+  const parentChanged = parents !== undefined && parentId !== (parents.currentId ?? "");
   const [state, formAction, pending] = useActionState(action, initialActionState);
   const [clientErrors, setClientErrors] = useState<Record<string, string[]>>({});
   const errors = { ...(state.fieldErrors ?? {}), ...clientErrors };
@@ -82,10 +88,19 @@ export function RerunForm({
           </select>
           {errors.baseline && <p role="alert" className="mt-0.5 text-xs text-red-700">{errors.baseline.join(" ")}</p>}
         </div>
+        {parents && (
+          <div>
+            <label htmlFor="rerun-reference" className="text-xs font-medium">Parent reference</label>
+            <ParentPicker id="rerun-reference" name="referenceChoice" value={parentId} onChange={setParentId}
+              candidates={parents.candidates} target={parents.target} errors={errors.referenceSpectrumId} />
+            <input type="hidden" name="referenceSpectrumId" value={parentChanged ? parentId || "none" : ""} />
+            {errors.referenceSpectrumId && <p id="referenceChoice-error" role="alert" className="mt-0.5 text-xs text-red-700">{errors.referenceSpectrumId.join(" ")}</p>}
+          </div>
+        )}
         <NormalizationFields
           key={answered.count}
           current={current.normalization}
-          hasReference={hasReference}
+          hasReference={parents ? parentId !== "" : hasReference}
           initialMode={value("normalizationMode")}
           errors={errors}
           field={field}

@@ -51,6 +51,8 @@ export function SpectrumViewer({
   const [hover, setHover] = useState<string | null>(null);
   const [pinned, setPinned] = useState<string | null>(null);
   const active = hover ?? pinned;
+  // Review state is the owning group's business: collaborators get null and no column.
+  const showReview = flags.some((f) => f.reviewState !== null);
   const key = runId ? `/api/v1/spectra/${spectrumId}/data?axis=${axis}&run=${runId}&format=binary` : null;
   const { data, error, isLoading } = useSWR(key, fetchData, { revalidateOnFocus: false, shouldRetryOnError: false });
 
@@ -141,7 +143,7 @@ export function SpectrumViewer({
         ) : (
           <table className="w-full text-sm" data-testid="flags-table">
             <thead className="text-left text-xs uppercase tracking-wide text-ink-soft">
-              <tr><th className="px-4 py-2">Change</th><th className="px-4 py-2">Position</th><th className="px-4 py-2">Magnitude</th><th className="px-4 py-2">Significance</th><th className="px-4 py-2">Review</th></tr>
+              <tr><th className="px-4 py-2">Change</th><th className="px-4 py-2">Position</th><th className="px-4 py-2">Magnitude</th><th className="px-4 py-2">Significance</th>{showReview && <th className="px-4 py-2">Review</th>}</tr>
             </thead>
             <tbody className="tabular">
               {flags.map((f) => (
@@ -162,7 +164,7 @@ export function SpectrumViewer({
                   <td className="px-4 py-1.5">{position(f.energyEv, axis)}</td>
                   <td className="px-4 py-1.5">{formatFlagMagnitude(f, { withUncertainty: true })}</td>
                   <td className="px-4 py-1.5">{num(f.significance, 1)}σ</td>
-                  <td className="px-4 py-1.5"><StatusBadge status={f.reviewState} /></td>
+                  {showReview && <td className="px-4 py-1.5">{f.reviewState && <StatusBadge status={f.reviewState} />}</td>}
                 </tr>
               ))}
             </tbody>

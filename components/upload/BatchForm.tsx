@@ -3,6 +3,8 @@
 import { Field, inputClass } from "@/components/forms/Field";
 import { TECHNIQUE_LABELS } from "@/lib/registry/techniques";
 import { HazardNotice } from "@/components/ui/HazardNotice";
+import { ParentPicker } from "@/components/parents/ParentPicker";
+import type { Technique } from "@/lib/engine";
 import { hazardsOf } from "@/lib/hazards";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "@/lib/ingest/metadata";
 import type { UploadChoices } from "@/lib/ingest/queries";
@@ -71,12 +73,10 @@ export function BatchForm({ choices, values, errors, disabled, onChange }: Props
         </select>
       </Field>
       <Field name="referenceSpectrumId" label="Parent reference spectrum" hint="Compared against to flag bleach, new bands, quench, shifts" errors={errors.referenceSpectrumId}>
-        <select {...attrs("referenceSpectrumId")}>
-          <option value="">None (analyse on its own)</option>
-          {project?.references.map((r) => (
-            <option key={r.id} value={r.id}>{r.fileName} · {r.technique} · {r.createdAt.slice(0, 10)}</option>
-          ))}
-        </select>
+        <ParentPicker id="referenceSpectrumId" name="referenceSpectrumId" value={values.referenceSpectrumId} disabled={disabled}
+          onChange={(v) => set("referenceSpectrumId")({ target: { value: v } })} errors={errors.referenceSpectrumId}
+          candidates={project?.references ?? []}
+          target={{ technique: values.technique as Technique, sample: sample ? { id: sample.id, name: sample.name, material: sample.material, parentIds: sample.parentIds } : null, side: null }} />
       </Field>
       <Field name="seriesId" label="Series" errors={errors.seriesId}>
         <select {...attrs("seriesId")}>

@@ -233,14 +233,19 @@ export function openApiDocument() {
         get: readOperation("getDecisions", "A signature's review state and the history of decisions", [idParam("Signature")], "application/json"),
         post: {
           operationId: "decide",
-          summary: "Confirm or dismiss a signature with a comment (group leads); deciding again revises, history is kept",
+          summary: "Confirm or dismiss a signature with a comment (group leads); deciding again revises, history is kept; {undo} takes back the latest decision",
           parameters: [idParam("Signature")],
           requestBody: {
             required: true,
-            content: { "application/json": { schema: { type: "object", required: ["decision"], properties: { decision: { type: "string", enum: ["confirmed", "dismissed"] }, comment: { type: "string", maxLength: 2000 } } } } },
+            content: { "application/json": { schema: { oneOf: [
+              { type: "object", required: ["decision"], properties: { decision: { type: "string", enum: ["confirmed", "dismissed"] }, comment: { type: "string", maxLength: 2000 } } },
+              { type: "object", required: ["undo"], properties: { undo: { type: "string", format: "uuid", description: "Id of the latest decision in the history" } } },
+            ] } } },
           },
           responses: {
-            "201": { description: "Decision recorded" },
+            "200": { description: "The decision equals the current state: nothing recorded (unchanged: true)" },
+            "201": { description: "Decision or undo recorded" },
+            "409": errorResponse("The flag was replaced by a newer run, or the decision to undo is not the latest"),
             "400": errorResponse("Invalid decision or comment"),
             "401": errorResponse("No valid token or session"),
             "403": errorResponse("Not a lead of the owning group"),

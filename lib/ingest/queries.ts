@@ -1,7 +1,9 @@
+import { listParentCandidates, parentSampleIds } from "@/lib/queries/parentChoices";
+import type { ParentCandidate } from "@/lib/parents/orderParentChoices";
 import { Op } from "sequelize";
 import { AnalysisRun, Group, Peak, Project, Sample, Series, Signature, Spectrum, models } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
-import { WRITER_ROLES, canReadSeries, canReadSpectrum } from "@/lib/auth/access";
+import { WRITER_ROLES, canReadSeries, canReadSpectrum, groupOfSpectrum, memberGroupIds } from "@/lib/auth/access";
 import type { AnalysisReport } from "@/lib/engine";
 
 // Reads behind the scripts' API and the upload page, reshaped into the JSON they serve.
@@ -13,7 +15,8 @@ export type PeakView = { energyEv: number; wavelengthNm: number; height: number;
 export type FlagView = {
   id: string; kind: string; energyEv: number | null; fraction: number | null; shiftMeV: number | null;
   magnitude: number | null; unit: string | null; uncertainty: number | null; significance: number;
-  reviewState: string; message: string | null;
+  /** Members of the owning group only; null for a collaborator (review state is the group's own business). */
+  reviewState: string | null; message: string | null;
 };
 export type AnalysisView = {
   runId: string;
@@ -53,7 +56,7 @@ export function spectrumView(s: Spectrum): SpectrumView {
   };
 }
 
-async function analysisView(run: AnalysisRun): Promise<AnalysisView> {
+async function analysisView(run: AnalysisRun, showReview: boolean): Promise<AnalysisView> {
   const [peaks, signatures] = await Promise.all([
     Peak.findAll({ where: { runId: run.id }, order: [["energyEv", "ASC"]] }),
     Signature.findAll({ where: { runId: run.id }, order: [["significance", "DESC"]] }),
@@ -71,7 +74,7 @@ async function analysisView(run: AnalysisRun): Promise<AnalysisView> {
     flags: signatures.map((f) => ({
       id: f.id, kind: f.kind, energyEv: f.energyEv, fraction: f.fraction, shiftMeV: f.shiftMeV,
       magnitude: f.magnitude, unit: f.unit, uncertainty: f.uncertainty, significance: f.significance,
-      reviewState: f.reviewState, message: typeof f.details?.message === "string" ? f.details.message : null,
+      reviewState: showReview ? f.reviewState : null, message: typeof f.details?.message === "string" ? f.details.message : null,
     })),
     derived: report?.derived ?? null,
     warnings: report?.warnings ?? [],
@@ -87,7 +90,7 @@ export async function getSpectrumStatus(actor: Actor, id: string) {
   const runs = await AnalysisRun.findAll({ where: { spectrumId: id }, order: [["createdAt", "DESC"]] });
   return {
     spectrum: spectrumView(spectrum),
-    analysis: runs[0] ? await analysisView(runs[0]) : null,
+    analysis: runs[0] ? await analysisView(runs[0], memberGroupIds(actor).includes((await groupOfSpectrum(spectrum)) ?? "")) : null,
     runs: runs.map((r) => ({ id: r.id, status: r.status, engineVersion: r.engineVersion, parameterHash: r.parameterHash, createdAt: r.createdAt.toISOString() })),
   };
 }
@@ -154,9 +157,10 @@ export async function listWritableProjects(actor: Actor): Promise<WritableProjec
 
 export type UploadChoices = {
   projects: (WritableProject & {
-    samples: { id: string; name: string; material: string; coreShell: string; solvent: string }[];
+    samples: { id: string; name: string; material: string; coreShell: string; solvent: string; parentIds: string[] }[];
     series: { id: string; name: string; variableName: string; variableUnit: string }[];
-    references: { id: string; fileName: string; technique: string; createdAt: string }[];
+    /** Candidate parent references (analysed spectra only), ordered per sample by components/parents/ParentPicker. */
+    references: ParentCandidate[];
   })[];
 };
 
@@ -169,24 +173,17 @@ export async function getUploadChoices(actor: Actor): Promise<UploadChoices> {
   const [samples, series, references] = await Promise.all([
     Sample.findAll({ where: { groupId: { [Op.in]: groupIds } }, order: [["name", "ASC"]], limit: 2000 }),
     Series.findAll({ where: { projectId: { [Op.in]: projectIds } }, order: [["name", "ASC"]] }),
-    Spectrum.findAll({
-      where: { projectId: { [Op.in]: projectIds }, status: "analysed" },
-      attributes: ["id", "projectId", "fileName", "technique", "createdAt"],
-      order: [["createdAt", "DESC"]],
-      limit: 1000,
-    }),
+    listParentCandidates(projectIds),
   ]);
+  const parents = await parentSampleIds(samples.map((s) => s.id));
   return {
     projects: projects.map((p) => ({
       ...p,
       samples: samples
         .filter((s) => s.groupId === p.groupId && (s.projectId === null || s.projectId === p.id))
-        .map((s) => ({ id: s.id, name: s.name, material: s.material, coreShell: s.coreShell, solvent: s.solvent })),
+        .map((s) => ({ id: s.id, name: s.name, material: s.material, coreShell: s.coreShell, solvent: s.solvent, parentIds: parents.get(s.id) ?? [] })),
       series: series.filter((s) => s.projectId === p.id).map((s) => ({ id: s.id, name: s.name, variableName: s.variableName, variableUnit: s.variableUnit })),
-      references: references
-        .filter((r) => r.projectId === p.id)
-        .slice(0, 200)
-        .map((r) => ({ id: r.id, fileName: r.fileName, technique: r.technique, createdAt: r.createdAt.toISOString() })),
+      references: references.get(p.id) ?? [],
     })),
   };
 }

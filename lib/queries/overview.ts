@@ -2,6 +2,7 @@ import { selectRows } from "@/lib/db";
 import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
 import { memberGroupIds } from "@/lib/auth/access";
+import { CURRENT_SIGNATURE, awaitingReviewCounts } from "@/lib/review/counts";
 import { models } from "@/models";
 
 export type Overview = {
@@ -17,27 +18,26 @@ export async function getOverview(actor: Actor): Promise<Overview | null> {
   const groupIds = memberGroupIds(actor);
   if (groupIds.length === 0) return null;
   const replacements = { groupIds };
-  const [statusRows, counts, recent] = await Promise.all([
+  const [statusRows, counts, recent, awaiting] = await Promise.all([
     selectRows<{ status: string; n: string }>(
       `SELECT s.status, count(*) AS n FROM spectra s JOIN projects p ON p.id = s.project_id
        WHERE p.group_id IN (:groupIds) GROUP BY s.status`, replacements,
     ),
-    selectRows<{ awaiting: string; samples: string; series: string }>(
+    selectRows<{ samples: string; series: string }>(
       `SELECT
-         (SELECT count(*) FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
-            WHERE p.group_id IN (:groupIds) AND g.review_state = 'awaiting') AS awaiting,
          (SELECT count(*) FROM samples WHERE group_id IN (:groupIds)) AS samples,
          (SELECT count(*) FROM series r JOIN projects p ON p.id = r.project_id WHERE p.group_id IN (:groupIds)) AS series`, replacements,
     ),
     selectRows<{ id: string; kind: FlagKind; significance: number; spectrum_id: string; file_name: string; created_at: Date }>(
       `SELECT g.id, g.kind, g.significance, g.spectrum_id, s.file_name, g.created_at
        FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
-       WHERE p.group_id IN (:groupIds) ORDER BY g.created_at DESC LIMIT 8`, replacements,
+       WHERE p.group_id IN (:groupIds) AND ${CURRENT_SIGNATURE} ORDER BY g.created_at DESC LIMIT 8`, replacements,
     ),
+    awaitingReviewCounts(groupIds),
   ]);
   return {
     spectraByStatus: Object.fromEntries(statusRows.map((r) => [r.status, Number(r.n)])),
-    awaitingSignatures: Number(counts[0]?.awaiting ?? 0),
+    awaitingSignatures: awaiting.total,
     samples: Number(counts[0]?.samples ?? 0),
     series: Number(counts[0]?.series ?? 0),
     recentSignatures: recent.map((r) => ({

@@ -17,13 +17,20 @@ export type SpectrumRow = {
 
 export const PAGE_SIZE = 50;
 
-/** Spectra the actor reads: members see their groups' projects; collaborators what is shared. */
+/**
+ * Spectra the actor reads: members see their groups' projects; collaborators what is shared,
+ * including the supernatant measured for a point of a shared series (as canReadSpectrum allows).
+ */
 export async function readableSpectrumScope(actor: Actor): Promise<WhereOptions<Spectrum> | null> {
   const scope = await readableScope(actor);
   const allProjects = [...scope.memberProjectIds, ...scope.sharedProjectIds];
   const or: WhereOptions<Spectrum>[] = [];
   if (allProjects.length) or.push({ projectId: { [Op.in]: allProjects } });
-  if (scope.sharedSeriesIds.length) or.push({ seriesId: { [Op.in]: scope.sharedSeriesIds } });
+  if (scope.sharedSeriesIds.length) {
+    or.push({ seriesId: { [Op.in]: scope.sharedSeriesIds } });
+    const points = await Spectrum.findAll({ where: { seriesId: { [Op.in]: scope.sharedSeriesIds } }, attributes: ["id"] });
+    if (points.length) or.push({ supernatantOfSpectrumId: { [Op.in]: points.map((p) => p.id) } });
+  }
   return or.length ? { [Op.or]: or } : null;
 }
 

@@ -2,7 +2,7 @@ import { selectRows } from "@/lib/db";
 import type { Technique } from "@/lib/registry/techniques";
 import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
-import { canReadSpectrum, canWrite, groupOfSpectrum } from "@/lib/auth/access";
+import { canReadSpectrum, canWrite, groupOfSpectrum, memberGroupIds } from "@/lib/auth/access";
 import { hazardsOf, type HazardFlag } from "@/lib/hazards";
 import { AnalysisRun, Peak, Project, Sample, Signature, Spectrum, User, models } from "@/models";
 
@@ -39,7 +39,9 @@ export type SpectrumDetail = {
   signatures: {
     id: string; kind: FlagKind; energyEv: number | null; wavelengthNm: number | null; fraction: number | null; shiftMeV: number | null;
     fwhmChangeMeV: number | null; magnitude: number | null; unit: string | null; uncertainty: number | null; significance: number;
-    message: string | null; intraband: boolean; reviewState: string;
+    message: string | null; intraband: boolean;
+    /** Members of the owning group only; null for a collaborator. */
+    reviewState: string | null;
   }[];
   /** Every run but the latest, newest first, kept for provenance. */
   earlierRuns: RunSummary[];
@@ -151,7 +153,7 @@ export async function getSpectrumDetail(actor: Actor, id: string): Promise<Spect
         id: s.id, kind: s.kind, energyEv: s.energyEv, wavelengthNm: num(d.wavelengthNm), fraction: s.fraction, shiftMeV: s.shiftMeV,
         fwhmChangeMeV: num(d.fwhmChangeMeV), magnitude: s.magnitude, unit: s.unit,
         uncertainty: s.uncertainty, significance: s.significance, message: typeof d.message === "string" ? d.message : null,
-        intraband: d.intraband === true, reviewState: s.reviewState,
+        intraband: d.intraband === true, reviewState: groupId && memberGroupIds(actor).includes(groupId) ? s.reviewState : null,
       };
     }),
     earlierRuns: runs.slice(1).map(summary),

@@ -4,18 +4,22 @@ import { QueryTypes } from "sequelize";
 import { selectRows, sequelize } from "@/lib/db";
 import { sendMail } from "@/lib/mail";
 import { KIND_LABELS } from "@/lib/signature-labels";
+import { CURRENT_SIGNATURE, awaitingReviewCounts } from "./counts";
 import { models } from "@/models";
 
 export type DigestSummary = { groups: number; signatures: number; mailed: number };
 
-type Pending = { id: string; kind: FlagKind; significance: number; energy_ev: number | null; review_state: string; file_name: string; project_name: string };
+type Pending = {
+  id: string; kind: FlagKind; significance: number; energy_ev: number | null; review_state: string; superseded: boolean; file_name: string; project_name: string;
+};
 
 /**
  * Mails each group lead who wants it (User.notifyDigest) one digest of the signatures flagged
  * since the last digest, and marks them (signatures.digested_at) in the same transaction, per
  * group. Rows are claimed with FOR UPDATE SKIP LOCKED, so two workers running it at once never
  * mail the same signature twice; a failed send rolls the group back for the next run.
- * Signatures already decided by then are marked without being mailed.
+ * Signatures already decided or superseded by a newer run by then are marked without being mailed.
+ * The mail states how many await review in all, from the same count as the queue and Overview.
  */
 export async function runReviewDigest(): Promise<DigestSummary> {
   models();
@@ -28,14 +32,15 @@ export async function runReviewDigest(): Promise<DigestSummary> {
   for (const group of groups) {
     await sequelize().transaction(async (transaction) => {
       const rows = await sequelize().query<Pending>(
-        `SELECT g.id, g.kind, g.significance, g.energy_ev, g.review_state, s.file_name, p.name AS project_name
+        `SELECT g.id, g.kind, g.significance, g.energy_ev, g.review_state, NOT (${CURRENT_SIGNATURE}) AS superseded, s.file_name, p.name AS project_name
          FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
          WHERE g.digested_at IS NULL AND p.group_id = :groupId
          ORDER BY g.significance DESC LIMIT 500 FOR UPDATE OF g SKIP LOCKED`,
         { replacements: { groupId: group.group_id }, type: QueryTypes.SELECT, transaction },
       );
       if (rows.length === 0) return;
-      const awaiting = rows.filter((r) => r.review_state === "awaiting");
+      // A flag that a newer run already replaced is marked without being mailed.
+      const awaiting = rows.filter((r) => r.review_state === "awaiting" && !r.superseded);
       if (awaiting.length > 0) {
         const leads = await sequelize().query<{ email: string; name: string }>(
           `SELECT u.email, u.name FROM memberships m JOIN users u ON u.id = m.user_id
@@ -45,6 +50,7 @@ export async function runReviewDigest(): Promise<DigestSummary> {
         const lines = awaiting.map((r) =>
           `- ${KIND_LABELS[r.kind]}${r.energy_ev !== null ? ` at ${r.energy_ev.toFixed(3)} eV` : ""}, ${r.significance.toFixed(1)}σ, in ${r.file_name} (${r.project_name})\n  ${base}/review/${r.id}`,
         );
+        const { total } = await awaitingReviewCounts([group.group_id]);
         for (const lead of leads) {
           await sendMail(
             lead.email,
@@ -53,7 +59,7 @@ export async function runReviewDigest(): Promise<DigestSummary> {
               `Hello ${lead.name},`, "",
               `The analysis flagged these band changes in ${group.group_name} since the last digest:`, "",
               ...lines, "",
-              `Review queue: ${base}/review`,
+              `${total} signature${total === 1 ? "" : "s"} in ${group.group_name} await review in all: ${base}/review`,
               `You receive this because the review digest is on in your settings: ${base}/settings`,
             ].join("\n"),
           );

@@ -19,6 +19,14 @@ export const batchDecisionSchema = decisionSchema.extend({
     .pipe(z.array(uuid("signatureIds")).min(1, "choose at least one signature").max(200, "at most 200 signatures at once")),
 });
 
+/** Decisions to take back, by the ids of their history rows. */
+export const undoSchema = z.object({
+  reviewIds: z
+    .union([z.string(), z.array(z.string())], { error: "name at least one decision to undo" })
+    .transform((v) => (Array.isArray(v) ? v : [v]).flatMap((s) => s.split(",")).map((s) => s.trim()).filter(Boolean))
+    .pipe(z.array(uuid("reviewIds")).min(1, "name at least one decision to undo").max(200, "at most 200 decisions at once")),
+});
+
 export const QUEUE_SORTS = ["significance", "date", "kind", "project", "sample"] as const;
 export type QueueSort = (typeof QUEUE_SORTS)[number];
 

@@ -37,6 +37,8 @@ export const rerunFormSchema = z
       z.number().int("Polynomial order must be a whole number").min(2, "Polynomial order must be at least 2").max(6, "Polynomial order must be at most 6").optional(),
     ),
     baseline: z.preprocess(blank, z.enum(["none", "offset", "scatter"], { error: "Baseline must be none, offset or scatter" }).optional()),
+    /** Sent only when the parent picker changed: a spectrum id, or "none" for no parent. */
+    referenceSpectrumId: z.preprocess(blank, z.union([z.literal("none"), z.string().uuid("Parent reference must be one of the listed spectra")]).optional()),
     ...Object.fromEntries(
       THRESHOLD_FIELDS.map((f) => [
         f.name,
@@ -92,6 +94,7 @@ export function toReanalysisChanges(v: RerunForm): Record<string, unknown> {
   const out: Record<string, unknown> = {};
   if (v.smoothingWindow !== undefined) out.smoothingWindow = v.smoothingWindow;
   if (v.smoothingPolynomial !== undefined) out.smoothingPolynomial = v.smoothingPolynomial;
+  if (v.referenceSpectrumId !== undefined) out.referenceSpectrumId = v.referenceSpectrumId === "none" ? null : v.referenceSpectrumId;
   if (v.baseline !== undefined) out.baseline = v.baseline;
   const thresholds: Record<string, number> = {};
   for (const f of THRESHOLD_FIELDS) {

@@ -176,6 +176,13 @@ export async function deleteAnalysisRun(runId: string, request: DeleteRequest & 
       { transaction },
     );
     await db.query("DELETE FROM analysis_runs WHERE id = :id", { replacements: { id: runId }, transaction });
+    // When the deleted run was the newest finished one, the run before it becomes current again.
+    await db.query(
+      `UPDATE signatures SET superseded_at = NULL, superseded_by_run_id = NULL, updated_at = now()
+        WHERE superseded_at IS NOT NULL
+          AND run_id = (SELECT id FROM analysis_runs WHERE spectrum_id = :spectrumId AND status = 'done' ORDER BY created_at DESC LIMIT 1)`,
+      { replacements: { spectrumId: run.spectrum_id }, transaction },
+    );
     await recordAudit(
       {
         actorId: request.actorId, actorLabel: request.actorLabel, groupId: run.group_id, action: "deleted", targetType: "analysis-run", targetId: run.id,

@@ -1,4 +1,5 @@
-import { Project, Series, Spectrum, models } from "@/models";
+import { Op } from "sequelize";
+import { Project, Series, Signature, Spectrum, models } from "@/models";
 
 /** Ids of records from the demo scenario (scripts/seed.ts), looked up by their names. */
 export async function demoIds() {
@@ -14,5 +15,9 @@ export async function demoIds() {
   const privateSpectrum = await byName(Spectrum.findOne({ where: { fileName: "cdse-0412-abs.csv" } }), "the parent absorption spectrum");
   const sharedSpectrum = await byName(Spectrum.findOne({ where: { fileName: "titration-1.00eq.csv" } }), "a titration spectrum");
   const otherGroupSpectrum = await byName(Spectrum.findOne({ where: { fileName: "inp-0007-abs.csv" } }), "the other group's spectrum");
-  return { project, sharedSeries, privateSeries, privateSpectrum, sharedSpectrum, otherGroupSpectrum };
+  const sharedPoints = await Spectrum.findAll({ where: { seriesId: sharedSeries.id }, attributes: ["id"] });
+  const pointIds = sharedPoints.map((p) => p.id);
+  const sharedSupernatant = await byName(Spectrum.findOne({ where: { supernatantOfSpectrumId: { [Op.in]: pointIds } } }), "a supernatant of the shared titration");
+  const sharedSignature = await byName(Signature.findOne({ where: { spectrumId: { [Op.in]: pointIds }, supersededAt: null } }), "a flag of the shared titration");
+  return { project, sharedSeries, privateSeries, privateSpectrum, sharedSpectrum, otherGroupSpectrum, sharedSupernatant, sharedSignature };
 }

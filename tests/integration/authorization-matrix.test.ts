@@ -59,6 +59,17 @@ const MATRIX: Row[] = [
     expect: { anonymous: 401, collaboratorShared: "ok", collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
   { what: "raw download of an unshared spectrum", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/raw`,
     expect: { anonymous: 401, collaboratorShared: 404, collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
+  // Guests: no review state anywhere, and only what their share covers, supernatants included.
+  { what: "page of a flag on a shared spectrum", path: (ids) => `/review/${ids.sharedSignature.id}`,
+    expect: { anonymous: "signin", collaboratorShared: 404, collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
+  { what: "decision history of a flag on a shared spectrum", path: (ids) => `/api/v1/signatures/${ids.sharedSignature.id}/decisions`,
+    expect: { anonymous: 401, collaboratorShared: 404, collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
+  { what: "review queue API", path: () => "/api/v1/review/queue",
+    expect: { anonymous: 401, collaboratorShared: 403, collaboratorUnshared: 403, spectroscopist: 403, lead: "ok", steward: 403, otherGroup: 403 } },
+  { what: "page of a supernatant of the shared series", path: (ids) => `/spectra/${ids.sharedSupernatant.id}`,
+    expect: { anonymous: "signin", collaboratorShared: "ok", collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
+  { what: "raw download of a supernatant of the shared series", path: (ids) => `/api/v1/spectra/${ids.sharedSupernatant.id}/raw`,
+    expect: { anonymous: 401, collaboratorShared: "ok", collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
   { what: "another group's raw download", path: (ids) => `/api/v1/spectra/${ids.otherGroupSpectrum.id}/raw`,
     expect: { anonymous: 401, collaboratorShared: 404, collaboratorUnshared: 404, spectroscopist: 404, lead: 404, steward: 404, otherGroup: "ok" } },
 ];
@@ -115,6 +126,27 @@ describe("authorization matrix", () => {
       expect(got).toEqual({ ...row.expect, revokedSession: row.expect.anonymous });
     }, 120_000);
   }
+
+  it("shows a guest no review state, and lists the supernatants their series share lets them open", async () => {
+    const cookie = cookies.collaboratorShared!;
+    const page = async (path: string) => (await fetch(url(path), { headers: { cookie } })).text();
+    const series = await page(`/series/${ids.sharedSeries.id}`);
+    expect(series).toContain(ids.sharedSeries.name);
+    expect(series).not.toMatch(/awaiting review/);
+    const spectrum = await page(`/spectra/${ids.sharedSpectrum.id}`);
+    expect(spectrum).toContain(ids.sharedSpectrum.fileName);
+    expect(spectrum).not.toMatch(/awaiting review|>confirmed<|>dismissed<|>Review</);
+    expect(await page("/")).not.toContain("nav-awaiting-review");
+    const api = (await (await fetch(url(`/api/v1/spectra/${ids.sharedSpectrum.id}`), { headers: { cookie } })).json()) as { analysis: { flags: { reviewState: string | null }[] } };
+    expect(api.analysis.flags.length).toBeGreaterThan(0);
+    expect(api.analysis.flags.every((f) => f.reviewState === null)).toBe(true);
+    // A member still sees the state on the same spectrum.
+    const member = (await (await fetch(url(`/api/v1/spectra/${ids.sharedSpectrum.id}`), { headers: { cookie: cookies.spectroscopist! } })).json()) as typeof api;
+    expect(member.analysis.flags.every((f) => typeof f.reviewState === "string")).toBe(true);
+    // The list shows what the share lets the guest open: the supernatant of a shared point.
+    const list = await page(`/spectra?q=${encodeURIComponent(ids.sharedSupernatant.fileName)}`);
+    expect(list).toContain(`/spectra/${ids.sharedSupernatant.id}`);
+  });
 
   it("shows a steward of another group none of this group's stewardship data", async () => {
     // A data steward of a group made here (the demo's other group has none).

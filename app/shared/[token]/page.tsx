@@ -48,7 +48,7 @@ export default async function SharedPage({ params }: { params: Promise<{ token: 
     const series = await Series.findByPk(link.targetId);
     if (!series) notFound();
     const project = await Project.findByPk(series.projectId, { attributes: ["name"] });
-    const points = await getSeriesPoints(series.id);
+    const points = await getSeriesPoints(series.id, { withReview: false });
     const variable = `${series.variableName || "Variable"}${series.variableUnit ? ` (${series.variableUnit})` : ""}`;
     return (
       <>

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { Fragment } from "react";
 import { notFound } from "next/navigation";
 import { requireActor } from "@/lib/auth/actor";
-import { getSignatureReview } from "@/lib/queries/review";
+import { getSignatureReview, type ReviewHistoryEntry } from "@/lib/queries/review";
 import { loadEvidence } from "@/lib/review/loadEvidence";
 import { KIND_LABELS } from "@/lib/signature-labels";
 import { DecisionForm } from "@/components/review/DecisionForm";
@@ -14,6 +14,13 @@ import { StatusBadge } from "@/components/ui/StatusBadge";
 
 export const metadata: Metadata = { title: "Signature" };
 
+function historyWho(h: ReviewHistoryEntry): string {
+  if (h.origin === "carried") return "decision carried by the analysis";
+  if (h.origin === "not-carried") return "decision held back by the analysis";
+  const who = h.reviewerName ?? "a former member";
+  return h.origin === "undo" ? `${who} undid a decision` : who;
+}
+
 export default async function SignaturePage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const actor = await requireActor(`/review/${id}`);
@@ -21,6 +28,8 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
   if (!sig) notFound();
   const evidence = await loadEvidence(sig.spectrumId, sig.referenceSpectrumId, sig.energyEv);
   const label = KIND_LABELS[sig.kind];
+  const latest = sig.history[0];
+  const undoableReviewId = latest && latest.origin === "decision" && latest.previousState !== null ? latest.id : null;
   const facts: [string, string][] = [
     ["Magnitude", magnitudeText(sig)],
     ["Energy", sig.energyEv !== null ? `${sig.energyEv.toFixed(3)} eV (${(1239.841984 / sig.energyEv).toFixed(1)} nm)` : "—"],
@@ -36,6 +45,20 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
         subtitle={sig.message ?? undefined}
         actions={<Link href="/review" className="rounded-md border border-stone-300 bg-white px-3 py-1.5 text-sm hover:bg-stone-50">← Review queue</Link>}
       />
+      {sig.supersededBy && (
+        <div role="note" data-testid="superseded-notice" className="mb-4 rounded-lg border border-amber-300 bg-amber-50 px-4 py-3 text-sm">
+          <p className="font-medium">Replaced by a newer analysis: run {sig.supersededBy.runId.slice(0, 8)}, {dateText(sig.supersededBy.at)}.</p>
+          <p className="mt-1">
+            {sig.supersededBy.matchId ? (
+              <>That run found the same band: <Link className="text-glow-deep hover:underline" href={`/review/${sig.supersededBy.matchId}`}>its signature</Link>
+                {sig.supersededBy.matchState && <> (now <StatusBadge status={sig.supersededBy.matchState} />)</>}. </>
+            ) : (
+              <>That run no longer finds this band. </>
+            )}
+            This flag is off the queue and out of every count; its history below stays as it was.
+          </p>
+        </div>
+      )}
       <div className="grid gap-6 lg:grid-cols-3">
         <section className="rounded-lg border border-stone-200 bg-white p-4 lg:col-span-2">
           <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Evidence</h2>
@@ -58,9 +81,13 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
           <section className="rounded-lg border border-stone-200 bg-white p-4">
             <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Decision</h2>
             {sig.mayDecide ? (
-              <DecisionForm signatureId={sig.id} reviewState={sig.reviewState} />
+              <DecisionForm signatureId={sig.id} reviewState={sig.reviewState} undoableReviewId={undoableReviewId} />
             ) : (
-              <p className="text-sm">Now: <StatusBadge status={sig.reviewState} /><br /><span className="text-ink-soft">A lead of the group decides on signatures.</span></p>
+              <p className="text-sm">{sig.supersededBy ? "Last state" : "Now"}: <StatusBadge status={sig.reviewState} /><br />
+                <span className="text-ink-soft">{sig.supersededBy ? "A replaced flag is no longer decided on." : "A lead of the group decides on signatures."}</span></p>
+            )}
+            {sig.matchedSignatureId && (
+              <p className="mt-3 text-xs text-ink-soft">The same band in the run before: <Link className="text-glow-deep hover:underline" href={`/review/${sig.matchedSignatureId}`}>earlier signature</Link>.</p>
             )}
           </section>
           <section className="rounded-lg border border-stone-200 bg-white p-4">
@@ -71,8 +98,18 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
               <ol className="space-y-3 text-sm" data-testid="review-history">
                 {sig.history.map((h) => (
                   <li key={h.id} className="border-l-2 border-stone-200 pl-3">
-                    <div className="flex items-center gap-2"><StatusBadge status={h.decision} /><span className="text-ink-soft">{h.reviewerName ?? "a former member"} · {dateText(h.createdAt)}</span></div>
-                    {h.comment ? <p className="mt-1 whitespace-pre-wrap">{h.comment}</p> : <p className="mt-1 text-ink-faint">No comment.</p>}
+                    <div className="flex flex-wrap items-center gap-2">
+                      <StatusBadge status={h.decision} />
+                      <span className="text-ink-soft">{historyWho(h)} · {dateText(h.createdAt)}</span>
+                    </div>
+                    {h.carriedFromSignatureId && (
+                      <p className="mt-1 text-xs">
+                        <Link className="text-glow-deep hover:underline" href={`/review/${h.carriedFromSignatureId}`}>
+                          {h.origin === "carried" ? "carried from" : "not carried from"} run {h.carriedFromRunId?.slice(0, 8) ?? "(deleted)"}
+                        </Link>
+                      </p>
+                    )}
+                    {h.origin === "carried" ? null : h.comment ? <p className="mt-1 whitespace-pre-wrap">{h.comment}</p> : <p className="mt-1 text-ink-faint">No comment.</p>}
                   </li>
                 ))}
               </ol>

@@ -50,7 +50,7 @@ export default async function SeriesDetailPage({ params }: { params: Promise<{ i
                   <tr key={p.spectrumId} className="border-t border-stone-100">
                     <td className="px-3 py-1.5">{p.value ?? "—"}</td>
                     <td className="px-3 py-1.5"><Link className="text-glow-deep hover:underline" href={`/spectra/${p.spectrumId}`}>{p.fileName}</Link>
-                      {p.awaitingReview > 0 && <span className="ml-2 text-xs text-ink-soft">{p.awaitingReview} flag{p.awaitingReview === 1 ? "" : "s"} awaiting review</span>}</td>
+                      {p.awaitingReview !== null && p.awaitingReview > 0 && <span className="ml-2 text-xs text-ink-soft">{p.awaitingReview} flag{p.awaitingReview === 1 ? "" : "s"} awaiting review</span>}</td>
                     <td className="px-3 py-1.5">{pct(p.bleachFraction)}</td><td className="px-3 py-1.5">{pct(p.quenchFraction)}</td>
                     <td className="px-3 py-1.5">{p.shiftMeV === null ? "—" : p.shiftMeV.toFixed(1)}</td>
                     <td className="px-3 py-1.5">{p.newBandArea === null ? (p.newBandCount ? `${p.newBandCount} band${p.newBandCount === 1 ? "" : "s"}` : "—") : p.newBandArea.toPrecision(3)}</td>

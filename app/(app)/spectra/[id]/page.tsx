@@ -9,6 +9,7 @@ import { getSpectrumDetail, type RunSummary } from "@/lib/queries/spectrum-detai
 import { isDisplayAxis, type DisplayAxis } from "@/lib/spectrum-view/axis";
 import { THRESHOLD_FIELDS } from "@/lib/spectrum-view/rerunSchema";
 import { RerunForm } from "@/components/spectrum/RerunForm";
+import { getRerunParents } from "@/lib/queries/parentChoices";
 import { DeleteSpectrumForm } from "@/components/stewardship/DeleteSpectrumForm";
 import { RunProgress } from "@/components/spectrum/RunProgress";
 import { SpectrumViewer } from "@/components/spectrum/SpectrumViewer";
@@ -63,6 +64,7 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
   // requestReanalysis starts from the latest run that did not fail (else the latest), reference included
   const rerunBase = [latest, ...s.earlierRuns].find((r) => r && r.status !== "failed") ?? latest;
   const rerunHasReference = rerunBase ? rerunBase.referenceSpectrumId !== null : s.reference !== null;
+  const rerunParents = s.mayWrite && s.status !== "failed" ? await getRerunParents(s.id) : null;
   const analysisNote = shown
     ? null
     : s.status === "failed"
@@ -172,6 +174,7 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
                 spectrumId={s.id}
                 action={rerunAnalysis}
                 hasReference={rerunHasReference}
+                parents={rerunParents ? { ...rerunParents, currentId: rerunBase ? rerunBase.referenceSpectrumId : (s.reference?.id ?? null) } : undefined}
                 current={{
                   windowSize: p?.windowSize ?? null, polynomial: p?.polynomial ?? null, baseline: p?.baseline?.replace(" (not applied)", "") ?? null,
                   thresholds: p?.thresholds ?? {}, normalization: p?.normalizationBrief ?? null,

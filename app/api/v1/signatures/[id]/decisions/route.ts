@@ -4,8 +4,11 @@ import { revalidatePath } from "next/cache";
 import { ApiError, notFound, withActor } from "@/lib/http/respond";
 import { getSignatureReview } from "@/lib/queries/review";
 import { reviewApiError } from "@/lib/review/apiErrors";
-import { decideSignatures } from "@/lib/review/decide";
+import { decideSignatures, undoDecisions } from "@/lib/review/decide";
 import { decisionSchema } from "@/lib/review/schemas";
+import { z } from "zod";
+
+const undoBodySchema = z.object({ undo: z.string().trim().uuid("undo must be the id (UUID) of a decision in this signature's history") }).strict();
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
@@ -18,15 +21,22 @@ export const GET = withActor<Ctx>(async (_request, { actor, params }) => {
   const { id } = await params;
   const review = UUID.test(id) ? await getSignatureReview(actor, id) : null;
   if (!review) throw notFound(`signature ${id.slice(0, 80)}`);
-  return NextResponse.json({ id: review.id, reviewState: review.reviewState, history: review.history }, { headers: { "Cache-Control": "no-store" } });
+  return NextResponse.json({ id: review.id, reviewState: review.reviewState, supersededBy: review.supersededBy, history: review.history }, { headers: { "Cache-Control": "no-store" } });
 });
 
-/** POST /api/v1/signatures/{id}/decisions — a group lead confirms or dismisses (or revises) with a comment. */
+/**
+ * POST /api/v1/signatures/{id}/decisions — a group lead confirms or dismisses (or revises) with a
+ * comment, or sends {"undo": reviewId} to take back the latest decision. A decision equal to the
+ * current state records nothing (200, unchanged); a flag replaced by a newer run is refused (409).
+ */
 export const POST = withActor<Ctx>(async (request, { actor, params }) => {
   const { id } = await params;
   // The caller first: another group's id is not found, a member who is not its lead is refused.
   const review = UUID.test(id) ? await getSignatureReview(actor, id) : null;
   if (!review) throw notFound(`signature ${id.slice(0, 80)}`);
+  if (review.supersededBy) {
+    throw new ApiError(409, "conflict", `This flag was replaced by a newer analysis (run ${review.supersededBy.runId.slice(0, 8)}); decide on ${review.supersededBy.matchId ? `signature ${review.supersededBy.matchId}` : "the newer run's flags"}.`);
+  }
   if (!review.mayDecide) throw new ApiError(403, "forbidden", "Only a lead of the group that owns the spectrum can confirm or dismiss its signatures.");
   if (!isJson(request)) {
     throw new ApiError(415, "unsupported-media-type", "Send the decision as JSON: {\"decision\": \"confirmed\" | \"dismissed\", \"comment\": \"…\"}.");
@@ -37,13 +47,21 @@ export const POST = withActor<Ctx>(async (request, { actor, params }) => {
   } catch {
     throw new ApiError(400, "invalid", "The body is not valid JSON.");
   }
-  const input = decisionSchema.parse(body ?? {});
+  const undo = undoBodySchema.safeParse(body ?? {});
   try {
+    if (undo.success) {
+      if (!review.history.some((h) => h.id === undo.data.undo)) throw new ApiError(404, "not-found", `decision ${undo.data.undo} of signature ${id} was not found`, "undo");
+      const { outcomes, mailed } = await undoDecisions(actor, [undo.data.undo]);
+      revalidatePath("/review", "layout");
+      const o = outcomes[0]!;
+      return NextResponse.json({ ...o, reviewState: o.decision, uploaderMailed: mailed > 0 }, { status: 201 });
+    }
+    const input = decisionSchema.parse(body ?? {});
     const { outcomes, mailed } = await decideSignatures(actor, [id], input.decision, input.comment);
-    revalidatePath("/review");
-    revalidatePath(`/review/${id}`);
+    revalidatePath("/review", "layout");
     const o = outcomes[0]!;
-    return NextResponse.json({ ...o, reviewState: o.decision, uploaderMailed: mailed > 0 }, { status: 201 });
+    // A decision equal to the current state records nothing: 200 with unchanged = true.
+    return NextResponse.json({ ...o, reviewState: o.decision, uploaderMailed: mailed > 0 }, { status: o.unchanged ? 200 : 201 });
   } catch (error) {
     throw reviewApiError(error);
   }
