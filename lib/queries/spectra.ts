@@ -1,7 +1,11 @@
-import { Op, type WhereOptions } from "sequelize";
 import type { Actor } from "@/lib/auth/actor";
 import { readableScope } from "@/lib/auth/access";
-import { Project, Sample, Spectrum } from "@/models";
+import { selectRows } from "@/lib/db";
+import { fastCount, type FastCount } from "@/lib/search/fastCount";
+import { cursorAtSql, decodeCursor, encodeCursor } from "@/lib/search/keysetCursor";
+import { spectrumFilterSql } from "@/lib/search/spectrumFilterSql";
+import type { SpectrumSearch } from "@/lib/search/spectrumSearchQuery";
+import { models } from "@/models";
 
 export type SpectrumRow = {
   id: string;
@@ -9,47 +13,108 @@ export type SpectrumRow = {
   technique: string;
   status: string;
   errorMessage: string | null;
+  sampleId: string | null;
   sampleName: string | null;
+  projectId: string;
   projectName: string;
+  uploaderName: string | null;
+  /** First exciton of the latest finished analysis, when it found one. */
+  firstExcitonNm: number | null;
+  /** Diameter from the sizing curve of the latest finished analysis, when it gave one. */
+  diameterNm: number | null;
   createdAt: string;
 };
 
-export const PAGE_SIZE = 50;
+export type SpectrumPage = {
+  rows: SpectrumRow[];
+  /** Cursor of the next (older) page, or null on the last page. */
+  next: string | null;
+  count: FastCount;
+};
 
-/** Spectra the actor reads: members see their groups' projects; collaborators what is shared. */
-export async function readableSpectrumScope(actor: Actor): Promise<WhereOptions<Spectrum> | null> {
+type Row = {
+  id: string; file_name: string; technique: string; status: string; error_message: string | null; sample_id: string | null;
+  sample_name: string | null; project_id: string; project_name: string; uploader_name: string | null;
+  first_exciton_nm: number | null; diameter_nm: number | null; created_at: Date; cursor_at: string;
+};
+
+const EMPTY: SpectrumPage = { rows: [], next: null, count: { value: 0, exact: true } };
+
+/**
+ * One page of the spectra the actor reads (its groups' projects, projects and series shared
+ * with it), newest first, narrowed by the search. Keyset paging: each readable project (and
+ * shared series) contributes at most a page from its (scope, created_at, id) index and the
+ * pieces are merged, so a page costs the same on the first page and the ten-thousandth.
+ */
+export async function listSpectra(actor: Actor, search: SpectrumSearch): Promise<SpectrumPage> {
+  models();
   const scope = await readableScope(actor);
-  const allProjects = [...scope.memberProjectIds, ...scope.sharedProjectIds];
-  const or: WhereOptions<Spectrum>[] = [];
-  if (allProjects.length) or.push({ projectId: { [Op.in]: allProjects } });
-  if (scope.sharedSeriesIds.length) or.push({ seriesId: { [Op.in]: scope.sharedSeriesIds } });
-  return or.length ? { [Op.or]: or } : null;
+  const projectIds = [...new Set([...scope.memberProjectIds, ...scope.sharedProjectIds])];
+  const seriesIds = scope.sharedSeriesIds;
+  if (projectIds.length === 0 && seriesIds.length === 0) return EMPTY;
+
+  const filter = spectrumFilterSql(search);
+  const params: Record<string, unknown> = { ...filter.params, projectIds, seriesIds, limit: search.limit + 1 };
+  const sampleJoin = filter.needsSample ? "LEFT JOIN samples sm ON sm.id = s.sample_id" : "";
+  const conditions = [...filter.conditions];
+  const position = search.after ? decodeCursor(search.after) : null;
+  const pageConditions = [...conditions];
+  if (position) {
+    pageConditions.push("(s.created_at, s.id) < (CAST(:afterAt AS timestamptz), CAST(:afterId AS uuid))");
+    Object.assign(params, { afterAt: position.at, afterId: position.id });
+  }
+  const piece = (column: "project_id" | "series_id", ids: string) => `
+    SELECT h.id, h.created_at FROM unnest(ARRAY[${ids}]::uuid[]) AS scope(id)
+    CROSS JOIN LATERAL (
+      SELECT s.id, s.created_at FROM spectra s ${sampleJoin}
+      WHERE s.${column} = scope.id${pageConditions.map((c) => ` AND ${c}`).join("")}
+      ORDER BY s.created_at DESC, s.id DESC LIMIT :limit
+    ) h`;
+  const pieces = [
+    ...(projectIds.length ? [piece("project_id", ":projectIds")] : []),
+    ...(seriesIds.length ? [piece("series_id", ":seriesIds")] : []),
+  ];
+  const scopeOr = [
+    ...(projectIds.length ? ["s.project_id IN (:projectIds)"] : []),
+    ...(seriesIds.length ? ["s.series_id IN (:seriesIds)"] : []),
+  ].join(" OR ");
+  const countFromWhere = `FROM spectra s ${sampleJoin} WHERE (${scopeOr})${conditions.map((c) => ` AND ${c}`).join("")}`;
+
+  const [rows, count] = await Promise.all([
+    selectRows<Row>(
+      `WITH page AS (
+         SELECT DISTINCT id, created_at FROM (${pieces.join(" UNION ALL ")}) merged
+         ORDER BY created_at DESC, id DESC LIMIT :limit
+       )
+       SELECT s.id, s.file_name, s.technique, s.status, s.error_message, s.sample_id, sm.name AS sample_name,
+              s.project_id, p.name AS project_name, u.name AS uploader_name, fx.wavelength_nm AS first_exciton_nm,
+              (lr.report->'derived'->>'diameterNm')::float8 AS diameter_nm, s.created_at, ${cursorAtSql("s.created_at")} AS cursor_at
+       FROM page JOIN spectra s ON s.id = page.id
+       JOIN projects p ON p.id = s.project_id
+       LEFT JOIN samples sm ON sm.id = s.sample_id
+       LEFT JOIN users u ON u.id = s.uploaded_by
+       LEFT JOIN LATERAL (SELECT r.id, r.report FROM analysis_runs r WHERE r.spectrum_id = s.id AND r.status = 'done'
+                          ORDER BY r.created_at DESC LIMIT 1) lr ON TRUE
+       LEFT JOIN LATERAL (SELECT k.wavelength_nm FROM peaks k WHERE k.run_id = lr.id AND k.is_first_exciton LIMIT 1) fx ON TRUE
+       ORDER BY s.created_at DESC, s.id DESC`,
+      params,
+    ),
+    fastCount(countFromWhere, params),
+  ]);
+  const shown = rows.slice(0, search.limit);
+  const last = shown[shown.length - 1];
+  return {
+    rows: shown.map(toRow),
+    next: rows.length > search.limit && last ? encodeCursor({ at: last.cursor_at, id: last.id }) : null,
+    count,
+  };
 }
 
-export async function listSpectra(actor: Actor, options: { page?: number; q?: string; status?: string } = {}) {
-  const scope = await readableSpectrumScope(actor);
-  if (!scope) return { rows: [] as SpectrumRow[], total: 0, page: 1, pages: 1 };
-  const page = Math.max(1, options.page ?? 1);
-  const where: WhereOptions<Spectrum>[] = [scope];
-  if (options.q) where.push({ fileName: { [Op.iLike]: `%${options.q}%` } });
-  if (options.status) where.push({ status: options.status as Spectrum["status"] });
-  const { rows, count } = await Spectrum.findAndCountAll({
-    where: { [Op.and]: where },
-    include: [{ model: Sample, attributes: ["name"] }, { model: Project, attributes: ["name"] }],
-    order: [["createdAt", "DESC"]],
-    limit: PAGE_SIZE,
-    offset: (page - 1) * PAGE_SIZE,
-  });
+function toRow(r: Row): SpectrumRow {
   return {
-    rows: rows.map((s) => {
-      const joined = s as Spectrum & { Sample?: Sample | null; Project?: Project | null };
-      return {
-        id: s.id, fileName: s.fileName, technique: s.technique, status: s.status, errorMessage: s.errorMessage,
-        sampleName: joined.Sample?.name ?? null, projectName: joined.Project?.name ?? "", createdAt: s.createdAt.toISOString(),
-      };
-    }),
-    total: count,
-    page,
-    pages: Math.max(1, Math.ceil(count / PAGE_SIZE)),
+    id: r.id, fileName: r.file_name, technique: r.technique, status: r.status, errorMessage: r.error_message,
+    sampleId: r.sample_id, sampleName: r.sample_name, projectId: r.project_id, projectName: r.project_name,
+    uploaderName: r.uploader_name, firstExcitonNm: r.first_exciton_nm, diameterNm: r.diameter_nm,
+    createdAt: new Date(r.created_at).toISOString(),
   };
 }
