@@ -38,21 +38,14 @@ type Row = {
   first_exciton_nm: number | null; diameter_nm: number | null; created_at: Date; cursor_at: string;
 };
 
-const EMPTY: SpectrumPage = { rows: [], next: null, count: { value: 0, exact: true } };
-
 /**
- * One page of the spectra the actor reads (its groups' projects, projects and series shared
- * with it), newest first, narrowed by the search. Keyset paging: each readable project (and
- * shared series) contributes at most a page from its (scope, created_at, id) index and the
- * pieces are merged, so a page costs the same on the first page and the ten-thousandth.
+ * The SQL of one page of spectra and of its count, for readable projects and shared series.
+ * Keyset paging: each readable project (and shared series) contributes at most a page from its
+ * (scope, created_at, id) index and the pieces are merged, so a page costs the same on the first
+ * page and the ten-thousandth. Pure, so tests can EXPLAIN exactly what the app runs.
  */
-export async function listSpectra(actor: Actor, search: SpectrumSearch): Promise<SpectrumPage> {
-  models();
-  const scope = await readableScope(actor);
-  const projectIds = [...new Set([...scope.memberProjectIds, ...scope.sharedProjectIds])];
-  const seriesIds = scope.sharedSeriesIds;
-  if (projectIds.length === 0 && seriesIds.length === 0) return EMPTY;
-
+export function spectrumListSql(scope: { projectIds: string[]; seriesIds: string[] }, search: SpectrumSearch) {
+  const { projectIds, seriesIds } = scope;
   const filter = spectrumFilterSql(search);
   const params: Record<string, unknown> = { ...filter.params, projectIds, seriesIds, limit: search.limit + 1 };
   const sampleJoin = filter.needsSample ? "LEFT JOIN samples sm ON sm.id = s.sample_id" : "";
@@ -80,9 +73,7 @@ export async function listSpectra(actor: Actor, search: SpectrumSearch): Promise
   ].join(" OR ");
   const countFromWhere = `FROM spectra s ${sampleJoin} WHERE (${scopeOr})${conditions.map((c) => ` AND ${c}`).join("")}`;
 
-  const [rows, count] = await Promise.all([
-    selectRows<Row>(
-      `WITH page AS (
+  const listSql = `WITH page AS (
          SELECT DISTINCT id, created_at FROM (${pieces.join(" UNION ALL ")}) merged
          ORDER BY created_at DESC, id DESC LIMIT :limit
        )
@@ -96,9 +87,26 @@ export async function listSpectra(actor: Actor, search: SpectrumSearch): Promise
        LEFT JOIN LATERAL (SELECT r.id, r.report FROM analysis_runs r WHERE r.spectrum_id = s.id AND r.status = 'done'
                           ORDER BY r.created_at DESC LIMIT 1) lr ON TRUE
        LEFT JOIN LATERAL (SELECT k.wavelength_nm FROM peaks k WHERE k.run_id = lr.id AND k.is_first_exciton LIMIT 1) fx ON TRUE
-       ORDER BY s.created_at DESC, s.id DESC`,
-      params,
-    ),
+       ORDER BY s.created_at DESC, s.id DESC`;
+  return { listSql, countFromWhere, params };
+}
+
+const EMPTY: SpectrumPage = { rows: [], next: null, count: { value: 0, exact: true } };
+
+/**
+ * One page of the spectra the actor reads (its groups' projects, projects and series shared
+ * with it), newest first, narrowed by the search, with a count that stays fast (fastCount).
+ */
+export async function listSpectra(actor: Actor, search: SpectrumSearch): Promise<SpectrumPage> {
+  models();
+  const scope = await readableScope(actor);
+  const projectIds = [...new Set([...scope.memberProjectIds, ...scope.sharedProjectIds])];
+  const seriesIds = scope.sharedSeriesIds;
+  if (projectIds.length === 0 && seriesIds.length === 0) return EMPTY;
+
+  const { listSql, countFromWhere, params } = spectrumListSql({ projectIds, seriesIds }, search);
+  const [rows, count] = await Promise.all([
+    selectRows<Row>(listSql, params),
     fastCount(countFromWhere, params),
   ]);
   const shown = rows.slice(0, search.limit);
