@@ -3,7 +3,7 @@ import { readableScope } from "@/lib/auth/access";
 import { selectRows } from "@/lib/db";
 import { fastCount, type FastCount } from "@/lib/search/fastCount";
 import { cursorAtSql, decodeCursor, encodeCursor } from "@/lib/search/keysetCursor";
-import { spectrumFilterSql } from "@/lib/search/spectrumFilterSql";
+import { LATEST_RUN_JOIN, spectrumFilterSql } from "@/lib/search/spectrumFilterSql";
 import type { SpectrumSearch } from "@/lib/search/spectrumSearchQuery";
 import { models } from "@/models";
 
@@ -48,7 +48,10 @@ export function spectrumListSql(scope: { projectIds: string[]; seriesIds: string
   const { projectIds, seriesIds } = scope;
   const filter = spectrumFilterSql(search);
   const params: Record<string, unknown> = { ...filter.params, projectIds, seriesIds, limit: search.limit + 1 };
-  const sampleJoin = filter.needsSample ? "LEFT JOIN samples sm ON sm.id = s.sample_id" : "";
+  const sampleJoin = [
+    filter.needsSample ? "LEFT JOIN samples sm ON sm.id = s.sample_id" : "",
+    filter.needsLatestRun ? LATEST_RUN_JOIN : "",
+  ].join(" ");
   const conditions = [...filter.conditions];
   const position = search.after ? decodeCursor(search.after) : null;
   const pageConditions = [...conditions];

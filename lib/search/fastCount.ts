@@ -1,24 +1,43 @@
-import { selectRows } from "@/lib/db";
+import { QueryTypes } from "sequelize";
+import { selectRows, sequelize } from "@/lib/db";
 
 /** Counted exactly up to this many rows; beyond it the planner's estimate is given as "about". */
 export const EXACT_COUNT_LIMIT = 10_000;
+/** An exact count that takes longer than this gives way to the estimate (a filter that must probe every row). */
+export const EXACT_COUNT_BUDGET_MS = 150;
 
 export type FastCount = { value: number; exact: boolean };
 
 /**
  * The number of rows of `SELECT 1 FROM … WHERE …` (the `fromWhere` text), read exactly up to
- * EXACT_COUNT_LIMIT and estimated beyond it from the planner's statistics (EXPLAIN's row
- * estimate), so a count costs at most EXACT_COUNT_LIMIT index entries however large the table.
+ * EXACT_COUNT_LIMIT rows within EXACT_COUNT_BUDGET_MS, and otherwise estimated from the planner's
+ * statistics (EXPLAIN's row estimate), so a count costs a bounded time however large the table.
  */
 export async function fastCount(fromWhere: string, params: Record<string, unknown>): Promise<FastCount> {
-  const [row] = await selectRows<{ n: string }>(
-    `SELECT count(*) AS n FROM (SELECT 1 ${fromWhere} LIMIT ${EXACT_COUNT_LIMIT + 1}) capped`, params,
-  );
-  const n = Number(row?.n ?? 0);
-  if (n <= EXACT_COUNT_LIMIT) return { value: n, exact: true };
+  const exact = await cappedCount(fromWhere, params);
+  if (exact !== null && exact <= EXACT_COUNT_LIMIT) return { value: exact, exact: true };
   const [plan] = await selectRows<{ "QUERY PLAN": [{ Plan: { "Plan Rows": number } }] }>(`EXPLAIN (FORMAT JSON) SELECT 1 ${fromWhere}`, params);
-  const estimate = Math.round(plan?.["QUERY PLAN"]?.[0]?.Plan?.["Plan Rows"] ?? n);
-  return { value: Math.max(estimate, EXACT_COUNT_LIMIT + 1), exact: false };
+  const estimate = Math.round(plan?.["QUERY PLAN"]?.[0]?.Plan?.["Plan Rows"] ?? 0);
+  // beyond the cap the estimate is at least the cap; a count cut short by the budget says only "about"
+  return { value: exact === null ? estimate : Math.max(estimate, EXACT_COUNT_LIMIT + 1), exact: false };
+}
+
+/** count(*) up to the cap, or null when it ran out of time (statement_timeout, SQLSTATE 57014). */
+async function cappedCount(fromWhere: string, params: Record<string, unknown>): Promise<number | null> {
+  try {
+    return await sequelize().transaction(async (transaction) => {
+      await sequelize().query(`SET LOCAL statement_timeout = ${EXACT_COUNT_BUDGET_MS}`, { transaction });
+      const rows = await sequelize().query<{ n: string }>(
+        `SELECT count(*) AS n FROM (SELECT 1 ${fromWhere} LIMIT ${EXACT_COUNT_LIMIT + 1}) capped`,
+        { replacements: params, type: QueryTypes.SELECT, transaction },
+      );
+      return Number(rows[0]?.n ?? 0);
+    });
+  } catch (error) {
+    const code = (error as { parent?: { code?: string } }).parent?.code;
+    if (code === "57014") return null;
+    throw error;
+  }
 }
 
 /** "137" or "about 120,000". */
