@@ -29,6 +29,7 @@ export const up: Migration = async ({ context: qi }) => {
     CREATE INDEX peaks_first_exciton_energy_idx ON peaks (energy_ev) WHERE is_first_exciton;
 
     CREATE INDEX signatures_spectrum_kind_idx ON signatures (spectrum_id, kind, significance);
+    CREATE INDEX signatures_queue_significance_idx ON signatures (review_state, significance DESC, created_at DESC);
     CREATE INDEX audit_events_group_keyset_idx ON audit_events (group_id, at DESC, id DESC);
 
     CREATE TABLE saved_searches (
@@ -45,7 +46,7 @@ export const up: Migration = async ({ context: qi }) => {
 export const down: Migration = async ({ context: qi }) => {
   await qi.sequelize.query(`
     DROP TABLE IF EXISTS saved_searches;
-    DROP INDEX IF EXISTS audit_events_group_keyset_idx, signatures_spectrum_kind_idx, peaks_first_exciton_energy_idx,
+    DROP INDEX IF EXISTS audit_events_group_keyset_idx, signatures_queue_significance_idx, signatures_spectrum_kind_idx, peaks_first_exciton_energy_idx,
       peaks_energy_idx, analysis_runs_diameter_idx, analysis_runs_done_idx, samples_group_keyset_idx, samples_text_trgm_idx,
       spectra_text_trgm_idx, spectra_uploader_keyset_idx, spectra_sample_keyset_idx, spectra_series_keyset_idx,
       spectra_project_keyset_idx;

@@ -1,7 +1,7 @@
 import type { Actor } from "@/lib/auth/actor";
 import { readableScope } from "@/lib/auth/access";
 import { selectRows } from "@/lib/db";
-import { fastCount, type FastCount } from "@/lib/search/fastCount";
+import { fastCount, type CountSql, type FastCount } from "@/lib/search/fastCount";
 import { cursorAtSql, decodeCursor, encodeCursor } from "@/lib/search/keysetCursor";
 import { LATEST_RUN_JOIN, spectrumFilterSql } from "@/lib/search/spectrumFilterSql";
 import type { SpectrumSearch } from "@/lib/search/spectrumSearchQuery";
@@ -59,22 +59,27 @@ export function spectrumListSql(scope: { projectIds: string[]; seriesIds: string
     pageConditions.push("(s.created_at, s.id) < (CAST(:afterAt AS timestamptz), CAST(:afterId AS uuid))");
     Object.assign(params, { afterAt: position.at, afterId: position.id });
   }
-  const piece = (column: "project_id" | "series_id", ids: string) => `
+  const piece = (column: "project_id" | "series_id", ids: string, where: string[], tail: string) => `
     SELECT h.id, h.created_at FROM unnest(ARRAY[${ids}]::uuid[]) AS scope(id)
     CROSS JOIN LATERAL (
       SELECT s.id, s.created_at FROM spectra s ${sampleJoin}
-      WHERE s.${column} = scope.id${pageConditions.map((c) => ` AND ${c}`).join("")}
-      ORDER BY s.created_at DESC, s.id DESC LIMIT :limit
+      WHERE s.${column} = scope.id${where.map((c) => ` AND ${c}`).join("")}
+      ${tail}
     ) h`;
-  const pieces = [
-    ...(projectIds.length ? [piece("project_id", ":projectIds")] : []),
-    ...(seriesIds.length ? [piece("series_id", ":seriesIds")] : []),
+  const piecesOf = (where: string[], tail: string) => [
+    ...(projectIds.length ? [piece("project_id", ":projectIds", where, tail)] : []),
+    ...(seriesIds.length ? [piece("series_id", ":seriesIds", where, tail)] : []),
   ];
+  const pieces = piecesOf(pageConditions, "ORDER BY s.created_at DESC, s.id DESC LIMIT :limit");
   const scopeOr = [
     ...(projectIds.length ? ["s.project_id IN (:projectIds)"] : []),
     ...(seriesIds.length ? ["s.series_id IN (:seriesIds)"] : []),
   ].join(" OR ");
-  const countFromWhere = `FROM spectra s ${sampleJoin} WHERE (${scopeOr})${conditions.map((c) => ` AND ${c}`).join("")}`;
+  // counted through the same per-project index ranges (any order), each stopping at the cap
+  const count: CountSql = {
+    rowsSql: `SELECT DISTINCT id FROM (${piecesOf(conditions, "LIMIT :countLimit").join(" UNION ALL ")}) counted`,
+    estimateSql: `SELECT 1 FROM spectra s ${sampleJoin} WHERE (${scopeOr})${conditions.map((c) => ` AND ${c}`).join("")}`,
+  };
 
   const listSql = `WITH page AS (
          SELECT DISTINCT id, created_at FROM (${pieces.join(" UNION ALL ")}) merged
@@ -91,7 +96,7 @@ export function spectrumListSql(scope: { projectIds: string[]; seriesIds: string
                           ORDER BY r.created_at DESC LIMIT 1) lr ON TRUE
        LEFT JOIN LATERAL (SELECT k.wavelength_nm FROM peaks k WHERE k.run_id = lr.id AND k.is_first_exciton LIMIT 1) fx ON TRUE
        ORDER BY s.created_at DESC, s.id DESC`;
-  return { listSql, countFromWhere, params };
+  return { listSql, count, params };
 }
 
 const EMPTY: SpectrumPage = { rows: [], next: null, count: { value: 0, exact: true } };
@@ -107,17 +112,14 @@ export async function listSpectra(actor: Actor, search: SpectrumSearch): Promise
   const seriesIds = scope.sharedSeriesIds;
   if (projectIds.length === 0 && seriesIds.length === 0) return EMPTY;
 
-  const { listSql, countFromWhere, params } = spectrumListSql({ projectIds, seriesIds }, search);
-  const [rows, count] = await Promise.all([
-    selectRows<Row>(listSql, params),
-    fastCount(countFromWhere, params),
-  ]);
+  const { listSql, count, params } = spectrumListSql({ projectIds, seriesIds }, search);
+  const [rows, total] = await Promise.all([selectRows<Row>(listSql, params), fastCount(count, params)]);
   const shown = rows.slice(0, search.limit);
   const last = shown[shown.length - 1];
   return {
     rows: shown.map(toRow),
     next: rows.length > search.limit && last ? encodeCursor({ at: last.cursor_at, id: last.id }) : null,
-    count,
+    count: total,
   };
 }
 
