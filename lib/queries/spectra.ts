@@ -104,12 +104,17 @@ const EMPTY: SpectrumPage = { rows: [], next: null, count: { value: 0, exact: tr
 /**
  * One page of the spectra the actor reads (its groups' projects, projects and series shared
  * with it), newest first, narrowed by the search, with a count that stays fast (fastCount).
+ * Null when the search names a project the actor does not read as a whole (a member's or one
+ * shared as a project; answered as not found).
  */
-export async function listSpectra(actor: Actor, search: SpectrumSearch): Promise<SpectrumPage> {
+export async function listSpectra(actor: Actor, search: SpectrumSearch): Promise<SpectrumPage | null> {
   models();
   const scope = await readableScope(actor);
-  const projectIds = [...new Set([...scope.memberProjectIds, ...scope.sharedProjectIds])];
+  const readable = [...new Set([...scope.memberProjectIds, ...scope.sharedProjectIds])];
   const seriesIds = scope.sharedSeriesIds;
+  if (search.project && !readable.includes(search.project)) return null;
+  // a project filter narrows the index ranges walked to that project's
+  const projectIds = search.project ? [search.project] : readable;
   if (projectIds.length === 0 && seriesIds.length === 0) return EMPTY;
 
   const { listSql, count, params } = spectrumListSql({ projectIds, seriesIds }, search);

@@ -40,6 +40,6 @@ export async function listSavedSearches(actor: Actor): Promise<SavedSearch[]> {
     const parsed = spectrumSearchSchema.safeParse(Object.fromEntries(new URLSearchParams(s.query)));
     if (!parsed.success) return { ...s, count: null };
     const page = await listSpectra(actor, { ...parsed.data, after: undefined, limit: 1 });
-    return { ...s, count: page.count };
+    return { ...s, count: page?.count ?? { value: 0, exact: true } };
   }));
 }

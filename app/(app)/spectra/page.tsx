@@ -15,6 +15,8 @@ import type { Technique } from "@/models/Spectrum";
 
 export const metadata: Metadata = { title: "Spectra" };
 
+const NOTHING: SpectrumPage = { rows: [], next: null, count: { value: 0, exact: true } };
+
 export default async function SpectraPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const actor = await requireActor("/spectra");
   const values = queryObject(await searchParams);
@@ -22,7 +24,7 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
   const error = parsed.success ? null : { field: String(parsed.error.issues[0]?.path[0] ?? "q"), message: `${String(parsed.error.issues[0]?.path[0] ?? "search")}: ${parsed.error.issues[0]?.message ?? "not valid"}` };
   const search = parsed.success ? parsed.data : null;
   const [page, choices] = await Promise.all([
-    search ? listSpectra(actor, search) : Promise.resolve<SpectrumPage>({ rows: [], next: null, count: { value: 0, exact: true } }),
+    search ? listSpectra(actor, search).then((p) => p ?? NOTHING) : Promise.resolve(NOTHING),
     searchChoices(actor, search?.sample),
   ]);
   const filtered = search ? hasFilters(search) : true;

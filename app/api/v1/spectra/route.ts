@@ -18,6 +18,7 @@ const KNOWN_FIELDS = new Set<string>(["file", ...INGEST_FIELDS]);
 export const GET = withActor(async (request, { actor }) => {
   const search = spectrumSearchSchema.parse(queryObject(new URL(request.url).searchParams));
   const page = await listSpectra(actor, search);
+  if (!page) throw new ApiError(404, "not-found", "project was not found.", "project");
   const nextQuery = page.next ? searchQueryString(search, { after: page.next }) : null;
   return NextResponse.json(
     {
