@@ -11,7 +11,7 @@ export function SavedSearchList({ searches }: { searches: SavedSearch[] }) {
         {searches.map((s) => (
           <li key={s.id} className="flex items-center justify-between px-4 py-2 text-sm">
             <Link className="font-medium text-glow-deep hover:underline" href={`/spectra?${s.query}`}>{s.name}</Link>
-            <span className="tabular text-ink-soft">{s.count ? `${countText(s.count)} spectra` : "no longer valid: open it and save again"}</span>
+            <span className="tabular text-ink-soft">{s.count ? `${countText(s.count)} ${s.count.exact && s.count.value === 1 ? "spectrum" : "spectra"}` : "no longer valid: open it and save again"}</span>
           </li>
         ))}
       </ul>

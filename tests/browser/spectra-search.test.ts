@@ -59,7 +59,7 @@ describe("spectra search in the browser", () => {
     await page.goto(url("/"));
     const entry = page.getByRole("region", { name: "Saved searches" }).getByRole("listitem").filter({ hasText: searchName });
     await entry.waitFor();
-    expect(await entry.innerText()).toContain("1 spectra");
+    expect(await entry.innerText()).toContain("1 spectrum");
     await screenshot(page, "overview-saved-search");
     await entry.getByRole("link", { name: searchName }).click();
     await page.waitForURL(/\/spectra\?/);
@@ -74,7 +74,7 @@ describe("spectra search in the browser", () => {
     const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
     await signInThroughForm(page, DEMO.lead);
     await page.goto(url(`/spectra?project=${fixture.projectId}&band=first-exciton&bandMin=570`));
-    const alert = page.getByRole("alert");
+    const alert = page.getByRole("search", { name: "Search spectra" }).getByRole("alert");
     await alert.waitFor();
     expect(await alert.innerText()).toMatch(/bandMin: a band search needs both bandMin and bandMax/);
     expect(await page.getByLabel("Band from").getAttribute("aria-invalid")).toBe("true");
