@@ -14,7 +14,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: "/spectra", label: "Spectra", hint: "Every stored spectrum", roles: MEMBERS },
   { href: "/series", label: "Series", hint: "Titrations and other series", roles: ALL },
   { href: "/review", label: "Review", hint: "Flagged signatures to decide", roles: ["lead"] },
-  { href: "/stewardship", label: "Stewardship", hint: "Retention, holds, sharing, audit", roles: ["steward"] },
+  { href: "/stewardship", label: "Data care", hint: "Clean-up, keep rules, holds, sharing", roles: ["steward"] },
   { href: "/settings", label: "Settings", hint: "Tokens, notifications, outbox", roles: ALL },
 ];
 

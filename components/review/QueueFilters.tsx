@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { SIGNATURE_KINDS } from "@/models/Signature";
 import { KIND_LABELS } from "@/lib/signature-labels";
+import { ISO_DAY_PATTERN } from "@/lib/format/dates";
 
 const select = "rounded-md border border-stone-300 bg-white px-2 py-1.5 text-sm";
 
@@ -44,10 +45,10 @@ export function QueueFilters({ values, projects, samples, error }: {
         <input name="minSignificance" type="number" min={0} step="any" defaultValue={values.minSignificance ?? ""} className={`${select} w-28`} {...invalid("minSignificance")} />
       </label>
       <label className="text-xs text-ink-soft">Flagged from<br />
-        <input name="from" type="date" defaultValue={values.from ?? ""} className={select} {...invalid("from")} />
+        <input name="from" type="text" inputMode="numeric" placeholder="YYYY-MM-DD" pattern={ISO_DAY_PATTERN} title="A date as YYYY-MM-DD" defaultValue={values.from ?? ""} className={select} {...invalid("from")} />
       </label>
       <label className="text-xs text-ink-soft">to<br />
-        <input name="to" type="date" defaultValue={values.to ?? ""} className={select} {...invalid("to")} />
+        <input name="to" type="text" inputMode="numeric" placeholder="YYYY-MM-DD" pattern={ISO_DAY_PATTERN} title="A date as YYYY-MM-DD" defaultValue={values.to ?? ""} className={select} {...invalid("to")} />
       </label>
       {values.sort && <input type="hidden" name="sort" value={values.sort} />}
       {values.dir && <input type="hidden" name="dir" value={values.dir} />}

@@ -7,4 +7,4 @@ export function magnitudeText(i: { fraction: number | null; shiftMeV: number | n
   return "—";
 }
 
-export const dateText = (iso: string) => new Date(iso).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" }) + " UTC";
+export { formatWhen as dateText } from "@/lib/format/dates";

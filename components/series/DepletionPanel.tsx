@@ -160,7 +160,7 @@ export function DepletionPanel({ seriesId, projectName, variableName, variableUn
               <p className="mt-1 text-xs text-ink-soft">
                 How to link one: <Link className="text-glow-deep hover:underline" href="/upload">upload</Link> the absorption spectrum of each point&apos;s supernatant
                 to {projectName || "this series' project"} without choosing a series, then choose it below beside its point
-                {mayWrite ? "" : " (a spectroscopist or lead of the group does this)"}; scripts can link with POST /api/v1/series/{"{id}"}/supernatants.
+                {mayWrite ? "" : " (a spectroscopist or lead of the group does this)"}.
                 Until then, <button type="button" className="text-glow-deep hover:underline" onClick={() => setSource("typed")}>type the absorbances in</button>.
               </p>
             </div>

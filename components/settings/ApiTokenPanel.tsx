@@ -4,6 +4,7 @@ import { useActionState } from "react";
 import { createApiToken, revokeApiToken } from "@/app/(app)/settings/actions";
 import { initialActionState } from "@/lib/actions/protected-state";
 import { inputClass } from "@/components/forms/Field";
+import { formatWhen } from "@/lib/format/dates";
 
 type Token = { id: string; name: string; prefix: string; createdAt: string; lastUsedAt: string | null; revokedAt: string | null };
 
@@ -42,7 +43,7 @@ export function ApiTokenPanel({ tokens }: { tokens: Token[] }) {
           {tokens.map((t) => (
             <li key={t.id} className="flex items-center justify-between px-3 py-2 text-sm">
               <span><span className="font-medium">{t.name}</span> <code className="text-xs text-ink-soft">{t.prefix}…</code>
-                <span className="ml-2 text-xs text-ink-faint">{t.revokedAt ? "revoked" : t.lastUsedAt ? `last used ${new Date(t.lastUsedAt).toLocaleString("en-GB")}` : "never used"}</span></span>
+                <span className="ml-2 text-xs text-ink-faint">{t.revokedAt ? "revoked" : t.lastUsedAt ? `last used ${formatWhen(t.lastUsedAt)}` : "never used"}</span></span>
               {!t.revokedAt && <RevokeButton id={t.id} />}
             </li>
           ))}

@@ -2,6 +2,7 @@ import Link from "next/link";
 import { SPECTRUM_STATUSES, TECHNIQUES, type Technique } from "@/models/Spectrum";
 import { REVIEW_STATES, SIGNATURE_KINDS } from "@/models/Signature";
 import { KIND_LABELS } from "@/lib/signature-labels";
+import { ISO_DAY_PATTERN } from "@/lib/format/dates";
 import { BAND_UNITS, type BandUnit } from "@/lib/search/bandRangeEv";
 import { BAND_KINDS, type BandKind } from "@/lib/search/spectrumSearchQuery";
 import type { SearchChoices } from "@/lib/search/searchChoices";
@@ -56,10 +57,10 @@ export function SpectrumSearchForm({ values, choices, error }: {
           </select>
         </label>
         <label className={label}>Stored from<br />
-          <input name="from" type="date" defaultValue={v("from")} className={control} {...invalid("from")} />
+          <input name="from" type="text" inputMode="numeric" placeholder="YYYY-MM-DD" pattern={ISO_DAY_PATTERN} title="A date as YYYY-MM-DD" defaultValue={v("from")} className={`${control} w-32`} {...invalid("from")} />
         </label>
         <label className={label}>to<br />
-          <input name="to" type="date" defaultValue={v("to")} className={control} {...invalid("to")} />
+          <input name="to" type="text" inputMode="numeric" placeholder="YYYY-MM-DD" pattern={ISO_DAY_PATTERN} title="A date as YYYY-MM-DD" defaultValue={v("to")} className={`${control} w-32`} {...invalid("to")} />
         </label>
         <label className={label}>State<br />
           <select name="status" defaultValue={v("status")} aria-label="Status" className={control} {...invalid("status")}>

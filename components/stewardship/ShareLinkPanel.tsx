@@ -5,6 +5,7 @@ import { shareLinkAction } from "@/app/(app)/stewardship/actions";
 import { initialActionState } from "@/lib/actions/protected-state";
 import { inputClass } from "@/components/forms/Field";
 import { ActionForm } from "./ActionForm";
+import { formatWhen } from "@/lib/format/dates";
 
 type Target = { type: "project" | "series"; id: string; label: string };
 type LinkRow = {
@@ -13,7 +14,6 @@ type LinkRow = {
 };
 
 /** UTC, the same on the server and in the browser (and the zone the expiry is entered in). */
-const utc = (iso: string) => `${iso.slice(0, 16).replace("T", " ")} UTC`;
 
 const STATE_CLASS: Record<LinkRow["state"], string> = {
   "in force": "bg-leaf-soft text-leaf",
@@ -82,8 +82,8 @@ export function ShareLinkPanel({ targets, links }: { targets: Target[]; links: L
                 <tr key={l.id} className="border-t border-stone-100" data-testid="share-link-row">
                   <td className="whitespace-nowrap px-3 py-1.5"><code className="text-xs text-ink-soft">/shared/{l.prefix || "?"}…</code></td>
                   <td className="px-3 py-1.5"><span className="text-xs uppercase text-ink-soft">{l.targetType}</span> {l.targetLabel}</td>
-                  <td className="px-3 py-1.5">{utc(l.createdAt)}{l.createdBy && <span className="block text-xs text-ink-soft">{l.createdBy}</span>}</td>
-                  <td className="px-3 py-1.5">{l.expiresAt ? utc(l.expiresAt) : "until revoked"}</td>
+                  <td className="px-3 py-1.5">{formatWhen(l.createdAt)}{l.createdBy && <span className="block text-xs text-ink-soft">{l.createdBy}</span>}</td>
+                  <td className="px-3 py-1.5">{l.expiresAt ? formatWhen(l.expiresAt) : "until revoked"}</td>
                   <td className="whitespace-nowrap px-3 py-1.5"><span className={`rounded-full px-2 py-0.5 text-xs font-medium ${STATE_CLASS[l.state]}`}>{l.state}</span></td>
                   <td className="px-3 py-1.5 text-right">
                     {l.state === "in force" && (

@@ -4,6 +4,7 @@ import { useCallback, useMemo, useRef, useState } from "react";
 import { ingestMetadataSchema } from "@/lib/ingest/metadata";
 import type { UploadChoices } from "@/lib/ingest/queries";
 import { LIGHT_CAUTION } from "@/lib/hazards";
+import { formatBytes } from "@/lib/format/bytes";
 import { BatchForm, EMPTY_VALUES, type BatchValues } from "./BatchForm";
 import type { PickedFile } from "./collectFiles";
 import { DropZone } from "./DropZone";
@@ -22,11 +23,6 @@ type Item = {
 const PARALLEL = 3;
 let counter = 0;
 
-function formatBytes(n: number): string {
-  if (n < 1024) return `${n} B`;
-  if (n < 1024 * 1024) return `${(n / 1024).toFixed(1)} KiB`;
-  return `${(n / 1024 / 1024).toFixed(1)} MiB`;
-}
 
 /** Drop files, describe the batch once, watch every file go through upload and analysis. */
 export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices; maxBytes: number }) {

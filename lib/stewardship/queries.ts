@@ -2,7 +2,7 @@ import { Op } from "sequelize";
 import type { Actor } from "@/lib/auth/actor";
 import { canManageMembers, stewardGroupIds } from "@/lib/auth/access";
 import { selectRows } from "@/lib/db";
-import { Invitation, LegalHold, Membership, Project, RetentionFlag, RetentionPolicy, Series, Share, User, models } from "@/models";
+import { Invitation, LegalHold, Membership, Project, RetentionPolicy, Series, Share, User, models } from "@/models";
 import { describeProtection, planSweep } from "./planSweep";
 import { loadSnapshot } from "./snapshot";
 import { DAY_MS, type DataClass, type PolicyRule, type SweepPlan } from "./types";
@@ -110,15 +110,57 @@ export async function holdTargetOptions(actor: Actor): Promise<HoldTargetOption[
   return rows;
 }
 
-export type FlagRow = { id: string; targetType: string; targetId: string; label: string; projectName: string; dataClass: DataClass; flaggedAt: string };
+/** A stored item whose keep period ended under a "flag" rule, with what it belongs to and the rule that flagged it. */
+export type CleanupItem = {
+  id: string;
+  targetType: string;
+  label: string;
+  projectName: string;
+  dataClass: DataClass;
+  flaggedAt: string;
+  storedAt: string | null;
+  spectrumId: string | null;
+  sample: { id: string; name: string } | null;
+  series: { id: string; name: string } | null;
+  rule: { keepDays: number; dataClass: DataClass } | null;
+};
 
-export async function listOpenFlags(actor: Actor): Promise<FlagRow[]> {
-  models();
+export async function listCleanupDue(actor: Actor): Promise<CleanupItem[]> {
   const groups = stewardGroupIds(actor);
   if (!groups.length) return [];
-  const rows = await RetentionFlag.findAll({ where: { groupId: { [Op.in]: groups }, decision: null }, order: [["flaggedAt", "ASC"]], limit: 500 });
-  const projects = new Map((await Project.findAll({ where: { groupId: { [Op.in]: groups } }, attributes: ["id", "name"] })).map((p) => [p.id, p.name]));
-  return rows.map((r) => ({ id: r.id, targetType: r.targetType, targetId: r.targetId, label: r.label, projectName: projects.get(r.projectId) ?? "", dataClass: r.dataClass, flaggedAt: r.flaggedAt.toISOString() }));
+  const rows = await selectRows<{
+    id: string; target_type: string; label: string; project_name: string; data_class: DataClass; flagged_at: Date; stored_at: Date | null;
+    spectrum_id: string | null; sample_id: string | null; sample_name: string | null; series_id: string | null; series_name: string | null;
+    keep_days: number | null; policy_class: DataClass | null;
+  }>(
+    `SELECT f.id, f.target_type, f.label, p.name AS project_name, f.data_class, f.flagged_at, s.created_at AS stored_at,
+            s.id AS spectrum_id, sa.id AS sample_id, sa.name AS sample_name, se.id AS series_id, se.name AS series_name,
+            rp.keep_days, rp.data_class AS policy_class
+     FROM retention_flags f
+     JOIN projects p ON p.id = f.project_id
+     LEFT JOIN retention_policies rp ON rp.id = f.policy_id
+     LEFT JOIN analysis_runs ar ON f.target_type = 'analysis-run' AND ar.id = f.target_id
+     LEFT JOIN spectra s ON s.id = CASE WHEN f.target_type = 'spectrum' THEN f.target_id ELSE ar.spectrum_id END
+     LEFT JOIN samples sa ON sa.id = s.sample_id
+     LEFT JOIN series se ON se.id = s.series_id
+     WHERE f.group_id IN (:groups) AND f.decision IS NULL
+     ORDER BY f.flagged_at ASC
+     LIMIT 500`,
+    { groups },
+  );
+  return rows.map((r) => ({
+    id: r.id,
+    targetType: r.target_type,
+    label: r.label,
+    projectName: r.project_name,
+    dataClass: r.data_class,
+    flaggedAt: new Date(r.flagged_at).toISOString(),
+    storedAt: r.stored_at ? new Date(r.stored_at).toISOString() : null,
+    spectrumId: r.spectrum_id,
+    sample: r.sample_id ? { id: r.sample_id, name: r.sample_name ?? "" } : null,
+    series: r.series_id ? { id: r.series_id, name: r.series_name ?? "" } : null,
+    rule: r.keep_days !== null && r.policy_class ? { keepDays: r.keep_days, dataClass: r.policy_class } : null,
+  }));
 }
 
 // --- members, invitations and shares ---

@@ -36,7 +36,7 @@ describe("pages as the people who use them see them", () => {
   it("a data steward reads the audit trail, including sign-ins", async () => {
     const page = await demo.browser.newPage({ viewport: { width: 1360, height: 900 } });
     await signInThroughForm(page, DEMO.steward);
-    await expectPage(page, "/stewardship", "Stewardship", "steward-decisions");
+    await expectPage(page, "/stewardship", "Clean-up due", "steward-cleanup-due");
     await expectPage(page, "/stewardship/audit", "Audit trail", "steward-audit");
     expect(await page.getByTestId("audit-table").textContent()).toContain("sign-in");
     await page.close();

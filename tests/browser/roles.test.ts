@@ -7,7 +7,7 @@ import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser
 const EXPECTED_NAV: Record<keyof typeof DEMO, string[]> = {
   lead: ["Overview", "Upload", "Samples", "Spectra", "Series", "Review", "Settings"],
   spectroscopist: ["Overview", "Upload", "Samples", "Spectra", "Series", "Settings"],
-  steward: ["Overview", "Samples", "Spectra", "Series", "Stewardship", "Settings"],
+  steward: ["Overview", "Samples", "Spectra", "Series", "Data care", "Settings"],
   collaborator: ["Overview", "Series", "Settings"],
   otherGroup: ["Overview", "Upload", "Samples", "Spectra", "Series", "Settings"],
 };

@@ -6,6 +6,7 @@ import { url } from "../helpers/app";
 import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 import { createLab, createSample, createSeries, type Lab } from "../helpers/fixtures";
 import { storedSpectrum } from "../integration/stewardship-fixtures";
+import { formatWhen } from "@/lib/format/dates";
 
 // Sources: HTTP status codes as RFC 9110 defines them (200, 201, 304, 400, 401, 403, 404, 409, 413, 415, 422, 503);
 // every other number checked here is a count or value this test itself created (known truth of its fixtures).
@@ -51,7 +52,7 @@ it("steward creates a link, an anonymous visitor reads the series, revocation en
   await expect.poll(() => row.count()).toBe(1);
   expect(await row.textContent()).toContain(`/shared/${token.slice(0, 6)}…`);
   expect(await row.textContent()).toContain("in force");
-  expect(await row.textContent()).toContain(`${tomorrow.replace("T", " ")} UTC`);
+  expect(await row.textContent()).toContain(formatWhen(`${tomorrow}:00Z`)); // the one on-screen style, e.g. "3 Dec 2026, 13:03 UTC"
   await screenshot(page, "stewardship-share-link-created");
 
   // Shown once: after a reload only the prefix is left.

@@ -27,7 +27,8 @@ export async function signInThroughForm(page: Page, email: string, password = DE
   await page.getByLabel("E-mail").fill(email);
   await page.getByLabel("Password").fill(password);
   await page.getByRole("button", { name: "Sign in" }).click();
-  await page.getByRole("navigation", { name: "Main" }).waitFor({ timeout: 30_000 });
+  // The rail on wide screens, the menu button on phones.
+  await page.locator('nav[aria-label="Main"]:visible, button[aria-controls="mobile-menu"]:visible').first().waitFor({ timeout: 30_000 });
 }
 
 export async function screenshot(page: Page, name: string): Promise<string> {

@@ -89,7 +89,7 @@ describe("share link for a series", () => {
     expect(html).toContain(a2.fileName);
     expect(html).not.toContain(b1.fileName);
     expect(html).toContain(`Read-only link shared by <strong>${lab.group.name}</strong>`);
-    expect(html).toMatch(/expires \d{4}-\d{2}-\d{2} \d{2}:\d{2} UTC/);
+    expect(html).toMatch(/expires \d{1,2} [A-Z][a-z]{2} \d{4}, \d{2}:\d{2} UTC/);
     expect(html).toContain("Safety cautions");
     expect(html).toMatch(/cadmium/i);
     expect(html).toMatch(/<meta name="robots" content="noindex, nofollow/);

@@ -12,8 +12,8 @@ describe("navigation by role", () => {
   it("gives review to leads only and stewardship to stewards only", () => {
     expect(navFor(actorWith("lead")).map((i) => i.label)).toContain("Review");
     expect(navFor(actorWith("spectroscopist")).map((i) => i.label)).not.toContain("Review");
-    expect(navFor(actorWith("steward")).map((i) => i.label)).toContain("Stewardship");
-    expect(navFor(actorWith("lead")).map((i) => i.label)).not.toContain("Stewardship");
+    expect(navFor(actorWith("steward")).map((i) => i.label)).toContain("Data care");
+    expect(navFor(actorWith("lead")).map((i) => i.label)).not.toContain("Data care");
   });
 
   it("gives a collaborator no upload, samples or spectra", () => {
@@ -22,7 +22,7 @@ describe("navigation by role", () => {
 
   it("joins the entries of every group a person belongs to", () => {
     const labels = navFor(actorWith("collaborator", "steward")).map((i) => i.label);
-    expect(labels).toContain("Stewardship");
+    expect(labels).toContain("Data care");
     expect(labels).toContain("Spectra");
   });
 

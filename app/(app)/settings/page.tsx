@@ -6,6 +6,7 @@ import { User, models } from "@/models";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { ApiTokenPanel } from "@/components/settings/ApiTokenPanel";
 import { NotificationForm } from "@/components/settings/NotificationForm";
+import { formatWhen } from "@/lib/format/dates";
 
 export const metadata: Metadata = { title: "Settings" };
 
@@ -48,7 +49,7 @@ export default async function SettingsPage() {
                   {outbox.map((m) => (
                     <li key={m.id} className="py-2 text-sm">
                       <details>
-                        <summary className="cursor-pointer"><span className="font-medium">{m.subject || "(no subject)"}</span> <span className="text-ink-soft">to {m.to.join(", ")} · {new Date(m.receivedAt).toLocaleString("en-GB")}</span></summary>
+                        <summary className="cursor-pointer"><span className="font-medium">{m.subject || "(no subject)"}</span> <span className="text-ink-soft">to {m.to.join(", ")} · {formatWhen(m.receivedAt)}</span></summary>
                         <pre className="mt-2 whitespace-pre-wrap rounded bg-stone-50 p-2 text-xs">{m.body}</pre>
                       </details>
                     </li>

@@ -16,7 +16,11 @@ import { Spectrum, models } from "@/models";
 export const deleteSpectrumAction = protectedAction(
   z.object({
     spectrumId: z.string({ error: "spectrumId: required." }).uuid("spectrumId: not a valid id."),
-    confirm: z.literal("delete", { error: "confirm: type delete to confirm." }),
+    confirm: z
+      .string({ error: "confirm: type delete to confirm." })
+      .trim()
+      .toLowerCase()
+      .pipe(z.literal("delete", { error: "confirm: type delete to confirm." })),
   }),
   async (input, actor) => {
     models();

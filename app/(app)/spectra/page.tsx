@@ -12,6 +12,7 @@ import { StatusBadge } from "@/components/ui/StatusBadge";
 import { SaveSearchForm } from "@/components/spectra/SaveSearchForm";
 import { SpectrumSearchForm, TECHNIQUE_LABELS } from "@/components/spectra/SpectrumSearchForm";
 import type { Technique } from "@/models/Spectrum";
+import { formatWhen } from "@/lib/format/dates";
 
 export const metadata: Metadata = { title: "Spectra" };
 
@@ -59,7 +60,7 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
                   <td className="tabular px-3 py-2 text-right">{s.firstExcitonNm === null ? "—" : `${s.firstExcitonNm.toFixed(0)} nm`}</td>
                   <td className="tabular px-3 py-2 text-right">{s.diameterNm === null ? "—" : `${s.diameterNm.toFixed(1)} nm`}</td>
                   <td className="px-3 py-2"><StatusBadge status={s.status} /></td>
-                  <td className="tabular px-3 py-2 text-ink-soft">{new Date(s.createdAt).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}</td>
+                  <td className="tabular px-3 py-2 text-ink-soft">{formatWhen(s.createdAt)}</td>
                 </tr>
               ))}
             </tbody>

@@ -1,7 +1,8 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { requireActor } from "@/lib/auth/actor";
 import { stewardGroupIds } from "@/lib/auth/access";
-import { DATA_CLASS_LABELS, listOpenFlags } from "@/lib/stewardship/queries";
+import { DATA_CLASS_LABELS, listCleanupDue, type CleanupItem } from "@/lib/stewardship/queries";
 import { ActionForm } from "@/components/stewardship/ActionForm";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
 import { formatDate } from "@/components/stewardship/format";
@@ -9,35 +10,68 @@ import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { decideFlag } from "./actions";
 
-export const metadata: Metadata = { title: "Stewardship" };
+export const metadata: Metadata = { title: "Clean-up due" };
 
-export default async function StewardshipPage() {
+function BelongsTo({ item }: { item: CleanupItem }) {
+  return (
+    <p className="text-xs text-ink-soft">
+      {item.projectName}
+      {item.sample && (
+        <>
+          {" · sample "}
+          <Link href={`/samples/${item.sample.id}`} className="underline decoration-stone-300 hover:text-ink">{item.sample.name}</Link>
+        </>
+      )}
+      {item.series && (
+        <>
+          {" · series "}
+          <Link href={`/series/${item.series.id}`} className="underline decoration-stone-300 hover:text-ink">{item.series.name}</Link>
+        </>
+      )}
+    </p>
+  );
+}
+
+function CleanupCard({ item }: { item: CleanupItem }) {
+  return (
+    <li className="flex flex-col gap-3 rounded-lg border border-stone-200 bg-white p-4 sm:flex-row sm:items-start sm:justify-between" data-testid="cleanup-item">
+      <div className="min-w-0">
+        <p className="font-medium">
+          {item.spectrumId ? <Link href={`/spectra/${item.spectrumId}`} className="hover:underline">{item.label}</Link> : item.label}
+          <span className="ml-2 text-xs font-normal text-ink-soft">{DATA_CLASS_LABELS[item.dataClass]}</span>
+        </p>
+        <BelongsTo item={item} />
+        <p className="mt-1 text-xs text-ink-soft">
+          {item.rule ? `Due under the rule “keep ${DATA_CLASS_LABELS[item.rule.dataClass].toLowerCase()} ${item.rule.keepDays} days, then ask”` : "The rule that flagged it has since been removed"}
+          {item.storedAt ? ` · stored ${formatDate(item.storedAt)}` : ""} · due since {formatDate(item.flaggedAt)}
+        </p>
+      </div>
+      <div className="flex shrink-0 gap-2">
+        <ActionForm action={decideFlag} submit="Keep it" danger={false} className="flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={item.id} /><input type="hidden" name="decision" value="keep" /></ActionForm>
+        <ActionForm action={decideFlag} submit="Delete" danger className="flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={item.id} /><input type="hidden" name="decision" value="delete" /></ActionForm>
+      </div>
+    </li>
+  );
+}
+
+export default async function CleanupDuePage() {
   const actor = await requireActor("/stewardship");
-  if (stewardGroupIds(actor).length === 0) return <StewardOnly what="Stewardship" />;
-  const flags = await listOpenFlags(actor);
+  if (stewardGroupIds(actor).length === 0) return <StewardOnly what="Data care" />;
+  const items = await listCleanupDue(actor);
   return (
     <>
-      <PageHeader title="Stewardship" subtitle="Items whose retention period ended under a “flag” policy wait here for your decision. Nothing is deleted until you choose." />
-      {flags.length === 0 ? (
-        <EmptyState title="Nothing to decide">When a policy set to “flag for me” expires something, it appears here.</EmptyState>
+      <PageHeader
+        title="Clean-up due"
+        subtitle="Data whose keep period has ended under a rule that asks you first. Each item shows its sample, series and the rule; nothing is deleted until you choose."
+      />
+      {items.length === 0 ? (
+        <EmptyState title="No clean-up due">When a keep rule set to “ask me” reaches its end for some data, the data appears here with its sample and series.</EmptyState>
       ) : (
-        <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
-          <table className="w-full text-sm" data-testid="flags-table">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">Item</th><th className="px-3 py-2">Project</th><th className="px-3 py-2">Class</th><th className="px-3 py-2">Flagged</th><th className="px-3 py-2">Decision</th></tr></thead>
-            <tbody>
-              {flags.map((f) => (
-                <tr key={f.id} className="border-t border-stone-100">
-                  <td className="px-3 py-1.5 font-medium">{f.label}</td><td className="px-3 py-1.5">{f.projectName}</td>
-                  <td className="px-3 py-1.5">{DATA_CLASS_LABELS[f.dataClass]}</td><td className="px-3 py-1.5">{formatDate(f.flaggedAt)}</td>
-                  <td className="flex gap-2 px-3 py-1.5">
-                    <ActionForm action={decideFlag} submit="Keep" danger={false} className="flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={f.id} /><input type="hidden" name="decision" value="keep" /></ActionForm>
-                    <ActionForm action={decideFlag} submit="Delete" danger className="flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={f.id} /><input type="hidden" name="decision" value="delete" /></ActionForm>
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <ul className="space-y-2" data-testid="cleanup-list">
+          {items.map((item) => (
+            <CleanupCard key={item.id} item={item} />
+          ))}
+        </ul>
       )}
     </>
   );

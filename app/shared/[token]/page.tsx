@@ -6,6 +6,7 @@ import { linkedHazards, linkedProject, resolveShareLink, type ResolvedLink } fro
 import { HazardNotice } from "@/components/ui/HazardNotice";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { Project, Series, models } from "@/models";
+import { formatWhen } from "@/lib/format/dates";
 
 // The public, read-only view of one shared project or series. The share is looked up by
 // the token's sha256 on every request: revoked, expired or unknown links get the same
@@ -15,13 +16,12 @@ export const metadata: Metadata = { title: "Shared data" };
 export const dynamic = "force-dynamic";
 
 const pct = (v: number | null) => (v === null ? "—" : `${(v * 100).toFixed(1)} %`);
-const utc = (d: Date) => `${d.toISOString().slice(0, 16).replace("T", " ")} UTC`;
 
 function Banner({ link }: { link: ResolvedLink }) {
   return (
     <p className="mb-4 rounded-md border border-glow/30 bg-glow-soft px-3 py-2 text-sm" data-testid="shared-banner">
       Read-only link shared by <strong>{link.groupName || "a Bandkeep group"}</strong>;{" "}
-      {link.expiresAt ? <>expires {utc(link.expiresAt)}</> : <>no expiry date (it works until the group revokes it)</>}.
+      {link.expiresAt ? <>expires {formatWhen(link.expiresAt)}</> : <>no expiry date (it works until the group revokes it)</>}.
     </p>
   );
 }

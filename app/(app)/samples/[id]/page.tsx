@@ -7,6 +7,7 @@ import { getSample } from "@/lib/queries/samples";
 import { HazardNotice } from "@/components/ui/HazardNotice";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
+import { formatDay } from "@/lib/format/dates";
 
 export const metadata: Metadata = { title: "Sample" };
 
@@ -30,7 +31,7 @@ export default async function SamplePage({ params }: { params: Promise<{ id: str
   ];
   return (
     <>
-      <PageHeader title={sample.name} subtitle={`Registered ${new Date(sample.createdAt).toLocaleDateString("en-GB")}`} />
+      <PageHeader title={sample.name} subtitle={`Registered ${formatDay(sample.createdAt)}`} />
       <div className="mb-6"><HazardNotice flags={sample.hazards} /></div>
       <div className="grid gap-6 lg:grid-cols-2">
         <section className="rounded-lg border border-stone-200 bg-white p-4">

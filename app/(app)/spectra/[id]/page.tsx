@@ -3,6 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireActor } from "@/lib/auth/actor";
 import { LIGHT_CAUTION } from "@/lib/hazards";
+import { formatBytes } from "@/lib/format/bytes";
 import { getSpectrumDetail, type RunSummary } from "@/lib/queries/spectrum-detail";
 import { isDisplayAxis, type DisplayAxis } from "@/lib/spectrum-view/axis";
 import { THRESHOLD_FIELDS } from "@/lib/spectrum-view/rerunSchema";
@@ -14,10 +15,10 @@ import { HazardNotice } from "@/components/ui/HazardNotice";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { rerunAnalysis } from "./actions";
+import { formatWhen } from "@/lib/format/dates";
 
 export const metadata: Metadata = { title: "Spectrum" };
 
-const when = (iso: string | null) => (iso ? new Date(iso).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" }) : "—");
 const RUN_STATES: Record<string, string> = { queued: "waiting", running: "running", done: "finished", failed: "failed" };
 
 function Panel({ title, children, testId }: { title: string; children: React.ReactNode; testId?: string }) {
@@ -37,7 +38,7 @@ function RunLine({ run, spectrumId }: { run: RunSummary; spectrumId: string }) {
         <span className="text-xs text-ink-soft">{RUN_STATES[run.status] ?? run.status} · engine {run.engineVersion}</span>
       </div>
       <div className="flex items-center justify-between gap-2 text-xs text-ink-faint">
-        <span>{when(run.finishedAt ?? run.createdAt)}{run.requestedBy ? ` · ${run.requestedBy}` : ""}</span>
+        <span>{formatWhen(run.finishedAt ?? run.createdAt)}{run.requestedBy ? ` · ${run.requestedBy}` : ""}</span>
         {run.status === "done" && <a className="text-glow-deep hover:underline" href={`/api/v1/spectra/${spectrumId}/export?format=json&run=${run.id}`}>report JSON</a>}
       </div>
       {run.status === "failed" && run.errorMessage && <p className="text-xs text-red-800">{run.errorMessage}</p>}
@@ -123,9 +124,9 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
           <Panel title="Acquisition">
             <dl className="grid grid-cols-[7rem_1fr] gap-y-1">
               {s.acquisition.map((a) => (<div key={a.label} className="contents"><dt className="text-ink-soft">{a.label}</dt><dd>{a.value}</dd></div>))}
-              <dt className="text-ink-soft">Uploaded</dt><dd>{when(s.createdAt)}</dd>
+              <dt className="text-ink-soft">Uploaded</dt><dd>{formatWhen(s.createdAt)}</dd>
               <dt className="text-ink-soft">sha256</dt><dd className="truncate font-mono text-xs" title={s.sha256}>{s.sha256}</dd>
-              <dt className="text-ink-soft">Size</dt><dd>{(s.sizeBytes / 1024).toFixed(1)} KiB</dd>
+              <dt className="text-ink-soft">Size</dt><dd>{formatBytes(s.sizeBytes)}</dd>
             </dl>
           </Panel>
           <Panel title="Analysis provenance" testId="provenance">
@@ -134,7 +135,7 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
                 <dt className="text-ink-soft">Run</dt><dd className="font-mono text-xs" title={shown.id}>{shown.id.slice(0, 8)}</dd>
                 <dt className="text-ink-soft">Engine</dt><dd>{shown.engineVersion}</dd>
                 <dt className="text-ink-soft">Asked by</dt><dd>{shown.requestedBy ?? "upload"}</dd>
-                <dt className="text-ink-soft">Finished</dt><dd>{when(shown.finishedAt)}</dd>
+                <dt className="text-ink-soft">Finished</dt><dd>{formatWhen(shown.finishedAt)}</dd>
                 <dt className="text-ink-soft">Took</dt><dd>{shown.durationMs === null ? "—" : `${shown.durationMs} ms`}</dd>
                 <dt className="text-ink-soft">Noise (σ)</dt><dd className="tabular">{shown.noise === null ? "—" : shown.noise.toExponential(2)}</dd>
                 {p && (

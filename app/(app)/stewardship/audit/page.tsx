@@ -7,8 +7,9 @@ import { formatTime } from "@/components/stewardship/format";
 import { inputClass } from "@/components/forms/Field";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
+import { ISO_DAY_PATTERN } from "@/lib/format/dates";
 
-export const metadata: Metadata = { title: "Audit trail · Stewardship" };
+export const metadata: Metadata = { title: "Audit trail · Data care" };
 
 export default async function AuditPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
   const actor = await requireActor("/stewardship/audit");
@@ -31,8 +32,8 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
         </label>
         <label className="text-sm font-medium">Who<input name="actor" defaultValue={picked.actor} placeholder="e-mail contains…" className={`${inputClass} mt-1 w-48`} /></label>
         <label className="text-sm font-medium">Target<input name="target" defaultValue={picked.target} placeholder="type or id" className={`${inputClass} mt-1 w-48`} /></label>
-        <label className="text-sm font-medium">From<input name="from" type="date" defaultValue={picked.from} className={`${inputClass} mt-1`} /></label>
-        <label className="text-sm font-medium">To<input name="to" type="date" defaultValue={picked.to} className={`${inputClass} mt-1`} /></label>
+        <label className="text-sm font-medium">From<input name="from" type="text" inputMode="numeric" placeholder="YYYY-MM-DD" pattern={ISO_DAY_PATTERN} title="A date as YYYY-MM-DD" defaultValue={picked.from} className={`${inputClass} mt-1`} /></label>
+        <label className="text-sm font-medium">To<input name="to" type="text" inputMode="numeric" placeholder="YYYY-MM-DD" pattern={ISO_DAY_PATTERN} title="A date as YYYY-MM-DD" defaultValue={picked.to} className={`${inputClass} mt-1`} /></label>
         <button className="rounded-md border border-stone-300 bg-white px-3 py-1.5 text-sm">Apply</button>
       </form>
       {errors.length > 0 && <p role="alert" className="mb-3 text-sm text-red-700">{errors.join(" ")}</p>}

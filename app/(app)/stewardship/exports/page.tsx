@@ -5,7 +5,7 @@ import { shareTargetOptions } from "@/lib/stewardship/queries";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
 import { PageHeader } from "@/components/ui/PageHeader";
 
-export const metadata: Metadata = { title: "Exports · Stewardship" };
+export const metadata: Metadata = { title: "Bundles · Data care" };
 
 export default async function ExportsPage() {
   const actor = await requireActor("/stewardship/exports");
@@ -13,7 +13,7 @@ export default async function ExportsPage() {
   const targets = await shareTargetOptions(actor);
   return (
     <>
-      <PageHeader title="Export bundles" subtitle="One zip per project or series: raw files as they arrived, processed data as CSV and JCAMP-DX, analyses as JSON, a manifest with the sha256 of every file, and a README." />
+      <PageHeader title="Bundles" subtitle="One zip per project or series: raw files as they arrived, processed data as CSV and JCAMP-DX, analyses as JSON, a manifest with the sha256 of every file, and a README." />
       <ul className="divide-y divide-stone-100 rounded-lg border border-stone-200 bg-white text-sm" data-testid="exports">
         {targets.map((t) => (
           <li key={t.id} className="flex items-center justify-between px-3 py-2">
@@ -22,7 +22,7 @@ export default async function ExportsPage() {
           </li>
         ))}
       </ul>
-      <p className="mt-2 text-xs text-ink-faint">Scripts: GET /api/v1/exports/series/ID or /api/v1/exports/project/ID with a Bearer token. Anyone who may read the series or project may export it.</p>
+      <p className="mt-2 text-xs text-ink-faint">Anyone who may read the series or project may export it; lab scripts can fetch the same bundles through the HTTP API (see the API guide).</p>
     </>
   );
 }

@@ -10,7 +10,7 @@ import { inputClass } from "@/components/forms/Field";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { liftHold, placeHold } from "../actions";
 
-export const metadata: Metadata = { title: "Legal holds · Stewardship" };
+export const metadata: Metadata = { title: "Holds · Data care" };
 
 export default async function HoldsPage() {
   const actor = await requireActor("/stewardship/holds");
@@ -20,7 +20,7 @@ export default async function HoldsPage() {
   const lifted = holds.filter((h) => h.liftedAt);
   return (
     <>
-      <PageHeader title="Legal holds" subtitle="A hold keeps a project, series, sample or spectrum, and everything within it, from being deleted by anyone or by any policy until you lift it." />
+      <PageHeader title="Holds" subtitle="A hold (for a legal matter, a dispute or a publication under review) keeps a project, series, sample or spectrum, and everything within it, from being deleted by anyone or by any policy until you lift it." />
       <section className="mb-6 rounded-lg border border-stone-200 bg-white p-4">
         <h2 className="text-base font-semibold">Place a hold</h2>
         <ActionForm action={placeHold} submit="Place hold" pendingLabel="Placing…" className="mt-3 flex flex-wrap items-end gap-3" label="Place hold">

@@ -10,7 +10,7 @@ import { inputClass } from "@/components/forms/Field";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { deletePolicy, savePolicy } from "../actions";
 
-export const metadata: Metadata = { title: "Retention · Stewardship" };
+export const metadata: Metadata = { title: "Keep rules · Data care" };
 
 const draftSchema = z.object({
   projectId: z.string().uuid("project: choose a project."),
@@ -53,7 +53,7 @@ export default async function PoliciesPage({ searchParams }: { searchParams: Pro
   const value = (k: string, fallback = "") => search[k] ?? fallback;
   return (
     <>
-      <PageHeader title="Retention" subtitle="How long each project keeps each class of data, and what happens at the end. Legal holds and reference spectra that kept spectra depend on are never deleted." />
+      <PageHeader title="Keep rules" subtitle="How long each project keeps each class of data, and what happens at the end: delete, or ask you first under Clean-up due. Holds and reference spectra that kept spectra depend on are never deleted." />
       {search.saved === "1" && <p role="status" className="mb-4 rounded-md border border-leaf/40 bg-leaf-soft px-3 py-2 text-sm">Policy saved. The next sweep applies it.</p>}
       <section className="mb-6 rounded-lg border border-stone-200 bg-white p-4">
         <h2 className="text-base font-semibold">Set a policy</h2>
@@ -76,7 +76,7 @@ export default async function PoliciesPage({ searchParams }: { searchParams: Pro
           </label>
           <label className="text-sm font-medium">At the end
             <select name="onExpiry" defaultValue={value("onExpiry", "flag")} className={`${inputClass} mt-1`}>
-              <option value="flag">Flag for my decision</option>
+              <option value="flag">Ask me first (Clean-up due)</option>
               <option value="delete">Delete</option>
             </select>
           </label>
@@ -89,7 +89,7 @@ export default async function PoliciesPage({ searchParams }: { searchParams: Pro
               <span className="font-semibold">Dry run, as of now:</span>{" "}
               {draft.data.onExpiry === "delete"
                 ? <>this policy would delete <strong data-testid="dry-run-count">{preview.toDelete.length}</strong> item(s), {formatBytes(preview.bytes)}{draft.data.dataClass !== "processed" ? ", with their analyses" : ""}.</>
-                : <>this policy would flag <strong data-testid="dry-run-count">{preview.toFlag.length}</strong> item(s) for your decision and delete nothing.</>}
+                : <>this rule would put <strong data-testid="dry-run-count">{preview.toFlag.length}</strong> item(s) under Clean-up due for you to decide, and delete nothing.</>}
             </p>
             {draft.data.onExpiry === "delete"
               ? <PreviewList title="Would be deleted" rows={preview.toDelete} empty="Nothing has expired under this policy yet." testId="would-delete" />
@@ -111,7 +111,7 @@ export default async function PoliciesPage({ searchParams }: { searchParams: Pro
                 {policies.map((p) => (
                   <tr key={p.id} className="border-t border-stone-100">
                     <td className="px-3 py-1.5 font-medium">{p.projectName}</td><td className="px-3 py-1.5">{DATA_CLASS_LABELS[p.dataClass]}</td>
-                    <td className="tabular px-3 py-1.5">{p.keepDays} days</td><td className="px-3 py-1.5">{p.onExpiry === "delete" ? "Delete" : "Flag for decision"}</td>
+                    <td className="tabular px-3 py-1.5">{p.keepDays} days</td><td className="px-3 py-1.5">{p.onExpiry === "delete" ? "Delete" : "Ask first"}</td>
                     <td className="px-3 py-1.5 text-ink-soft">{formatDate(p.updatedAt)}</td>
                     <td className="px-3 py-1.5 text-right"><ActionForm action={deletePolicy} submit="Remove" danger className="inline-flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={p.id} /></ActionForm></td>
                   </tr>

@@ -11,8 +11,9 @@ import { formatDate } from "@/components/stewardship/format";
 import { inputClass } from "@/components/forms/Field";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { changeRole, inviteMember, removeMember, revokeInvitation, revokeShare, shareWithCollaborator } from "../actions";
+import { ISO_DAY_PATTERN } from "@/lib/format/dates";
 
-export const metadata: Metadata = { title: "Sharing & members · Stewardship" };
+export const metadata: Metadata = { title: "People & sharing · Data care" };
 
 const ROLES = ["spectroscopist", "lead", "steward", "collaborator"] as const;
 
@@ -26,7 +27,7 @@ export default async function SharingPage() {
   ]);
   return (
     <>
-      <PageHeader title="Sharing & members" subtitle="Members of your groups, invitations by e-mail, and read-only shares with collaborators outside the group. Changes take effect at once." />
+      <PageHeader title="People & sharing" subtitle="Members of your groups, invitations by e-mail, and read-only shares with collaborators outside the group. Changes take effect at once." />
       <section className="mb-6 rounded-lg border border-stone-200 bg-white p-4">
         <h2 className="text-base font-semibold">Invite someone</h2>
         <p className="text-sm text-ink-soft">They get an e-mail with a link that works once within 7 days. A collaborator sees only the project or series you choose, read-only.</p>
@@ -82,7 +83,7 @@ export default async function SharingPage() {
                 {targets.map((t) => <option key={t.id} value={`${t.type}:${t.id}`}>{t.type === "series" ? "Series" : "Project"}: {t.label}</option>)}
               </select>
             </label>
-            <label className="text-sm font-medium">Until (optional)<input name="expiresOn" type="date" className={`${inputClass} mt-1`} /></label>
+            <label className="text-sm font-medium">Until (optional)<input name="expiresOn" type="text" inputMode="numeric" placeholder="YYYY-MM-DD" pattern={ISO_DAY_PATTERN} title="A date as YYYY-MM-DD" className={`${inputClass} mt-1`} /></label>
           </ActionForm>
           {shares.length === 0 ? <p className="text-sm text-ink-soft">Nothing is shared outside the group.</p> : (
             <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">

@@ -6,7 +6,7 @@ import { StewardOnly } from "@/components/stewardship/StewardOnly";
 import { formatBytes, formatDate } from "@/components/stewardship/format";
 import { PageHeader } from "@/components/ui/PageHeader";
 
-export const metadata: Metadata = { title: "Storage · Stewardship" };
+export const metadata: Metadata = { title: "Space used · Data care" };
 
 export default async function StoragePage() {
   const actor = await requireActor("/stewardship/storage");
@@ -15,7 +15,7 @@ export default async function StoragePage() {
   const total = rows.reduce((s, r) => s + r.bytes, 0);
   return (
     <>
-      <PageHeader title="Storage" subtitle={<>Use by project and data class ({formatBytes(total)} in all), and what the policies in force will free — counting today&apos;s holds and dependencies.</>} />
+      <PageHeader title="Space used" subtitle={<>Use by project and data class ({formatBytes(total)} in all), and what the policies in force will free — counting today&apos;s holds and dependencies.</>} />
       <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
         <table className="w-full text-sm" data-testid="storage-table">
           <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft">
