@@ -43,7 +43,7 @@ const who = async (email: string) => {
 
 const lead = await who("lead@scale-g1.test");
 const steward = await who("steward@scale-g1.test");
-const [sample] = await selectRows<{ id: string }>("SELECT s.id FROM samples s JOIN groups g ON g.id = s.group_id WHERE g.slug = 'scale-g1' ORDER BY s.created_at LIMIT 1 OFFSET 100");
+const [sample] = await selectRows<{ id: string }>("SELECT s.id FROM samples s JOIN groups g ON g.id = s.group_id WHERE g.slug = 'scale-g1' ORDER BY s.created_at LIMIT 1 OFFSET 10");
 const [project] = await selectRows<{ id: string }>("SELECT p.id FROM projects p JOIN groups g ON g.id = p.group_id WHERE g.slug = 'scale-g1' ORDER BY p.name LIMIT 1");
 const search = (q: Record<string, string>) => spectrumSearchSchema.parse(q);
 const deep = encodeCursor({ at: "2018-01-01T00:00:00.000000Z", id: "ffffffff-ffff-ffff-ffff-ffffffffffff" });
