@@ -7,6 +7,8 @@ import { listSeries } from "@/lib/queries/series";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { KIND_LABELS } from "@/lib/signature-labels";
+import { listSavedSearches } from "@/lib/search/savedSearches";
+import { SavedSearchList } from "@/components/spectra/SavedSearchList";
 
 export const metadata: Metadata = { title: "Overview" };
 
@@ -43,6 +45,7 @@ export default async function OverviewPage() {
       </>
     );
   }
+  const saved = await listSavedSearches(actor);
   const total = Object.values(overview.spectraByStatus).reduce((a, b) => a + b, 0);
   const writer = actor.memberships.some((m) => canWrite(actor, m.groupId));
   return (
@@ -55,6 +58,7 @@ export default async function OverviewPage() {
         <Stat label="Signatures to review" value={overview.awaitingSignatures} href={actor.memberships.some((m) => m.role === "lead") ? "/review" : undefined} />
         <Stat label="Samples" value={overview.samples} href="/samples" />
       </div>
+      {saved.length > 0 && <SavedSearchList searches={saved} />}
       {total === 0 ? (
         <EmptyState title="No spectra yet" action={writer ? { href: "/upload", label: "Upload instrument exports" } : undefined}>
           Register a sample, then drop its absorption, PL or mid-IR exports. Each spectrum is compared with its parent reference and changes are flagged here.

@@ -3,6 +3,7 @@ import type { Technique } from "@/lib/registry/techniques";
 import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
 import { roleIn } from "@/lib/auth/access";
+import { fastCount } from "@/lib/search/fastCount";
 import type { QueueQuery } from "@/lib/review/schemas";
 import { CURRENT_SIGNATURE } from "@/lib/review/counts";
 import { models } from "@/models";
@@ -18,6 +19,8 @@ export type ReviewItem = {
 export type ReviewQueue = {
   items: ReviewItem[];
   total: number;
+  /** False when `total` is the planner's estimate (a large queue; lib/search/fastCount.ts). */
+  totalExact: boolean;
   page: number;
   pageSize: number;
   pages: number;
@@ -60,7 +63,7 @@ function toItem(r: Row): ReviewItem {
 export async function listReviewQueue(actor: Actor, q: QueueQuery): Promise<ReviewQueue> {
   models();
   const groupIds = leadGroupIds(actor);
-  const empty = { items: [], total: 0, page: q.page, pageSize: q.pageSize, pages: 0, projects: [], samples: [] };
+  const empty = { items: [], total: 0, totalExact: true, page: q.page, pageSize: q.pageSize, pages: 0, projects: [], samples: [] };
   if (groupIds.length === 0) return empty;
   const where = ["p.group_id IN (:groupIds)"];
   const params: Record<string, unknown> = { groupIds };
@@ -76,8 +79,8 @@ export async function listReviewQueue(actor: Actor, q: QueueQuery): Promise<Revi
   const from = `FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
      LEFT JOIN samples sm ON sm.id = s.sample_id WHERE ${where.join(" AND ")}`;
   const dir = q.dir === "asc" ? "ASC" : "DESC";
-  const [countRow] = await selectRows<{ n: string }>(`SELECT count(*) AS n ${from}`, params);
-  const total = Number(countRow?.n ?? 0);
+  const count = await fastCount({ rowsSql: `SELECT 1 ${from}`, estimateSql: `SELECT 1 ${from}` }, params);
+  const total = count.value;
   const rows = await selectRows<Row>(
     `SELECT g.id, g.kind, g.energy_ev, g.fraction, g.shift_mev, g.magnitude, g.unit, g.uncertainty, g.significance, g.review_state, g.spectrum_id, s.file_name,
             s.sample_id, sm.name AS sample_name, p.id AS project_id, p.name AS project_name, g.created_at,
@@ -92,7 +95,7 @@ export async function listReviewQueue(actor: Actor, q: QueueQuery): Promise<Revi
        WHERE sm.group_id IN (:groupIds) ORDER BY sm.name`, { groupIds },
     ),
   ]);
-  return { items: rows.map(toItem), total, page: q.page, pageSize: q.pageSize, pages: Math.ceil(total / q.pageSize), projects, samples };
+  return { items: rows.map(toItem), total, totalExact: count.exact, page: q.page, pageSize: q.pageSize, pages: Math.ceil(total / q.pageSize), projects, samples };
 }
 
 export type ReviewHistoryEntry = {

@@ -1,4 +1,5 @@
 import { QueryTypes, type Transaction } from "sequelize";
+import type { FlagKind } from "@/lib/registry/flagKinds";
 import { config } from "@/lib/config";
 import { selectRows, sequelize } from "@/lib/db";
 import { sendMail } from "@/lib/mail";
@@ -49,7 +50,7 @@ export async function scheduleAllPendingNotices(): Promise<number> {
 
 type PendingRow = {
   id: string; signature_id: string; reviewer_name: string; decision: string; previous_state: string | null; comment: string; origin: string;
-  current_state: string; kind: string; energy_ev: number | null; significance: number; file_name: string;
+  current_state: string; kind: FlagKind; energy_ev: number | null; significance: number; file_name: string;
 };
 
 const STATE_TEXT: Record<string, string> = { awaiting: "awaiting review", confirmed: "confirmed", dismissed: "dismissed" };
@@ -60,7 +61,7 @@ export function composeNotice(name: string, rows: readonly PendingRow[], base: s
   for (const r of rows) bySignature.set(r.signature_id, [...(bySignature.get(r.signature_id) ?? []), r]);
   const changed = [...bySignature.values()].filter((list) => (list[0]!.previous_state ?? "awaiting") !== list[0]!.current_state);
   if (changed.length === 0) return null;
-  const label = (r: PendingRow) => KIND_LABELS[r.kind] ?? r.kind;
+  const label = (r: PendingRow) => KIND_LABELS[r.kind];
   const lines = changed.flatMap((list) => {
     const first = list[0]!;
     const head = `- ${label(first)}${first.energy_ev !== null ? ` at ${first.energy_ev.toFixed(3)} eV` : ""} (${first.significance.toFixed(1)}σ) in ${first.file_name}: ` +

@@ -41,7 +41,11 @@ const signatureId = demoSignature?.id ?? "00000000-0000-4000-8000-000000000000";
 const ROUTES: Record<string, Call[]> = {
   "api/v1/projects": [{ method: "GET", path: () => "/api/v1/projects" }],
   "api/v1/openapi.json": [{ method: "GET", path: () => "/api/v1/openapi.json" }],
-  "api/v1/spectra": [{ method: "POST", path: () => "/api/v1/spectra" }],
+  "api/v1/spectra": [
+    { method: "POST", path: () => "/api/v1/spectra" },
+    // a search naming a project the caller reads nothing of is answered as not found
+    { method: "GET", path: (ids) => `/api/v1/spectra?project=${ids.project.id}` },
+  ],
   "api/v1/spectra/preview": [{ method: "POST", path: () => "/api/v1/spectra/preview" }],
   "api/v1/spectra/[id]": [{ method: "GET", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}` }],
   "api/v1/spectra/[id]/raw": [{ method: "GET", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/raw` }],

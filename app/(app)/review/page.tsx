@@ -53,7 +53,7 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
         <>
           <ReviewQueueTable items={queue.items} headers={headers} />
           <nav aria-label="Pages of the queue" className="mt-2 flex items-center gap-3 text-sm text-ink-soft">
-            <span>{first}–{first + queue.items.length - 1} of {queue.total}</span>
+            <span>{first}–{first + queue.items.length - 1} of {queue.totalExact ? queue.total : `about ${queue.total.toLocaleString("en-GB")}`}</span>
             {queue.page > 1 && <Link className="text-glow-deep hover:underline" href={queueHref(current, { page: queue.page - 1 })}>← Previous</Link>}
             {queue.page < queue.pages && <Link className="text-glow-deep hover:underline" href={queueHref(current, { page: queue.page + 1 })}>Next →</Link>}
           </nav>

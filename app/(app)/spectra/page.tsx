@@ -2,50 +2,64 @@ import type { Metadata } from "next";
 import { TECHNIQUE_SHORT_LABELS } from "@/lib/registry/techniques";
 import Link from "next/link";
 import { requireActor } from "@/lib/auth/actor";
-import { listSpectra } from "@/lib/queries/spectra";
+import { listSpectra, type SpectrumPage } from "@/lib/queries/spectra";
+import { queryObject } from "@/lib/review/schemas";
+import { countText } from "@/lib/search/fastCount";
+import { searchChoices } from "@/lib/search/searchChoices";
+import { hasFilters, searchQueryString, spectrumSearchSchema } from "@/lib/search/spectrumSearchQuery";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
+import { SaveSearchForm } from "@/components/spectra/SaveSearchForm";
+import { SpectrumSearchForm, TECHNIQUE_LABELS } from "@/components/spectra/SpectrumSearchForm";
+import type { Technique } from "@/models/Spectrum";
 import { formatWhen } from "@/lib/format/dates";
 
 export const metadata: Metadata = { title: "Spectra" };
 
+const NOTHING: SpectrumPage = { rows: [], next: null, count: { value: 0, exact: true } };
 
-export default async function SpectraPage({ searchParams }: { searchParams: Promise<{ q?: string; status?: string; page?: string }> }) {
+export default async function SpectraPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const actor = await requireActor("/spectra");
-  const sp = await searchParams;
-  const q = (sp.q ?? "").slice(0, 100);
-  const status = ["queued", "analysing", "analysed", "failed"].includes(sp.status ?? "") ? sp.status : undefined;
-  const { rows, total, page, pages } = await listSpectra(actor, { q, status, page: Number(sp.page) || 1 });
-  const link = (p: number) => `/spectra?${new URLSearchParams({ ...(q ? { q } : {}), ...(status ? { status } : {}), page: String(p) })}`;
+  const values = queryObject(await searchParams);
+  const parsed = spectrumSearchSchema.safeParse(values);
+  const error = parsed.success ? null : { field: String(parsed.error.issues[0]?.path[0] ?? "q"), message: `${String(parsed.error.issues[0]?.path[0] ?? "search")}: ${parsed.error.issues[0]?.message ?? "not valid"}` };
+  const search = parsed.success ? parsed.data : null;
+  const [page, choices] = await Promise.all([
+    search ? listSpectra(actor, search).then((p) => p ?? NOTHING) : Promise.resolve(NOTHING),
+    searchChoices(actor, search?.sample),
+  ]);
+  const filtered = search ? hasFilters(search) : true;
+  const query = search ? searchQueryString(search) : "";
   return (
     <>
-      <PageHeader title="Spectra" subtitle={`${total} stored`} />
-      <form className="mb-4 flex gap-2" role="search">
-        <input name="q" defaultValue={q} placeholder="Filter by file name" aria-label="Filter spectra" className="w-72 rounded-md border border-stone-300 px-3 py-1.5 text-sm" />
-        <select name="status" defaultValue={status ?? ""} aria-label="Status" className="rounded-md border border-stone-300 px-2 py-1.5 text-sm">
-          <option value="">Any state</option><option value="queued">Waiting</option><option value="analysing">Analysing</option><option value="analysed">Analysed</option><option value="failed">Could not read</option>
-        </select>
-        <button className="rounded-md border border-stone-300 bg-white px-3 py-1.5 text-sm">Apply</button>
-      </form>
-      {rows.length === 0 ? (
-        <EmptyState title={q || status ? "No spectrum matches" : "No spectra yet"} action={q || status ? undefined : { href: "/upload", label: "Upload exports" }}>
-          {q || status ? "Loosen the filter." : "Upload UV-Vis-NIR absorption, PL or mid-IR exports (CSV, text or JCAMP-DX)."}
+      <PageHeader title="Spectra" subtitle={`${countText(page.count)} ${filtered ? "found" : "stored"}`} />
+      <SpectrumSearchForm values={values} choices={choices} error={error} />
+      {search && filtered && <SaveSearchForm query={query} />}
+      {page.rows.length === 0 ? (
+        <EmptyState title={filtered ? "No spectrum matches" : "No spectra yet"} action={filtered ? undefined : { href: "/upload", label: "Upload exports" }}>
+          {filtered ? "Loosen the search." : "Upload UV-Vis-NIR absorption, PL or mid-IR exports (CSV, text or JCAMP-DX)."}
         </EmptyState>
       ) : (
-        <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
+        <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm">
             <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft">
-              <tr><th className="px-3 py-2">File</th><th className="px-3 py-2">Technique</th><th className="px-3 py-2">Sample</th><th className="px-3 py-2">Project</th><th className="px-3 py-2">State</th><th className="px-3 py-2">Stored</th></tr>
+              <tr>
+                <th className="px-3 py-2">File</th><th className="px-3 py-2">Technique</th><th className="px-3 py-2">Sample</th>
+                <th className="px-3 py-2">Project</th><th className="px-3 py-2 text-right">1st exciton</th><th className="px-3 py-2 text-right">Size</th>
+                <th className="px-3 py-2">State</th><th className="px-3 py-2">Stored</th>
+              </tr>
             </thead>
             <tbody>
-              {rows.map((s) => (
+              {page.rows.map((s) => (
                 <tr key={s.id} className="border-t border-stone-100 hover:bg-stone-50">
                   <td className="max-w-xs truncate px-3 py-2"><Link className="font-medium text-glow-deep hover:underline" href={`/spectra/${s.id}`}>{s.fileName}</Link>
                     {s.errorMessage && <div className="truncate text-xs text-red-700" title={s.errorMessage}>{s.errorMessage}</div>}</td>
                   <td className="px-3 py-2">{TECHNIQUE_SHORT_LABELS[s.technique]}</td>
                   <td className="px-3 py-2">{s.sampleName ?? "—"}</td>
                   <td className="px-3 py-2 text-ink-soft">{s.projectName}</td>
+                  <td className="tabular px-3 py-2 text-right">{s.firstExcitonNm === null ? "—" : `${s.firstExcitonNm.toFixed(0)} nm`}</td>
+                  <td className="tabular px-3 py-2 text-right">{s.diameterNm === null ? "—" : `${s.diameterNm.toFixed(1)} nm`}</td>
                   <td className="px-3 py-2"><StatusBadge status={s.status} /></td>
                   <td className="tabular px-3 py-2 text-ink-soft">{formatWhen(s.createdAt)}</td>
                 </tr>
@@ -54,11 +68,10 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
           </table>
         </div>
       )}
-      {pages > 1 && (
-        <nav aria-label="Pages" className="mt-3 flex items-center gap-3 text-sm">
-          {page > 1 && <Link href={link(page - 1)} className="text-glow-deep hover:underline">← Newer</Link>}
-          <span className="text-ink-soft">Page {page} of {pages}</span>
-          {page < pages && <Link href={link(page + 1)} className="text-glow-deep hover:underline">Older →</Link>}
+      {search && (search.after || page.next) && (
+        <nav aria-label="Pages" className="mt-3 flex items-center gap-4 text-sm">
+          {search.after && <Link href={`/spectra${query ? `?${query}` : ""}`} className="text-glow-deep hover:underline">← Newest</Link>}
+          {page.next && <Link href={`/spectra?${search ? searchQueryString(search, { after: page.next }) : ""}`} className="text-glow-deep hover:underline">Older →</Link>}
         </nav>
       )}
     </>

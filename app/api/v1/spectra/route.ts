@@ -4,11 +4,34 @@ import { readBoundedForm } from "@/lib/http/readBoundedForm";
 import { ApiError, withActor } from "@/lib/http/respond";
 import { INGEST_FIELDS, ingestFiles, ingestLimits, type IncomingFile } from "@/lib/ingest";
 import { toApiError } from "@/lib/ingest/apiErrors";
+import { listSpectra } from "@/lib/queries/spectra";
+import { queryObject } from "@/lib/review/schemas";
+import { SEARCH_PAGE_SIZE, searchQueryString, spectrumSearchSchema } from "@/lib/search/spectrumSearchQuery";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
 
 const KNOWN_FIELDS = new Set<string>(["file", ...INGEST_FIELDS]);
+
+/**
+ * GET /api/v1/spectra — the spectra the caller reads, newest first, narrowed by the same filters
+ * as the spectra page (docs/search.md); keyset pages: pass `next` back as `after`.
+ */
+export const GET = withActor(async (request, { actor }) => {
+  const search = spectrumSearchSchema.parse(queryObject(new URL(request.url).searchParams));
+  const page = await listSpectra(actor, search);
+  if (!page) throw new ApiError(404, "not-found", "project was not found.", "project");
+  const nextQuery = page.next ? searchQueryString(search, { after: page.next }) : null;
+  return NextResponse.json(
+    {
+      items: page.rows.map((r) => ({ ...r, url: `/api/v1/spectra/${r.id}` })),
+      count: page.count,
+      next: page.next,
+      nextUrl: nextQuery === null ? null : `/api/v1/spectra?${nextQuery}${search.limit === SEARCH_PAGE_SIZE ? "" : `&limit=${search.limit}`}`,
+    },
+    { headers: { "Cache-Control": "no-store" } },
+  );
+});
 
 /**
  * POST /api/v1/spectra — multipart/form-data with one or more `file` parts (exports or

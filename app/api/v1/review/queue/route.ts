@@ -12,7 +12,7 @@ export const GET = withActor(async (request, { actor }) => {
   const query = queueQuerySchema.parse(queryObject(new URL(request.url).searchParams));
   const queue = await listReviewQueue(actor, query);
   return NextResponse.json(
-    { items: queue.items, total: queue.total, page: queue.page, pageSize: queue.pageSize, pages: queue.pages },
+    { items: queue.items, total: queue.total, totalExact: queue.totalExact, page: queue.page, pageSize: queue.pageSize, pages: queue.pages },
     { headers: { "Cache-Control": "no-store" } },
   );
 });
