@@ -11,8 +11,7 @@ import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { SaveSearchForm } from "@/components/spectra/SaveSearchForm";
-import { SpectrumSearchForm, TECHNIQUE_LABELS } from "@/components/spectra/SpectrumSearchForm";
-import type { Technique } from "@/models/Spectrum";
+import { SpectrumSearchForm } from "@/components/spectra/SpectrumSearchForm";
 import { formatWhen } from "@/lib/format/dates";
 
 export const metadata: Metadata = { title: "Spectra" };
