@@ -1,5 +1,6 @@
 import Link from "next/link";
-import { SPECTRUM_STATUSES, TECHNIQUES, type Technique } from "@/models/Spectrum";
+import { SPECTRUM_STATUSES } from "@/models/Spectrum";
+import { TECHNIQUES, TECHNIQUE_SHORT_LABELS } from "@/lib/registry/techniques";
 import { REVIEW_STATES, SIGNATURE_KINDS } from "@/models/Signature";
 import { KIND_LABELS } from "@/lib/signature-labels";
 import { ISO_DAY_PATTERN } from "@/lib/format/dates";
@@ -7,7 +8,6 @@ import { BAND_UNITS, type BandUnit } from "@/lib/search/bandRangeEv";
 import { BAND_KINDS, type BandKind } from "@/lib/search/spectrumSearchQuery";
 import type { SearchChoices } from "@/lib/search/searchChoices";
 
-export const TECHNIQUE_LABELS: Record<Technique, string> = { absorption: "Absorption", pl: "PL emission", ir: "Mid-IR" };
 const BAND_LABELS: Record<BandKind, string> = { "first-exciton": "First exciton", emission: "Emission maximum", band: "Any band (e.g. IR)" };
 const UNIT_LABELS: Record<BandUnit, string> = { nm: "nm", eV: "eV", "cm-1": "cm⁻¹" };
 const STATUS_LABELS: Record<(typeof SPECTRUM_STATUSES)[number], string> = {
@@ -44,7 +44,7 @@ export function SpectrumSearchForm({ values, choices, error }: {
         <label className={label}>Technique<br />
           <select name="technique" defaultValue={v("technique")} className={control} {...invalid("technique")}>
             <option value="">Any</option>
-            {TECHNIQUES.map((t) => <option key={t} value={t}>{TECHNIQUE_LABELS[t]}</option>)}
+            {TECHNIQUES.map((t) => <option key={t} value={t}>{TECHNIQUE_SHORT_LABELS[t]}</option>)}
           </select>
         </label>
         <label className={label}>Material<br />
@@ -106,7 +106,7 @@ export function SpectrumSearchForm({ values, choices, error }: {
         <label className={label}>Kind<br />
           <select name="flag" defaultValue={v("flag")} aria-label="Flag kind" className={control} {...invalid("flag")}>
             <option value="">—</option>
-            {SIGNATURE_KINDS.map((k) => <option key={k} value={k}>{KIND_LABELS[k] ?? k}</option>)}
+            {SIGNATURE_KINDS.map((k) => <option key={k} value={k}>{KIND_LABELS[k]}</option>)}
           </select>
         </label>
         <label className={label} title="In the flag's own unit: a fraction for a bleach or quench (0.2 = 20 %), meV for a shift or broadening">
