@@ -53,7 +53,7 @@ export function openApiDocument() {
           queryParam("from", "Stored on or after (YYYY-MM-DD)", { type: "string", format: "date" }),
           queryParam("to", "Stored on or before (YYYY-MM-DD)", { type: "string", format: "date" }),
           queryParam("status", "Spectrum state", { type: "string", enum: ["received", "queued", "analysing", "analysed", "failed"] }),
-          queryParam("flag", "Has a flag of this kind in its latest analysis", { type: "string", enum: ["bleach", "new-band", "pl-quench", "shift", "broadening"] }),
+          queryParam("flag", "Has a flag of this kind in its latest analysis", { type: "string", enum: [...FLAG_KINDS] }),
           queryParam("flagMin", "Flag size at least, in the flag's unit (fraction, meV or signal); needs flag", { type: "number", minimum: 0 }),
           queryParam("flagSig", "Flag significance at least (σ); needs flag", { type: "number", minimum: 0 }),
           queryParam("review", "Has a flag in this review state", { type: "string", enum: ["awaiting", "confirmed", "dismissed"] }),

@@ -17,7 +17,7 @@ export const LATEST_RUN_JOIN = `CROSS JOIN LATERAL (SELECT r.id AS run_id FROM a
   ORDER BY r.created_at DESC, r.id DESC LIMIT 1) lr`;
 
 /** A flag's size in its own unit (fraction, meV or signal), as the engine wrote it. */
-export const SIGNATURE_MAGNITUDE_SQL = "abs((g.details->>'magnitude')::float8)";
+export const SIGNATURE_MAGNITUDE_SQL = "abs(coalesce(g.magnitude, (g.details->>'magnitude')::float8))";
 
 const BAND_PEAK: Record<BandKind, string> = {
   "first-exciton": "k.is_first_exciton",
