@@ -36,7 +36,7 @@ export default async function OverviewPage() {
           <ul className="space-y-2">
             {shared.map((s) => (
               <li key={s.id} className="rounded-lg border border-stone-200 bg-white px-4 py-3">
-                <Link href={`/series/${s.id}`} className="font-medium text-glow-deep hover:underline">{s.name}</Link>
+                <Link prefetch={false} href={`/series/${s.id}`} className="font-medium text-glow-deep hover:underline">{s.name}</Link>
                 <span className="ml-2 text-sm text-ink-soft">{s.projectName} · {s.spectrumCount} spectra</span>
               </li>
             ))}
@@ -72,7 +72,7 @@ export default async function OverviewPage() {
             <ul className="divide-y divide-stone-100 rounded-lg border border-stone-200 bg-white">
               {overview.recentSignatures.map((s) => (
                 <li key={s.id} className="flex items-center justify-between px-4 py-2 text-sm">
-                  <span><span className="font-medium">{KIND_LABELS[s.kind]}</span> in <Link className="text-glow-deep hover:underline" href={`/spectra/${s.spectrumId}`}>{s.fileName}</Link></span>
+                  <span><span className="font-medium">{KIND_LABELS[s.kind]}</span> in <Link prefetch={false} className="text-glow-deep hover:underline" href={`/spectra/${s.spectrumId}`}>{s.fileName}</Link></span>
                   <span className="tabular text-ink-soft">{s.significance.toFixed(1)}σ</span>
                 </li>
               ))}

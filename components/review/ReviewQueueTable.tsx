@@ -75,7 +75,7 @@ export function ReviewQueueTable({ items, headers }: { items: ReviewItem[]; head
                 </th>
                 {headers.map((h) => (
                   <th key={h.key} className="whitespace-nowrap px-2 py-2" aria-sort={h.active === "asc" ? "ascending" : h.active === "desc" ? "descending" : undefined}>
-                    {h.href ? <Link href={h.href} className="hover:text-ink">{h.label}{h.active === "asc" ? " ▲" : h.active === "desc" ? " ▼" : ""}</Link> : h.label}
+                    {h.href ? <Link prefetch={false} href={h.href} className="hover:text-ink">{h.label}{h.active === "asc" ? " ▲" : h.active === "desc" ? " ▼" : ""}</Link> : h.label}
                   </th>
                 ))}
               </tr>
@@ -88,10 +88,10 @@ export function ReviewQueueTable({ items, headers }: { items: ReviewItem[]; head
                       checked={selected.includes(i.id)}
                       onChange={(e) => setSelected((s) => (e.target.checked ? [...s, i.id] : s.filter((x) => x !== i.id)))} />
                   </td>
-                  <td className="whitespace-nowrap px-2 py-1.5 font-medium"><Link className="text-glow-deep hover:underline" href={`/review/${i.id}`}>{KIND_LABELS[i.kind]}</Link></td>
+                  <td className="whitespace-nowrap px-2 py-1.5 font-medium"><Link prefetch={false} className="text-glow-deep hover:underline" href={`/review/${i.id}`}>{KIND_LABELS[i.kind]}</Link></td>
                   <td className="px-2 py-1.5">{i.significance.toFixed(1)}σ</td>
                   <td className="whitespace-nowrap px-2 py-1.5">{magnitudeText(i)}{i.energyEv !== null && <span className="block text-xs text-ink-faint">{i.energyEv.toFixed(3)} eV</span>}</td>
-                  <td className="max-w-48 truncate px-2 py-1.5"><Link className="hover:underline" href={`/spectra/${i.spectrumId}`}>{i.fileName}</Link></td>
+                  <td className="max-w-48 truncate px-2 py-1.5"><Link prefetch={false} className="hover:underline" href={`/spectra/${i.spectrumId}`}>{i.fileName}</Link></td>
                   <td className="whitespace-nowrap px-2 py-1.5">{i.sampleName ?? "—"}</td>
                   <td className="max-w-40 px-2 py-1.5 text-xs text-ink-soft">{i.projectName}</td>
                   <td className="whitespace-nowrap px-2 py-1.5 text-ink-soft">{dateText(i.createdAt).replace(/ UTC$/, "")}</td>

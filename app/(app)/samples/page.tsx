@@ -40,7 +40,7 @@ export default async function SamplesPage({ searchParams }: { searchParams: Prom
             <tbody>
               {samples.map((s) => (
                 <tr key={s.id} className="border-t border-stone-100 hover:bg-stone-50">
-                  <td className="px-3 py-2"><Link className="font-medium text-glow-deep hover:underline" href={`/samples/${s.id}`}>{s.name}</Link><div className="text-xs text-ink-faint">{s.groupName}{s.projectName ? ` · ${s.projectName}` : ""}</div></td>
+                  <td className="px-3 py-2"><Link prefetch={false} className="font-medium text-glow-deep hover:underline" href={`/samples/${s.id}`}>{s.name}</Link><div className="text-xs text-ink-faint">{s.groupName}{s.projectName ? ` · ${s.projectName}` : ""}</div></td>
                   <td className="px-3 py-2">{s.material}{s.coreShell && <span className="text-ink-soft"> · {s.coreShell}</span>}</td>
                   <td className="px-3 py-2 text-ink-soft">{s.parentNames.join(", ") || "—"}</td>
                   <td className="tabular px-3 py-2">{s.spectrumCount}</td>

@@ -28,7 +28,7 @@ export default async function SeriesPage() {
             <tbody>
               {series.map((s) => (
                 <tr key={s.id} className="border-t border-stone-100 hover:bg-stone-50">
-                  <td className="px-3 py-2"><Link className="font-medium text-glow-deep hover:underline" href={`/series/${s.id}`}>{s.name}</Link>{s.shared && <span className="ml-2 rounded bg-stone-100 px-1.5 text-xs text-ink-soft">shared with you</span>}</td>
+                  <td className="px-3 py-2"><Link prefetch={false} className="font-medium text-glow-deep hover:underline" href={`/series/${s.id}`}>{s.name}</Link>{s.shared && <span className="ml-2 rounded bg-stone-100 px-1.5 text-xs text-ink-soft">shared with you</span>}</td>
                   <td className="px-3 py-2">{s.kind}</td><td className="px-3 py-2">{s.variable}</td>
                   <td className="px-3 py-2 text-ink-soft">{s.projectName}</td><td className="tabular px-3 py-2">{s.spectrumCount}</td>
                 </tr>

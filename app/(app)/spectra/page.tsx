@@ -52,7 +52,7 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
             <tbody>
               {page.rows.map((s) => (
                 <tr key={s.id} className="border-t border-stone-100 hover:bg-stone-50">
-                  <td className="max-w-xs truncate px-3 py-2"><Link className="font-medium text-glow-deep hover:underline" href={`/spectra/${s.id}`}>{s.fileName}</Link>
+                  <td className="max-w-xs truncate px-3 py-2"><Link prefetch={false} className="font-medium text-glow-deep hover:underline" href={`/spectra/${s.id}`}>{s.fileName}</Link>
                     {s.errorMessage && <div className="truncate text-xs text-red-700" title={s.errorMessage}>{s.errorMessage}</div>}</td>
                   <td className="px-3 py-2">{TECHNIQUE_SHORT_LABELS[s.technique]}</td>
                   <td className="px-3 py-2">{s.sampleName ?? "—"}</td>
@@ -70,7 +70,7 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
       {search && (search.after || page.next) && (
         <nav aria-label="Pages" className="mt-3 flex items-center gap-4 text-sm">
           {search.after && <Link href={`/spectra${query ? `?${query}` : ""}`} className="text-glow-deep hover:underline">← Newest</Link>}
-          {page.next && <Link href={`/spectra?${search ? searchQueryString(search, { after: page.next }) : ""}`} className="text-glow-deep hover:underline">Older →</Link>}
+          {page.next && <Link prefetch={false} href={`/spectra?${search ? searchQueryString(search, { after: page.next }) : ""}`} className="text-glow-deep hover:underline">Older →</Link>}
         </nav>
       )}
     </>

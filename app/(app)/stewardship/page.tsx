@@ -19,13 +19,13 @@ function BelongsTo({ item }: { item: CleanupItem }) {
       {item.sample && (
         <>
           {" · sample "}
-          <Link href={`/samples/${item.sample.id}`} className="underline decoration-stone-300 hover:text-ink">{item.sample.name}</Link>
+          <Link prefetch={false} href={`/samples/${item.sample.id}`} className="underline decoration-stone-300 hover:text-ink">{item.sample.name}</Link>
         </>
       )}
       {item.series && (
         <>
           {" · series "}
-          <Link href={`/series/${item.series.id}`} className="underline decoration-stone-300 hover:text-ink">{item.series.name}</Link>
+          <Link prefetch={false} href={`/series/${item.series.id}`} className="underline decoration-stone-300 hover:text-ink">{item.series.name}</Link>
         </>
       )}
     </p>
@@ -37,7 +37,7 @@ function CleanupCard({ item }: { item: CleanupItem }) {
     <li className="flex flex-col gap-3 rounded-lg border border-stone-200 bg-white p-4 sm:flex-row sm:items-start sm:justify-between" data-testid="cleanup-item">
       <div className="min-w-0">
         <p className="font-medium">
-          {item.spectrumId ? <Link href={`/spectra/${item.spectrumId}`} className="hover:underline">{item.label}</Link> : item.label}
+          {item.spectrumId ? <Link prefetch={false} href={`/spectra/${item.spectrumId}`} className="hover:underline">{item.label}</Link> : item.label}
           <span className="ml-2 text-xs font-normal text-ink-soft">{DATA_CLASS_LABELS[item.dataClass]}</span>
         </p>
         <BelongsTo item={item} />

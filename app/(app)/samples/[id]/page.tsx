@@ -44,9 +44,9 @@ export default async function SamplePage({ params }: { params: Promise<{ id: str
         <section className="rounded-lg border border-stone-200 bg-white p-4">
           <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Lineage</h2>
           <p className="text-sm text-ink-soft">Made from</p>
-          <ul className="mb-3 text-sm">{sample.parents.length ? sample.parents.map((p) => <li key={p.id}><Link className="text-glow-deep hover:underline" href={`/samples/${p.id}`}>{p.name}</Link></li>) : <li>— (an as-made batch)</li>}</ul>
+          <ul className="mb-3 text-sm">{sample.parents.length ? sample.parents.map((p) => <li key={p.id}><Link prefetch={false} className="text-glow-deep hover:underline" href={`/samples/${p.id}`}>{p.name}</Link></li>) : <li>— (an as-made batch)</li>}</ul>
           <p className="text-sm text-ink-soft">Used in</p>
-          <ul className="text-sm">{sample.children.length ? sample.children.map((c) => <li key={c.id}><Link className="text-glow-deep hover:underline" href={`/samples/${c.id}`}>{c.name}</Link></li>) : <li>—</li>}</ul>
+          <ul className="text-sm">{sample.children.length ? sample.children.map((c) => <li key={c.id}><Link prefetch={false} className="text-glow-deep hover:underline" href={`/samples/${c.id}`}>{c.name}</Link></li>) : <li>—</li>}</ul>
         </section>
       </div>
       <section className="mt-6 rounded-lg border border-stone-200 bg-white p-4">
@@ -62,7 +62,7 @@ export default async function SamplePage({ params }: { params: Promise<{ id: str
               <tbody className="tabular">
                 {sample.spectra.map((s) => (
                   <tr key={s.id} className="border-t border-stone-100">
-                    <td className="max-w-xs truncate py-1.5 pr-3"><Link className="text-glow-deep hover:underline" href={`/spectra/${s.id}`}>{s.fileName}</Link></td>
+                    <td className="max-w-xs truncate py-1.5 pr-3"><Link prefetch={false} className="text-glow-deep hover:underline" href={`/spectra/${s.id}`}>{s.fileName}</Link></td>
                     <td className="pr-3 text-ink-soft">{s.technique}</td>
                     <td className="pr-3">{s.derived?.diameterNm != null ? `${s.derived.diameterNm.toFixed(2)} nm` : "—"}</td>
                     <td className="pr-3">{s.derived?.concentrationMolPerL != null ? `${(s.derived.concentrationMolPerL * 1e6).toFixed(3)} µM` : "—"}</td>
