@@ -45,7 +45,7 @@ for (const n of sizes) {
   }
   console.error(`measuring at ${n} spectra …`);
   const out = execFileSync(process.execPath, ["--import", "tsx", "bench/scaleQueries.ts"], {
-    env: { ...process.env, DATABASE_URL: url }, encoding: "utf8", stdio: ["ignore", "pipe", "inherit"], maxBuffer: 1 << 20,
+    env: { ...process.env, DATABASE_URL: url, MIGRATION_DATABASE_URL: url }, encoding: "utf8", stdio: ["ignore", "pipe", "inherit"], maxBuffer: 1 << 20,
   });
   results.set(n, JSON.parse(out.trim().split("\n").pop()!));
 }

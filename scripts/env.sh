@@ -18,6 +18,9 @@ export PORT="${PORT:-$((3000 + off * 10))}"
 # (scripts/services.sh creates both on the local server; see README, "Managed services").
 export DATABASE_URL="${DATABASE_URL:-postgres://bandkeep_app@127.0.0.1:$PGPORT_LOCAL/bandkeep}"
 export MIGRATION_DATABASE_URL="${MIGRATION_DATABASE_URL:-postgres://bandkeep_owner@127.0.0.1:$PGPORT_LOCAL/bandkeep}"
+# The local server's superuser, for scripts that make scratch databases (seed:scale, bench:scale and
+# the query-plan test); never used by the app or the worker.
+export ADMIN_DATABASE_URL="${ADMIN_DATABASE_URL:-postgres://postgres@127.0.0.1:$PGPORT_LOCAL/bandkeep}"
 export REDIS_URL="${REDIS_URL:-redis://127.0.0.1:$REDIS_PORT_LOCAL}"
 export S3_ENDPOINT="${S3_ENDPOINT:-http://127.0.0.1:$S3_PORT_LOCAL}"
 export S3_BUCKET="${S3_BUCKET:-bandkeep-$PROFILE}"

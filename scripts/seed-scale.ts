@@ -13,14 +13,14 @@ function arg(name: string, fallback: string): string {
 }
 
 export function scaleDatabaseUrl(name: string): string {
-  const url = new URL(process.env.DATABASE_URL ?? "postgres://postgres@127.0.0.1:54329/bandkeep");
+  const url = new URL(process.env.ADMIN_DATABASE_URL ?? "postgres://postgres@127.0.0.1:54329/bandkeep");
   url.pathname = `/${name}`;
   return url.toString();
 }
 
 export async function seedScaleDatabase(n: number, name: string, log: (line: string) => void = console.log): Promise<string> {
   if (!/^[a-z0-9_]+$/.test(name)) throw new Error(`--database must be lower-case letters, digits and _: ${name}`);
-  const admin = new pg.Client({ connectionString: process.env.DATABASE_URL });
+  const admin = new pg.Client({ connectionString: process.env.ADMIN_DATABASE_URL ?? "postgres://postgres@127.0.0.1:54329/bandkeep" });
   await admin.connect();
   try {
     await admin.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
@@ -29,7 +29,7 @@ export async function seedScaleDatabase(n: number, name: string, log: (line: str
     await admin.end();
   }
   const url = scaleDatabaseUrl(name);
-  execFileSync(process.execPath, ["--import", "tsx", "scripts/migrate.ts", "up"], { env: { ...process.env, DATABASE_URL: url }, stdio: "ignore" });
+  execFileSync(process.execPath, ["--import", "tsx", "scripts/migrate.ts", "up"], { env: { ...process.env, DATABASE_URL: url, MIGRATION_DATABASE_URL: url }, stdio: "ignore" });
   const client = new pg.Client({ connectionString: url });
   await client.connect();
   try {

@@ -45,10 +45,12 @@ type Row = {
  * (scope, created_at, id) index and the pieces are merged, so a page costs the same on the first
  * page and the ten-thousandth. Pure, so tests can EXPLAIN exactly what the app runs.
  */
-export function spectrumListSql(scope: { projectIds: string[]; seriesIds: string[] }, search: SpectrumSearch) {
+export function spectrumListSql(scope: { projectIds: string[]; seriesIds: string[]; pointIds?: string[] }, search: SpectrumSearch) {
   const { projectIds, seriesIds } = scope;
+  // supernatants measured for points of a shared series (canReadSpectrum lets their readers open them)
+  const pointIds = scope.pointIds ?? [];
   const filter = spectrumFilterSql(search);
-  const params: Record<string, unknown> = { ...filter.params, projectIds, seriesIds, limit: search.limit + 1 };
+  const params: Record<string, unknown> = { ...filter.params, projectIds, seriesIds, pointIds, limit: search.limit + 1 };
   const sampleJoin = [
     filter.needsSample ? "LEFT JOIN samples sm ON sm.id = s.sample_id" : "",
     filter.needsLatestRun ? LATEST_RUN_JOIN : "",
@@ -60,7 +62,7 @@ export function spectrumListSql(scope: { projectIds: string[]; seriesIds: string
     pageConditions.push("(s.created_at, s.id) < (CAST(:afterAt AS timestamptz), CAST(:afterId AS uuid))");
     Object.assign(params, { afterAt: position.at, afterId: position.id });
   }
-  const piece = (column: "project_id" | "series_id", ids: string, where: string[], tail: string) => `
+  const piece = (column: "project_id" | "series_id" | "supernatant_of_spectrum_id", ids: string, where: string[], tail: string) => `
     SELECT h.id, h.created_at FROM unnest(ARRAY[${ids}]::uuid[]) AS scope(id)
     CROSS JOIN LATERAL (
       SELECT s.id, s.created_at FROM spectra s ${sampleJoin}
@@ -70,11 +72,13 @@ export function spectrumListSql(scope: { projectIds: string[]; seriesIds: string
   const piecesOf = (where: string[], tail: string) => [
     ...(projectIds.length ? [piece("project_id", ":projectIds", where, tail)] : []),
     ...(seriesIds.length ? [piece("series_id", ":seriesIds", where, tail)] : []),
+    ...(pointIds.length ? [piece("supernatant_of_spectrum_id", ":pointIds", where, tail)] : []),
   ];
   const pieces = piecesOf(pageConditions, "ORDER BY s.created_at DESC, s.id DESC LIMIT :limit");
   const scopeOr = [
     ...(projectIds.length ? ["s.project_id IN (:projectIds)"] : []),
     ...(seriesIds.length ? ["s.series_id IN (:seriesIds)"] : []),
+    ...(pointIds.length ? ["s.supernatant_of_spectrum_id IN (:pointIds)"] : []),
   ].join(" OR ");
   // counted through the same per-project index ranges (any order), each stopping at the cap
   const count: CountSql = {
@@ -118,7 +122,10 @@ export async function listSpectra(actor: Actor, search: SpectrumSearch): Promise
   const projectIds = search.project ? [search.project] : readable;
   if (projectIds.length === 0 && seriesIds.length === 0) return EMPTY;
 
-  const { listSql, count, params } = spectrumListSql({ projectIds, seriesIds }, search);
+  const pointIds = seriesIds.length
+    ? (await selectRows<{ id: string }>("SELECT id FROM spectra WHERE series_id IN (:seriesIds)", { seriesIds })).map((r) => r.id)
+    : [];
+  const { listSql, count, params } = spectrumListSql({ projectIds, seriesIds, pointIds }, search);
   const [rows, total] = await Promise.all([selectRows<Row>(listSql, params), fastCount(count, params)]);
   const shown = rows.slice(0, search.limit);
   const last = shown[shown.length - 1];

@@ -22,7 +22,7 @@ describe("signing in as each demo role", () => {
       const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
       const page = await context.newPage();
       await signInThroughForm(page, email);
-      const labels = await page.getByRole("navigation", { name: "Main" }).locator("a > span:first-child").allTextContents();
+      const labels = await page.getByRole("navigation", { name: "Main" }).getByTestId("nav-label").allTextContents();
       expect(labels).toEqual(EXPECTED_NAV[role]);
       await screenshot(page, `role-${role}`);
       await context.close();

@@ -76,7 +76,10 @@ describe("the spectrum viewer", () => {
     expect(page.url()).toMatch(/axis=ev/);
     await expect(flagsTable.textContent()).resolves.toMatch(/\d\.\d{3} eV/);
     await expect(page.getByTestId("marker-flag").count()).resolves.toBe(rows);
-    await page.mouse.move(box.x + box.width * 0.55, box.y + box.height * 0.5);
+    // the chart is redrawn for the new axis: measure it again and point at it afresh
+    const evBox = (await chart.boundingBox())!;
+    await page.mouse.move(evBox.x - 20, evBox.y - 20);
+    await page.mouse.move(evBox.x + evBox.width * 0.55, evBox.y + evBox.height * 0.5, { steps: 5 });
     await expect.poll(() => page.getByTestId("readout").textContent()).toMatch(/eV/);
     await screenshot(page, "spectrum-viewer-ev");
 

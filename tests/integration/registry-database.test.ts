@@ -15,7 +15,8 @@ const query = async (sql: string) => (await client.query<{ def: string }>(sql)).
 const exec = (sql: string) => client.query(sql);
 
 beforeAll(async () => {
-  client = new pg.Client({ connectionString: process.env.DATABASE_URL ?? "postgres://postgres@127.0.0.1:54339/bandkeep" });
+  // the schema owner: the test alters a CHECK the way a migration would
+  client = new pg.Client({ connectionString: process.env.MIGRATION_DATABASE_URL ?? process.env.DATABASE_URL });
   await client.connect();
 });
 afterAll(async () => {

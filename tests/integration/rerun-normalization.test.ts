@@ -88,7 +88,7 @@ describe("re-running with a normalisation", () => {
     const report = run.report as { parameters: { normalization: { factor: number } }; referenceFirstExciton: { energyEv: number }; flags: { kind: string; fraction: number }[] };
     const factor = 1 / CONCENTRATION_RATIO;
     // The factor is reference ÷ sample concentration (docs/analysis-json.md, parameters.normalization).
-    expect(report.parameters.normalization).toEqual({ ...normalization, factor: expect.closeTo(factor, 12) });
+    expect(report.parameters.normalization).toMatchObject({ ...normalization, factor: expect.closeTo(factor, 12) });
 
     const normalisedBleach = await bleachOf(run.id);
     expect(report.flags.find((f) => f.kind === "bleach")!.fraction).toBe(normalisedBleach);

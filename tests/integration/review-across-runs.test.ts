@@ -111,6 +111,9 @@ describe("a decision across re-analyses", () => {
   let carried: Sig;
 
   it("confirm → re-run with another smoothing window → the decision is carried, marked in the history", async () => {
+    // Compared unscaled, so the bleach read is 1 − scale·(1 − F) whatever the automatic scaling
+    // makes of this synthetic continuum (this test is about decisions, not about the scaling).
+    await rerun(sampleSpectrumId, { normalization: { mode: "none" } });
     confirmed = (await currentBleach(sampleSpectrumId))!;
     expect(confirmed).toBeDefined();
     expect(Math.abs(confirmed.fraction! - RAW_BLEACH)).toBeLessThan(0.03); // the generator's truth, 0.03 ≈ a few σ (common practice)

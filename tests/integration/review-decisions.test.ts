@@ -30,7 +30,7 @@ beforeAll(async () => {
   awaiting = await selectRows<{ id: string; file_name: string }>(
     `SELECT g.id, s.file_name FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
      JOIN groups gr ON gr.id = p.group_id JOIN users u ON u.id = s.uploaded_by
-     WHERE gr.slug = 'aurora' AND g.review_state = 'awaiting' AND u.email = :uploader ORDER BY g.created_at, g.id LIMIT 4`,
+     WHERE gr.slug = 'aurora' AND g.review_state = 'awaiting' AND g.superseded_at IS NULL AND u.email = :uploader ORDER BY g.created_at, g.id LIMIT 4`,
     { uploader: DEMO.spectroscopist },
   );
   if (awaiting.length < 3) throw new Error("the demo scenario needs at least 3 awaiting signatures of Aurora for this test");

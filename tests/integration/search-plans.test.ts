@@ -30,7 +30,7 @@ async function plan(sql: string, replacements: Record<string, unknown>): Promise
 }
 
 async function admin(sql: string) {
-  const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
+  const client = new pg.Client({ connectionString: process.env.ADMIN_DATABASE_URL });
   await client.connect();
   try { await client.query(sql); } finally { await client.end(); }
 }
