@@ -16,16 +16,13 @@
  *
  * Usage: npm run bench:api [-- --duration 10 --connections 32]
  */
-import { execFileSync } from "node:child_process";
 import { createRequire } from "node:module";
-import path from "node:path";
-import { fileURLToPath } from "node:url";
+import { loadProfileEnv } from "./profileEnv";
 
 type AutocannonInstance = { on(event: "response", fn: (client: unknown, status: number, bytes: number, ms: number) => void): void };
 type AutocannonResult = { requests: { average: number; total: number }; non2xx: number; errors: number; timeouts: number; duration: number; throughput: { average: number } };
 type Autocannon = (opts: Record<string, unknown>, cb: (err: Error | null, result: AutocannonResult) => void) => AutocannonInstance;
 
-const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const args = process.argv.slice(2);
 const arg = (name: string, fallback: number) => {
   const i = args.indexOf(`--${name}`);
@@ -35,17 +32,7 @@ const DURATION = arg("duration", 10);
 const CONNECTIONS = arg("connections", 32);
 const POINTS = 4096;
 
-// The profile's addresses from scripts/env.sh; variables the caller set win.
-const envText = execFileSync("bash", ["-c", `export BANDKEEP_PROFILE=${process.env.BANDKEEP_PROFILE ?? "dev"}; source scripts/env.sh >/dev/null; env -0`], {
-  cwd: ROOT,
-  encoding: "utf8",
-  env: process.env,
-});
-for (const pair of envText.split("\0")) {
-  const i = pair.indexOf("=");
-  if (i > 0 && process.env[pair.slice(0, i)] === undefined) process.env[pair.slice(0, i)] = pair.slice(i + 1);
-}
-const APP = process.env.APP_URL ?? `http://127.0.0.1:${process.env.PORT}`;
+const APP = loadProfileEnv();
 
 const require = createRequire(import.meta.url);
 const autocannon = require("autocannon") as Autocannon;

@@ -12,26 +12,14 @@
  *
  * Usage: npm run bench:pages [-- --rounds 7]
  */
-import { execFileSync } from "node:child_process";
-import path from "node:path";
-import { fileURLToPath } from "node:url";
 import { chromium, type Page } from "playwright-core";
+import { loadProfileEnv } from "./profileEnv";
 
-const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const args = process.argv.slice(2);
 const roundsAt = args.indexOf("--rounds");
 const ROUNDS = roundsAt >= 0 ? Number(args[roundsAt + 1]) : 7;
 
-const envText = execFileSync("bash", ["-c", `export BANDKEEP_PROFILE=${process.env.BANDKEEP_PROFILE ?? "dev"}; source scripts/env.sh >/dev/null; env -0`], {
-  cwd: ROOT,
-  encoding: "utf8",
-  env: process.env,
-});
-for (const pair of envText.split("\0")) {
-  const i = pair.indexOf("=");
-  if (i > 0 && process.env[pair.slice(0, i)] === undefined) process.env[pair.slice(0, i)] = pair.slice(i + 1);
-}
-const APP = process.env.APP_URL ?? `http://127.0.0.1:${process.env.PORT}`;
+const APP = loadProfileEnv();
 
 const { DEMO, DEMO_PASSWORD } = await import("@/tests/helpers/app");
 const { demoIds } = await import("@/tests/helpers/demo-ids");
