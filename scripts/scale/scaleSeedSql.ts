@@ -48,7 +48,7 @@ export function scaleSeedSql(n: number, passwordHash: string): string[] {
     `INSERT INTO spectra (id, project_id, sample_id, technique, file_name, object_key, sha256, size_bytes, metadata, status, material,
                           error_message, uploaded_by, created_at, updated_at)
        SELECT ${uuidOf(`'s' || i`)}, ${projectOf(sampleOf("i"))}, ${uuidOf(`'m' || ${sampleOf("i")}`)},
-              (CASE WHEN i % 10 < 7 THEN 'absorption' WHEN i % 10 < 9 THEN 'pl' ELSE 'ir' END)::technique,
+              (CASE WHEN i % 10 < 7 THEN 'absorption' WHEN i % 10 < 9 THEN 'pl' ELSE 'ir' END)::text,
               'batch-' || ${sampleOf("i")} || '-' || (CASE WHEN i % 10 < 7 THEN 'abs' WHEN i % 10 < 9 THEN 'pl' ELSE 'ir' END) || '-' || i || '.csv',
               'scale/' || i, md5('s' || i) || md5('t' || i), 20000 + i % 5000,
               jsonb_build_object('instrument', (ARRAY['bench UV-Vis', 'fibre spectrometer', 'FTIR'])[i % 3 + 1], 'operator_note', 'aliquot ' || (i % 40)),
@@ -78,7 +78,7 @@ export function scaleSeedSql(n: number, passwordHash: string): string[] {
        WHERE i % 100 <> 0`,
     `INSERT INTO signatures (id, run_id, spectrum_id, kind, energy_ev, fraction, significance, details, review_state, created_at, updated_at)
        SELECT ${uuidOf(`'f' || i`)}, ${uuidOf(`'r' || i`)}, ${uuidOf(`'s' || i`)},
-              (ARRAY['bleach','new-band','pl-quench','shift','broadening'])[i % 5 + 1]::signature_kind, 2.1,
+              (ARRAY['bleach','new-band','pl-quench','shift','broadening'])[i % 5 + 1]::text, 2.1,
               (i % 50) / 100.0, (i % 40) + 0.5, jsonb_build_object('magnitude', (i % 50) / 100.0, 'message', 'scale row'),
               (ARRAY['awaiting','confirmed','dismissed'])[i % 3 + 1]::review_state,
               s.created_at + interval '1 minute', s.created_at + interval '1 minute'

@@ -70,8 +70,11 @@ beforeAll(async () => {
   parentId = await uploaded(`lot-K${seed} parent.csv`, absorptionCsv({ ...parentModel, seed }, "lot K parent"), { sampleId: sample.id });
   sampleFileName = `lot-K${seed} reduced.csv`;
   sampleId = await uploaded(sampleFileName, absorptionCsv({ ...sampleModel, seed: seed + 1 }, "lot K reduced"), { sampleId: sample.id, referenceSpectrumId: parentId });
-  const first = await AnalysisRun.findOne({ where: { spectrumId: sampleId, status: "done" } });
-  rawBleach = await bleachOf(first!.id);
+  // The bleach read without any scaling (the upload's own run scales automatically since engine 2).
+  const unscaled = await rerun(sampleId, { normalization: { mode: "none" } });
+  expect(unscaled.status).toBe(201);
+  await settled(lab.token, sampleId);
+  rawBleach = await bleachOf(unscaled.body.runId!);
 });
 afterAll(async () => {
   await closeDb();

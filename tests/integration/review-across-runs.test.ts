@@ -200,6 +200,9 @@ describe("one source of counts", () => {
 
 describe("decision mail", () => {
   it("one message per window, net of no-ops and undos, decoded back to the exact text (σ, µ, ⁻¹, accents)", async () => {
+    // Let the windows of earlier tests' decisions close first (NOTICE_WINDOW_MS is 3 s under test),
+    // so this test's mail holds only its own decisions.
+    await new Promise((r) => setTimeout(r, 7000));
     const name = "Zoë Ångström-Núñez";
     await User.update({ name }, { where: { id: uploader.user.id } });
     const b = (await currentBleach(otherSpectrumIds[0]!))!;
