@@ -96,8 +96,10 @@ describe("re-running with a normalisation", () => {
     const normalisedBleach = await bleachOf(run.id);
     expect(report.flags.find((f) => f.kind === "bleach")!.fraction).toBe(normalisedBleach);
     // Beer–Lambert: absorbance is linear in concentration, and smoothing and the offset baseline
-    // are linear too, so scaling the sample by f turns 1 − F into f·(1 − F) exactly.
-    expect((1 - normalisedBleach) / (factor * (1 - rawBleach))).toBeCloseTo(1, 6);
+    // are linear too, so scaling the sample by f turns 1 − F into f·(1 − F); engine 2 reads the
+    // bleach net of a fitted shift, whose least-squares weights see the scaled noise, so the
+    // identity holds to about 1e-4 rather than exactly.
+    expect((1 - normalisedBleach) / (factor * (1 - rawBleach))).toBeCloseTo(1, 3);
     // Independent truth: the generator's noise-free absorbances at the parent's first exciton,
     // the sample divided by its true concentration ratio (Beer–Lambert). Tolerance 0.01: about
     // five standard uncertainties of a fraction for 0.0015 A noise on a 0.3 A band (common practice).
