@@ -5,6 +5,9 @@ import { DEMO, url } from "../helpers/app";
 import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 import { createSearchFixture, dropSearchFixture, type SearchFixture } from "../integration/search-fixtures";
 
+// Sources: band limits converted with hc = 1239.841984 eV·nm (CODATA 2018); every other number is a
+// count or value of rows this test wrote itself (known truth of its fixtures).
+
 // A lead runs a band search from the spectra page's form (first exciton 570–590 nm in the
 // fixture project, whose rows' truth search-fixtures.ts states: only cdse-a-001.csv has its
 // newest first exciton there, at 580 nm), saves it, and opens it again from the Overview.

@@ -5,6 +5,9 @@ import { demoIds } from "../helpers/demo-ids";
 import { createLab } from "../helpers/fixtures";
 import { sessionCookie, signInOverHttp } from "../helpers/session";
 
+// Sources: HTTP status codes as RFC 9110 defines them; Origin and media-type rules from RFC 6454 and
+// RFC 9110 §8.3; row counts are of rows this test wrote itself.
+
 // Issue #11, items 2, 3 and the revoked session of item 8, reproduced against the test stack.
 // The new actors of the authorization matrix: a page of another origin on the same host (a
 // same-site attacker page: RFC 6454 makes another port another origin), and a session cookie

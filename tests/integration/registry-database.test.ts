@@ -5,6 +5,9 @@ import { TECHNIQUES } from "@/lib/registry/techniques";
 import { REGISTRY_COLUMNS, addCheckValues, liveCheckValues, removeCheckValues } from "@/lib/registry/sqlChecks";
 import { waitFor } from "../helpers/waitFor";
 
+// Sources: the registries (lib/registry) against PostgreSQL's own catalogue (pg_constraint); magnitudes
+// compared with the analysis report the worker stored (known truth of the run).
+
 // The database and the registries agree: the CHECK constraints PostgreSQL holds (read back with
 // pg_get_constraintdef) allow exactly the registries' keys. A kind added to lib/registry without
 // its migration fails here, in `npm test`, instead of every run that raises it failing in

@@ -7,6 +7,9 @@ import { ApiToken, models } from "@/models";
 import { url } from "../helpers/app";
 import { createUser } from "../helpers/fixtures";
 
+// Sources: HTTP status codes as RFC 9110 defines them (200, 201, 401); expiry periods are this
+// project's own choices (30, 90, 365 days: common practice for API tokens).
+
 // Issue #11, item 8: API tokens may expire. Status codes as RFC 9110 defines them (200, 401);
 // the times are this test's own fixtures.
 afterAll(closeDb);

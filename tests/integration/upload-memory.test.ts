@@ -6,6 +6,9 @@ import { closeDb, selectRows } from "@/lib/db";
 import { APP_URL } from "../helpers/app";
 import { createLab } from "../helpers/fixtures";
 
+// Sources: HTTP 413 as RFC 9110 §15.5.14 defines it; resident memory read from /proc/PID/status
+// (VmRSS, Linux proc(5)); the 300 MB and 128 MiB limits are this project's targets (issue text).
+
 // Issue #11, item 5 (a reliability test, not a speed target): 400 MiB sent chunked, without
 // Content-Length, to the upload endpoint. Before the fix request.formData() buffered all of
 // it (one app process reached 2.2 GB). Now the body is counted as it arrives and cut at the
