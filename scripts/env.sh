@@ -2,6 +2,8 @@
 # overridden from the environment; the defaults keep everything on loopback.
 # Usage: BANDKEEP_PROFILE=dev|test source scripts/env.sh
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+# runuser and the PostgreSQL tools live in sbin folders that a minimal PATH may leave out.
+case ":$PATH:" in *:/usr/sbin:*) ;; *) export PATH="$PATH:/usr/sbin:/sbin" ;; esac
 PROFILE="${BANDKEEP_PROFILE:-dev}"
 if [ "$PROFILE" = "test" ]; then off=10; else off=0; fi
 off="${BANDKEEP_PORT_OFFSET:-$off}"  # a further copy (a clean clone, say) can run beside these
