@@ -6,7 +6,7 @@ import { getOverview } from "@/lib/queries/overview";
 import { listSeries } from "@/lib/queries/series";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
-import { KIND_LABELS } from "@/lib/signature-labels";
+import { KIND_LABELS } from "@/lib/registry/flagKinds";
 import { listSavedSearches } from "@/lib/search/savedSearches";
 import { SavedSearchList } from "@/components/spectra/SavedSearchList";
 

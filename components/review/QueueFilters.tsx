@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { SIGNATURE_KINDS } from "@/models/Signature";
-import { KIND_LABELS } from "@/lib/signature-labels";
+import { KIND_LABELS } from "@/lib/registry/flagKinds";
 import { ISO_DAY_PATTERN } from "@/lib/format/dates";
 
 const select = "rounded-md border border-stone-300 bg-white px-2 py-1.5 text-sm";

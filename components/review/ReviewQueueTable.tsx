@@ -5,9 +5,10 @@ import { useActionState, useOptimistic, useState } from "react";
 import { decideAction, undoAction } from "@/app/(app)/review/actions";
 import { initialActionState } from "@/lib/actions/protected-state";
 import type { ReviewItem } from "@/lib/queries/review";
-import { KIND_LABELS } from "@/lib/signature-labels";
+import { KIND_LABELS } from "@/lib/registry/flagKinds";
 import { StatusBadge } from "@/components/ui/StatusBadge";
-import { dateText, magnitudeText } from "./format";
+import { formatFlagMagnitude } from "@/lib/format/quantity";
+import { formatWhen } from "@/lib/format/dates";
 
 export type SortHeader = { key: string; label: string; href: string; active: "asc" | "desc" | null };
 
@@ -90,11 +91,11 @@ export function ReviewQueueTable({ items, headers }: { items: ReviewItem[]; head
                   </td>
                   <td className="whitespace-nowrap px-2 py-1.5 font-medium"><Link prefetch={false} className="text-glow-deep hover:underline" href={`/review/${i.id}`}>{KIND_LABELS[i.kind]}</Link></td>
                   <td className="px-2 py-1.5">{i.significance.toFixed(1)}σ</td>
-                  <td className="whitespace-nowrap px-2 py-1.5">{magnitudeText(i)}{i.energyEv !== null && <span className="block text-xs text-ink-faint">{i.energyEv.toFixed(3)} eV</span>}</td>
+                  <td className="whitespace-nowrap px-2 py-1.5">{formatFlagMagnitude(i)}{i.energyEv !== null && <span className="block text-xs text-ink-faint">{i.energyEv.toFixed(3)} eV</span>}</td>
                   <td className="max-w-48 truncate px-2 py-1.5"><Link prefetch={false} className="hover:underline" href={`/spectra/${i.spectrumId}`}>{i.fileName}</Link></td>
                   <td className="whitespace-nowrap px-2 py-1.5">{i.sampleName ?? "—"}</td>
                   <td className="max-w-40 px-2 py-1.5 text-xs text-ink-soft">{i.projectName}</td>
-                  <td className="whitespace-nowrap px-2 py-1.5 text-ink-soft">{dateText(i.createdAt).replace(/ UTC$/, "")}</td>
+                  <td className="whitespace-nowrap px-2 py-1.5 text-ink-soft">{formatWhen(i.createdAt).replace(/ UTC$/, "")}</td>
                   <td className="whitespace-nowrap px-2 py-1.5"><StatusBadge status={i.reviewState} /></td>
                 </tr>
               ))}

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { SPECTRUM_STATUSES } from "@/models/Spectrum";
 import { TECHNIQUES, TECHNIQUE_SHORT_LABELS } from "@/lib/registry/techniques";
 import { REVIEW_STATES, SIGNATURE_KINDS } from "@/models/Signature";
-import { KIND_LABELS } from "@/lib/signature-labels";
+import { KIND_LABELS } from "@/lib/registry/flagKinds";
 import { ISO_DAY_PATTERN } from "@/lib/format/dates";
 import { BAND_UNITS, type BandUnit } from "@/lib/search/bandRangeEv";
 import { BAND_KINDS, type BandKind } from "@/lib/search/spectrumSearchQuery";

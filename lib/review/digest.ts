@@ -1,9 +1,8 @@
 import { config } from "@/lib/config";
-import type { FlagKind } from "@/lib/registry/flagKinds";
 import { QueryTypes } from "sequelize";
 import { selectRows, sequelize } from "@/lib/db";
 import { sendMail } from "@/lib/mail";
-import { KIND_LABELS } from "@/lib/signature-labels";
+import { KIND_LABELS, type FlagKind } from "@/lib/registry/flagKinds";
 import { CURRENT_SIGNATURE, awaitingReviewCounts } from "./counts";
 import { models } from "@/models";
 

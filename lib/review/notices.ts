@@ -1,10 +1,9 @@
 import { QueryTypes, type Transaction } from "sequelize";
-import type { FlagKind } from "@/lib/registry/flagKinds";
 import { config } from "@/lib/config";
 import { selectRows, sequelize } from "@/lib/db";
 import { sendMail } from "@/lib/mail";
 import { noticeQueue } from "@/lib/queue";
-import { KIND_LABELS } from "@/lib/signature-labels";
+import { KIND_LABELS, type FlagKind } from "@/lib/registry/flagKinds";
 import { User, models } from "@/models";
 
 // Decision mail to uploaders, coalesced per person: each decision adds a notice row in the

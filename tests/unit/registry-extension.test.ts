@@ -94,7 +94,7 @@ describe("a fake flag kind and a fake technique added to the registries", () => 
   });
 
   it("reach the labels, colours, form fields, defaults and the engine's thresholds", async () => {
-    const { KIND_LABELS } = await import("@/lib/signature-labels");
+    const { KIND_LABELS } = await import("@/lib/registry/flagKinds");
     expect(KIND_LABELS["fake-kind" as keyof typeof KIND_LABELS]).toBe("Fake growth");
     const { FLAG_COLOURS } = await import("@/components/spectrum/markerStyle");
     expect(FLAG_COLOURS["fake-kind" as keyof typeof FLAG_COLOURS]).toBe("#123456");

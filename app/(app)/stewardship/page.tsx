@@ -5,7 +5,7 @@ import { stewardGroupIds } from "@/lib/auth/access";
 import { DATA_CLASS_LABELS, listCleanupDue, type CleanupItem } from "@/lib/stewardship/queries";
 import { ActionForm } from "@/components/stewardship/ActionForm";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
-import { formatDate } from "@/components/stewardship/format";
+import { formatDay } from "@/lib/format/dates";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { decideFlag } from "./actions";
@@ -43,7 +43,7 @@ function CleanupCard({ item }: { item: CleanupItem }) {
         <BelongsTo item={item} />
         <p className="mt-1 text-xs text-ink-soft">
           {item.rule ? `Due under the rule “keep ${DATA_CLASS_LABELS[item.rule.dataClass].toLowerCase()} ${item.rule.keepDays} days, then ask”` : "The rule that flagged it has since been removed"}
-          {item.storedAt ? ` · stored ${formatDate(item.storedAt)}` : ""} · due since {formatDate(item.flaggedAt)}
+          {item.storedAt ? ` · stored ${formatDay(item.storedAt)}` : ""} · due since {formatDay(item.flaggedAt)}
         </p>
       </div>
       <div className="flex shrink-0 gap-2">

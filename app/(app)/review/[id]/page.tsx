@@ -5,10 +5,11 @@ import { notFound } from "next/navigation";
 import { requireActor } from "@/lib/auth/actor";
 import { getSignatureReview, type ReviewHistoryEntry } from "@/lib/queries/review";
 import { loadEvidence } from "@/lib/review/loadEvidence";
-import { KIND_LABELS } from "@/lib/signature-labels";
+import { KIND_LABELS } from "@/lib/registry/flagKinds";
 import { DecisionForm } from "@/components/review/DecisionForm";
 import { EvidenceChart } from "@/components/review/EvidenceChart";
-import { dateText, magnitudeText } from "@/components/review/format";
+import { formatFlagMagnitude } from "@/lib/format/quantity";
+import { formatWhen } from "@/lib/format/dates";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 
@@ -31,12 +32,12 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
   const latest = sig.history[0];
   const undoableReviewId = latest && latest.origin === "decision" && latest.previousState !== null ? latest.id : null;
   const facts: [string, string][] = [
-    ["Magnitude", magnitudeText(sig)],
+    ["Magnitude", formatFlagMagnitude(sig)],
     ["Energy", sig.energyEv !== null ? `${sig.energyEv.toFixed(3)} eV (${(1239.841984 / sig.energyEv).toFixed(1)} nm)` : "—"],
     ["Significance", `${sig.significance.toFixed(1)}σ${sig.uncertainty !== null ? ` (standard uncertainty ${sig.uncertainty.toPrecision(2)})` : ""}`],
     ["Sample", sig.sampleName ?? "—"],
     ["Project", sig.projectName],
-    ["Flagged", dateText(sig.createdAt)],
+    ["Flagged", formatWhen(sig.createdAt)],
   ];
   return (
     <>
@@ -47,7 +48,7 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
       />
       {sig.supersededBy && (
         <div role="note" data-testid="superseded-notice" className="mb-4 rounded-lg border border-amber-300 bg-amber-50 px-4 py-3 text-sm">
-          <p className="font-medium">Replaced by a newer analysis: run {sig.supersededBy.runId.slice(0, 8)}, {dateText(sig.supersededBy.at)}.</p>
+          <p className="font-medium">Replaced by a newer analysis: run {sig.supersededBy.runId.slice(0, 8)}, {formatWhen(sig.supersededBy.at)}.</p>
           <p className="mt-1">
             {sig.supersededBy.matchId ? (
               <>That run found the same band: <Link className="text-glow-deep hover:underline" href={`/review/${sig.supersededBy.matchId}`}>its signature</Link>
@@ -100,7 +101,7 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
                   <li key={h.id} className="border-l-2 border-stone-200 pl-3">
                     <div className="flex flex-wrap items-center gap-2">
                       <StatusBadge status={h.decision} />
-                      <span className="text-ink-soft">{historyWho(h)} · {dateText(h.createdAt)}</span>
+                      <span className="text-ink-soft">{historyWho(h)} · {formatWhen(h.createdAt)}</span>
                     </div>
                     {h.carriedFromSignatureId && (
                       <p className="mt-1 text-xs">

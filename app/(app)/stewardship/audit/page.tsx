@@ -3,7 +3,7 @@ import { requireActor } from "@/lib/auth/actor";
 import { stewardGroupIds } from "@/lib/auth/access";
 import { auditActions, auditFilterSchema, listAuditEvents } from "@/lib/queries/audit";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
-import { formatTime } from "@/components/stewardship/format";
+import { formatWhen } from "@/lib/format/dates";
 import { inputClass } from "@/components/forms/Field";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
@@ -46,7 +46,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
             <tbody>
               {events.map((e) => (
                 <tr key={e.id} className="border-t border-stone-100">
-                  <td className="tabular whitespace-nowrap px-3 py-1.5 text-ink-soft">{formatTime(e.at)}</td>
+                  <td className="tabular whitespace-nowrap px-3 py-1.5 text-ink-soft">{formatWhen(e.at)}</td>
                   <td className="px-3 py-1.5">{e.actor}</td><td className="px-3 py-1.5 font-medium">{e.action}</td>
                   <td className="max-w-[12rem] truncate px-3 py-1.5 font-mono text-xs" title={e.target}>{e.target}</td>
                   <td className="max-w-xs truncate px-3 py-1.5 font-mono text-xs text-ink-soft" title={e.details}>{e.details}</td>

@@ -5,7 +5,7 @@ import { holdTargetOptions, listHolds } from "@/lib/stewardship/queries";
 import { ActionForm } from "@/components/stewardship/ActionForm";
 import { HoldTargetPicker } from "@/components/stewardship/HoldTargetPicker";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
-import { formatDate } from "@/components/stewardship/format";
+import { formatDay } from "@/lib/format/dates";
 import { inputClass } from "@/components/forms/Field";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { liftHold, placeHold } from "../actions";
@@ -40,7 +40,7 @@ export default async function HoldsPage() {
                 <tr key={h.id} className="border-t border-stone-100 align-top">
                   <td className="px-3 py-1.5"><span className="text-xs uppercase text-ink-soft">{h.targetType}</span> <span className="font-medium">{h.targetLabel}</span></td>
                   <td className="px-3 py-1.5">{h.reason}</td>
-                  <td className="whitespace-nowrap px-3 py-1.5 text-ink-soft">{formatDate(h.placedAt)} · {h.placedBy}</td>
+                  <td className="whitespace-nowrap px-3 py-1.5 text-ink-soft">{formatDay(h.placedAt)} · {h.placedBy}</td>
                   <td className="px-3 py-1.5 text-right"><ActionForm action={liftHold} submit="Lift" danger className="inline-flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={h.id} /></ActionForm></td>
                 </tr>
               ))}
@@ -52,7 +52,7 @@ export default async function HoldsPage() {
         <details className="text-sm">
           <summary className="cursor-pointer text-ink-soft">Lifted holds ({lifted.length})</summary>
           <ul className="mt-2 space-y-1">
-            {lifted.map((h) => <li key={h.id}><span className="text-xs uppercase text-ink-soft">{h.targetType}</span> {h.targetLabel}: {h.reason} — lifted {formatDate(h.liftedAt)} by {h.liftedBy}</li>)}
+            {lifted.map((h) => <li key={h.id}><span className="text-xs uppercase text-ink-soft">{h.targetType}</span> {h.targetLabel}: {h.reason} — lifted {formatDay(h.liftedAt)} by {h.liftedBy}</li>)}
           </ul>
         </details>
       )}

@@ -5,7 +5,8 @@ import { stewardGroupIds } from "@/lib/auth/access";
 import { DATA_CLASS_LABELS, listPolicies, previewPolicy, stewardProjects, type PolicyPreview } from "@/lib/stewardship/queries";
 import { ActionForm } from "@/components/stewardship/ActionForm";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
-import { formatBytes, formatDate } from "@/components/stewardship/format";
+import { formatBytes } from "@/lib/format/bytes";
+import { formatDay } from "@/lib/format/dates";
 import { inputClass } from "@/components/forms/Field";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { deletePolicy, savePolicy } from "../actions";
@@ -30,7 +31,7 @@ function PreviewList({ title, rows, empty, testId }: { title: string; rows: Poli
           {rows.map((r) => (
             <li key={r.id} className="flex flex-wrap justify-between gap-2 px-3 py-1.5">
               <span className="font-medium">{r.label}</span>
-              <span className="text-xs text-ink-soft">stored {formatDate(r.createdAt)} · expired {formatDate(r.expiredAt)} · {formatBytes(r.sizeBytes)}{r.why ? ` · ${r.why}` : ""}</span>
+              <span className="text-xs text-ink-soft">stored {formatDay(r.createdAt)} · expired {formatDay(r.expiredAt)} · {formatBytes(r.sizeBytes)}{r.why ? ` · ${r.why}` : ""}</span>
             </li>
           ))}
         </ul>
@@ -112,7 +113,7 @@ export default async function PoliciesPage({ searchParams }: { searchParams: Pro
                   <tr key={p.id} className="border-t border-stone-100">
                     <td className="px-3 py-1.5 font-medium">{p.projectName}</td><td className="px-3 py-1.5">{DATA_CLASS_LABELS[p.dataClass]}</td>
                     <td className="tabular px-3 py-1.5">{p.keepDays} days</td><td className="px-3 py-1.5">{p.onExpiry === "delete" ? "Delete" : "Ask first"}</td>
-                    <td className="px-3 py-1.5 text-ink-soft">{formatDate(p.updatedAt)}</td>
+                    <td className="px-3 py-1.5 text-ink-soft">{formatDay(p.updatedAt)}</td>
                     <td className="px-3 py-1.5 text-right"><ActionForm action={deletePolicy} submit="Remove" danger className="inline-flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={p.id} /></ActionForm></td>
                   </tr>
                 ))}

@@ -7,7 +7,7 @@ import { listShareLinks } from "@/lib/stewardship/shareLinks";
 import { ActionForm } from "@/components/stewardship/ActionForm";
 import { ShareLinkPanel } from "@/components/stewardship/ShareLinkPanel";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
-import { formatDate } from "@/components/stewardship/format";
+import { formatDay } from "@/lib/format/dates";
 import { inputClass } from "@/components/forms/Field";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { changeRole, inviteMember, removeMember, revokeInvitation, revokeShare, shareWithCollaborator } from "../actions";
@@ -93,7 +93,7 @@ export default async function SharingPage() {
                   {shares.map((s) => (
                     <tr key={s.id} className="border-t border-stone-100">
                       <td className="px-3 py-1.5"><span className="text-xs uppercase text-ink-soft">{s.targetType}</span> {s.targetLabel}</td>
-                      <td className="px-3 py-1.5">{s.grantee}</td><td className="px-3 py-1.5">{s.expiresAt ? formatDate(s.expiresAt) : "no end date"}</td>
+                      <td className="px-3 py-1.5">{s.grantee}</td><td className="px-3 py-1.5">{s.expiresAt ? formatDay(s.expiresAt) : "no end date"}</td>
                       <td className="px-3 py-1.5">{s.revokedAt ? "revoked" : s.live ? "in force" : "expired"}</td>
                       <td className="px-3 py-1.5 text-right">{s.live && <ActionForm action={revokeShare} submit="Revoke" danger className="inline-flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={s.id} /></ActionForm>}</td>
                     </tr>
@@ -118,7 +118,7 @@ export default async function SharingPage() {
         <ul className="divide-y divide-stone-100 rounded-lg border border-stone-200 bg-white text-sm" data-testid="invitations">
           {invitations.map((i) => (
             <li key={i.id} className="flex flex-wrap items-center justify-between gap-2 px-3 py-2">
-              <span><span className="font-medium">{i.email}</span> · {ROLE_LABELS[i.role as keyof typeof ROLE_LABELS]} · {i.groupName}{i.share ? ` · ${i.share}` : ""} · <span className="text-ink-soft">{i.state}{i.state === "open" ? ` until ${formatDate(i.expiresAt)}` : ""}</span></span>
+              <span><span className="font-medium">{i.email}</span> · {ROLE_LABELS[i.role as keyof typeof ROLE_LABELS]} · {i.groupName}{i.share ? ` · ${i.share}` : ""} · <span className="text-ink-soft">{i.state}{i.state === "open" ? ` until ${formatDay(i.expiresAt)}` : ""}</span></span>
               {i.state === "open" && <ActionForm action={revokeInvitation} submit="Revoke" danger className="inline-flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={i.id} /></ActionForm>}
             </li>
           ))}

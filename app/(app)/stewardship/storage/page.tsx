@@ -3,7 +3,8 @@ import { requireActor } from "@/lib/auth/actor";
 import { stewardGroupIds } from "@/lib/auth/access";
 import { DATA_CLASS_LABELS, storageOverview } from "@/lib/stewardship/queries";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
-import { formatBytes, formatDate } from "@/components/stewardship/format";
+import { formatBytes } from "@/lib/format/bytes";
+import { formatDay } from "@/lib/format/dates";
 import { PageHeader } from "@/components/ui/PageHeader";
 
 export const metadata: Metadata = { title: "Space used · Data care" };
@@ -28,7 +29,7 @@ export default async function StoragePage() {
                 <td className="tabular px-3 py-1.5 text-right">{r.items}</td><td className="tabular px-3 py-1.5 text-right">{formatBytes(r.bytes)}</td>
                 <td className="px-3 py-1.5 text-ink-soft">{r.policy ?? "kept indefinitely"}</td>
                 <td className="tabular px-3 py-1.5 text-right">{formatBytes(r.freeNow)}</td><td className="tabular px-3 py-1.5 text-right">{formatBytes(r.free30)}</td>
-                <td className="tabular px-3 py-1.5 text-right">{formatBytes(r.free365)}</td><td className="px-3 py-1.5">{formatDate(r.nextExpiry)}</td>
+                <td className="tabular px-3 py-1.5 text-right">{formatBytes(r.free365)}</td><td className="px-3 py-1.5">{formatDay(r.nextExpiry)}</td>
               </tr>
             ))}
           </tbody>
