@@ -9,13 +9,6 @@ import { isTransientFault } from "./transient";
 
 export type IncomingFile = { fileName: string; bytes: Uint8Array; contentType?: string };
 
-export type IngestFileInput = IncomingFile & {
-  actor: Actor;
-  /** Overrides metadata.projectId when given. */
-  projectId?: string;
-  metadata: Omit<IngestMetadataInput, "projectId"> & { projectId?: string };
-};
-
 /** The outcome for one file of a batch: stored (or linked as a duplicate), or refused with a reason. */
 export type FileOutcome =
   | ({ ok: true; zip?: string } & StoredFile)
@@ -102,17 +95,3 @@ export async function ingestPrepared(context: IngestContext, files: IncomingFile
   return outcomes;
 }
 
-/**
- * Stores one file (a zip is refused here: use ingestFiles for zips). Throws an
- * IngestError for anything refused; returns the stored spectrum, or the existing one with
- * `duplicate: true`.
- */
-export async function ingestFile(input: IngestFileInput): Promise<StoredFile> {
-  const limits = ingestLimits();
-  const context = await prepareIngest(input.actor, { ...input.metadata, projectId: input.projectId ?? input.metadata.projectId });
-  try {
-    return await storeFile(context, input, limits.maxFileBytes);
-  } catch (error) {
-    throw unavailable(error) ?? error;
-  }
-}

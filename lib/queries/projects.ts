@@ -1,6 +1,6 @@
 import { Op } from "sequelize";
 import type { Actor } from "@/lib/auth/actor";
-import { memberGroupIds, WRITER_ROLES } from "@/lib/auth/access";
+import { WRITER_ROLES } from "@/lib/auth/access";
 import { Project, models } from "@/models";
 
 export type ProjectChoice = { id: string; name: string; groupId: string; groupName: string };
@@ -15,10 +15,3 @@ export async function listProjectChoices(actor: Actor): Promise<ProjectChoice[]>
   return rows.map((p) => ({ id: p.id, name: p.name, groupId: p.groupId, groupName: groupName.get(p.groupId) ?? "" }));
 }
 
-/** Projects the actor reads as a member. */
-export async function listMemberProjects(actor: Actor): Promise<Project[]> {
-  models();
-  const groupIds = memberGroupIds(actor);
-  if (groupIds.length === 0) return [];
-  return Project.findAll({ where: { groupId: { [Op.in]: groupIds } }, order: [["name", "ASC"]] });
-}

@@ -2,7 +2,7 @@ import { Op } from "sequelize";
 import type { Actor } from "@/lib/auth/actor";
 import { canManageMembers, stewardGroupIds } from "@/lib/auth/access";
 import { selectRows } from "@/lib/db";
-import { Invitation, LegalHold, Membership, Project, RetentionPolicy, Series, Share, User, models } from "@/models";
+import { Invitation, LegalHold, Membership, Project, RetentionPolicy, Share, User, models } from "@/models";
 import { describeProtection, planSweep } from "./planSweep";
 import { loadSnapshot } from "./snapshot";
 import { DAY_MS, type DataClass, type PolicyRule, type SweepPlan } from "./types";
@@ -253,9 +253,4 @@ export async function storageOverview(actor: Actor, now = new Date()): Promise<S
     }
   }
   return rows;
-}
-
-export async function seriesOfProject(projectId: string) {
-  models();
-  return Series.findAll({ where: { projectId }, order: [["name", "ASC"]] });
 }
