@@ -7,6 +7,7 @@ import { recordAudit } from "@/lib/audit";
 import { selectRows } from "@/lib/db";
 import { hazardsOf, usesUvOrLaserLight, type HazardFlag } from "@/lib/hazards";
 import { Group, Project, Series, Share, Spectrum, models } from "@/models";
+import { isUuid } from "@/lib/ids";
 
 // Read-only share links: a random token that names one project or series. Only the
 // token's sha256 is stored (shares.link_token_hash); the token itself is shown once.
@@ -77,7 +78,7 @@ export async function createShareLink(
 ): Promise<CreatedLink> {
   models();
   if (input.targetType !== "project" && input.targetType !== "series") throw new ShareLinkRefused("shareTarget: choose a project or series.", "shareTarget");
-  if (!/^[0-9a-f-]{36}$/i.test(input.targetId)) throw new ShareLinkRefused(NOT_FOUND, "shareTarget");
+  if (!isUuid(input.targetId)) throw new ShareLinkRefused(NOT_FOUND, "shareTarget");
   const groupId = await groupOfTarget(input.targetType, input.targetId);
   // Another group's ids and a non-steward's request get the same answer.
   if (!groupId || !canSteward(actor, groupId)) throw new ShareLinkRefused(NOT_FOUND, "shareTarget");
@@ -102,7 +103,7 @@ export async function createShareLink(
 /** A data steward of the owning group revokes a link; the next request through it is refused. */
 export async function revokeShareLink(actor: Actor, shareId: string): Promise<void> {
   models();
-  if (!/^[0-9a-f-]{36}$/i.test(shareId)) throw new ShareLinkRefused("id: not a valid id.", "id");
+  if (!isUuid(shareId)) throw new ShareLinkRefused("id: not a valid id.", "id");
   await models().transaction(async (transaction) => {
     const share = await Share.findByPk(shareId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!share || share.linkTokenHash === null || !canSteward(actor, share.groupId)) throw new ShareLinkRefused("Not found, or not a link of a group you steward.");
@@ -131,7 +132,7 @@ export async function resolveShareLink(token: string, now = new Date()): Promise
 
 /** A spectrum reachable through the link: it must belong to the shared series, or to the shared project. */
 export async function spectrumThroughLink(link: ResolvedLink, spectrumId: string): Promise<Spectrum | null> {
-  if (!/^[0-9a-f-]{36}$/i.test(spectrumId)) return null;
+  if (!isUuid(spectrumId)) return null;
   models();
   const where = link.targetType === "series" ? { id: spectrumId, seriesId: link.targetId } : { id: spectrumId, projectId: link.targetId };
   return Spectrum.findOne({ where });

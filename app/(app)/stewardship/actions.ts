@@ -12,10 +12,12 @@ import { DeletionRefused, deleteAnalysisRun, deleteSpectrum } from "@/lib/stewar
 import { sendInvitation } from "@/lib/stewardship/invitations";
 import { ShareLinkRefused, createShareLink, revokeShareLink } from "@/lib/stewardship/shareLinks";
 import { Invitation, LegalHold, Membership, Project, RetentionFlag, RetentionPolicy, Share, User, models } from "@/models";
+import { UUID_PATTERN } from "@/lib/ids";
 
 // Writes of the stewardship pages. Every one checks the role in the owning group;
 // another group's ids are answered as "not found".
 
+const SHARE_TARGET = new RegExp(`^(project|series):${UUID_PATTERN}$`, "i");
 const id = (field: string) => z.string({ error: `${field}: required.` }).uuid(`${field}: not a valid id.`);
 const NOT_FOUND = "Not found, or not in a group you steward.";
 
@@ -137,7 +139,7 @@ export const inviteMember = protectedAction(
   z.object({
     groupId: id("groupId"), email, role: roleSchema,
     shareTarget: z.string().optional().transform((v) => v || undefined)
-      .refine((v) => !v || /^(project|series):[0-9a-f-]{36}$/i.test(v), "shareTarget: choose a project or series."),
+      .refine((v) => !v || SHARE_TARGET.test(v), "shareTarget: choose a project or series."),
   }),
   async (input, actor) => {
     models();
@@ -201,7 +203,7 @@ export const removeMember = protectedAction(z.object({ id: id("id") }), async (i
 export const shareWithCollaborator = protectedAction(
   z.object({
     email,
-    shareTarget: z.string({ error: "shareTarget: choose a project or series." }).regex(/^(project|series):[0-9a-f-]{36}$/i, "shareTarget: choose a project or series."),
+    shareTarget: z.string({ error: "shareTarget: choose a project or series." }).regex(SHARE_TARGET, "shareTarget: choose a project or series."),
     expiresOn: z.string().optional().transform((v) => v || undefined)
       .refine((v) => !v || (/^\d{4}-\d{2}-\d{2}$/.test(v) && !Number.isNaN(Date.parse(v))), "expiresOn: use a date as YYYY-MM-DD.")
       .refine((v) => !v || Date.parse(`${v}T23:59:59Z`) > Date.now(), "expiresOn: choose a date in the future."),
@@ -254,7 +256,7 @@ export const shareLinkAction = protectedAction(
   z.discriminatedUnion("intent", [
     z.object({
       intent: z.literal("create"),
-      shareTarget: z.string({ error: "shareTarget: choose a project or series." }).regex(/^(project|series):[0-9a-f-]{36}$/i, "shareTarget: choose a project or series."),
+      shareTarget: z.string({ error: "shareTarget: choose a project or series." }).regex(SHARE_TARGET, "shareTarget: choose a project or series."),
       expiresAt: z.string().optional().transform((v) => v || undefined)
         .refine((v) => !v || (/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/.test(v) && !Number.isNaN(Date.parse(`${v}:00Z`))), "expiresAt: use a date and time as YYYY-MM-DDTHH:MM (UTC)."),
     }),

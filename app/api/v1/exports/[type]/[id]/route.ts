@@ -1,9 +1,9 @@
 import { ApiError, notFound, withActor } from "@/lib/http/respond";
 import { canReadProject, canReadSeries } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
-import { isId } from "@/lib/ingest/queries";
 import { buildBundle } from "@/lib/stewardship/exportBundle";
 import { Project, Series, models } from "@/models";
+import { isUuid } from "@/lib/ids";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
@@ -12,7 +12,7 @@ export const dynamic = "force-dynamic";
 export const GET = withActor<{ params: Promise<{ type: string; id: string }> }>(async (_request, { actor, params }) => {
   const { type, id } = await params;
   if (type !== "project" && type !== "series") throw new ApiError(400, "invalid", "type: use project or series.", "type");
-  if (!isId(id)) throw notFound(`${type} ${id.slice(0, 80)}`);
+  if (!isUuid(id)) throw notFound(`${type} ${id.slice(0, 80)}`);
   models();
   let groupId: string;
   if (type === "series") {

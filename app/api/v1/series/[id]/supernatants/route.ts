@@ -6,17 +6,17 @@ import { SupernatantLinkRefused, seriesForLinking, setSupernatantLink } from "@/
 import { getSupernatantReadings } from "@/lib/series/supernatantReadings";
 import { linkBodySchema, readingsQuerySchema } from "@/lib/series/supernatantSchemas";
 import { parseViewQuery } from "@/lib/spectrum-view/viewData";
+import { isUuid } from "@/lib/ids";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 type Ctx = { params: Promise<{ id: string }> };
 
 /** GET /api/v1/series/{id}/supernatants?nmA=&nmX=[&pureA=&pureX=] — each point's linked supernatant read at the two wavelengths. */
 export const GET = withActor<Ctx>(async (request, { actor, params }) => {
   const { id } = await params;
-  if (!UUID.test(id)) throw notFound(`series ${id.slice(0, 80)}`);
+  if (!isUuid(id)) throw notFound(`series ${id.slice(0, 80)}`);
   const query = parseViewQuery(readingsQuerySchema, request.url);
   const readings = await getSupernatantReadings(actor, id, query);
   if (!readings) throw notFound(`series ${id}`);
@@ -26,7 +26,7 @@ export const GET = withActor<Ctx>(async (request, { actor, params }) => {
 /** POST /api/v1/series/{id}/supernatants — link a supernatant spectrum to a point of the series, or unlink it (pointSpectrumId null). */
 export const POST = withActor<Ctx>(async (request, { actor, params }) => {
   const { id } = await params;
-  if (!UUID.test(id)) throw notFound(`series ${id.slice(0, 80)}`);
+  if (!isUuid(id)) throw notFound(`series ${id.slice(0, 80)}`);
   await seriesForLinking(actor, id).catch((error: unknown) => { throw apiErrorOf(error); });
   if (!isJson(request)) {
     throw new ApiError(415, "unsupported-media-type", "Send JSON: {\"supernatantSpectrumId\": \"…\", \"pointSpectrumId\": \"…\" | null}.");

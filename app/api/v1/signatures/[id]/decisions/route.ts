@@ -7,19 +7,19 @@ import { reviewApiError } from "@/lib/review/apiErrors";
 import { decideSignatures, undoDecisions } from "@/lib/review/decide";
 import { decisionSchema } from "@/lib/review/schemas";
 import { z } from "zod";
+import { isUuid } from "@/lib/ids";
 
 const undoBodySchema = z.object({ undo: z.string().trim().uuid("undo must be the id (UUID) of a decision in this signature's history") }).strict();
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 type Ctx = { params: Promise<{ id: string }> };
 
 /** GET /api/v1/signatures/{id}/decisions — the signature's state and its decision history, newest first. */
 export const GET = withActor<Ctx>(async (_request, { actor, params }) => {
   const { id } = await params;
-  const review = UUID.test(id) ? await getSignatureReview(actor, id) : null;
+  const review = isUuid(id) ? await getSignatureReview(actor, id) : null;
   if (!review) throw notFound(`signature ${id.slice(0, 80)}`);
   return NextResponse.json({ id: review.id, reviewState: review.reviewState, supersededBy: review.supersededBy, history: review.history }, { headers: { "Cache-Control": "no-store" } });
 });
@@ -32,7 +32,7 @@ export const GET = withActor<Ctx>(async (_request, { actor, params }) => {
 export const POST = withActor<Ctx>(async (request, { actor, params }) => {
   const { id } = await params;
   // The caller first: another group's id is not found, a member who is not its lead is refused.
-  const review = UUID.test(id) ? await getSignatureReview(actor, id) : null;
+  const review = isUuid(id) ? await getSignatureReview(actor, id) : null;
   if (!review) throw notFound(`signature ${id.slice(0, 80)}`);
   if (review.supersededBy) {
     throw new ApiError(409, "conflict", `This flag was replaced by a newer analysis (run ${review.supersededBy.runId.slice(0, 8)}); decide on ${review.supersededBy.matchId ? `signature ${review.supersededBy.matchId}` : "the newer run's flags"}.`);
