@@ -5,7 +5,8 @@ import { toDisplayAxis, type DisplayAxis } from "./axis";
 import type { ViewArrays } from "./deriveViewArrays";
 import { yLabelFor, type SeriesKey } from "./payload";
 import { writeCsv } from "./writeCsv";
-import { resampleLinear, writeJcampDx } from "./writeJcampDx";
+import { writeJcamp } from "@/lib/formats/jcamp";
+import { resampleLinear } from "./resampleLinear";
 
 type SpectrumRef = { id: string; fileName: string; technique: Technique };
 type View = { arrays: ViewArrays; technique: Technique; yUnit: string };
@@ -57,7 +58,7 @@ export function exportFile(req: ExportRequest): ExportedFile {
   if (!y) throw new ApiError(400, "invalid", `series: this analysis has no parent reference, so there is no ${req.series} curve`, "series");
   const uniform = req.axis === "nm" ? resampleLinear(d.x, y) : { x: d.x, y };
   const fileName = `${base}.${req.series}-${req.axis}.jdx`;
-  const body = writeJcampDx({
+  const body = writeJcamp({
     title: `${req.spectrum.fileName} (${SERIES_TITLES[req.series]})`,
     dataType: TECHNIQUE_SPECS[technique].jcampDataType,
     xUnits: JCAMP_X_UNITS[req.axis],
