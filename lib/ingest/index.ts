@@ -1,5 +1,4 @@
 // The ingest pipeline: one path for the HTTP API, the upload page and the demo seed.
-export { IngestError } from "./errors";
 export { ingestFiles, type FileOutcome, type IncomingFile } from "./ingestFile";
 export { requestReanalysis, type ReanalysisResult } from "./requestReanalysis";
 export { ingestMetadataSchema, INGEST_FIELDS, type IngestMetadata, type IngestMetadataInput } from "./metadata";

@@ -1,4 +1,4 @@
-import { ApiError } from "@/lib/http/respond";
+
 import { TECHNIQUE_SPECS, type Technique } from "@/lib/registry/techniques";
 import type { AnalysisReport } from "@/lib/engine/types";
 import { toDisplayAxis, type DisplayAxis } from "./axis";
@@ -7,6 +7,7 @@ import { yLabelFor, type SeriesKey } from "./payload";
 import { writeCsv } from "./writeCsv";
 import { writeJcamp } from "@/lib/formats/jcamp";
 import { resampleLinear } from "./resampleLinear";
+import { Refusal } from "@/lib/errors";
 
 type SpectrumRef = { id: string; fileName: string; technique: Technique };
 type View = { arrays: ViewArrays; technique: Technique; yUnit: string };
@@ -55,7 +56,7 @@ export function exportFile(req: ExportRequest): ExportedFile {
     return { body, contentType: "text/csv; charset=utf-8", disposition: disposition(fileName), fileName };
   }
   const y = d.series[req.series];
-  if (!y) throw new ApiError(400, "invalid", `series: this analysis has no parent reference, so there is no ${req.series} curve`, "series");
+  if (!y) throw new Refusal(400, "invalid", `series: this analysis has no parent reference, so there is no ${req.series} curve`, "series");
   const uniform = req.axis === "nm" ? resampleLinear(d.x, y) : { x: d.x, y };
   const fileName = `${base}.${req.series}-${req.axis}.jdx`;
   const body = writeJcamp({

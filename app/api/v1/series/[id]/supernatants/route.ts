@@ -1,12 +1,13 @@
 import { NextResponse } from "next/server";
 import { isJson } from "@/lib/http/mediaType";
 import { revalidatePath } from "next/cache";
-import { ApiError, notFound, withActor } from "@/lib/http/respond";
-import { SupernatantLinkRefused, seriesForLinking, setSupernatantLink } from "@/lib/series/supernatantLinks";
+import { notFound, withActor } from "@/lib/http/respond";
+import { seriesForLinking, setSupernatantLink } from "@/lib/series/supernatantLinks";
 import { getSupernatantReadings } from "@/lib/series/supernatantReadings";
 import { linkBodySchema, readingsQuerySchema } from "@/lib/series/supernatantSchemas";
 import { parseViewQuery } from "@/lib/spectrum-view/viewData";
 import { isUuid } from "@/lib/ids";
+import { Refusal } from "@/lib/errors";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
@@ -27,28 +28,18 @@ export const GET = withActor<Ctx>(async (request, { actor, params }) => {
 export const POST = withActor<Ctx>(async (request, { actor, params }) => {
   const { id } = await params;
   if (!isUuid(id)) throw notFound(`series ${id.slice(0, 80)}`);
-  await seriesForLinking(actor, id).catch((error: unknown) => { throw apiErrorOf(error); });
+  await seriesForLinking(actor, id);
   if (!isJson(request)) {
-    throw new ApiError(415, "unsupported-media-type", "Send JSON: {\"supernatantSpectrumId\": \"…\", \"pointSpectrumId\": \"…\" | null}.");
+    throw new Refusal(415, "unsupported-media-type", "Send JSON: {\"supernatantSpectrumId\": \"…\", \"pointSpectrumId\": \"…\" | null}.");
   }
   let body: unknown;
   try {
     body = await request.json();
   } catch {
-    throw new ApiError(400, "invalid", "The body is not valid JSON.");
+    throw new Refusal(400, "invalid", "The body is not valid JSON.");
   }
   const input = linkBodySchema.parse(body ?? {});
-  try {
-    const outcome = await setSupernatantLink(actor, id, input);
-    if (outcome.changed) revalidatePath(`/series/${id}`);
-    return NextResponse.json(outcome, { status: 200 });
-  } catch (error) {
-    throw apiErrorOf(error);
-  }
+  const outcome = await setSupernatantLink(actor, id, input);
+  if (outcome.changed) revalidatePath(`/series/${id}`);
+  return NextResponse.json(outcome, { status: 200 });
 });
-
-function apiErrorOf(error: unknown): unknown {
-  if (!(error instanceof SupernatantLinkRefused)) return error;
-  const code = error.status === 404 ? "not-found" : error.status === 403 ? "forbidden" : error.status === 409 ? "conflict" : "invalid";
-  return new ApiError(error.status, code, error.message, error.field);
-}
