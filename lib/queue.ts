@@ -33,8 +33,11 @@ export function analysisQueue(): Queue<AnalysisJob> {
 }
 
 /** Job id keyed by the run, so enqueuing the same run twice adds one job. */
+/** The analysis job id of a run: one job per run, so enqueuing twice adds one job. */
+export const analysisJobId = (runId: string) => `run-${runId}`;
+
 export async function enqueueAnalysis(job: AnalysisJob): Promise<void> {
-  await analysisQueue().add("analyse", job, { jobId: `run-${job.runId}` });
+  await analysisQueue().add("analyse", job, { jobId: analysisJobId(job.runId) });
 }
 
 export type NoticeJob = { recipientId: string };

@@ -1,6 +1,6 @@
 import { config } from "@/lib/config";
 import { parseSpectrumBytes, readChoiceOptions, type ParsedSpectrum, type ReadChoice, type Technique } from "@/lib/engine";
-import { SizedLru } from "@/lib/spectrum-view/lruCache";
+import { SizedLru } from "@/lib/lruCache";
 import { getObjectBytes } from "@/lib/storage";
 
 /** What it takes to read a stored raw file back: its name (for messages), technique and object key. */

@@ -11,13 +11,13 @@ import type { AnalysisReport, ParsedSpectrum } from "@/lib/engine/types";
 import { notFound } from "@/lib/http/respond";
 import { readChoiceOf, type AnalysisParameters } from "@/lib/ingest/parameters";
 import type { ReadChoice } from "@/lib/engine";
-import { getReadableSpectrum } from "@/lib/ingest/queries";
+import { getReadableSpectrum } from "@/lib/queries/spectrum-status";
 import { redis } from "@/lib/redis";
 import { parsedRawFile, storedReadChoice } from "@/lib/rawSpectra";
 import { AnalysisRun, Spectrum, models } from "@/models";
 import { DISPLAY_AXES, type DisplayAxis } from "./axis";
 import { deriveViewArrays, type ViewArrays } from "./deriveViewArrays";
-import { SizedLru } from "./lruCache";
+import { SizedLru } from "@/lib/lruCache";
 import { buildBinaryPayload, buildDataPayload } from "./payload";
 import { Refusal } from "@/lib/errors";
 
