@@ -96,9 +96,14 @@ export function autoNormalization(
   });
   if (!fit) return none('not scaled: the concentration fit failed (too few usable points or a non-positive scale)');
   const separation = { scaleInflation: fit.scaleInflation, maxScaleInflation: MAX_SCALE_INFLATION, terms: fit.terms, droppedTerms: fit.dropped };
-  if (fit.degenerate) {
+  // A ratio the background terms can imitate is used only when it is still so precise that a 5σ
+  // error of it stays below the smallest bleach flagged: σ_k/k ≤ minBleachFraction/minSignificance
+  // (1 % with the defaults). Otherwise a trade of scale against background could itself make a flag.
+  const maxTradedRelative = t.minBleachFraction / Math.max(t.minSignificance, 1);
+  const termList = (terms: BackgroundTerm[]) => terms.map((d) => TERM_WORDS[d]).join(' and ');
+  if (fit.degenerate && fit.sigmaRatio > maxTradedRelative * fit.ratio) {
     return none(
-      `not scaled: on these data the concentration ratio cannot be told from the ${TERM_WORDS[fit.degenerate.term]} (the fit needs that term, and with it the ratio's variance is inflated ${fit.degenerate.inflation.toFixed(0)}×, more than ${MAX_SCALE_INFLATION}×: the ratio would trade against it); ${WITHHELD}`,
+      `not scaled: on these data the concentration ratio cannot be told from the ${termList(fit.degenerate.terms)} that the fit needs (variance of the ratio inflated ${fit.degenerate.inflation.toFixed(0)}×, more than ${MAX_SCALE_INFLATION}×, and the ratio ${fit.ratio.toFixed(3)} ± ${fit.sigmaRatio.toFixed(3)} is less precise than ±${(100 * maxTradedRelative).toFixed(0)} %); ${WITHHELD}`,
       false,
       separation,
     );
@@ -113,9 +118,14 @@ export function autoNormalization(
   const bgTerms = ['offset', ...(fit.terms.includes('slope') ? ['slope'] : []), ...(fit.scatterPower !== null ? [`scattering ∝ E^${fit.scatterPower} (λ^−${fit.scatterPower})`] : [])];
   const bg = bgTerms.length > 1 ? `${bgTerms.slice(0, -1).join(', ')} and ${bgTerms[bgTerms.length - 1]}` : bgTerms[0]!;
   const droppedNote =
-    fit.dropped.length > 0
-      ? `; ${fit.dropped.map((d) => TERM_WORDS[d]).join(' and ')} left out of the model: these data cannot tell ${fit.dropped.length > 1 ? 'them' : 'it'} from the scale and do not need ${fit.dropped.length > 1 ? 'them' : 'it'} (variance inflation of the ratio now ${fit.scaleInflation.toFixed(1)}, at most ${MAX_SCALE_INFLATION})`
-      : '';
+    (fit.dropped.length > 0
+      ? `; ${termList(fit.dropped)} left out of the model: these data cannot tell ${fit.dropped.length > 1 ? 'them' : 'it'} from the scale and do not need ${fit.dropped.length > 1 ? 'them' : 'it'}`
+      : '') +
+    (fit.degenerate
+      ? `; the ${termList(fit.degenerate.terms)} inflate${fit.degenerate.terms.length > 1 ? '' : 's'} the ratio's variance ${fit.scaleInflation.toFixed(0)}× (more than ${MAX_SCALE_INFLATION}×), but the ratio is still known to ±${((100 * fit.sigmaRatio) / fit.ratio).toFixed(1)} % (within ±${(100 * maxTradedRelative).toFixed(0)} %), and its uncertainty is carried into every flag`
+      : fit.dropped.length > 0
+        ? ` (variance inflation of the ratio now ${fit.scaleInflation.toFixed(1)}, at most ${MAX_SCALE_INFLATION})`
+        : '');
   const details: NormalizationReport = {
     requested: 'auto',
     applied: 'fit',

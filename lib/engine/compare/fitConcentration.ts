@@ -45,10 +45,12 @@ export interface ConcentrationFit {
   /** Variance inflation factor of k in the model used (1 = the other terms cost k no precision). */
   scaleInflation: number;
   /**
-   * Set when the data need a term that they cannot tell from the scale: k is then not determined
-   * by the data (its value trades against that term) and must not be used.
+   * Set when the data need terms that they cannot tell from the scale (inflation above
+   * MAX_SCALE_INFLATION in every model the data accept): k trades against those terms, and is
+   * usable only if its standard uncertainty (which includes the inflation) is small enough for
+   * the caller's purpose.
    */
-  degenerate: { term: BackgroundTerm; inflation: number } | null;
+  degenerate: { terms: BackgroundTerm[]; inflation: number } | null;
 }
 
 /** A smooth term of the model besides scale and offset: slope, scattering tail, shift of the continuum (R'). */
@@ -301,7 +303,7 @@ interface Model {
   inv00: number;
   inflation: number;
 }
-type SeparatedModel = Model & { dropped: BackgroundTerm[]; degenerate: { term: BackgroundTerm; inflation: number } | null };
+type SeparatedModel = Model & { dropped: BackgroundTerm[]; degenerate: { terms: BackgroundTerm[]; inflation: number } | null };
 
 /**
  * Scale and smooth background are told apart only when the background terms do not nearly
@@ -309,33 +311,27 @@ type SeparatedModel = Model & { dropped: BackgroundTerm[]; degenerate: { term: B
  * tail or the shift term R' look like part of k·R, and the fit then trades scale for them). When
  * k's variance inflation in the chosen model exceeds MAX_SCALE_INFLATION, every smaller model
  * (the same columns less some of slope, scattering and shift; scale and offset always stay) is
- * tried, and the largest one is kept whose inflation is within the limit and that the data do not
- * reject (χ² rises by less than `needGain` over the chosen model: the same 5σ likelihood-ratio
- * rule that admits a scattering term); among equals, the smaller inflation. When none qualifies,
- * the data need a term they cannot tell from the scale: the model is marked degenerate.
+ * tried. Models the data reject are out: χ² rises by more than `needGain` over the chosen model
+ * (the same 5σ likelihood-ratio rule that admits a scattering term). Of the rest, the largest with
+ * inflation within the limit is kept (among equals, the smaller inflation). When none is within the
+ * limit, the data need terms they cannot tell from the scale: the model of least inflation is kept
+ * and marked degenerate, with the terms it needed (the caller decides whether k is still usable).
  */
 function separateScale(chosen: Model, solve: (cols: number[], power: number | null) => Model | null, needGain: number): SeparatedModel {
   if (chosen.inflation <= MAX_SCALE_INFLATION) return { ...chosen, dropped: [], degenerate: null };
   const optional = chosen.cols.filter((c) => termOfColumn(c) !== null);
   let best: { model: Model; dropped: number[] } | null = null;
-  let blocking: BackgroundTerm | null = null;
+  let least: { model: Model; dropped: number[] } = { model: chosen, dropped: [] };
   // subsets of the optional columns to leave out (at most 3 columns: 7 proper subsets)
   for (let mask = 1; mask < 1 << optional.length; mask++) {
     const out = optional.filter((_c, j) => mask & (1 << j));
     const cols = chosen.cols.filter((c) => !out.includes(c));
     const f = solve(cols, cols.includes((chosen.power ?? -2) + 1) ? chosen.power : null);
-    if (!f) continue;
-    if (f.chi2 - chosen.chi2 > needGain) {
-      if (out.length === 1) blocking ??= termOfColumn(out[0]!);
-      continue;
-    }
+    if (!f || f.chi2 - chosen.chi2 > needGain) continue;
+    if (f.inflation < least.model.inflation) least = { model: f, dropped: out };
     if (f.inflation > MAX_SCALE_INFLATION) continue;
     if (!best || out.length < best.dropped.length || (out.length === best.dropped.length && f.inflation < best.model.inflation)) best = { model: f, dropped: out };
   }
-  if (!best) {
-    // the term the data need most among those that inflate k: named in the refusal
-    const term = blocking ?? termOfColumn(optional[0]!) ?? 'shift';
-    return { ...chosen, dropped: [], degenerate: { term, inflation: chosen.inflation } };
-  }
-  return { ...best.model, dropped: termsOf(best.dropped), degenerate: null };
+  if (best) return { ...best.model, dropped: termsOf(best.dropped), degenerate: null };
+  return { ...least.model, dropped: termsOf(least.dropped), degenerate: { terms: termsOf(least.model.cols), inflation: least.model.inflation } };
 }
