@@ -76,9 +76,17 @@ export function evaluateBackground(
   b: { offset: number; slope: number; centreEv: number; scatter: number; scatterPower: number | null },
 ): Float64Array {
   const out = new Float64Array(energy.length);
+  const { offset, slope, scatter, centreEv, scatterPower } = b;
+  // integer powers by multiplication (Math.pow with a variable exponent is the slow path)
+  const p = scatterPower === null || scatter === 0 ? 0 : scatterPower;
   for (let i = 0; i < out.length; i++) {
     const e = energy[i]!;
-    out[i] = b.offset + b.slope * e + (b.scatterPower !== null ? b.scatter * (e / b.centreEv) ** b.scatterPower : 0);
+    let v = offset + slope * e;
+    if (p !== 0) {
+      const t = e / centreEv;
+      v += scatter * (p === 2 ? t * t : p === 3 ? t * t * t : p === 4 ? t * t * t * t : t ** p);
+    }
+    out[i] = v;
   }
   return out;
 }
@@ -110,68 +118,17 @@ export function fitConcentration(
   const half = 0.5 * (hi - lo);
   let clipped = 0;
   let best: SeparatedModel | null = null;
+  const acc = new Float64Array(COLUMNS * COLUMNS + COLUMNS + 1);
   for (let round = 0; round <= MAX_CLIP_ROUNDS; round++) {
     // one pass: cross-products of the columns [R, 1, u, (E/Ec)^2, (E/Ec)^3, (E/Ec)^4, R'] and S
-    // scalar accumulators (this pass runs on every sample of a series: kept tight)
-    let s00 = 0, s01 = 0, s02 = 0, s03 = 0, s04 = 0, s05 = 0, s06 = 0, s11 = 0, s12 = 0, s13 = 0, s14 = 0, s15 = 0, s16 = 0, s22 = 0, s23 = 0, s24 = 0, s25 = 0, s26 = 0, s33 = 0, s34 = 0, s35 = 0, s36 = 0, s44 = 0, s45 = 0, s46 = 0, s55 = 0, s56 = 0, s66 = 0;
-    let y0 = 0, y1 = 0, y2 = 0, y3 = 0, y4 = 0, y5 = 0, y6 = 0;
-    let yy = 0;
-    let m = 0;
-    for (let i = 0; i < n; i++) {
-      if (!use[i]) continue;
-      const e = energy[i]!;
-      const t = e / centre;
-      const c0 = reference[i]!;
-      const c2 = (e - centre) / half;
-      const c3 = t * t;
-      const c4 = c3 * t;
-      const c5 = c4 * t;
-      const c6 = referenceSlope[i]!;
-      const y = sample[i]!;
-      s00 += c0 * c0;
-      s01 += c0;
-      s02 += c0 * c2;
-      s03 += c0 * c3;
-      s04 += c0 * c4;
-      s05 += c0 * c5;
-      s06 += c0 * c6;
-      s11 += 1;
-      s12 += c2;
-      s13 += c3;
-      s14 += c4;
-      s15 += c5;
-      s16 += c6;
-      s22 += c2 * c2;
-      s23 += c2 * c3;
-      s24 += c2 * c4;
-      s25 += c2 * c5;
-      s26 += c2 * c6;
-      s33 += c3 * c3;
-      s34 += c3 * c4;
-      s35 += c3 * c5;
-      s36 += c3 * c6;
-      s44 += c4 * c4;
-      s45 += c4 * c5;
-      s46 += c4 * c6;
-      s55 += c5 * c5;
-      s56 += c5 * c6;
-      s66 += c6 * c6;
-      y0 += c0 * y;
-      y1 += y;
-      y2 += c2 * y;
-      y3 += c3 * y;
-      y4 += c4 * y;
-      y5 += c5 * y;
-      y6 += c6 * y;
-      yy += y * y;
-      m++;
-    }
+    const m = accumulate(acc, energy, sample, reference, referenceSlope, use, centre, half);
     if (m < 16) return null;
-    const xtx = [s00, s01, s02, s03, s04, s05, s06, s01, s11, s12, s13, s14, s15, s16, s02, s12, s22, s23, s24, s25, s26, s03, s13, s23, s33, s34, s35, s36, s04, s14, s24, s34, s44, s45, s46, s05, s15, s25, s35, s45, s55, s56, s06, s16, s26, s36, s46, s56, s66];
-    const xty = [y0, y1, y2, y3, y4, y5, y6];
+    const xtx = acc.subarray(0, COLUMNS * COLUMNS);
+    const xty = acc.subarray(COLUMNS * COLUMNS, COLUMNS * COLUMNS + COLUMNS);
+    const yy = acc[COLUMNS * COLUMNS + COLUMNS]!;
     // spread of the reference about its mean on the used points: k's variance in a scale-and-offset
     // fit is σ²/sRR, so the variance inflation of k in any model with an offset is inv00·sRR
-    const sRR = s00 - (s01 * s01) / m;
+    const sRR = xtx[0]! - (xtx[1]! * xtx[1]!) / m;
     const solve = (cols: number[], power: number | null): Model | null => {
       const p = cols.length;
       const A = new Float64Array(p * p);
@@ -211,16 +168,17 @@ export function fitConcentration(
     // the chosen model's weight on each of the 7 columns (0 when not in the model)
     const wcol = new Float64Array(COLUMNS);
     for (let r = 0; r < chosen.cols.length; r++) wcol[chosen.cols[r]!] = chosen.coef[r]!;
-    const model = (i: number) => {
-      const e = energy[i]!;
-      const t = e / centre;
-      const t2 = t * t;
-      return wcol[0]! * reference[i]! + wcol[6]! * referenceSlope[i]! + wcol[1]! + (wcol[2]! * (e - centre)) / half + t2 * (wcol[3]! + t * (wcol[4]! + t * wcol[5]!));
-    };
+    const [w0, w1, w2, w3, w4, w5, w6] = wcol as unknown as [number, number, number, number, number, number, number];
     const w = Math.max(1, o.clipWindow);
     const sigma = Math.sqrt(noiseVar);
     const resid = new Float64Array(n);
-    for (let i = 0; i < n; i++) if (use[i] && o.clippable[i]) resid[i] = sample[i]! - model(i);
+    for (let i = 0; i < n; i++) {
+      if (!(use[i] && o.clippable[i])) continue;
+      const e = energy[i]!;
+      const t = e / centre;
+      const t2 = t * t;
+      resid[i] = sample[i]! - (w0 * reference[i]! + w6 * referenceSlope[i]! + w1 + (w2 * (e - centre)) / half + t2 * (w3 + t * (w4 + t * w5)));
+    }
     // running mean of the residual over w points of each contiguous run of used, clippable points
     const flag = new Uint8Array(n);
     let any = false;
@@ -234,12 +192,16 @@ export function fitConcentration(
       const win = Math.min(w, i - runStart);
       const limit = (CLIP_Z * sigma) / Math.sqrt(win);
       let sum = 0;
+      // flagged ranges grow left to right: each point is marked once (markedTo: end of the last range)
+      let markedTo = runStart;
       for (let j = runStart; j < runStart + win; j++) sum += resid[j]!;
       for (let j = runStart; j + win <= i; j++) {
         if (j > runStart) sum += resid[j + win - 1]! - resid[j - 1]!;
         if (Math.abs(sum / win) > limit) {
           any = true;
-          for (let q = Math.max(runStart, j - w); q < Math.min(i, j + win + w); q++) flag[q] = 1;
+          const end = Math.min(i, j + win + w);
+          for (let q = Math.max(markedTo, j - w); q < end; q++) flag[q] = 1;
+          markedTo = Math.max(markedTo, end);
         }
       }
       runStart = -1;
@@ -285,6 +247,89 @@ export function fitConcentration(
 
 /** Columns of the design: R, 1, u (slope), (E/Ec)^2, ^3, ^4 (scattering), R' (shift). */
 const COLUMNS = 7;
+
+/**
+ * Cross-products of the 7 columns and S over the used points, in one pass: acc[0..49) = XᵀX
+ * (row-major), acc[49..56) = XᵀS, acc[56] = SᵀS. Returns the number of points used. A small
+ * function of its own, so that the engine's JIT compiles this hot loop early and tight.
+ */
+function accumulate(acc: Float64Array, energy: Float64Array, sample: ArrayLike<number>, reference: ArrayLike<number>, referenceSlope: ArrayLike<number>, use: Uint8Array, centre: number, half: number): number {
+  let s00 = 0, s01 = 0, s02 = 0, s03 = 0, s04 = 0, s05 = 0, s06 = 0, s11 = 0, s12 = 0, s13 = 0, s14 = 0, s15 = 0, s16 = 0, s22 = 0, s23 = 0, s24 = 0, s25 = 0, s26 = 0, s33 = 0, s34 = 0, s35 = 0, s36 = 0, s44 = 0, s45 = 0, s46 = 0, s55 = 0, s56 = 0, s66 = 0;
+  let y0 = 0, y1 = 0, y2 = 0, y3 = 0, y4 = 0, y5 = 0, y6 = 0;
+  let yy = 0;
+  let m = 0;
+  const n = energy.length;
+  const invCentre = 1 / centre;
+  const invHalf = 1 / half;
+  for (let i = 0; i < n; i++) {
+    if (!use[i]) continue;
+    const e = energy[i]!;
+    const t = e * invCentre;
+    const c0 = reference[i]!;
+    const c2 = (e - centre) * invHalf;
+    const c3 = t * t;
+    const c4 = c3 * t;
+    const c5 = c4 * t;
+    const c6 = referenceSlope[i]!;
+    const y = sample[i]!;
+    s00 += c0 * c0;
+    s01 += c0;
+    s02 += c0 * c2;
+    s03 += c0 * c3;
+    s04 += c0 * c4;
+    s05 += c0 * c5;
+    s06 += c0 * c6;
+    s12 += c2;
+    s13 += c3;
+    s14 += c4;
+    s15 += c5;
+    s16 += c6;
+    s22 += c2 * c2;
+    s23 += c2 * c3;
+    s24 += c2 * c4;
+    s25 += c2 * c5;
+    s26 += c2 * c6;
+    s33 += c3 * c3;
+    s34 += c3 * c4;
+    s35 += c3 * c5;
+    s36 += c3 * c6;
+    s44 += c4 * c4;
+    s45 += c4 * c5;
+    s46 += c4 * c6;
+    s55 += c5 * c5;
+    s56 += c5 * c6;
+    s66 += c6 * c6;
+    y0 += c0 * y;
+    y1 += y;
+    y2 += c2 * y;
+    y3 += c3 * y;
+    y4 += c4 * y;
+    y5 += c5 * y;
+    y6 += c6 * y;
+    yy += y * y;
+    m++;
+  }
+  s11 = m;
+  const rows = [
+    [s00, s01, s02, s03, s04, s05, s06],
+    [s01, s11, s12, s13, s14, s15, s16],
+    [s02, s12, s22, s23, s24, s25, s26],
+    [s03, s13, s23, s33, s34, s35, s36],
+    [s04, s14, s24, s34, s44, s45, s46],
+    [s05, s15, s25, s35, s45, s55, s56],
+    [s06, s16, s26, s36, s46, s56, s66],
+  ];
+  for (let r = 0; r < COLUMNS; r++) for (let c = 0; c < COLUMNS; c++) acc[r * COLUMNS + c] = rows[r]![c]!;
+  acc[49] = y0;
+  acc[50] = y1;
+  acc[51] = y2;
+  acc[52] = y3;
+  acc[53] = y4;
+  acc[54] = y5;
+  acc[55] = y6;
+  acc[56] = yy;
+  return m;
+}
 const termOfColumn = (c: number): BackgroundTerm | null => (c === 2 ? 'slope' : c === 6 ? 'shift' : c >= 3 && c <= 5 ? 'scatter' : null);
 function termsOf(cols: number[]): BackgroundTerm[] {
   const out: BackgroundTerm[] = [];
