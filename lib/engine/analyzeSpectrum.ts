@@ -194,7 +194,7 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
   // concentration and background, before any band is compared
   let factor = 1;
   let background: Float64Array | undefined;
-  let details: NormalizationReport = { requested: normalization.mode, applied: 'none', factor: 1, concentrationRatio: 1, concentrationRatioUncertainty: null, background: null, regionsEv: [], reason: '' };
+  let details: NormalizationReport = { requested: normalization.mode, applied: 'none', factor: 1, concentrationRatio: 1, concentrationRatioUncertainty: null, background: null, regionsEv: [], separation: null, scaleDetermined: true, reason: '' };
   let concentrationFlag: FlagReport | null = null;
   let s: ProcessedSpectrum;
   switch (normalization.mode) {
@@ -237,7 +237,8 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
         concentrationFlag = auto.flag;
         s = processSample(factor, background);
       } else {
-        details.reason = auto ? auto.details.reason : 'no reference: nothing to scale against';
+        if (auto) details = auto.details;
+        else details.reason = 'no reference: nothing to scale against';
         s = plain ?? processSample(1);
       }
       break;
@@ -277,7 +278,7 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
         factor = 1;
         background = undefined;
         concentrationFlag = null;
-        details = { requested: normalization.mode, applied: 'none', factor: 1, concentrationRatio: 1, concentrationRatioUncertainty: null, background: null, regionsEv: [], reason: 'not scaled: the reference does not match this sample' };
+        details = { requested: normalization.mode, applied: 'none', factor: 1, concentrationRatio: 1, concentrationRatioUncertainty: null, background: null, regionsEv: [], separation: null, scaleDetermined: true, reason: 'not scaled: the reference does not match this sample' };
         s = followParent(processSample(1));
       }
     }
@@ -291,6 +292,7 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
           thresholds,
           excitationNm,
           scaleRelativeUncertainty: details.concentrationRatioUncertainty !== null ? details.concentrationRatioUncertainty / details.concentrationRatio : 0,
+          scaleUndetermined: !details.scaleDetermined,
         })
       : { flags: [], warnings: [], atmosphericBands: [] };
   warnings.push(...comparison.warnings);

@@ -6,7 +6,7 @@ import { savitzkyGolayFilter, savitzkyGolayQuadraticBank } from './signal/savitz
 import { savitzkyGolayNoiseGain } from './signal/savitzkyGolayWeights';
 import { estimateCorrelatedNoise, type CorrelatedNoiseEstimate } from './signal/estimateCorrelatedNoise';
 import { fitBaseline } from './signal/fitBaseline';
-import { findExcitonicPeaks, type ExcitonicPeak } from './peaks/findExcitonicPeaks';
+import { excitonicPeak, findExcitonicPeaks, type ExcitonicPeak } from './peaks/findExcitonicPeaks';
 import { lowEnergyHalfWidth } from './peaks/lowEnergyHalfWidth';
 import { fitDarkLevel } from './signal/fitDarkLevel';
 import type { ParsedSpectrum, Technique, XUnit } from './types';
@@ -177,7 +177,7 @@ export function processSpectrum(
           const c = base[0]!;
           for (let i = 0; i < smoothed.length; i++) smoothed[i] = smoothed[i]! - c;
           for (let i = 0; i < smoothedWide.length; i++) smoothedWide[i] = smoothedWide[i]! - c;
-          peaks = peaks.map((q) => ({ ...q, height: smoothed[q.index]! }));
+          peaks = peaks.map((q) => excitonicPeak({ ...q, height: smoothed[q.index]! }));
         } else {
           smoothed = savitzkyGolayFilter(raw, step, { windowSize: w, polynomial: p, derivative: 0 });
           smoothedWide = savitzkyGolayFilter(raw, step, { windowSize: wd, polynomial: p, derivative: 0 });
@@ -228,7 +228,7 @@ function withLowEnergyWidth(first: ExcitonicPeak, peaks: ExcitonicPeak[], energy
   const hwhm = lowEnergyHalfWidth(energy, smoothed, first.index);
   if (hwhm === null) return { first, peaks };
   const fwhm = 2 * hwhm;
-  const updated: ExcitonicPeak = { ...first, fwhmMeV: fwhm * 1000, area: first.height * fwhm * 1.0644670194312262 };
+  const updated = excitonicPeak({ ...first, fwhmMeV: fwhm * 1000, area: first.height * fwhm * 1.0644670194312262 });
   return { first: updated, peaks: peaks.map((q) => (q === first ? updated : q)) };
 }
 

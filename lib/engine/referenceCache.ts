@@ -49,7 +49,10 @@ function entryFor(ref: ParsedSpectrum): Entry {
 
 /** spectrumToEnergy(ref, technique), memoised per reference object. */
 export function referenceToEnergy(ref: ParsedSpectrum, technique: Technique): ReturnType<typeof spectrumToEnergy> {
-  const e = entryFor(ref);
+  return energyOf(entryFor(ref), ref, technique);
+}
+
+function energyOf(e: Entry, ref: ParsedSpectrum, technique: Technique): ReturnType<typeof spectrumToEnergy> {
   let v = e.energy.get(technique);
   if (!v) {
     v = spectrumToEnergy(ref, technique);
@@ -65,8 +68,9 @@ export function processReference(
   grid: { from: number; to: number; n: number },
   o: ProcessOptions,
 ): ProcessedSpectrum {
-  const re = referenceToEnergy(ref, technique);
+  // one fingerprint per call (it walks both arrays)
   const e = entryFor(ref);
+  const re = energyOf(e, ref, technique);
   const key = JSON.stringify([technique, grid.from, grid.to, grid.n, o.technique, o.windowSize, o.derivativeWindowSize, o.polynomial, o.baseline, o.minSignificance, o.excitationNm ?? null, o.excitationExclusionNm, o.scale ?? 1, o.darkLevel ?? 'none', o.xUnit ?? null]);
   let p = e.processed.get(key);
   if (!p) {

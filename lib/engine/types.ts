@@ -198,6 +198,19 @@ export interface NormalizationReport {
   background: { offset: number; slope: number; centreEv: number; scatter: number; scatterPower: number | null } | null;
   /** Energy ranges the fit used, eV. */
   regionsEv: Array<[number, number]>;
+  /**
+   * 'auto' only: how well the fit told the scale from the background. `scaleInflation` is the
+   * variance inflation factor of the ratio in the model used (accepted up to `maxScaleInflation`),
+   * `terms` the smooth terms kept besides the offset, `droppedTerms` those left out because the
+   * data could not tell them from the scale and did not need them. Null when no fit ran.
+   */
+  separation: { scaleInflation: number; maxScaleInflation: number; terms: Array<'slope' | 'scatter' | 'shift'>; droppedTerms: Array<'slope' | 'scatter' | 'shift'> } | null;
+  /**
+   * False when 'auto' was asked but the fitted ratio cannot be used (scale and background not
+   * separable, or too uncertain): flags whose size depends on the scale (bleach, new band) are then
+   * withheld, and a warning says so. True otherwise.
+   */
+  scaleDetermined: boolean;
   /** Why this choice. */
   reason: string;
 }

@@ -1,2 +1,2 @@
 /** Version of the analysis engine; bump when any reported number can change. */
-export const ENGINE_VERSION = '2.0.0';
+export const ENGINE_VERSION = '2.1.0';

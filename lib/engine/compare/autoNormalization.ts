@@ -2,7 +2,7 @@ import { HC_EV_NM } from '../constants';
 import type { ProcessedSpectrum } from '../processSpectrum';
 import type { AnalysisThresholds, FlagReport, NormalizationReport, Technique } from '../types';
 import { SYSTEMATIC_RELATIVE } from './compareSpectra';
-import { fitConcentration, type ConcentrationFit } from './fitConcentration';
+import { fitConcentration, MAX_SCALE_INFLATION, type BackgroundTerm, type ConcentrationFit } from './fitConcentration';
 
 /**
  * Continuum used for the concentration: energies at least max(0.5 eV, 4·FWHM) above the first
@@ -23,11 +23,20 @@ export interface AutoNormalization {
   flag: FlagReport | null;
 }
 
-const none = (reason: string): AutoNormalization => ({
+const none = (reason: string, scaleDetermined = true, separation: NormalizationReport['separation'] = null): AutoNormalization => ({
   fit: null,
   flag: null,
-  details: { requested: 'auto', applied: 'none', factor: 1, concentrationRatio: 1, concentrationRatioUncertainty: null, background: null, regionsEv: [], reason },
+  details: { requested: 'auto', applied: 'none', factor: 1, concentrationRatio: 1, concentrationRatioUncertainty: null, background: null, regionsEv: [], separation, scaleDetermined, reason },
 });
+
+const TERM_WORDS: Record<BackgroundTerm, string> = {
+  slope: 'baseline slope',
+  scatter: 'scattering tail',
+  shift: 'shift of the continuum',
+};
+
+/** Why a withheld scale matters, and what the caller can do (said once, in every refusal). */
+const WITHHELD = 'bleach and new-band flags, whose size depends on the ratio, are withheld (give --normalize wavelength:NM or concentration:S/R)';
 
 /**
  * 'auto' normalisation: for absorption, the reference is fitted to the sample (scale k and a smooth
@@ -86,14 +95,37 @@ export function autoNormalization(
     clippable,
   });
   if (!fit) return none('not scaled: the concentration fit failed (too few usable points or a non-positive scale)');
+  const separation = { scaleInflation: fit.scaleInflation, maxScaleInflation: MAX_SCALE_INFLATION, terms: fit.terms, droppedTerms: fit.dropped };
+  // A ratio the background terms can imitate is used only when it is still so precise that a 5σ
+  // error of it stays below the smallest bleach flagged: σ_k/k ≤ minBleachFraction/minSignificance
+  // (1 % with the defaults). Otherwise a trade of scale against background could itself make a flag.
+  const maxTradedRelative = t.minBleachFraction / Math.max(t.minSignificance, 1);
+  const termList = (terms: BackgroundTerm[]) => terms.map((d) => TERM_WORDS[d]).join(' and ');
+  if (fit.degenerate && fit.sigmaRatio > maxTradedRelative * fit.ratio) {
+    return none(
+      `not scaled: on these data the concentration ratio cannot be told from the ${termList(fit.degenerate.terms)} that the fit needs (variance of the ratio inflated ${fit.degenerate.inflation.toFixed(0)}×, more than ${MAX_SCALE_INFLATION}×, and the ratio ${fit.ratio.toFixed(3)} ± ${fit.sigmaRatio.toFixed(3)} is less precise than ±${(100 * maxTradedRelative).toFixed(0)} %); ${WITHHELD}`,
+      false,
+      separation,
+    );
+  }
   if (fit.sigmaRatio > MAX_RELATIVE_UNCERTAINTY * fit.ratio) {
-    return none(`not scaled: the concentration ratio ${fit.ratio.toFixed(2)} ± ${fit.sigmaRatio.toFixed(2)} is too uncertain to use (noise or too short a continuum)`);
+    return none(`not scaled: the concentration ratio ${fit.ratio.toFixed(2)} ± ${fit.sigmaRatio.toFixed(2)} is too uncertain to use (noise or too short a continuum); ${WITHHELD}`, false, separation);
   }
   const k = fit.ratio;
   const sigmaK = Math.sqrt(fit.sigmaRatio ** 2 + 2 * (SYSTEMATIC_RELATIVE * k) ** 2);
   const regionsEv: Array<[number, number]> = [[contFrom, energy[n - 1]!]];
   if (withGap) regionsEv.unshift([energy[0]!, gapTo]);
-  const bg = fit.scatterPower !== null ? `offset, slope and scattering ∝ E^${fit.scatterPower} (λ^−${fit.scatterPower})` : withGap ? 'offset and slope' : 'offset';
+  const bgTerms = ['offset', ...(fit.terms.includes('slope') ? ['slope'] : []), ...(fit.scatterPower !== null ? [`scattering ∝ E^${fit.scatterPower} (λ^−${fit.scatterPower})`] : [])];
+  const bg = bgTerms.length > 1 ? `${bgTerms.slice(0, -1).join(', ')} and ${bgTerms[bgTerms.length - 1]}` : bgTerms[0]!;
+  const droppedNote =
+    (fit.dropped.length > 0
+      ? `; ${termList(fit.dropped)} left out of the model: these data cannot tell ${fit.dropped.length > 1 ? 'them' : 'it'} from the scale and do not need ${fit.dropped.length > 1 ? 'them' : 'it'}`
+      : '') +
+    (fit.degenerate
+      ? `; the ${termList(fit.degenerate.terms)} inflate${fit.degenerate.terms.length > 1 ? '' : 's'} the ratio's variance ${fit.scaleInflation.toFixed(0)}× (more than ${MAX_SCALE_INFLATION}×), but the ratio is still known to ±${((100 * fit.sigmaRatio) / fit.ratio).toFixed(1)} % (within ±${(100 * maxTradedRelative).toFixed(0)} %), and its uncertainty is carried into every flag`
+      : fit.dropped.length > 0
+        ? ` (variance inflation of the ratio now ${fit.scaleInflation.toFixed(1)}, at most ${MAX_SCALE_INFLATION})`
+        : '');
   const details: NormalizationReport = {
     requested: 'auto',
     applied: 'fit',
@@ -102,10 +134,13 @@ export function autoNormalization(
     concentrationRatioUncertainty: sigmaK,
     background: { offset: fit.offset, slope: fit.slope, centreEv: fit.centreEv, scatter: fit.scatter, scatterPower: fit.scatterPower },
     regionsEv,
+    separation,
+    scaleDetermined: true,
     reason:
       `reference fitted to the sample on the continuum above ${contFrom.toFixed(2)} eV (${(HC_EV_NM / contFrom).toFixed(0)} nm), where absorbance tracks the number of dots` +
       (withGap ? ` and the transparent region below ${gapTo.toFixed(2)} eV` : '') +
       `, with a smooth background (${bg}); the sample is compared after subtracting the background and dividing by the ratio` +
+      droppedNote +
       (fit.clipped > 0 ? `; ${fit.clipped} points with local structure left out of the fit` : ''),
   };
   const change = k - 1;

@@ -41,6 +41,11 @@ export interface CompareOptions {
   forceInnerFilterCorrection?: boolean | undefined;
   /** Relative standard uncertainty of the concentration scaling applied to the sample (0 when none was fitted). */
   scaleRelativeUncertainty?: number | undefined;
+  /**
+   * The concentration ratio was asked for ('auto') but could not be determined: bleach and new-band
+   * flags, whose size depends on it, are not raised (shift and broadening carry their own amplitude).
+   */
+  scaleUndetermined?: boolean | undefined;
 }
 
 export interface ComparisonResult {
@@ -155,7 +160,10 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
   // ---- bleach at the reference's first-exciton energy (absorption), net of any shift/broadening:
   // the drop of the band after following it (fitted model without its amplitude change minus the
   // sample, at E*), so a shift's share of the drop at a fixed energy is not counted as bleach.
-  if (fx && o.technique === 'absorption') {
+  if (o.scaleUndetermined) {
+    warnings.push('concentration ratio not determined (see parameters.normalization.details.reason): bleach and new-band flags withheld');
+  }
+  if (fx && o.technique === 'absorption' && !o.scaleUndetermined) {
     const Ar = interpAt(E, r.smoothed, fx.energyEv);
     const As = interpAt(E, s.smoothed, fx.energyEv);
     if (Ar > 0) {
@@ -236,12 +244,13 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
       if (b.present) warnings.push(`${b.name} (${b.fromCm1}–${b.toCm1} cm⁻¹) seen in the difference: atmospheric, ${b.masked ? 'masked' : 'not masked'} before band flags`);
     }
   }
-  const uncertaintyAt = (i: number) => Math.sqrt(sigmaD ** 2 + SYSTEMATIC_RELATIVE ** 2 * (sDer[i]! ** 2 + rDer[i]! ** 2));
+  // noise, 0.5 % systematic on each spectrum, and the scale's own uncertainty (the sample was divided by it)
+  const uncertaintyAt = (i: number) => Math.sqrt(sigmaD ** 2 + SYSTEMATIC_RELATIVE ** 2 * (sDer[i]! ** 2 + rDer[i]! ** 2) + (scaleRel * sDer[i]!) ** 2);
   // a band of the reference that grew is a changed band, not a new one (mid-IR: band-change below)
   const referenceBands = o.technique === 'ir' ? r.peaks : [];
   const hasCounterpart = (e: number) => referenceBands.some((p) => Math.abs(p.energyEv - e) <= Math.max((p.fwhmMeV ?? 0) / 1000, wd * s.step));
   const candidates: FlagReport[] = [];
-  const maxima = findLocalMaxima(excess);
+  const maxima = o.scaleUndetermined ? [] : findLocalMaxima(excess);
   // prominences only when some maximum passes the height thresholds (none in most noise-only pairs)
   let any = false;
   for (let k = 0; k < maxima.length && !any; k++) {

@@ -38,6 +38,25 @@ export interface ExcitonicPeak extends Omit<PeakReport, 'bandRole'> {
 }
 
 /**
+ * Every peak object is built here, from one object literal with one field order, so that the code
+ * reading peaks sees a single object shape (a copy made by spreading can get another hidden class
+ * in V8, and code reading both kinds was re-optimised over and over).
+ */
+export function excitonicPeak(p: ExcitonicPeak): ExcitonicPeak {
+  return {
+    index: p.index,
+    kind: p.kind,
+    energyEv: p.energyEv,
+    wavelengthNm: p.wavelengthNm,
+    height: p.height,
+    amplitude: p.amplitude,
+    fwhmMeV: p.fwhmMeV,
+    area: p.area,
+    significance: p.significance,
+  };
+}
+
+/**
  * Excitonic peaks on a uniform, ascending energy grid: local maxima of the smoothed signal
  * (prominence-based FWHM as scipy.signal.peak_widths at rel_height 0.5) and shoulders, found as
  * minima of the smoothed second derivative (common practice for first excitons with no local
@@ -84,7 +103,7 @@ export function findExcitonicPeaks(
     if (significance < minSig) continue;
     const fwhm = widths[k]! * step;
     const eRefined = refine(energy, smoothed, i);
-    peaks.push({
+    peaks.push(excitonicPeak({
       index: i,
       kind: 'maximum',
       energyEv: eRefined,
@@ -94,7 +113,7 @@ export function findExcitonicPeaks(
       fwhmMeV: fwhm * 1000,
       area: prominences[k]! * fwhm * 1.0644670194312262,
       significance,
-    });
+    }));
   }
   // shoulders: minima of y'' with y'' < 0. For each point, the nearest index at or before
   // (after) it where y'' ≥ 0 (or the end), found in one pass each way.
@@ -145,7 +164,7 @@ export function findExcitonicPeaks(
     const significance = -d / (sigD * (loc ? loc(i) : 1));
     if (significance < minSig) continue;
     const e = refine(energy, secondDerivative, i, true);
-    peaks.push({
+    peaks.push(excitonicPeak({
       index: i,
       kind: 'shoulder',
       energyEv: e,
@@ -155,7 +174,7 @@ export function findExcitonicPeaks(
       fwhmMeV: fwhm * 1000,
       area: amplitude * fwhm * 1.0644670194312262,
       significance,
-    });
+    }));
   }
   peaks.sort((a, b) => a.energyEv - b.energyEv);
   return peaks;
