@@ -202,3 +202,27 @@ describe('a ratio the background imitates and the data cannot pin: refused, said
     expect(kinds(r)).not.toContain('new-band');
   });
 });
+
+describe('data that stop before the continuum: no ratio can be fitted, so no scale-dependent flag', () => {
+  // 500–750 nm reaches 2.48 eV, 0.33 eV above the first exciton: less than the 0.5 eV the
+  // continuum starts at (CONTINUUM_OFFSET_EV). engine 2.0 compared such a pair unscaled and read a
+  // 0.7× dilution as a ~30 % bleach.
+  const SHORT: [number, number, number] = [500, 750, 0.5];
+  it('a pure 0.7× dilution: auto refused with the reason, no bleach and no new band', () => {
+    const r = analysePair({ k: 0.7, noise: 0.0015, seed: 4, nm: SHORT });
+    const d = r.parameters.normalization.details;
+    expect(d.applied).toBe('none');
+    expect(d.scaleDetermined).toBe(false);
+    expect(d.reason).toMatch(/no continuum to scale on.*withheld/);
+    expect(kinds(r).filter((k) => k === 'bleach' || k === 'new-band')).toEqual([]);
+  });
+  it('the same pair with a 20 % bleach and the concentrations given: scaled by them and the bleach is read', () => {
+    const fx = E1;
+    const reference = spectrum('parent.csv', { scale: 1, bleach: 0, offset: 0, slope: 0, noise: 0.0015, seed: 4, nm: SHORT, fx });
+    const sample = spectrum('sample.csv', { scale: 0.7, bleach: 0.2, offset: 0, slope: 0, noise: 0.0015, seed: 1004, nm: SHORT, fx });
+    const r = analyzeSpectrum(sample, { reference, normalization: { mode: 'concentration', sampleConcentration: 0.7, referenceConcentration: 1 } });
+    const b = r.flags.find((f) => f.kind === 'bleach');
+    expect(b).toBeDefined();
+    expect(Math.abs(b!.fraction! - trueBleach(0.2))).toBeLessThan(BLEACH_TOL);
+  });
+});

@@ -76,7 +76,8 @@ export function autoNormalization(
   }
   if (cont < MIN_REGION_POINTS) {
     return none(
-      `not scaled: the data reach ${(HC_EV_NM / energy[n - 1]!).toFixed(0)} nm, less than ${Math.max(CONTINUUM_OFFSET_EV, 4 * f).toFixed(2)} eV above the first exciton: no continuum to scale on (use --normalize wavelength:NM or concentration:S/R)`,
+      `not scaled: the data reach ${(HC_EV_NM / energy[n - 1]!).toFixed(0)} nm, less than ${Math.max(CONTINUUM_OFFSET_EV, 4 * f).toFixed(2)} eV above the first exciton: no continuum to scale on; ${WITHHELD}`,
+      false,
     );
   }
   const withGap = gap >= MIN_REGION_POINTS;
@@ -94,7 +95,7 @@ export function autoNormalization(
     allowSlopeAndScatter: withGap,
     clippable,
   });
-  if (!fit) return none('not scaled: the concentration fit failed (too few usable points or a non-positive scale)');
+  if (!fit) return none(`not scaled: the concentration fit failed (too few usable points or a non-positive scale); ${WITHHELD}`, false);
   const separation = { scaleInflation: fit.scaleInflation, maxScaleInflation: MAX_SCALE_INFLATION, terms: fit.terms, droppedTerms: fit.dropped };
   // A ratio the background terms can imitate is used only when it is still so precise that a 5σ
   // error of it stays below the smallest bleach flagged: σ_k/k ≤ minBleachFraction/minSignificance
