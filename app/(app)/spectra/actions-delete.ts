@@ -2,10 +2,10 @@
 
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
-import { z } from "zod";
 import { ActionRefused, protectedAction } from "@/lib/actions/protected";
 import { canDeleteInGroup, groupOfSpectrum } from "@/lib/auth/access";
 import { DeletionRefused, deleteSpectrum } from "@/lib/stewardship/deletion";
+import { deleteSpectrumInput } from "@/lib/stewardship/deleteConfirm";
 import { Spectrum, models } from "@/models";
 
 /**
@@ -14,26 +14,20 @@ import { Spectrum, models } from "@/models";
  * that others use as their reference is refused too. A tombstone and an audit event remain.
  */
 export const deleteSpectrumAction = protectedAction(
-  z.object({
-    spectrumId: z.string({ error: "spectrumId: required." }).uuid("spectrumId: not a valid id."),
-    confirm: z
-      .string({ error: "confirm: type delete to confirm." })
-      .trim()
-      .toLowerCase()
-      .pipe(z.literal("delete", { error: "confirm: type delete to confirm." })),
-  }),
+  deleteSpectrumInput,
   async (input, actor) => {
     models();
     const spectrum = await Spectrum.findByPk(input.spectrumId);
     const groupId = spectrum ? await groupOfSpectrum(spectrum) : null;
     if (!spectrum || !groupId || !canDeleteInGroup(actor, groupId)) throw new ActionRefused("Spectrum not found.", "spectrumId");
+    let tombstoneId: string;
     try {
-      await deleteSpectrum(spectrum.id, { cause: actor.memberships.some((m) => m.groupId === groupId && m.role === "steward") ? "steward" : "owner", actorId: actor.id, actorLabel: actor.email });
+      ({ id: tombstoneId } = await deleteSpectrum(spectrum.id, { cause: actor.memberships.some((m) => m.groupId === groupId && m.role === "steward") ? "steward" : "owner", actorId: actor.id, actorLabel: actor.email }));
     } catch (error) {
       if (error instanceof DeletionRefused) throw new ActionRefused(error.message);
       throw error;
     }
     revalidatePath("/spectra");
-    redirect("/spectra?deleted=1");
+    redirect(`/spectra?deleted=${tombstoneId}`);
   },
 );
