@@ -34,7 +34,7 @@ beforeAll(async () => {
   token = created.token;
   shareId = created.shareId;
   leadCookie = await sessionCookie(DEMO.lead, DEMO_PASSWORD);
-  points = await selectRows("SELECT id, file_name FROM spectra WHERE series_id = :id AND status = 'done' ORDER BY series_value", { id: ids.sharedSeries.id });
+  points = await selectRows("SELECT id, file_name FROM spectra WHERE series_id = :id AND status = 'analysed' ORDER BY series_value", { id: ids.sharedSeries.id });
 }, 60_000);
 afterAll(closeDb);
 
@@ -80,7 +80,7 @@ describe("a series share link, signed out", () => {
 
   it("reaches every point and every supernatant of the shared series, and the raw files too", async () => {
     const supernatants = await selectRows<{ id: string }>(
-      "SELECT s.id FROM spectra s JOIN spectra p ON p.id = s.supernatant_of_spectrum_id WHERE p.series_id = :id AND s.status = 'done'", { id: ids.sharedSeries.id },
+      "SELECT s.id FROM spectra s JOIN spectra p ON p.id = s.supernatant_of_spectrum_id WHERE p.series_id = :id AND s.status = 'analysed'", { id: ids.sharedSeries.id },
     );
     expect(supernatants.length).toBeGreaterThan(0);
     for (const { id } of [...points, ...supernatants]) {

@@ -92,7 +92,7 @@ export default async function SharedPage({ params, searchParams }: { params: Pro
     if (!series) notFound();
     const project = await Project.findByPk(series.projectId, { attributes: ["name"] });
     const [points, supernatants] = await Promise.all([getSeriesPoints(series.id, { withReview: false }), sharedSupernatants(link)]);
-    const fallback = (points.find((p) => p.status === "done") ?? points[0])?.spectrumId;
+    const fallback = (points.find((p) => p.status === "analysed") ?? points[0])?.spectrumId;
     const shown = asked ?? fallback;
     const variable = `${series.variableName || "Variable"}${series.variableUnit ? ` (${series.variableUnit})` : ""}`;
     return (
@@ -133,7 +133,7 @@ export default async function SharedPage({ params, searchParams }: { params: Pro
 
   const project = await linkedProject(link.targetId);
   if (!project) notFound();
-  const fallback = (project.spectra.find((s) => s.status === "done") ?? project.spectra[0])?.id;
+  const fallback = (project.spectra.find((s) => s.status === "analysed") ?? project.spectra[0])?.id;
   const shown = asked ?? fallback;
   return (
     <>
