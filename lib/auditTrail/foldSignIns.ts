@@ -38,7 +38,8 @@ export function foldSignIns<E extends FoldableEvent>(events: readonly E[]): Fold
   return out;
 }
 
-/** "Ada Byron signed in 14 times between 2 Dec 2026, 09:00 UTC and 2 Dec 2026, 15:12 UTC". */
+/** "Ada Byron signed in 14 times between 2 Dec 2026, 09:00 UTC and 2 Dec 2026, 15:12 UTC" (or "at …" within one minute). */
 export function foldedSentence(name: string, count: number, first: string, last: string): string {
-  return `${name} signed in ${count.toLocaleString("en-GB")} times between ${formatWhen(first)} and ${formatWhen(last)}`;
+  const [from, to] = [formatWhen(first), formatWhen(last)];
+  return `${name} signed in ${count.toLocaleString("en-GB")} times ${from === to ? `at ${from}` : `between ${from} and ${to}`}`;
 }

@@ -211,6 +211,7 @@ describe("consecutive sign-ins fold per person", () => {
 
   it("writes the folded line as a sentence", () => {
     expect(foldedSentence("Imre Vasko", 14, "2026-12-01T08:00:00Z", "2026-12-02T15:12:00Z")).toBe("Imre Vasko signed in 14 times between 1 Dec 2026, 08:00 UTC and 2 Dec 2026, 15:12 UTC");
+    expect(foldedSentence("Imre Vasko", 2, "2026-12-02T15:12:05Z", "2026-12-02T15:12:40Z")).toBe("Imre Vasko signed in 2 times at 2 Dec 2026, 15:12 UTC");
   });
 
   it("does not fold what is not a run: sign-ins separated by other events stay apart", () => {

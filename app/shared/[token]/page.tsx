@@ -107,7 +107,7 @@ export default async function SharedPage({ params, searchParams }: { params: Pro
           <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
             <table className="w-full text-sm" data-testid="shared-series-table">
               <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft">
-                <tr><th className="px-3 py-2 normal-case">{variable}</th><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Bleach</th><th className="px-3 py-2">PL quench</th><th className="px-3 py-2">Shift (meV)</th><th className="px-3 py-2">State</th><th className="px-3 py-2"><span className="sr-only">Plot</span></th></tr>
+                <tr><th className="px-3 py-2 normal-case">{variable}</th><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Bleach</th><th className="px-3 py-2">PL quench</th><th className="px-3 py-2">Shift (meV)</th><th className="px-3 py-2">State</th><th className="px-3 py-2" aria-label="Plot" /></tr>
               </thead>
               <tbody className="tabular">
                 {points.map((p) => (
@@ -153,7 +153,7 @@ export default async function SharedPage({ params, searchParams }: { params: Pro
       {project.spectra.length === 0 ? <p className="text-sm text-ink-soft">No spectra.</p> : (
         <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm" data-testid="shared-spectra-table">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Technique</th><th className="px-3 py-2">Series</th><th className="px-3 py-2">State</th><th className="px-3 py-2"><span className="sr-only">Plot</span></th></tr></thead>
+            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Technique</th><th className="px-3 py-2">Series</th><th className="px-3 py-2">State</th><th className="px-3 py-2" aria-label="Plot" /></tr></thead>
             <tbody>
               {project.spectra.map((s) => (
                 <tr key={s.id} className="border-t border-stone-100">
