@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { csvLine } from "@/lib/csv/csvCell";
+import { csvLine } from "@/lib/formats/csv";
 import type { Actor } from "@/lib/auth/actor";
 import { memberGroupIds, readableScope, stewardGroupIds } from "@/lib/auth/access";
 import { selectRows } from "@/lib/db";

@@ -1,5 +1,6 @@
 import { z } from "zod";
-import { ApiError, forbidden, withActor } from "@/lib/http/respond";
+import { forbidden, withActor } from "@/lib/http/respond";
+import { refuse } from "@/lib/errors";
 import { stewardGroupIds } from "@/lib/auth/access";
 import { AUDIT_API_MAX_PAGE, AUDIT_PAGE_SIZE, auditCsvStream, auditFilterSchema, listAuditJson } from "@/lib/queries/audit";
 
@@ -20,9 +21,9 @@ export const GET = withActor(async (request, { actor }) => {
   if (stewardGroupIds(actor).length === 0) throw forbidden("the audit trail (data stewards only)");
   const params = Object.fromEntries(new URL(request.url).searchParams);
   const shape = formatSchema.safeParse({ format: params.format || undefined, limit: params.limit || undefined });
-  if (!shape.success) throw new ApiError(400, "invalid", shape.error.issues[0]!.message, String(shape.error.issues[0]!.path[0] ?? ""));
+  if (!shape.success) throw refuse(400, shape.error.issues[0]!.message, String(shape.error.issues[0]!.path[0] ?? ""));
   const parsed = auditFilterSchema.safeParse(params);
-  if (!parsed.success) throw new ApiError(400, "invalid", parsed.error.issues[0]!.message, String(parsed.error.issues[0]!.path[0] ?? ""));
+  if (!parsed.success) throw refuse(400, parsed.error.issues[0]!.message, String(parsed.error.issues[0]!.path[0] ?? ""));
   const headers = { "Cache-Control": "private, no-store" };
   if (shape.data.format === "json") return Response.json(await listAuditJson(actor, parsed.data, shape.data.limit), { headers });
   return new Response(auditCsvStream(actor, parsed.data), {

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { ApiError } from "@/lib/http/respond";
+import { Refusal } from "@/lib/errors";
 import { DISPLAY_AXES } from "@/lib/spectrum-view/axis";
 import { COLUMNS_MEDIA_TYPE } from "@/lib/spectrum-view/columnsFormat";
 import { exportFile } from "@/lib/spectrum-view/exportFile";
@@ -53,7 +53,7 @@ export async function GET(request: Request, { params }: { params: Promise<{ toke
     });
     return new Response(file.body, { status: 200, headers: { ...PRIVATE, "Content-Type": file.contentType, "Content-Disposition": file.disposition } });
   } catch (error) {
-    if (error instanceof ApiError) return refused(error.status, error.code, error.message);
+    if (error instanceof Refusal) return refused(error.status, error.code, error.message);
     console.error("shared curves failed:", error instanceof Error ? error.message : error);
     return refused(503, "unavailable", "The curves could not be read just now; try again in a minute.");
   }
