@@ -8,7 +8,7 @@ import { closeDb, selectRows } from "@/lib/db";
 import { listReviewQueue } from "@/lib/queries/review";
 import { getSample } from "@/lib/queries/samples";
 import { listSpectra } from "@/lib/queries/spectra";
-import { listAuditEvents } from "@/lib/queries/audit";
+import { listAuditPage } from "@/lib/queries/audit";
 import { queueQuerySchema } from "@/lib/review/schemas";
 import { encodeCursor } from "@/lib/search/keysetCursor";
 import { spectrumSearchSchema } from "@/lib/search/spectrumSearchQuery";
@@ -57,7 +57,7 @@ const cases: [string, number, () => Promise<unknown>][] = [
   ["band + flag: bleach ≥ 20 %, ≥ 5σ, awaiting", RUNS, () => listSpectra(lead, search({ band: "first-exciton", bandMin: "570", bandMax: "590", flag: "bleach", flagMin: "0.2", flagSig: "5", review: "awaiting" }))],
   ["review queue, bleach ≥ 5σ", RUNS, () => listReviewQueue(lead, queueQuerySchema.parse({ kind: "bleach", minSignificance: "5" }))],
   ["sample detail", RUNS, () => getSample(lead, sample!.id)],
-  ["audit trail, first 200", RUNS, () => listAuditEvents(steward, { limit: 200 })],
+  ["audit trail, first 200", RUNS, () => listAuditPage(steward, {}, 200)],
   ["storage overview", SLOW_RUNS, () => storageOverview(steward)],
   ["retention dry-run (one project, raw, 365 d)", SLOW_RUNS, () => previewPolicy({ projectId: project!.id, dataClass: "raw", keepDays: 365, onExpiry: "delete" })],
 ];

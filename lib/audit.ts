@@ -1,11 +1,13 @@
 import type { Transaction } from "sequelize";
+import type { AuditAction } from "@/lib/auditTrail/eventKinds";
 import { AuditEvent, models } from "@/models";
 
 export type AuditInput = {
   actorId: string | null;
   actorLabel?: string;
   groupId?: string | null;
-  action: string;
+  /** A code of lib/auditTrail/eventKinds.ts, so every event written has a category and a sentence. */
+  action: AuditAction;
   targetType?: string;
   targetId?: string;
   details?: Record<string, unknown>;

@@ -3,6 +3,7 @@ import { FLAG_KINDS, FLAG_UNITS, THRESHOLD_SPECS } from "@/lib/registry/flagKind
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "@/lib/ingest/metadata";
 import { MAX_CONCENTRATION_RATIO, NORMALIZATION_WAVELENGTH_NM } from "@/lib/ingest/normalization";
 import { X_UNIT_NAMES, Y_KIND_NAMES } from "@/lib/engine/parse/readChoice";
+import { AUDIT_CATEGORIES } from "@/lib/auditTrail/eventKinds";
 
 const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
 const errorResponse = (description: string) => ({ description, content: { "application/json": { schema: ref("Error") } } });
@@ -277,14 +278,16 @@ export function openApiDocument() {
         },
       },
       "/api/v1/audit": {
-        get: readOperation("exportAudit", "The audit trail of the groups the caller stewards, filtered, as CSV (format=csv) or JSON", [
+        get: readOperation("exportAudit", "The audit trail of the groups the caller stewards, newest first: JSON one page at a time (next is the cursor of the following page), CSV the whole selection with raw codes and full details", [
           queryParam("format", "csv or json", { type: "string", enum: ["csv", "json"] }),
-          queryParam("action", "Action name", { type: "string" }),
-          queryParam("actor", "Actor e-mail or id", { type: "string" }),
-          queryParam("target", "Target type or id", { type: "string" }),
+          queryParam("category", "sign-in, upload, analysis, decision, sharing, retention or holds", { type: "string", enum: [...AUDIT_CATEGORIES] }),
+          queryParam("person", "A person's id (their events in the caller's groups)", { type: "string", format: "uuid" }),
+          queryParam("action", "One raw event code", { type: "string" }),
           queryParam("from", "On or after (YYYY-MM-DD)", { type: "string", format: "date" }),
           queryParam("to", "On or before (YYYY-MM-DD)", { type: "string", format: "date" }),
-        ], "text/csv", { "403": errorResponse("The caller stewards no group") }),
+          queryParam("after", "Cursor from the previous JSON page's next", { type: "string" }),
+          queryParam("limit", "JSON page size, 1 to 1000 (default 50)", { type: "integer", minimum: 1, maximum: 1000 }),
+        ], "text/csv", { "400": errorResponse("A filter is not valid (the field is named)"), "403": errorResponse("The caller stewards no group") }),
       },
       "/api/v1/exports/{type}/{id}": {
         get: readOperation("exportBundle", "A project or series as one zip: raw files, processed CSV and JCAMP-DX, analyses as JSON, a manifest with sha256, a README", [

@@ -125,12 +125,20 @@ export async function resolveShareLink(token: string, now = new Date()): Promise
   return { shareId: share.id, groupId: share.groupId, groupName: group?.name ?? "", targetType: share.targetType, targetId: share.targetId, expiresAt: share.expiresAt };
 }
 
-/** A spectrum reachable through the link: it must belong to the shared series, or to the shared project. */
+/**
+ * A spectrum reachable through the link: it must belong to the shared project, or to the shared
+ * series, or be the supernatant measured for a point of the shared series (part of that point's
+ * measurement, as canReadSpectrum reads it for a collaborator).
+ */
 export async function spectrumThroughLink(link: ResolvedLink, spectrumId: string): Promise<Spectrum | null> {
   if (!isUuid(spectrumId)) return null;
   models();
-  const where = link.targetType === "series" ? { id: spectrumId, seriesId: link.targetId } : { id: spectrumId, projectId: link.targetId };
-  return Spectrum.findOne({ where });
+  if (link.targetType === "project") return Spectrum.findOne({ where: { id: spectrumId, projectId: link.targetId } });
+  const spectrum = await Spectrum.findByPk(spectrumId);
+  if (!spectrum) return null;
+  if (spectrum.seriesId === link.targetId) return spectrum;
+  const pointId = spectrum.supernatantOfSpectrumId;
+  return pointId && (await Spectrum.count({ where: { id: pointId, seriesId: link.targetId } })) === 1 ? spectrum : null;
 }
 
 // --- what the public page shows ---

@@ -90,7 +90,7 @@ export function scaleSeedSql(n: number, passwordHash: string): string[] {
        FROM generate_series(1, ${n}) i WHERE i % 100 <> 0 AND i % 3 <> 0`,
     `INSERT INTO audit_events (at, actor_id, actor_label, group_id, action, target_type, target_id, details)
        SELECT s.created_at + k * interval '1 minute', s.uploaded_by, 'scale', ${uuidOf(`'g' || ${groupOf(sampleOf("i"))}`)},
-              (ARRAY['spectrum.uploaded','analysis.queued','analysis.done','signature.created','spectrum.viewed'])[k + 1],
+              (ARRAY['spectrum.upload','analysis.request','signatures-superseded','signature-decided','exported'])[k + 1],
               'spectrum', s.id::text, '{}'
        FROM generate_series(1, ${n}) i JOIN spectra s ON s.id = ${uuidOf(`'s' || i`)}, generate_series(0, 4) k`,
     "VACUUM ANALYZE",

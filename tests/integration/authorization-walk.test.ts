@@ -21,6 +21,7 @@ type Call = { method: string; path: (ids: Ids) => string; body?: () => BodyInit;
 const PUBLIC_ROUTES: Record<string, string> = {
   "api/auth/[...nextauth]": "next-auth's own sign-in endpoints",
   "api/health": "service status for the start script and load balancers; names no lab data",
+  "shared/[token]/curves/[spectrumId]": "read-only share link: the processed curves (chart data, CSV, JCAMP-DX) of a spectrum within the share, token-guarded like the raw route (see below and share-link-curves.test.ts)",
   "shared/[token]/raw/[spectrumId]": "read-only share link: public by design but token-guarded (a wrong, revoked or expired token, or a spectrum outside the share, is 404; see below and stewardship-share-links.test.ts)",
 };
 
@@ -119,10 +120,12 @@ describe("authorization walk over every route handler", () => {
   it("refuses a share-link download with a wrong token, whoever asks", async () => {
     const wrong = randomBytes(32).toString("base64url");
     for (const cookie of [undefined, cookies.collaborator, cookies.otherGroup]) {
-      const response = await fetch(url(`/shared/${wrong}/raw/${ids.privateSpectrum.id}`), { redirect: "manual", headers: cookie ? { cookie } : {} });
-      expect(response.status).toBe(404);
-      expect(response.headers.get("cache-control")).toBe("private, no-store");
-      expect(((await response.json()) as { error: { code: string } }).error.code).toBe("not_found");
+      for (const path of [`/shared/${wrong}/raw/${ids.privateSpectrum.id}`, `/shared/${wrong}/curves/${ids.sharedSpectrum.id}?format=csv`]) {
+        const response = await fetch(url(path), { redirect: "manual", headers: cookie ? { cookie } : {} });
+        expect(response.status, path).toBe(404);
+        expect(response.headers.get("cache-control")).toBe("private, no-store");
+        expect(((await response.json()) as { error: { code: string } }).error.code).toBe("not_found");
+      }
     }
     const malformed = await fetch(url(`/shared/not-a-token/raw/${ids.privateSpectrum.id}`), { redirect: "manual" });
     expect(malformed.status).toBe(404);

@@ -13,6 +13,8 @@ import { StatusBadge } from "@/components/ui/StatusBadge";
 import { SaveSearchForm } from "@/components/spectra/SaveSearchForm";
 import { SpectrumSearchForm } from "@/components/spectra/SpectrumSearchForm";
 import { formatWhen } from "@/lib/format/dates";
+import { getDeletionNotice } from "@/lib/queries/deletions";
+import { DeletedBanner } from "@/components/stewardship/DeletedBanner";
 
 export const metadata: Metadata = { title: "Spectra" };
 
@@ -24,15 +26,18 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
   const parsed = spectrumSearchSchema.safeParse(values);
   const error = parsed.success ? null : { field: String(parsed.error.issues[0]?.path[0] ?? "q"), message: `${String(parsed.error.issues[0]?.path[0] ?? "search")}: ${parsed.error.issues[0]?.message ?? "not valid"}` };
   const search = parsed.success ? parsed.data : null;
-  const [page, choices] = await Promise.all([
+  const deletedId = typeof values.deleted === "string" ? values.deleted : null;
+  const [page, choices, deleted] = await Promise.all([
     search ? listSpectra(actor, search).then((p) => p ?? NOTHING) : Promise.resolve(NOTHING),
     searchChoices(actor, search?.sample),
+    deletedId ? getDeletionNotice(actor, deletedId) : Promise.resolve(null),
   ]);
   const filtered = search ? hasFilters(search) : true;
   const query = search ? searchQueryString(search) : "";
   return (
     <>
       <PageHeader title="Spectra" subtitle={`${countText(page.count)} ${filtered ? "found" : "stored"}`} />
+      {deleted && <DeletedBanner notice={deleted} />}
       <SpectrumSearchForm values={values} choices={choices} error={error} />
       {search && filtered && <SaveSearchForm query={query} />}
       {page.rows.length === 0 ? (

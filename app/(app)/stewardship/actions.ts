@@ -7,6 +7,7 @@ import { protectedAction } from "@/lib/actions/protected";
 import type { Actor } from "@/lib/auth/actor";
 import { canManageMembers, canSteward, groupOfTarget } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
+import type { AuditAction } from "@/lib/auditTrail/eventKinds";
 import { selectRows } from "@/lib/db";
 import { deleteAnalysisRun, deleteSpectrum, isGone } from "@/lib/stewardship/deletion";
 import { sendInvitation } from "@/lib/stewardship/invitations";
@@ -26,7 +27,7 @@ async function requireStewardOf(actor: Actor, groupId: string | null, field?: st
   if (!groupId || !canSteward(actor, groupId)) throw refuse(400, NOT_FOUND, field);
   return groupId;
 }
-const audit = (actor: Actor, groupId: string, action: string, targetType: string, targetId: string, details: Record<string, unknown> = {}) =>
+const audit = (actor: Actor, groupId: string, action: AuditAction, targetType: string, targetId: string, details: Record<string, unknown> = {}) =>
   recordAudit({ actorId: actor.id, actorLabel: actor.email, groupId, action, targetType, targetId, details });
 
 // --- retention ---
@@ -82,7 +83,7 @@ export const decideFlag = protectedAction(
       }
     }
     await flag!.update({ decision: input.decision, decidedBy: actor.id, decidedAt: new Date() });
-    await audit(actor, groupId, `retention-flag-${input.decision === "keep" ? "kept" : "deleted"}`, flag!.targetType, flag!.targetId, { label: flag!.label });
+    await audit(actor, groupId, input.decision === "keep" ? "retention-flag-kept" : "retention-flag-deleted", flag!.targetType, flag!.targetId, { label: flag!.label });
     revalidatePath("/stewardship", "layout");
     return { ok: true, message: input.decision === "keep" ? `Kept "${flag!.label}".` : `Deleted "${flag!.label}"; a tombstone records it.` };
   },

@@ -1,8 +1,11 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { notFound } from "next/navigation";
 import { LIGHT_CAUTION } from "@/lib/hazards";
 import { getSeriesPoints } from "@/lib/queries/series-detail";
-import { linkedHazards, linkedProject, resolveShareLink, type ResolvedLink } from "@/lib/stewardship/shareLinks";
+import { linkedHazards, linkedProject, resolveShareLink, spectrumThroughLink, type ResolvedLink } from "@/lib/stewardship/shareLinks";
+import { sharedSpectrumView, sharedSupernatants, type SharedSupernatant } from "@/lib/stewardship/sharedSpectra";
+import { SharedSpectrumPanel } from "@/components/shared/SharedSpectrumPanel";
 import { HazardNotice } from "@/components/ui/HazardNotice";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { Project, Series, models } from "@/models";
@@ -37,9 +40,49 @@ async function Cautions({ link }: { link: ResolvedLink }) {
 }
 
 const rawHref = (token: string, spectrumId: string) => `/shared/${encodeURIComponent(token)}/raw/${spectrumId}`;
+const plotHref = (token: string, spectrumId: string) => `/shared/${encodeURIComponent(token)}?spectrum=${spectrumId}#plot`;
 
-export default async function SharedPage({ params }: { params: Promise<{ token: string }> }) {
+/** The spectrum to plot: the one asked for when the link covers it, else the first finished one. */
+async function Plot({ token, link, asked, fallback }: { token: string; link: ResolvedLink; asked: string | undefined; fallback: string | undefined }) {
+  const id = asked ?? fallback;
+  const spectrum = id ? await spectrumThroughLink(link, id) : null;
+  if (!spectrum) return asked ? <p role="alert" className="mt-6 text-sm text-red-700">That spectrum is not part of what this link shares.</p> : null;
+  return (
+    <section id="plot" className="mt-6" aria-label="Plot">
+      <SharedSpectrumPanel token={token} view={await sharedSpectrumView(spectrum)} />
+    </section>
+  );
+}
+
+function PlotLink({ token, id, shown }: { token: string; id: string; shown: boolean }) {
+  return shown
+    ? <span className="text-xs font-medium text-ink-soft">plotted below</span>
+    : <Link prefetch={false} scroll={false} href={plotHref(token, id)} className="text-xs text-glow-deep hover:underline">Plot</Link>;
+}
+
+function Supernatants({ token, rows, shown }: { token: string; rows: SharedSupernatant[]; shown: string | undefined }) {
+  if (!rows.length) return null;
+  return (
+    <>
+      <h2 className="mb-2 mt-6 text-base font-semibold">Supernatants of the points</h2>
+      <ul className="divide-y divide-stone-100 rounded-lg border border-stone-200 bg-white text-sm" data-testid="shared-supernatants">
+        {rows.map((r) => (
+          <li key={r.id} className="flex flex-wrap items-center gap-3 px-3 py-2">
+            <a className="text-glow-deep hover:underline" href={rawHref(token, r.id)} rel="noreferrer" download>{r.fileName}</a>
+            <span className="text-ink-soft">for {r.pointFileName}</span>
+            <StatusBadge status={r.status} />
+            <PlotLink token={token} id={r.id} shown={shown === r.id} />
+          </li>
+        ))}
+      </ul>
+    </>
+  );
+}
+
+export default async function SharedPage({ params, searchParams }: { params: Promise<{ token: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const { token } = await params;
+  const askedRaw = (await searchParams).spectrum;
+  const asked = typeof askedRaw === "string" && /^[0-9a-f-]{36}$/i.test(askedRaw) ? askedRaw : undefined;
   const link = await resolveShareLink(token);
   if (!link) notFound();
   models();
@@ -48,7 +91,9 @@ export default async function SharedPage({ params }: { params: Promise<{ token: 
     const series = await Series.findByPk(link.targetId);
     if (!series) notFound();
     const project = await Project.findByPk(series.projectId, { attributes: ["name"] });
-    const points = await getSeriesPoints(series.id, { withReview: false });
+    const [points, supernatants] = await Promise.all([getSeriesPoints(series.id, { withReview: false }), sharedSupernatants(link)]);
+    const fallback = (points.find((p) => p.status === "analysed") ?? points[0])?.spectrumId;
+    const shown = asked ?? fallback;
     const variable = `${series.variableName || "Variable"}${series.variableUnit ? ` (${series.variableUnit})` : ""}`;
     return (
       <>
@@ -62,7 +107,7 @@ export default async function SharedPage({ params }: { params: Promise<{ token: 
           <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
             <table className="w-full text-sm" data-testid="shared-series-table">
               <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft">
-                <tr><th className="px-3 py-2 normal-case">{variable}</th><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Bleach</th><th className="px-3 py-2">PL quench</th><th className="px-3 py-2">Shift (meV)</th><th className="px-3 py-2">State</th></tr>
+                <tr><th className="px-3 py-2 normal-case">{variable}</th><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Bleach</th><th className="px-3 py-2">PL quench</th><th className="px-3 py-2">Shift (meV)</th><th className="px-3 py-2">State</th><th className="px-3 py-2" aria-label="Plot" /></tr>
               </thead>
               <tbody className="tabular">
                 {points.map((p) => (
@@ -73,18 +118,23 @@ export default async function SharedPage({ params }: { params: Promise<{ token: 
                     <td className="px-3 py-1.5">{pct(p.quenchFraction)}</td>
                     <td className="px-3 py-1.5">{p.shiftMeV === null ? "—" : p.shiftMeV.toFixed(1)}</td>
                     <td className="px-3 py-1.5"><StatusBadge status={p.status} /></td>
+                    <td className="px-3 py-1.5"><PlotLink token={token} id={p.spectrumId} shown={shown === p.spectrumId} /></td>
                   </tr>
                 ))}
               </tbody>
             </table>
           </div>
         )}
+        <Supernatants token={token} rows={supernatants} shown={shown} />
+        <Plot token={token} link={link} asked={asked} fallback={fallback} />
       </>
     );
   }
 
   const project = await linkedProject(link.targetId);
   if (!project) notFound();
+  const fallback = (project.spectra.find((s) => s.status === "analysed") ?? project.spectra[0])?.id;
+  const shown = asked ?? fallback;
   return (
     <>
       <Banner link={link} />
@@ -103,7 +153,7 @@ export default async function SharedPage({ params }: { params: Promise<{ token: 
       {project.spectra.length === 0 ? <p className="text-sm text-ink-soft">No spectra.</p> : (
         <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm" data-testid="shared-spectra-table">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Technique</th><th className="px-3 py-2">Series</th><th className="px-3 py-2">State</th></tr></thead>
+            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Technique</th><th className="px-3 py-2">Series</th><th className="px-3 py-2">State</th><th className="px-3 py-2" aria-label="Plot" /></tr></thead>
             <tbody>
               {project.spectra.map((s) => (
                 <tr key={s.id} className="border-t border-stone-100">
@@ -111,12 +161,14 @@ export default async function SharedPage({ params }: { params: Promise<{ token: 
                   <td className="px-3 py-1.5">{s.technique}</td>
                   <td className="px-3 py-1.5">{s.seriesName ?? "—"}</td>
                   <td className="px-3 py-1.5"><StatusBadge status={s.status} /></td>
+                  <td className="px-3 py-1.5"><PlotLink token={token} id={s.id} shown={shown === s.id} /></td>
                 </tr>
               ))}
             </tbody>
           </table>
         </div>
       )}
+      <Plot token={token} link={link} asked={asked} fallback={fallback} />
     </>
   );
 }
