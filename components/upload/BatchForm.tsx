@@ -3,7 +3,7 @@
 import { Field, inputClass } from "@/components/forms/Field";
 import { TECHNIQUE_LABELS } from "@/lib/registry/techniques";
 import { HazardNotice } from "@/components/ui/HazardNotice";
-import { ParentPicker } from "@/components/parents/ParentPicker";
+import { ParentPicker, type WaitingFileBands } from "@/components/parents/ParentPicker";
 import type { Technique } from "@/lib/engine";
 import { hazardsOf } from "@/lib/hazards";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "@/lib/ingest/metadata";
@@ -29,10 +29,12 @@ type Props = {
   errors: Partial<Record<keyof BatchValues, string[]>>;
   disabled: boolean;
   onChange: (values: BatchValues) => void;
+  /** The bands the previews found in the files waiting to be uploaded. */
+  waitingFiles?: readonly WaitingFileBands[];
 };
 
 /** The metadata applied to every file of the batch. */
-export function BatchForm({ choices, values, errors, disabled, onChange }: Props) {
+export function BatchForm({ choices, values, errors, disabled, onChange, waitingFiles = [] }: Props) {
   const project = choices.projects.find((p) => p.id === values.projectId);
   const sample = project?.samples.find((s) => s.id === values.sampleId);
   const series = project?.series.find((s) => s.id === values.seriesId);
@@ -75,7 +77,7 @@ export function BatchForm({ choices, values, errors, disabled, onChange }: Props
       <Field name="referenceSpectrumId" label="Parent reference spectrum" hint="Compared against to flag bleach, new bands, quench, shifts" errors={errors.referenceSpectrumId}>
         <ParentPicker id="referenceSpectrumId" name="referenceSpectrumId" value={values.referenceSpectrumId} disabled={disabled}
           onChange={(v) => set("referenceSpectrumId")({ target: { value: v } })} errors={errors.referenceSpectrumId}
-          candidates={project?.references ?? []}
+          candidates={project?.references ?? []} files={waitingFiles}
           target={{ technique: values.technique as Technique, sample: sample ? { id: sample.id, name: sample.name, material: sample.material, parentIds: sample.parentIds } : null, side: null }} />
       </Field>
       <Field name="seriesId" label="Series" errors={errors.seriesId}>
