@@ -27,7 +27,7 @@ type Item = {
 };
 
 /** The batch fields that change how a file is read (and so its preview). */
-const READ_KEYS = ["projectId", "technique", "column", "xUnit", "yKind", "block", "pair", "sheet"] as const;
+const READ_KEYS = ["projectId", "technique", "excitationNm", "column", "xUnit", "yKind", "block", "pair", "sheet"] as const;
 
 function readFieldsFor(values: BatchValues, overrides: FileOverrides): Record<string, string> {
   const fields: Record<string, string> = {};
@@ -70,6 +70,7 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
   const update = (key: string, change: Partial<Item>) => setItems((old) => old.map((i) => (i.key === key ? { ...i, ...change } : i)));
 
   const ready = items.filter((i) => i.phase === "ready" && !i.localError);
+  const waitingFiles = ready.flatMap((i) => (i.preview && i.preview !== "loading" && i.preview.ok && i.preview.bands ? [{ fileName: i.picked.name, bands: i.preview.bands }] : []));
 
   // Each waiting file is read once per set of reading fields (the batch's and its own).
   useEffect(() => {
@@ -137,7 +138,7 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
     <div className="space-y-6">
       <section aria-labelledby="batch-heading" className="rounded-xl border border-stone-200 bg-white p-5">
         <h2 id="batch-heading" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-soft">Describe the batch</h2>
-        <BatchForm choices={choices} values={values} errors={errors} disabled={busy} onChange={setValues} />
+        <BatchForm choices={choices} values={values} errors={errors} disabled={busy} onChange={setValues} waitingFiles={waitingFiles} />
         {usesUvOrLaserLight(values.technique) && <p className="mt-3 text-xs text-caution">{LIGHT_CAUTION}</p>}
       </section>
 
