@@ -1,4 +1,5 @@
 import { SpectrumFileError, type TraceInfo } from "@/lib/engine";
+import { normaliseSeriesUnit } from "@/lib/engine/parse/readSeriesValue";
 import { Sample, Series, models } from "@/models";
 import { sha256Hex } from "@/lib/storage";
 import { IngestError } from "./errors";
@@ -11,8 +12,8 @@ import { parseForTraces, traceIdOf, traceIdOfInfo, traceKeyOf } from "./traceKey
 /** One spectrum a split will create: the trace, and its own sample and series value. */
 export type SplitPart = { trace: TraceInfo; sampleId: string | null; seriesValue: number | null; seriesUnit: string | null };
 
-/** Series units as a header writes them and as a series names its variable's unit are compared loosely ("uM" = "µM"). */
-const unitWord = (u: string) => u.trim().replace(/^u/, "µ").replace(/^μ/, "µ").toLowerCase();
+/** Series units as a header writes them and as a series names its variable's unit are compared in one spelling ("equiv" = "eq", "uM" = "µM"). */
+const unitWord = (u: string) => normaliseSeriesUnit(u);
 
 /**
  * The parts of a split: every trace of the file (or of the chosen sheet), each with the sample
