@@ -77,15 +77,16 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
     return () => { live = false; };
   }, [values.projectId, profileVersion]);
 
-  // A saved or deleted profile changes how waiting files are read: ask their previews again.
-  const profilesChanged = () => {
+  // A saved or deleted profile changes how waiting files are read: ask their previews again
+  // (not the one a profile was just saved from: it is already read with those choices).
+  const profilesChanged = (exceptKey?: string) => {
     setProfileVersion((v) => v + 1);
-    setItems((old) => old.map((i) => ({ ...i, previewKey: undefined })));
+    setItems((old) => old.map((i) => (i.key === exceptKey ? i : { ...i, previewKey: undefined })));
   };
   const saveProfileFrom = async (item: Item, name: string) => {
     if (!item.preview || item.preview === "loading" || !item.preview.ok || !item.preview.signature) return { ok: false as const, message: "the file must be read first" };
     const result = await saveProfile(values.projectId, name, profileChoiceOf(readFieldsFor(values, item.overrides), item.preview), item.preview.signature);
-    if (result.ok) profilesChanged();
+    if (result.ok) profilesChanged(item.key);
     return result;
   };
   const removeProfile = async (id: string) => {

@@ -14,7 +14,7 @@ const suite = demoBrowser();
 function threeColumnFile(seed: number): Buffer {
   const cols = [500, 505, 512].map((nm, i) => syntheticAbsorptionCsv({ excitonNm: nm, seed: seed + i, points: 300, startNm: 400, endNm: 700 }).trim().split("\n").slice(1).map((l) => l.split(",")));
   const rows = cols[0]!.map((_, r) => [cols[0]![r]![0], ...cols.map((c) => c[r]![1])].join(","));
-  return Buffer.from(`Wavelength,0.5 eq,1 eq,2 eq\n${rows.join("\n")}\n`);
+  return Buffer.from(`Channel,0.5 eq,1 eq,2 eq\n${rows.join("\n")}\n`);
 }
 
 describe("splitting a file and saving an import profile on the upload page", () => {
@@ -48,7 +48,7 @@ describe("splitting a file and saving an import profile on the upload page", () 
     await picker.selectOption(parent!);
     const mismatch = page.getByTestId("parent-mismatch");
     await expect.poll(() => mismatch.textContent(), { timeout: 10_000 }).toMatch(
-      new RegExp(`^The analysis will refuse this parent for ${first.replace(/\./g, "\\.")}: first exciton 2\\.4\\d\\d eV vs \\d\\.\\d{3} eV \\(\\d+ meV apart, more than \\d+ meV\\)\\.$`),
+      new RegExp(`^The analysis will refuse this parent for ${first.replace(/\./g, "\\.")}: first excitons 2\\.4\\d\\d eV vs \\d\\.\\d{3} eV \\(\\d+ meV apart, more than \\d+ meV\\)\\.$`),
     );
     await screenshot(page, "upload-split-parent-refused");
     await picker.selectOption("");
@@ -89,5 +89,5 @@ describe("splitting a file and saving an import profile on the upload page", () 
       [first, 0.5], [first, 1], [first, 2], [second, 0.5], [second, 1], [second, 2],
     ]);
     await page.close();
-  });
+  }, 300_000);
 });

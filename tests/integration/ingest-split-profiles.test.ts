@@ -8,6 +8,7 @@ import { AnalysisRun, AuditEvent, Series, Spectrum, models } from "@/models";
 import { closeDb } from "@/lib/db";
 import { analyzeSpectrum, parseSpectrumFile } from "@/lib/engine";
 import { getUploadChoices } from "@/lib/ingest/queries";
+import { deleteSpectrum, objectExists } from "@/lib/stewardship/deletion";
 import { parentVerdict } from "@/lib/parents/orderParentChoices";
 import type { FilePreview, FilePreviewOk } from "@/lib/ingest/previewFile";
 import { addMember, appUrl, createLab, createSample, createSeries, type Lab } from "../helpers/fixtures";
@@ -137,6 +138,14 @@ describe("one file, many spectra", () => {
     const plainUpload = await upload(lab.token, [{ fileName, bytes: enc(text) }], { ...fields, split: "", seriesValue: "0.5" });
     expect(okOutcomes(plainUpload.body)[0]).toMatchObject({ spectrumId: outs[0]!.spectrumId, duplicate: true });
     expect(await Spectrum.count({ where: { projectId: lab.project.id, sha256: rows[0]!.sha256 } })).toBe(3);
+
+    // the shared raw object goes with the last spectrum that reads it, not before
+    const request = { cause: "owner" as const, actorId: lab.user.id, actorLabel: lab.user.email };
+    await deleteSpectrum(rows[0]!.id, request);
+    await deleteSpectrum(rows[1]!.id, request);
+    expect(await objectExists(rows[2]!.objectKey)).toBe(true);
+    await deleteSpectrum(rows[2]!.id, request);
+    expect(await objectExists(rows[2]!.objectKey)).toBe(false);
   });
 
   it("gives each trace its own sample or value when asked, leaves one out, and refuses a header unit that is not the series'", async () => {
