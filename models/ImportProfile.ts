@@ -1,12 +1,12 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
-import type { ProfileChoice } from "@/lib/ingest/profiles/profileChoice";
 
 /** A project's saved way of reading files of one instrument or export habit (migrations/0010). */
 export class ImportProfile extends Model<InferAttributes<ImportProfile>, InferCreationAttributes<ImportProfile>> {
   declare id: CreationOptional<string>;
   declare projectId: string;
   declare name: string;
-  declare choice: ProfileChoice;
+  /** Checked by lib/ingest/profiles/profileChoice.ts wherever it is read or written. */
+  declare choice: Record<string, unknown>;
   /** The header signature of the file it was saved from (lib/ingest/profiles/headerSignature.ts). */
   declare signature: string;
   declare createdBy: string | null;

@@ -1,8 +1,8 @@
+import { Refusal } from "@/lib/errors";
 import { analyzeSpectrum, parseSpectrumBytes, readChoiceOptions, SpectrumFileError, X_UNITS, Y_KINDS, yKindOf, type ParsedSpectrum, type ReadChoice, type TraceInfo } from "@/lib/engine";
 import { Project, models } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadProject, canWrite } from "@/lib/auth/access";
-import { IngestError } from "./errors";
 import { looksLikeZip } from "./expandZip";
 import { previewFieldsSchema } from "./metadata";
 import type { SampleBands } from "@/lib/parents/sampleBands";
@@ -89,19 +89,19 @@ export async function previewFile(actor: Actor, fileName: string, bytes: Uint8Ar
   const parsedFields = previewFieldsSchema.safeParse(fields);
   if (!parsedFields.success) {
     const issue = parsedFields.error.issues[0]!;
-    throw new IngestError(400, "invalid", issue.message, String(issue.path[0] ?? "file"));
+    throw new Refusal(400, "invalid", issue.message, String(issue.path[0] ?? "file"));
   }
   // The same access as an upload into the project: previews are for people who may store files there.
   models();
   const project = await Project.findByPk(parsedFields.data.projectId);
   if (!project || !(await canReadProject(actor, project))) {
-    throw new IngestError(404, "not-found", `project ${parsedFields.data.projectId} was not found`, "projectId");
+    throw new Refusal(404, "not-found", `project ${parsedFields.data.projectId} was not found`, "projectId");
   }
-  if (!canWrite(actor, project.groupId)) throw new IngestError(403, "forbidden", `you may not add spectra to project "${project.name}"`, "projectId");
+  if (!canWrite(actor, project.groupId)) throw new Refusal(403, "forbidden", `you may not add spectra to project "${project.name}"`, "projectId");
   if (bytes.length > 0 && bytes.length <= maxBytes && !looksLikeZip(fileName, bytes)) {
     const applied = await applyProfile(project.id, fields, { fileName, bytes }, maxBytes, { wantSignature: true });
     const merged = previewFieldsSchema.safeParse(applied.fields);
-    if (!merged.success) throw new IngestError(400, "invalid", merged.error.issues[0]!.message, "profile");
+    if (!merged.success) throw new Refusal(400, "invalid", merged.error.issues[0]!.message, "profile");
     const filled = applied.profile
       ? Object.fromEntries(Object.entries(applied.fields).filter(([k]) => (fields[k] ?? "") === "").map(([k, v]) => [k, String(v)]))
       : {};

@@ -2,7 +2,7 @@ import { SpectrumFileError, type TraceInfo } from "@/lib/engine";
 import { normaliseSeriesUnit } from "@/lib/engine/parse/readSeriesValue";
 import { Sample, Series, models } from "@/models";
 import { sha256Hex } from "@/lib/storage";
-import { IngestError } from "./errors";
+import { Refusal } from "@/lib/errors";
 import type { TraceAssignment } from "./metadata";
 import type { IngestContext } from "./prepareIngest";
 import { readChoiceOf, type AnalysisParameters } from "./parameters";
@@ -24,7 +24,7 @@ const unitWord = (u: string) => normaliseSeriesUnit(u);
 export function splitParts(fileName: string, traces: readonly TraceInfo[], context: IngestContext, assignments: readonly TraceAssignment[] = []): SplitPart[] {
   for (const a of assignments) {
     if (!traces.some((t) => t.label === a.trace)) {
-      throw new IngestError(400, "invalid", `${fileName}: assignments: no trace "${a.trace}" in the file (traces: ${traces.map((t) => t.label).join(", ")})`, "assignments");
+      throw new Refusal(400, "invalid", `${fileName}: assignments: no trace "${a.trace}" in the file (traces: ${traces.map((t) => t.label).join(", ")})`, "assignments");
     }
   }
   const seriesUnit = context.series?.variableUnit?.trim() ?? "";
@@ -38,7 +38,7 @@ export function splitParts(fileName: string, traces: readonly TraceInfo[], conte
       if (a?.seriesValue !== undefined) seriesValue = a.seriesValue;
       else if (trace.seriesValue) {
         if (seriesUnit && unitWord(seriesUnit) !== unitWord(trace.seriesValue.unit)) {
-          throw new IngestError(
+          throw new Refusal(
             400, "invalid",
             `${fileName}: column "${trace.label}" states ${trace.seriesValue.value} ${trace.seriesValue.unit}, but series "${context.series.name}" is in ${seriesUnit}; give the value in assignments or choose another series`,
             "assignments",
@@ -50,7 +50,7 @@ export function splitParts(fileName: string, traces: readonly TraceInfo[], conte
     }
     parts.push({ trace, sampleId: a?.sampleId ?? context.sample?.id ?? null, seriesValue, seriesUnit: unit });
   }
-  if (parts.length === 0) throw new IngestError(400, "invalid", `${fileName}: every trace was left out (skip); nothing to store`, "assignments");
+  if (parts.length === 0) throw new Refusal(400, "invalid", `${fileName}: every trace was left out (skip); nothing to store`, "assignments");
   return parts;
 }
 
@@ -105,14 +105,14 @@ export async function storeSplit(
   const samples = new Map<string, Sample>();
   for (const id of sampleIds) {
     const s = id === context.sample?.id ? context.sample : await Sample.findByPk(id);
-    if (!s || s.groupId !== context.project.groupId) throw new IngestError(400, "invalid", `assignments: sample ${id} was not found in this project's group`, "assignments");
+    if (!s || s.groupId !== context.project.groupId) throw new Refusal(400, "invalid", `assignments: sample ${id} was not found in this project's group`, "assignments");
     samples.set(id, s);
   }
   const unitToFill = context.series && !context.series.variableUnit?.trim() ? parts.find((p) => p.seriesUnit)?.seriesUnit : undefined;
   if (context.series && unitToFill) {
     // The series had no unit yet: the headers' unit becomes its unit (every part was checked to agree with it below).
     const differing = parts.find((p) => p.seriesUnit && unitWord(p.seriesUnit) !== unitWord(unitToFill));
-    if (differing) throw new IngestError(400, "invalid", `${fileName}: the column headers state different units (${unitToFill}, ${differing.seriesUnit}); give the values in assignments`, "assignments");
+    if (differing) throw new Refusal(400, "invalid", `${fileName}: the column headers state different units (${unitToFill}, ${differing.seriesUnit}); give the values in assignments`, "assignments");
     await Series.update({ variableUnit: unitToFill }, { where: { id: context.series.id, variableUnit: "" } });
   }
 

@@ -2,7 +2,7 @@ import { DatabaseError } from "sequelize";
 import { Spectrum, models } from "@/models";
 import { recordAudit } from "@/lib/audit";
 import type { DetailDifference, DetailField } from "./detailDifferences";
-import { IngestError } from "./errors";
+import { Refusal } from "@/lib/errors";
 import type { IngestContext } from "./prepareIngest";
 import { requestReanalysis } from "./requestReanalysis";
 import type { ReanalysisInput } from "./parameters";
@@ -32,7 +32,7 @@ export async function updateStoredDetails(context: IngestContext, spectrum: Spec
   if (has("excitationNm")) change.excitationNm = m.excitationNm ?? null;
   if (has("solvent")) change.solvent = context.solvent;
   if (has("material")) change.material = m.material ?? null;
-  if (change.referenceSpectrumId === spectrum.id) throw new IngestError(400, "invalid", `${fileName}: a spectrum cannot be its own reference`, "referenceSpectrumId");
+  if (change.referenceSpectrumId === spectrum.id) throw new Refusal(400, "invalid", `${fileName}: a spectrum cannot be its own reference`, "referenceSpectrumId");
   try {
     await models().transaction(async (transaction) => {
       await spectrum.update(change, { transaction });
@@ -47,7 +47,7 @@ export async function updateStoredDetails(context: IngestContext, spectrum: Spec
   } catch (error) {
     if (error instanceof DatabaseError) {
       // e.g. a supernatant given a series (migrations/0004): the database's rules refuse it; nothing was changed.
-      throw new IngestError(409, "conflict", `${fileName}: the stored record cannot take these details (${fields.join(", ")}); nothing was changed`);
+      throw new Refusal(409, "conflict", `${fileName}: the stored record cannot take these details (${fields.join(", ")}); nothing was changed`);
     }
     throw error;
   }

@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { AnalysisRun, AuditEvent, Series, Spectrum, models } from "@/models";
 import { closeDb } from "@/lib/db";
 import { analyzeSpectrum, parseSpectrumFile } from "@/lib/engine";
-import { getUploadChoices } from "@/lib/ingest/queries";
+import { getUploadChoices } from "@/lib/queries/spectrum-status";
 import { deleteSpectrum, objectExists } from "@/lib/stewardship/deletion";
 import { parentVerdict } from "@/lib/parents/orderParentChoices";
 import type { FilePreview, FilePreviewOk } from "@/lib/ingest/previewFile";

@@ -2,7 +2,7 @@ import { ImportProfile, Project, models } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadProject, canWrite } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
-import { IngestError } from "../errors";
+import { Refusal } from "@/lib/errors";
 import { profileChoiceSchema, saveProfileSchema, type ProfileChoice } from "./profileChoice";
 
 export type ImportProfileView = { id: string; name: string; choice: ProfileChoice; signature: string; updatedAt: string };
@@ -15,8 +15,8 @@ const view = (p: ImportProfile): ImportProfileView => ({
 export async function writableProject(actor: Actor, projectId: string): Promise<Project> {
   models();
   const project = /^[0-9a-f-]{36}$/i.test(projectId) ? await Project.findByPk(projectId) : null;
-  if (!project || !(await canReadProject(actor, project))) throw new IngestError(404, "not-found", `project ${projectId} was not found`, "projectId");
-  if (!canWrite(actor, project.groupId)) throw new IngestError(403, "forbidden", `you may not add spectra or import profiles to project "${project.name}"`, "projectId");
+  if (!project || !(await canReadProject(actor, project))) throw new Refusal(404, "not-found", `project ${projectId} was not found`, "projectId");
+  if (!canWrite(actor, project.groupId)) throw new Refusal(403, "forbidden", `you may not add spectra or import profiles to project "${project.name}"`, "projectId");
   return project;
 }
 
@@ -26,10 +26,10 @@ export async function listImportProfiles(actor: Actor, projectId: string): Promi
   return rows.map(view);
 }
 
-function firstIssue(error: { issues: { path: PropertyKey[]; message: string }[] }): IngestError {
+function firstIssue(error: { issues: { path: PropertyKey[]; message: string }[] }): Refusal {
   const issue = error.issues[0];
   const field = issue?.path.map(String).join(".") || undefined;
-  return new IngestError(400, "invalid", `${field ? `${field}: ` : ""}${issue?.message ?? "invalid profile"}`, field);
+  return new Refusal(400, "invalid", `${field ? `${field}: ` : ""}${issue?.message ?? "invalid profile"}`, field);
 }
 
 /** Saves a named profile (saving a name again replaces it), audited. */
@@ -57,7 +57,7 @@ export async function saveImportProfile(actor: Actor, projectId: string, input: 
 export async function deleteImportProfile(actor: Actor, projectId: string, profileId: string): Promise<void> {
   const project = await writableProject(actor, projectId);
   const profile = /^[0-9a-f-]{36}$/i.test(profileId) ? await ImportProfile.findOne({ where: { id: profileId, projectId: project.id } }) : null;
-  if (!profile) throw new IngestError(404, "not-found", `import profile ${profileId} was not found in this project`);
+  if (!profile) throw new Refusal(404, "not-found", `import profile ${profileId} was not found in this project`);
   await models().transaction(async (transaction) => {
     await profile.destroy({ transaction });
     await recordAudit(
@@ -74,7 +74,7 @@ export async function deleteImportProfile(actor: Actor, projectId: string, profi
 export async function profileByName(projectId: string, name: string): Promise<ImportProfile> {
   models();
   const profile = await ImportProfile.findOne({ where: { projectId, name } });
-  if (!profile) throw new IngestError(400, "invalid", `profile: no import profile named "${name}" in this project`, "profile");
+  if (!profile) throw new Refusal(400, "invalid", `profile: no import profile named "${name}" in this project`, "profile");
   return profile;
 }
 

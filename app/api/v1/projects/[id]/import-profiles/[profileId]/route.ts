@@ -1,6 +1,5 @@
 import { NextResponse } from "next/server";
 import { withActor } from "@/lib/http/respond";
-import { toApiError } from "@/lib/ingest/apiErrors";
 import { deleteImportProfile } from "@/lib/ingest/profiles/importProfiles";
 
 export const runtime = "nodejs";
@@ -9,10 +8,6 @@ export const dynamic = "force-dynamic";
 /** DELETE /api/v1/projects/{id}/import-profiles/{profileId} — removes a profile (audited); files already stored are not touched. */
 export const DELETE = withActor<{ params: Promise<{ id: string; profileId: string }> }>(async (_request, { actor, params }) => {
   const { id, profileId } = await params;
-  try {
-    await deleteImportProfile(actor, id, profileId);
-    return new NextResponse(null, { status: 204 });
-  } catch (error) {
-    throw toApiError(error);
-  }
+  await deleteImportProfile(actor, id, profileId);
+  return new NextResponse(null, { status: 204 });
 });
