@@ -19,8 +19,11 @@ export class Spectrum extends Model<InferAttributes<Spectrum>, InferCreationAttr
   declare supernatantOfSpectrumId: CreationOptional<string | null>;
   declare technique: Technique;
   declare fileName: string;
+  /** Several spectra may share one object: the traces of one file (migrations/0010). */
   declare objectKey: string;
   declare sha256: string;
+  /** Which trace of the file this spectrum is: '' for the file's default reading (lib/ingest/traceKey.ts). */
+  declare traceKey: CreationOptional<string>;
   declare sizeBytes: number;
   declare contentType: CreationOptional<string>;
   declare columnChoice: string | null;
@@ -55,8 +58,9 @@ export class Spectrum extends Model<InferAttributes<Spectrum>, InferCreationAttr
         supernatantOfSpectrumId: { type: DataTypes.UUID, allowNull: true },
         technique: { type: DataTypes.TEXT, allowNull: false },
         fileName: { type: DataTypes.TEXT, allowNull: false },
-        objectKey: { type: DataTypes.TEXT, allowNull: false, unique: true },
+        objectKey: { type: DataTypes.TEXT, allowNull: false },
         sha256: { type: DataTypes.CHAR(64), allowNull: false },
+        traceKey: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
         sizeBytes: { type: DataTypes.BIGINT, allowNull: false, get() { return Number(this.getDataValue("sizeBytes")); } },
         contentType: { type: DataTypes.TEXT, allowNull: false, defaultValue: "application/octet-stream" },
         columnChoice: { type: DataTypes.TEXT, allowNull: true },

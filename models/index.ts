@@ -3,6 +3,7 @@ import { AnalysisRun } from "./AnalysisRun";
 import { ApiToken } from "./ApiToken";
 import { AuditEvent } from "./AuditEvent";
 import { Group } from "./Group";
+import { ImportProfile } from "./ImportProfile";
 import { Invitation } from "./Invitation";
 import { LegalHold } from "./LegalHold";
 import { Membership } from "./Membership";
@@ -24,7 +25,7 @@ export {
   AnalysisRun, ApiToken, AuditEvent, Group, LegalHold, Membership, Peak, Project, RetentionPolicy,
   Review, Sample, SampleParent, Series, Share, Signature, Spectrum, User,
 };
-export { Invitation, RetentionFlag, Tombstone };
+export { ImportProfile, Invitation, RetentionFlag, Tombstone };
 
 /** Binds every model to the process's Sequelize instance, once; returns that instance. */
 export function models() {
@@ -32,7 +33,7 @@ export function models() {
   // Checked on the class itself: bundlers may load this module more than once per process.
   if (User.sequelize === db) return db;
   for (const m of [User, Group, Membership, Project, Sample, SampleParent, Series, Spectrum, AnalysisRun,
-    Peak, Signature, Review, RetentionPolicy, LegalHold, Share, AuditEvent, ApiToken, Tombstone, RetentionFlag, Invitation]) {
+    Peak, Signature, Review, RetentionPolicy, LegalHold, Share, AuditEvent, ApiToken, Tombstone, RetentionFlag, Invitation, ImportProfile]) {
     m.initialize(db);
   }
   Membership.belongsTo(User, { foreignKey: "userId" });

@@ -3,23 +3,26 @@
 import { Field, inputClass } from "@/components/forms/Field";
 import { TECHNIQUE_LABELS } from "@/lib/registry/techniques";
 import { HazardNotice } from "@/components/ui/HazardNotice";
-import { ParentPicker } from "@/components/parents/ParentPicker";
+import { ParentPicker, type WaitingFileBands } from "@/components/parents/ParentPicker";
 import type { Technique } from "@/lib/engine";
 import { hazardsOf } from "@/lib/hazards";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "@/lib/ingest/metadata";
 import type { UploadChoices } from "@/lib/queries/spectrum-status";
 import { X_UNITS, X_UNIT_NAMES, Y_KINDS, Y_KIND_NAMES } from "@/lib/engine/parse/readChoice";
+import type { ImportProfileView } from "@/lib/ingest/profiles/importProfiles";
 
 export type BatchValues = {
   projectId: string; technique: string; sampleId: string; referenceSpectrumId: string; seriesId: string; seriesValue: string;
   pathLengthCm: string; excitationNm: string; solvent: string; column: string; material: string;
   xUnit: string; yKind: string; block: string; pair: string; sheet: string;
+  split: string; profile: string; onDuplicate: string;
 };
 
 export const EMPTY_VALUES: BatchValues = {
   projectId: "", technique: "absorption", sampleId: "", referenceSpectrumId: "", seriesId: "", seriesValue: "",
   pathLengthCm: "1", excitationNm: "", solvent: "", column: "", material: "",
   xUnit: "", yKind: "", block: "", pair: "", sheet: "",
+  split: "", profile: "", onDuplicate: "",
 };
 
 
@@ -29,10 +32,15 @@ type Props = {
   errors: Partial<Record<keyof BatchValues, string[]>>;
   disabled: boolean;
   onChange: (values: BatchValues) => void;
+  /** The bands the previews found in the files waiting to be uploaded. */
+  waitingFiles?: readonly WaitingFileBands[];
+  /** The chosen project's import profiles, and how to delete one. */
+  profiles?: readonly ImportProfileView[];
+  onDeleteProfile?: (id: string) => void;
 };
 
 /** The metadata applied to every file of the batch. */
-export function BatchForm({ choices, values, errors, disabled, onChange }: Props) {
+export function BatchForm({ choices, values, errors, disabled, onChange, waitingFiles = [], profiles = [], onDeleteProfile }: Props) {
   const project = choices.projects.find((p) => p.id === values.projectId);
   const sample = project?.samples.find((s) => s.id === values.sampleId);
   const series = project?.series.find((s) => s.id === values.seriesId);
@@ -75,7 +83,7 @@ export function BatchForm({ choices, values, errors, disabled, onChange }: Props
       <Field name="referenceSpectrumId" label="Parent reference spectrum" hint="Compared against to flag bleach, new bands, quench, shifts" errors={errors.referenceSpectrumId}>
         <ParentPicker id="referenceSpectrumId" name="referenceSpectrumId" value={values.referenceSpectrumId} disabled={disabled}
           onChange={(v) => set("referenceSpectrumId")({ target: { value: v } })} errors={errors.referenceSpectrumId}
-          candidates={project?.references ?? []}
+          candidates={project?.references ?? []} files={waitingFiles}
           target={{ technique: values.technique as Technique, sample: sample ? { id: sample.id, name: sample.name, material: sample.material, parentIds: sample.parentIds } : null, side: null }} />
       </Field>
       <Field name="seriesId" label="Series" errors={errors.seriesId}>
@@ -123,6 +131,37 @@ export function BatchForm({ choices, values, errors, disabled, onChange }: Props
       </Field>
       <Field name="sheet" label="Spreadsheet sheet" hint="Name or number; empty: the first sheet with numbers" errors={errors.sheet}>
         <input {...attrs("sheet")} maxLength={100} />
+      </Field>
+      <Field name="split" label="Several columns in one file" hint="One spectrum per Y column, pair or block; a header such as “0.5 eq” gives its series value" errors={errors.split}>
+        <select {...attrs("split")}>
+          <option value="">One spectrum (the column chosen)</option>
+          <option value="all">Split into one spectrum per column</option>
+        </select>
+      </Field>
+      <Field name="profile" label="Import profile" hint="Saved ways of reading files; empty: the profile whose header matches the file" errors={errors.profile}>
+        <select {...attrs("profile")}>
+          <option value="">{profiles.length ? "Matched by the file's header" : "No profiles saved yet"}</option>
+          <option value="none">None (read as chosen here)</option>
+          {profiles.map((p) => <option key={p.id} value={p.name}>{p.name}</option>)}
+        </select>
+        {profiles.length > 0 && (
+          <ul className="mt-1 space-y-0.5 text-xs text-ink-soft" data-testid="profile-list">
+            {profiles.map((p) => (
+              <li key={p.id} className="flex items-center gap-2">
+                <span className="truncate">{p.name}</span>
+                {onDeleteProfile && (
+                  <button type="button" disabled={disabled} onClick={() => onDeleteProfile(p.id)} className="text-red-800 hover:underline" aria-label={`Delete profile ${p.name}`}>delete</button>
+                )}
+              </li>
+            ))}
+          </ul>
+        )}
+      </Field>
+      <Field name="onDuplicate" label="A file stored before, with other details" hint="The same bytes again: the stored spectrum is linked, never stored twice" errors={errors.onDuplicate}>
+        <select {...attrs("onDuplicate")}>
+          <option value="">Keep the stored details (tell me what differs)</option>
+          <option value="update">Update the stored details (re-analysed if needed)</option>
+        </select>
       </Field>
       <Field name="material" label="Core material for sizing" hint="Empty: taken from the sample" errors={errors.material}>
         <select {...attrs("material")}>

@@ -1,10 +1,11 @@
 "use client";
 
 import { X_UNITS, X_UNIT_NAMES } from "@/lib/engine/parse/readChoice";
+import { useState } from "react";
 import type { PreviewAnswer } from "./requestPreview";
 
 /** What a person may change for one file before it is stored. */
-export type FileOverrides = { column?: string; xUnit?: string };
+export type FileOverrides = { column?: string; xUnit?: string; split?: boolean };
 
 const LAYOUT_WORDS = { "x-then-y": "X then Y columns", pairs: "X,Y pairs side by side", blocks: "blocks one after another" } as const;
 const SOURCE_WORDS = { file: "stated in the file", values: "inferred from the values", chosen: "chosen" } as const;
@@ -35,10 +36,34 @@ type Props = {
   disabled: boolean;
   onChange: (overrides: FileOverrides) => void;
   onApplyToBatch: () => void;
+  /** Saves the choices this preview was read with as a named import profile of the project. */
+  onSaveProfile: (name: string) => Promise<{ ok: true } | { ok: false; message: string }>;
 };
 
+function SaveProfile({ idPrefix, disabled, onSave }: { idPrefix: string; disabled: boolean; onSave: Props["onSaveProfile"] }) {
+  const [name, setName] = useState("");
+  const [note, setNote] = useState<{ ok: boolean; text: string } | null>(null);
+  const save = async () => {
+    const result = await onSave(name.trim());
+    setNote(result.ok ? { ok: true, text: `Saved as profile "${name.trim()}": files with the same header will be read this way.` } : { ok: false, text: result.message });
+  };
+  return (
+    <div className="mt-2 flex flex-col gap-1 border-t border-stone-200 pt-2">
+      <label htmlFor={`${idPrefix}-profile`} className="text-ink-soft">Save these choices as a profile</label>
+      <span className="flex gap-1">
+        <input id={`${idPrefix}-profile`} value={name} maxLength={80} disabled={disabled} onChange={(e) => setName(e.target.value)}
+          placeholder="e.g. Plate reader, three columns" className="w-44 rounded border border-stone-300 px-1 py-0.5" />
+        <button type="button" disabled={disabled || name.trim() === ""} onClick={save} className="rounded border border-stone-300 px-2 py-0.5 hover:bg-white disabled:opacity-50">
+          Save profile
+        </button>
+      </span>
+      {note && <p role={note.ok ? "status" : "alert"} data-testid="profile-saved" className={note.ok ? "text-emerald-800" : "text-red-800"}>{note.text}</p>}
+    </div>
+  );
+}
+
 /** The preview of one file: what was found, a small plot, and the choices for this file. */
-export function FilePreviewPanel({ fileName, preview, overrides, disabled, onChange, onApplyToBatch }: Props) {
+export function FilePreviewPanel({ fileName, preview, overrides, disabled, onChange, onApplyToBatch, onSaveProfile }: Props) {
   if (preview === undefined || preview === "loading") return <p className="mt-1 text-xs text-ink-faint">Reading {fileName}…</p>;
   const id = (k: string) => `${fileName}-${k}`.replace(/[^\w-]/g, "_");
   return (
@@ -52,6 +77,7 @@ export function FilePreviewPanel({ fileName, preview, overrides, disabled, onCha
             <dt className="text-ink-soft">X unit</dt><dd data-testid="preview-x-unit">{preview.xUnitLabel} ({SOURCE_WORDS[preview.xUnitSource]})</dd>
             <dt className="text-ink-soft">Signal</dt><dd>{preview.yKindLabel}</dd>
             <dt className="text-ink-soft">Column</dt><dd data-testid="preview-column">{preview.column}</dd>
+            {preview.profile && (<><dt className="text-ink-soft">Profile</dt><dd data-testid="preview-profile">&quot;{preview.profile.name}&quot; ({preview.profile.how === "matched" ? "matched by the file's header" : "chosen"})</dd></>)}
             <dt className="text-ink-soft">Will create</dt><dd data-testid="preview-creates">{preview.creates}</dd>
             {preview.warnings.length > 0 && (<><dt className="text-ink-soft">Notes</dt><dd>{preview.warnings.join("; ")}</dd></>)}
           </dl>
@@ -82,9 +108,17 @@ export function FilePreviewPanel({ fileName, preview, overrides, disabled, onCha
           <option value="">As for the batch</option>
           {X_UNIT_NAMES.map((u) => <option key={u} value={u}>{X_UNITS[u].label}</option>)}
         </select>
-        <button type="button" disabled={disabled || (!overrides.column && !overrides.xUnit)} onClick={onApplyToBatch} className="mt-1 rounded border border-stone-300 px-2 py-0.5 text-left hover:bg-white disabled:opacity-50">
+        {preview.ok && preview.traces.length > 1 && preview.format !== "jcamp-dx" && (
+          <label className="mt-1 flex items-center gap-1.5">
+            <input type="checkbox" checked={preview.split !== null} disabled={disabled} data-testid="preview-split"
+              onChange={(e) => onChange({ ...overrides, split: e.target.checked })} />
+            Split into {preview.traces.length} spectra (one per column)
+          </label>
+        )}
+        <button type="button" disabled={disabled || (!overrides.column && !overrides.xUnit && overrides.split === undefined)} onClick={onApplyToBatch} className="mt-1 rounded border border-stone-300 px-2 py-0.5 text-left hover:bg-white disabled:opacity-50">
           Use these choices for the whole batch
         </button>
+        {preview.ok && preview.signature && <SaveProfile idPrefix={id("save")} disabled={disabled} onSave={onSaveProfile} />}
       </div>
     </div>
   );

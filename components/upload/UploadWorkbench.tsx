@@ -12,6 +12,10 @@ import { LiveStatus } from "./LiveStatus";
 import { sendFile, type UploadOutcome } from "./sendFile";
 import { FilePreviewPanel, type FileOverrides } from "./FilePreviewPanel";
 import { requestPreview, type PreviewAnswer } from "./requestPreview";
+import type { FilePreviewOk } from "@/lib/ingest/previewFile";
+import type { ImportProfileView } from "@/lib/ingest/profiles/importProfiles";
+import type { ProfileChoice } from "@/lib/ingest/profiles/profileChoice";
+import { deleteProfile, fetchProfiles, saveProfile } from "./importProfilesClient";
 
 type Item = {
   key: string;
@@ -27,14 +31,29 @@ type Item = {
 };
 
 /** The batch fields that change how a file is read (and so its preview). */
-const READ_KEYS = ["projectId", "technique", "column", "xUnit", "yKind", "block", "pair", "sheet"] as const;
+const READ_KEYS = ["projectId", "technique", "excitationNm", "column", "xUnit", "yKind", "block", "pair", "sheet", "split", "profile"] as const;
 
 function readFieldsFor(values: BatchValues, overrides: FileOverrides): Record<string, string> {
   const fields: Record<string, string> = {};
   for (const k of READ_KEYS) fields[k] = values[k];
   if (overrides.column) fields.column = overrides.column;
   if (overrides.xUnit) fields.xUnit = overrides.xUnit;
+  if (overrides.split !== undefined) fields.split = overrides.split ? "all" : "";
   return fields;
+}
+
+/** The choices a preview was read with (what was sent and what its profile filled in), as a profile keeps them. */
+function profileChoiceOf(fields: Record<string, string>, preview: FilePreviewOk): ProfileChoice {
+  const all = { ...fields, ...(preview.profile?.fields ?? {}) };
+  const choice: ProfileChoice = {};
+  if (all.column) choice.column = all.column;
+  if (all.xUnit) choice.xUnit = all.xUnit as ProfileChoice["xUnit"];
+  if (all.yKind) choice.yKind = all.yKind as ProfileChoice["yKind"];
+  if (all.block) choice.block = Number(all.block);
+  if (all.pair) choice.pair = Number(all.pair);
+  if (all.sheet) choice.sheet = all.sheet;
+  if (all.split === "all") choice.split = true;
+  return choice;
 }
 
 const PARALLEL = 3;
@@ -48,6 +67,32 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
   const [items, setItems] = useState<Item[]>([]);
   const [busy, setBusy] = useState(false);
   const cancel = useRef<AbortController | null>(null);
+  const [profiles, setProfiles] = useState<ImportProfileView[]>([]);
+  const [profileVersion, setProfileVersion] = useState(0);
+
+  useEffect(() => {
+    if (!values.projectId) return;
+    let live = true;
+    void fetchProfiles(values.projectId).then((p) => { if (live) setProfiles(p); });
+    return () => { live = false; };
+  }, [values.projectId, profileVersion]);
+
+  // A saved or deleted profile changes how waiting files are read: ask their previews again
+  // (not the one a profile was just saved from: it is already read with those choices).
+  const profilesChanged = (exceptKey?: string) => {
+    setProfileVersion((v) => v + 1);
+    setItems((old) => old.map((i) => (i.key === exceptKey ? i : { ...i, previewKey: undefined })));
+  };
+  const saveProfileFrom = async (item: Item, name: string) => {
+    if (!item.preview || item.preview === "loading" || !item.preview.ok || !item.preview.signature) return { ok: false as const, message: "the file must be read first" };
+    const result = await saveProfile(values.projectId, name, profileChoiceOf(readFieldsFor(values, item.overrides), item.preview), item.preview.signature);
+    if (result.ok) profilesChanged(item.key);
+    return result;
+  };
+  const removeProfile = async (id: string) => {
+    const result = await deleteProfile(values.projectId, id);
+    if (result.ok) profilesChanged();
+  };
 
   const addFiles = useCallback(
     (picked: PickedFile[]) => {
@@ -70,6 +115,7 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
   const update = (key: string, change: Partial<Item>) => setItems((old) => old.map((i) => (i.key === key ? { ...i, ...change } : i)));
 
   const ready = items.filter((i) => i.phase === "ready" && !i.localError);
+  const waitingFiles = ready.flatMap((i) => (i.preview && i.preview !== "loading" && i.preview.ok && i.preview.bands ? [{ fileName: i.picked.name, bands: i.preview.bands }] : []));
 
   // Each waiting file is read once per set of reading fields (the batch's and its own).
   useEffect(() => {
@@ -86,7 +132,10 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
   }, [items, values]);
 
   const applyToBatch = (overrides: FileOverrides) => {
-    setValues((v) => ({ ...v, ...(overrides.column ? { column: overrides.column } : {}), ...(overrides.xUnit ? { xUnit: overrides.xUnit } : {}) }));
+    setValues((v) => ({
+      ...v, ...(overrides.column ? { column: overrides.column } : {}), ...(overrides.xUnit ? { xUnit: overrides.xUnit } : {}),
+      ...(overrides.split !== undefined ? { split: overrides.split ? "all" : "" } : {}),
+    }));
     setItems((old) => old.map((i) => ({ ...i, overrides: {} })));
   };
   const counts = useMemo(() => {
@@ -97,6 +146,14 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
       refused: outcomes.filter((o) => !o.ok).length + items.filter((i) => i.localError).length,
     };
   }, [items]);
+
+  /** Sends a file again asking to update the stored record's details with the ones sent (onDuplicate=update). */
+  async function updateStored(item: Item) {
+    update(item.key, { phase: "sending", progress: 0 });
+    const fields = { ...values, ...readFieldsFor(values, item.overrides), onDuplicate: "update" };
+    const result = await sendFile(item.picked.file, item.picked.name, fields, (p) => update(item.key, { progress: p }));
+    update(item.key, { phase: "done", progress: 1, outcomes: result.files });
+  }
 
   async function start() {
     const parsed = ingestMetadataSchema.safeParse(values);
@@ -137,7 +194,8 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
     <div className="space-y-6">
       <section aria-labelledby="batch-heading" className="rounded-xl border border-stone-200 bg-white p-5">
         <h2 id="batch-heading" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-soft">Describe the batch</h2>
-        <BatchForm choices={choices} values={values} errors={errors} disabled={busy} onChange={setValues} />
+        <BatchForm choices={choices} values={values} errors={errors} disabled={busy} onChange={setValues} waitingFiles={waitingFiles}
+          profiles={profiles} onDeleteProfile={(id) => void removeProfile(id)} />
         {usesUvOrLaserLight(values.technique) && <p className="mt-3 text-xs text-caution">{LIGHT_CAUTION}</p>}
       </section>
 
@@ -190,6 +248,8 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
                 onRemove={() => setItems((old) => old.filter((i) => i.key !== item.key))}
                 onOverrides={(overrides) => update(item.key, { overrides })}
                 onApplyToBatch={() => applyToBatch(item.overrides)}
+                onSaveProfile={(name) => saveProfileFrom(item, name)}
+                onUpdateStored={() => void updateStored(item)}
               />
             ))}
           </ul>
@@ -199,9 +259,12 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
   );
 }
 
-type FileRowProps = { item: Item; busy: boolean; onRemove: () => void; onOverrides: (o: FileOverrides) => void; onApplyToBatch: () => void };
+type FileRowProps = {
+  item: Item; busy: boolean; onRemove: () => void; onOverrides: (o: FileOverrides) => void; onApplyToBatch: () => void;
+  onSaveProfile: (name: string) => Promise<{ ok: true } | { ok: false; message: string }>; onUpdateStored: () => void;
+};
 
-function FileRow({ item, busy, onRemove, onOverrides, onApplyToBatch }: FileRowProps) {
+function FileRow({ item, busy, onRemove, onOverrides, onApplyToBatch, onSaveProfile, onUpdateStored }: FileRowProps) {
   const { picked, phase, progress, outcomes, localError } = item;
   const isBatch = outcomes.length > 1 || outcomes.some((o) => o.zip);
   return (
@@ -225,19 +288,29 @@ function FileRow({ item, busy, onRemove, onOverrides, onApplyToBatch }: FileRowP
       </div>
       {localError && <p role="alert" className="mt-1 text-xs text-red-800">{localError}</p>}
       {phase === "ready" && !localError && (
-        <FilePreviewPanel fileName={picked.name} preview={item.preview} overrides={item.overrides} disabled={busy} onChange={onOverrides} onApplyToBatch={onApplyToBatch} />
+        <FilePreviewPanel fileName={picked.name} preview={item.preview} overrides={item.overrides} disabled={busy} onChange={onOverrides} onApplyToBatch={onApplyToBatch} onSaveProfile={onSaveProfile} />
       )}
       {outcomes.length > 0 && (
         <ul className={isBatch ? "mt-1 space-y-1 border-l-2 border-stone-100 pl-3" : "mt-1"}>
           {outcomes.map((o, i) => (
             <li key={`${o.fileName}-${i}`} className="flex min-w-0 items-start gap-2 text-xs">
-              {isBatch && <span className="w-56 shrink-0 truncate text-ink-soft" title={o.fileName}>{o.fileName}</span>}
+              {isBatch && (
+                <span className="w-56 shrink-0 truncate text-ink-soft" title={o.fileName} data-testid="outcome-name">
+                  {o.ok && o.trace ? `${o.trace}${o.seriesValue !== undefined && o.seriesValue !== null ? ` → ${o.seriesValue}${o.seriesUnit ? ` ${o.seriesUnit}` : ""}` : ""}` : o.fileName}
+                </span>
+              )}
               {o.ok ? (
                 <span className="min-w-0">
                   <LiveStatus spectrumId={o.spectrumId} duplicate={o.duplicate} />
-                  {o.differences && o.differences.length > 0 && (
+                  {o.profile && <span className="mt-0.5 block text-ink-soft">Read with profile &quot;{o.profile.name}&quot;</span>}
+                  {o.updated ? (
+                    <span role="status" className="mt-0.5 block text-emerald-800" data-testid="duplicate-updated">
+                      Stored details updated ({o.differences?.map((d) => `${d.label}: ${d.stored ?? "not set"} → ${d.sent}`).join("; ")}){o.updated.reanalysis ? "; a new analysis was requested" : ""}.
+                    </span>
+                  ) : o.differences && o.differences.length > 0 && (
                     <span role="status" className="mt-0.5 block text-caution" data-testid="duplicate-differences">
-                      These bytes were already stored with other details ({o.differences.map((d) => `${d.label}: ${d.stored ?? "not set"} stored, ${d.sent} sent`).join("; ")}). The stored details were kept; change them on the spectrum&apos;s page (a re-run takes a new column, unit or path length).
+                      These bytes were already stored with other details ({o.differences.map((d) => `${d.label}: ${d.stored ?? "not set"} stored, ${d.sent} sent`).join("; ")}). The stored details were kept.{" "}
+                      <button type="button" onClick={onUpdateStored} className="underline hover:no-underline">Update the stored details</button>
                     </span>
                   )}
                 </span>

@@ -5,6 +5,9 @@ export type UploadOutcome =
   | {
       ok: true; fileName: string; zip?: string; spectrumId: string; runId: string | null; status: string; duplicate: boolean; queued: boolean;
       differences?: Array<{ field: string; label: string; stored: string | null; sent: string }>;
+      updated?: { fields: string[]; reanalysis: { runId: string; created: boolean } | null };
+      trace?: string; seriesValue?: number | null; seriesUnit?: string;
+      profile?: { name: string; how: "named" | "matched" };
     }
   | { ok: false; fileName: string; zip?: string; error: { status: number; code: string; message: string; field?: string } };
 

@@ -1,11 +1,13 @@
+import { Refusal } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { expandZip, looksLikeZip } from "./expandZip";
 import { ingestLimits, type IngestLimits } from "./limits";
 import type { IngestMetadataInput } from "./metadata";
 import { prepareIngest, type IngestContext } from "./prepareIngest";
 import { storeFile, type StoredFile } from "./storeFile";
+import { storeSplit } from "./storeSplit";
+import { applyProfile } from "./profiles/applyProfile";
 import { isTransientFault } from "@/lib/transientFault";
-import { Refusal } from "@/lib/errors";
 
 export type IncomingFile = { fileName: string; bytes: Uint8Array; contentType?: string };
 
@@ -46,10 +48,21 @@ export async function ingestFiles(
 ): Promise<FileOutcome[]> {
   if (files.length === 0) throw new Refusal(400, "no-file", "no file was sent (use the form field \"file\")", "file");
   const context = await prepareIngest(actor, metadata);
-  return ingestPrepared(context, files, limits);
+  return ingestPrepared(context, files, limits, metadata);
 }
 
-export async function ingestPrepared(context: IngestContext, files: IncomingFile[], limits: IngestLimits): Promise<FileOutcome[]> {
+/**
+ * Stores one file with the batch's details and the import profile that applies to it (named, or
+ * matched by the file's header): one spectrum, or one per trace when split.
+ */
+async function storeWithProfile(context: IngestContext, input: Record<string, unknown>, file: IncomingFile, maxBytes: number): Promise<StoredFile[]> {
+  const applied = await applyProfile(context.project.id, input, file, maxBytes);
+  const fileContext = applied.profile ? await prepareIngest(context.actor, applied.fields) : context;
+  const stored = fileContext.metadata.split === "all" ? await storeSplit(fileContext, file, maxBytes) : [await storeFile(fileContext, file, maxBytes)];
+  return applied.profile ? stored.map((s) => ({ ...s, profile: applied.profile! })) : stored;
+}
+
+export async function ingestPrepared(context: IngestContext, files: IncomingFile[], limits: IngestLimits, input: Record<string, unknown> = { ...context.metadata }): Promise<FileOutcome[]> {
   const outcomes: FileOutcome[] = [];
   let budget = limits.maxFilesPerRequest;
   for (const file of files) {
@@ -75,7 +88,9 @@ export async function ingestPrepared(context: IngestContext, files: IncomingFile
           continue;
         }
         try {
-          outcomes.push({ ok: true, zip: file.fileName, ...(await storeFile(context, { ...entry, contentType: "application/octet-stream" }, limits.maxFileBytes)) });
+          for (const stored of await storeWithProfile(context, input, { ...entry, contentType: "application/octet-stream" }, limits.maxFileBytes)) {
+            outcomes.push({ ok: true, zip: file.fileName, ...stored });
+          }
         } catch (error) {
           outcomes.push(outcomeOfError(entry.fileName, error, file.fileName));
         }
@@ -87,7 +102,7 @@ export async function ingestPrepared(context: IngestContext, files: IncomingFile
       continue;
     }
     try {
-      outcomes.push({ ok: true, ...(await storeFile(context, file, limits.maxFileBytes)) });
+      for (const stored of await storeWithProfile(context, input, file, limits.maxFileBytes)) outcomes.push({ ok: true, ...stored });
     } catch (error) {
       outcomes.push(outcomeOfError(file.fileName, error));
     }

@@ -12,15 +12,15 @@ export function storedReadOptions(parameters: AnalysisParameters) {
 
 /*
  * The spectrum, its first analysis run and the audit event of the upload, in one statement:
- * one round trip, and atomic like a transaction (a unique-key clash on (project, sha256) undoes
+ * one round trip, and atomic like a transaction (a unique-key clash on (project, sha256, trace) undoes
  * all three and surfaces as Sequelize's UniqueConstraintError).
  */
 const INSERT_UPLOAD_SQL = `
 WITH spectrum AS (
   INSERT INTO spectra (project_id, sample_id, series_id, series_value, reference_spectrum_id, technique, file_name, object_key,
                        sha256, size_bytes, content_type, column_choice, path_length_cm, excitation_nm, solvent, material,
-                       status, uploaded_by, read_options)
-  VALUES ($1, $2, $3, $4, $5, $6::text, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, 'queued', $17, $23::jsonb)
+                       status, uploaded_by, read_options, trace_key)
+  VALUES ($1, $2, $3, $4, $5, $6::text, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, 'queued', $17, $23::jsonb, $24)
   RETURNING id
 ),
 run AS (
@@ -31,7 +31,7 @@ run AS (
 audit AS (
   INSERT INTO audit_events (actor_id, actor_label, group_id, action, target_type, target_id, details)
   SELECT $17, $21, $22, 'spectrum.upload', 'spectrum', run.spectrum_id::text,
-         jsonb_build_object('fileName', $7::text, 'sha256', $9::text, 'sizeBytes', $10::bigint, 'contentType', $11::text, 'runId', run.id)
+         jsonb_build_object('fileName', $7::text, 'sha256', $9::text, 'sizeBytes', $10::bigint, 'contentType', $11::text, 'runId', run.id, 'traceKey', $24::text)
     FROM run
 )
 SELECT spectrum_id AS "spectrumId", id AS "runId" FROM run`;
@@ -44,6 +44,8 @@ export type UploadRow = {
   sizeBytes: number;
   contentType: string;
   parameterHash: string;
+  /** Which trace of the file (lib/ingest/traceKey.ts); '' for the default reading. */
+  traceKey: string;
 };
 
 /** Writes the rows of one stored upload; returns the new spectrum's and run's ids. */
@@ -63,7 +65,7 @@ export async function insertUpload(row: UploadRow): Promise<{ spectrumId: string
       row.sha256,
       row.sizeBytes,
       row.contentType,
-      metadata.column ?? null,
+      parameters.column === undefined ? null : String(parameters.column),
       metadata.pathLengthCm ?? null,
       metadata.excitationNm ?? null,
       context.solvent,
@@ -75,6 +77,7 @@ export async function insertUpload(row: UploadRow): Promise<{ spectrumId: string
       context.actor.email,
       context.project.groupId,
       JSON.stringify(storedReadOptions(parameters)),
+      row.traceKey,
     ],
     type: QueryTypes.SELECT,
   });

@@ -60,15 +60,52 @@ export const readFields = {
   sheet: optionalText("sheet", 100),
 };
 
+/** Whether to store every trace of the file (Y column, pair or block) as its own spectrum. */
+const splitField = z.preprocess(blankToUndefined, z.enum(["all"], { error: 'split must be "all" (one spectrum per Y column, pair or block) or empty' }).optional());
+
+/** An import profile by name, or "none" for no profile; empty: the profile matching the file, if any (docs/ingest.md). */
+const profileField = z.preprocess(
+  blankToUndefined,
+  z.string().trim().min(1).max(80, "profile is longer than 80 characters").refine(isPlainText, plainTextMessage("profile")).optional(),
+);
+
+/** One trace of a split file given its own sample or series value (or left out). */
+const assignmentSchema = z
+  .object({
+    trace: z.string({ error: "assignments: each needs trace (a label from the preview's traces)" }).trim().min(1).max(300),
+    sampleId: z.string().uuid("assignments: sampleId must be an id (UUID)").optional(),
+    seriesValue: z.number({ error: "assignments: seriesValue must be a number" }).refine(Number.isFinite, "assignments: seriesValue must be finite").optional(),
+    skip: z.boolean().optional(),
+  })
+  .strict();
+export type TraceAssignment = z.infer<typeof assignmentSchema>;
+
+const assignmentsField = z.preprocess(
+  (v) => {
+    const b = blankToUndefined(v);
+    if (typeof b !== "string") return b;
+    try {
+      return JSON.parse(b);
+    } catch {
+      return "not JSON";
+    }
+  },
+  z.array(assignmentSchema, { error: "assignments must be a JSON array of {trace, sampleId?, seriesValue?, skip?}" }).max(500).optional(),
+);
+
 /** The fields of a preview: how to read the file, and the technique (which settles an unstated Y kind). */
 export const previewFieldsSchema = z
   .object({
     projectId: z.preprocess(blankToUndefined, z.string({ error: "choose a project" }).trim().uuid("projectId must be an id (UUID)")),
     technique: z.preprocess(blankToUndefined, registryEnum("technique", INGEST_TECHNIQUES).optional()),
+    /** For PL: keeps the excitation line out of the bands the preview reports (as the analysis does). */
+    excitationNm: optionalNumber("excitationNm", 100, 3000, "nm"),
     ...readFields,
+    split: splitField,
+    profile: profileField,
   })
   .strict();
-export const PREVIEW_FIELDS = ["projectId", "technique", "column", "xUnit", "yKind", "block", "pair", "sheet"] as const;
+export const PREVIEW_FIELDS = ["projectId", "technique", "excitationNm", "column", "xUnit", "yKind", "block", "pair", "sheet", "split", "profile"] as const;
 
 export const ingestMetadataSchema = z
   .object({
@@ -91,6 +128,10 @@ export const ingestMetadataSchema = z
     excitationNm: optionalNumber("excitationNm", 100, 3000, "nm"),
     solvent: optionalText("solvent", 100),
     ...readFields,
+    split: splitField,
+    assignments: assignmentsField,
+    profile: profileField,
+    onDuplicate: z.preprocess(blankToUndefined, z.enum(["keep", "update"], { error: 'onDuplicate must be "keep" or "update"' }).optional()),
     material: z.preprocess(
       blankToUndefined,
       z.enum(INGEST_MATERIALS, { error: `material must be one of ${INGEST_MATERIALS.join(", ")}` }).optional(),
@@ -99,6 +140,12 @@ export const ingestMetadataSchema = z
   .superRefine((m, ctx) => {
     if (m.seriesValue !== undefined && m.seriesId === undefined) {
       ctx.addIssue({ code: "custom", path: ["seriesValue"], message: "seriesValue needs a seriesId" });
+    }
+    if (m.assignments !== undefined && m.split === undefined) {
+      ctx.addIssue({ code: "custom", path: ["assignments"], message: 'assignments need split=all' });
+    }
+    if (m.assignments?.some((a) => a.seriesValue !== undefined) && m.seriesId === undefined) {
+      ctx.addIssue({ code: "custom", path: ["assignments"], message: "assignments: a seriesValue needs a seriesId" });
     }
   });
 
@@ -109,4 +156,5 @@ export type IngestMetadata = z.output<typeof ingestMetadataSchema>;
 export const INGEST_FIELDS = [
   "projectId", "technique", "sampleId", "referenceSpectrumId", "seriesId", "seriesValue",
   "pathLengthCm", "excitationNm", "solvent", "column", "material", "xUnit", "yKind", "block", "pair", "sheet",
+  "split", "assignments", "profile", "onDuplicate",
 ] as const;

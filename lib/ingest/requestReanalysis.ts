@@ -17,7 +17,13 @@ export type ReanalysisResult = { runId: string; status: AnalysisRun["status"]; c
  * a run with the same engine version, parameters and reference exists, it is reused: a
  * finished one is returned as is, a failed one is queued again.
  */
-export async function requestReanalysis(spectrumId: string, changes: ReanalysisInput | unknown, actor: Actor): Promise<ReanalysisResult> {
+export async function requestReanalysis(
+  spectrumId: string,
+  changes: ReanalysisInput | unknown,
+  actor: Actor,
+  /** Set by the server only (a re-upload that changed the stored technique), never by a request body. */
+  overrides: Pick<AnalysisParameters, "technique"> | null = null,
+): Promise<ReanalysisResult> {
   const parsed = reanalysisSchema.safeParse(changes ?? {});
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
@@ -37,7 +43,7 @@ export async function requestReanalysis(spectrumId: string, changes: ReanalysisI
     (await AnalysisRun.findOne({ where: { spectrumId, status: { [Op.ne]: "failed" } }, order: newestFirst })) ??
     (await AnalysisRun.findOne({ where: { spectrumId }, order: newestFirst }));
   const base: AnalysisParameters = (latest?.parameters as AnalysisParameters | undefined) ?? { technique: spectrum.technique };
-  const parameters = mergeParameters(base, parsed.data);
+  const parameters = mergeParameters(overrides ? { ...base, ...overrides } : base, parsed.data);
   let referenceSpectrumId = latest ? latest.referenceSpectrumId : spectrum.referenceSpectrumId;
   if (parsed.data.referenceSpectrumId !== undefined) referenceSpectrumId = parsed.data.referenceSpectrumId;
   if (referenceSpectrumId) {

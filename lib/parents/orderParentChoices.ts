@@ -1,5 +1,6 @@
 import { checkReferenceMatch, type MatchSide, type MatchVerdict } from "@/lib/engine/compare/checkReferenceMatch";
 import type { Technique } from "@/lib/engine";
+import { sampleSideAgainst, type SampleBands } from "./sampleBands";
 
 /** An analysed spectrum that could serve as a parent reference (failed or unreadable uploads never are). */
 export type ParentCandidate = {
@@ -22,6 +23,8 @@ export type ParentTarget = {
   sample: { id: string; name: string; material: string; parentIds: readonly string[] } | null;
   /** Known once the file is analysed (the re-run form): its range and first exciton. */
   side: MatchSide | null;
+  /** Before an upload: what the engine found in the file about to be stored (the preview); the side is then worked out per parent. */
+  bands?: SampleBands | null;
   /** The spectrum itself, never its own parent. */
   spectrumId?: string;
 };
@@ -43,8 +46,9 @@ export function parentVerdict(target: ParentTarget, candidate: Pick<ParentCandid
   if (candidate.technique !== target.technique) {
     return { ok: false, reason: `the reference does not match this sample: the sample is ${target.technique}, the reference ${candidate.technique}` };
   }
-  if (!target.side || !candidate.rangeEv) return { ok: true, toleranceMeV: null };
-  return checkReferenceMatch(target.side, { technique: candidate.technique, rangeEv: candidate.rangeEv, bandEv: candidate.firstExcitonEv, fwhmMeV: candidate.fwhmMeV });
+  const side = target.bands ? sampleSideAgainst(target.bands, candidate.firstExcitonEv) : target.side;
+  if (!side || !candidate.rangeEv) return { ok: true, toleranceMeV: null };
+  return checkReferenceMatch(side, { technique: candidate.technique, rangeEv: candidate.rangeEv, bandEv: candidate.firstExcitonEv, fwhmMeV: candidate.fwhmMeV });
 }
 
 /**

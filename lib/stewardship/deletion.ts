@@ -132,7 +132,11 @@ export async function completeTombstone(tombstoneId: string, request: Pick<Delet
       }
       await db.query("DELETE FROM spectra WHERE id = :id", { replacements: { id: t.targetId }, transaction });
     }
-    if (t.objectKey) await deleteObject(t.objectKey); // idempotent: deleting a missing key succeeds
+    // The traces of one file share its object (migrations/0010): it goes with the last spectrum that reads it.
+    const [shared] = t.objectKey
+      ? await db.query<{ id: string }>("SELECT id FROM spectra WHERE object_key = :key LIMIT 1", { replacements: { key: t.objectKey }, type: QueryTypes.SELECT, transaction })
+      : [];
+    if (t.objectKey && !shared) await deleteObject(t.objectKey); // idempotent: deleting a missing key succeeds
     if (request.pauseMs) await sleep(request.pauseMs);
     await t.update({ state: "done", completedAt: new Date() }, { transaction });
     await recordAudit(

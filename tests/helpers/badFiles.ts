@@ -34,6 +34,14 @@ export function badCorpus(maxBytes: number): BadCase[] {
   const manyEntries: Record<string, Uint8Array> = {};
   for (let i = 0; i < 600; i++) manyEntries[`e${i}.csv`] = strToU8(`${i}`);
   const fullText = good();
+  // Two blocks one after another; the second's first column is a Y column (docs/ingest.md, "block without X").
+  const xs = ramp(120, (i) => String(400 + 2 * i));
+  const blockWithoutX = enc([
+    "Wavelength (nm),30 s", ...xs.map((x, i) => `${x},${(0.3 + 0.001 * i).toFixed(4)}`), "",
+    "Absorbance A,Absorbance B", ...xs.map((_, i) => `${(0.2 + 0.001 * i).toFixed(4)},${(0.1 + 0.001 * i).toFixed(4)}`),
+  ].join("\n"));
+  const mixedUnits = enc(fullText.replace("wavelength (nm)", "Wavelength (nm) / Energy (eV)"));
+  const threeColumns = enc(`Wavelength (nm),0.5 eq,1 eq,2 eq\n${ramp(120, (i) => `${400 + 2 * i},0.3,0.2,0.1`).join("\n")}\n# ${u()}\n`);
 
   return [
     { name: "binary bytes", fileName: `blob-${u()}.csv`, bytes: binary },
@@ -56,6 +64,13 @@ export function badCorpus(maxBytes: number): BadCase[] {
     { name: "JSON document", fileName: `doc-${u()}.json`, bytes: enc(JSON.stringify({ x: [1, 2, 3], y: [4, 5, 6] })) },
     { name: "UTF-16 byte-order mark on binary bytes", fileName: `utf16-${u()}.csv`, bytes: Uint8Array.from([0xff, 0xfe, ...binary]), expect: /UTF-16.*binary/ },
     { name: "spreadsheet with no numbers", fileName: `words-${u()}.xlsx`, bytes: wordsOnlyWorkbook, expect: /no numeric table found on sheet 'Results'/ },
+    { name: "block without X", fileName: `nox-${u()}.csv`, bytes: blockWithoutX, fields: { block: "2" }, expect: /block 2 has no X column.*put the X values .* first in each block/ },
+    { name: "mixed units in one column", fileName: `mixed-${u()}.csv`, bytes: mixedUnits, expect: /mixed units in one column.*nm and eV; choose the X unit/ },
+    { name: "split assignment naming no trace", fileName: `split-${u()}.csv`, bytes: threeColumns, fields: { split: "all", assignments: JSON.stringify([{ trace: "5 eq", skip: true }]) }, expect: /no trace "5 eq" in the file \(traces: 0\.5 eq, 1 eq, 2 eq\)/ },
+    { name: "assignments not JSON", fileName: `assign-${u()}.csv`, bytes: threeColumns, fields: { split: "all", assignments: "{trace" }, expect: /assignments must be a JSON array/ },
+    { name: "split value other than all", fileName: `split2-${u()}.csv`, bytes: threeColumns, fields: { split: "yes" }, expect: /split must be "all"/ },
+    { name: "unknown import profile", fileName: `prof-${u()}.csv`, bytes: threeColumns, fields: { profile: "No such habit" }, expect: /no import profile named "No such habit"/ },
+    { name: "onDuplicate not keep or update", fileName: `dup-${u()}.csv`, bytes: threeColumns, fields: { onDuplicate: "merge" }, expect: /onDuplicate must be "keep" or "update"/ },
     { name: "broken JCAMP-DX", fileName: `broken-${u()}.jdx`, bytes: enc("##TITLE=broken\n##JCAMP-DX=4.24\n##XYDATA=(X++(Y..Y))\n1 2 3\n##END=\n") },
     { name: "ragged rows", fileName: `ragged-${u()}.csv`, bytes: lines(ramp(100, (i) => (i % 2 ? `${400 + i},0.1,0.2,0.3` : `${400 + i}`))) },
     { name: "column that does not exist", fileName: `col-${u()}.csv`, bytes: enc(good()), fields: { column: "transmittance-B" } },

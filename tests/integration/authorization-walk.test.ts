@@ -41,6 +41,16 @@ const signatureId = demoSignature?.id ?? "00000000-0000-4000-8000-000000000000";
 
 const ROUTES: Record<string, Call[]> = {
   "api/v1/projects": [{ method: "GET", path: () => "/api/v1/projects" }],
+  "api/v1/projects/[id]/import-profiles": [
+    { method: "GET", path: (ids) => `/api/v1/projects/${ids.project.id}/import-profiles` },
+    {
+      method: "POST", path: (ids) => `/api/v1/projects/${ids.project.id}/import-profiles`, contentType: "application/json",
+      body: () => JSON.stringify({ name: "walk", choice: { xUnit: "nm" }, signature: "ext=csv" }),
+    },
+  ],
+  "api/v1/projects/[id]/import-profiles/[profileId]": [
+    { method: "DELETE", path: (ids) => `/api/v1/projects/${ids.project.id}/import-profiles/00000000-0000-4000-8000-000000000000` },
+  ],
   "api/v1/openapi.json": [{ method: "GET", path: () => "/api/v1/openapi.json" }],
   "api/v1/spectra": [
     { method: "POST", path: () => "/api/v1/spectra" },

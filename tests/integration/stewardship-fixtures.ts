@@ -33,7 +33,7 @@ export async function storedRun(spectrum: Spectrum, ageDays = 0): Promise<Analys
   return run;
 }
 
-/** Every spectrum row of the projects has its object, and every finished tombstone's object is gone. */
+/** Every spectrum row of the projects has its object, and every finished tombstone's object is gone unless a live spectrum still reads it (a file's traces share one object). */
 export async function consistency(projectIds: string[]): Promise<{ rowsWithoutObject: string[]; objectsWithoutRow: string[]; pending: number }> {
   const rows = await selectRows<{ id: string; object_key: string }>("SELECT id, object_key FROM spectra WHERE project_id IN (:projectIds)", { projectIds });
   const rowsWithoutObject: string[] = [];
@@ -41,6 +41,7 @@ export async function consistency(projectIds: string[]): Promise<{ rowsWithoutOb
   const tombs = await selectRows<{ target_id: string; object_key: string; state: string }>("SELECT target_id, object_key, state FROM tombstones WHERE project_id IN (:projectIds) AND target_type = 'spectrum'", { projectIds });
   const objectsWithoutRow: string[] = [];
   const live = new Set(rows.map((r) => r.id));
-  for (const t of tombs) if (t.state === "done" && !live.has(t.target_id) && (await objectExists(t.object_key))) objectsWithoutRow.push(t.target_id);
+  const liveObjects = new Set(rows.map((r) => r.object_key));
+  for (const t of tombs) if (t.state === "done" && !live.has(t.target_id) && !liveObjects.has(t.object_key) && (await objectExists(t.object_key))) objectsWithoutRow.push(t.target_id);
   return { rowsWithoutObject, objectsWithoutRow, pending: tombs.filter((t) => t.state === "pending").length };
 }

@@ -21,6 +21,12 @@ const UNITS: Array<[RegExp, string]> = [
   [/^K$/, 'K'],
 ];
 
+/** A unit as a series or a header writes it, in the spelling readSeriesValue gives ("equiv" → "eq", "uM" → "µM"); unknown units are only trimmed. */
+export function normaliseSeriesUnit(unit: string): string {
+  const text = unit.trim();
+  return UNITS.find(([r]) => r.test(text))?.[1] ?? text;
+}
+
 /**
  * Reads a series value from a column header such as "0.5 eq", "10 µM", "t = 30 s" or
  * "240 s reaction": the first number followed by a known unit. Undefined when there is none.

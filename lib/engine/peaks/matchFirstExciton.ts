@@ -8,13 +8,13 @@ import type { ExcitonicPeak } from './findExcitonicPeaks';
  * the window. Common practice: the same transition is followed across a series by its
  * energy, and a Stark or size shift stays far below 0.15 eV.
  */
-export function matchFirstExciton(
-  samplePeaks: readonly ExcitonicPeak[],
+export function matchFirstExciton<P extends Pick<ExcitonicPeak, 'energyEv'>>(
+  samplePeaks: readonly P[],
   referenceFirstEv: number,
   windowEv = 0.15,
-): ExcitonicPeak | null {
+): P | null {
   if (!(windowEv > 0)) throw new RangeError('windowEv must be positive');
-  let best: ExcitonicPeak | null = null;
+  let best: P | null = null;
   for (const p of samplePeaks) {
     const d = Math.abs(p.energyEv - referenceFirstEv);
     if (d <= windowEv && (!best || d < Math.abs(best.energyEv - referenceFirstEv))) best = p;
