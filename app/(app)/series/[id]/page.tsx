@@ -9,6 +9,7 @@ import { FitSummary } from "@/components/series/FitSummary";
 import { SeriesCharts } from "@/components/series/SeriesCharts";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
+import { isUuid } from "@/lib/ids";
 
 export const metadata: Metadata = { title: "Series" };
 
@@ -17,7 +18,7 @@ const pct = (v: number | null) => (v === null ? "—" : `${(v * 100).toFixed(1)}
 export default async function SeriesDetailPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const actor = await requireActor(`/series/${id}`);
-  const series = /^[0-9a-f-]{36}$/i.test(id) ? await getSeriesDetail(actor, id) : null;
+  const series = isUuid(id) ? await getSeriesDetail(actor, id) : null;
   if (!series) notFound();
   const variable = `${series.variableName || "Variable"}${series.variableUnit ? ` (${series.variableUnit})` : ""}`;
   const missingValues = series.points.filter((p) => p.value === null).length;
