@@ -117,7 +117,18 @@ export function reviewQueueSql(groupIds: string[], q: QueueQuery) {
             (SELECT max(v.created_at) FROM reviews v WHERE v.signature_id = g.id) AS last_decision_at,
             ${key.cast === "timestamptz" ? cursorAtSql(key.sql) : `(${key.sql})::text`} AS sort_value, ${cursorAtSql("g.created_at")} AS cursor_at
      ${from}${pageWhere} ORDER BY ${key.sql} ${dir}, g.created_at ${dir}, g.id ${dir} LIMIT :limit`;
-  const count: CountSql = { rowsSql: `SELECT 1 ${from}`, estimateSql: `SELECT 1 ${from}` };
+  // counted per project of the groups (each stopping at the cap): each project's spectra by index,
+  // and per spectrum its current signatures (OFFSET 0 keeps that a per-spectrum probe instead of a
+  // join of whole tables, which the planner otherwise picks)
+  const count: CountSql = {
+    rowsSql: `SELECT 1 FROM projects p CROSS JOIN LATERAL (
+        SELECT 1 FROM spectra s CROSS JOIN LATERAL (
+          SELECT g.id, g.review_state, g.kind, g.significance, g.created_at, g.superseded_at FROM signatures g
+           WHERE g.spectrum_id = s.id AND g.superseded_at IS NULL OFFSET 0) g
+         WHERE s.project_id = p.id AND ${where.join(" AND ")} LIMIT :countLimit) counted
+      WHERE p.group_id IN (:groupIds)`,
+    estimateSql: `SELECT 1 ${from}`,
+  };
   return {
     listSql, count,
     params: { ...params, limit: q.pageSize + 1, ...(position ? { afterValue: position.value, afterAt: position.at, afterId: position.id } : {}) },
