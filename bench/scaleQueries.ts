@@ -6,7 +6,7 @@
 import { loadActor } from "@/lib/auth/actor";
 import { closeDb, selectRows } from "@/lib/db";
 import { listReviewQueue } from "@/lib/queries/review";
-import { getSample } from "@/lib/queries/samples";
+import { getSample, listSamples } from "@/lib/queries/samples";
 import { listSpectra } from "@/lib/queries/spectra";
 import { listAuditPage } from "@/lib/queries/audit";
 import { queueQuerySchema } from "@/lib/review/schemas";
@@ -48,6 +48,9 @@ const [project] = await selectRows<{ id: string }>("SELECT p.id FROM projects p 
 const search = (q: Record<string, string>) => spectrumSearchSchema.parse(q);
 const deep = encodeCursor({ at: "2018-01-01T00:00:00.000000Z", id: "ffffffff-ffff-ffff-ffff-ffffffffffff" });
 
+const queueSecondPage = (await listReviewQueue(lead, queueQuerySchema.parse({}))).next ?? undefined;
+const samplesSecondPage = (await listSamples(lead)).next ?? undefined;
+
 const cases: [string, number, () => Promise<unknown>][] = [
   ["spectra list, first page", RUNS, () => listSpectra(lead, search({}))],
   ["spectra list, deep page (2018)", RUNS, () => listSpectra(lead, search({ after: deep }))],
@@ -55,7 +58,11 @@ const cases: [string, number, () => Promise<unknown>][] = [
   ["text search, common (metadata)", RUNS, () => listSpectra(lead, search({ q: "fibre spectrometer" }))],
   ["band search, first exciton 570–590 nm", RUNS, () => listSpectra(lead, search({ band: "first-exciton", bandMin: "570", bandMax: "590" }))],
   ["band + flag: bleach ≥ 20 %, ≥ 5σ, awaiting", RUNS, () => listSpectra(lead, search({ band: "first-exciton", bandMin: "570", bandMax: "590", flag: "bleach", flagMin: "0.2", flagSig: "5", review: "awaiting" }))],
+  ["size range 3.0–3.2 nm", RUNS, () => listSpectra(lead, search({ sizeMin: "3.0", sizeMax: "3.2" }))],
   ["review queue, bleach ≥ 5σ", RUNS, () => listReviewQueue(lead, queueQuerySchema.parse({ kind: "bleach", minSignificance: "5" }))],
+  ["review queue, awaiting, second page", RUNS, () => listReviewQueue(lead, queueQuerySchema.parse({ after: queueSecondPage }))],
+  ["samples list, first page", RUNS, () => listSamples(lead)],
+  ["samples list, second page", RUNS, () => listSamples(lead, { after: samplesSecondPage })],
   ["sample detail", RUNS, () => getSample(lead, sample!.id)],
   ["audit trail, first 200", RUNS, () => listAuditPage(steward, {}, 200)],
   ["storage overview", SLOW_RUNS, () => storageOverview(steward)],

@@ -286,7 +286,7 @@ export function openApiDocument() {
         },
       },
       "/api/v1/review/queue": {
-        get: readOperation("listReviewQueue", "Signatures in the groups the caller leads, filtered, sorted and paged (see docs/api.md)", [
+        get: readOperation("listReviewQueue", "Signatures in the groups the caller leads, filtered, sorted and paged by keyset (see docs/api.md)", [
           queryParam("project", "Project id", { type: "string", format: "uuid" }),
           queryParam("sample", "Sample id", { type: "string", format: "uuid" }),
           queryParam("kind", "Kind of change", { type: "string", enum: [...FLAG_KINDS] }),
@@ -296,7 +296,7 @@ export function openApiDocument() {
           queryParam("to", "Flagged on or before (YYYY-MM-DD)", { type: "string", format: "date" }),
           queryParam("sort", "Sort column", { type: "string", enum: ["significance", "date", "kind", "project", "sample"] }),
           queryParam("dir", "Sort direction", { type: "string", enum: ["asc", "desc"] }),
-          queryParam("page", "Page, from 1", { type: "integer", minimum: 1 }),
+          queryParam("after", "Cursor of the next page (the answer's next); keyset paging, no page numbers", { type: "string" }),
           queryParam("pageSize", "Rows per page", { type: "integer", minimum: 1, maximum: 200 }),
         ], "application/json", { "403": errorResponse("The caller leads no group") }),
       },

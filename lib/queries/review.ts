@@ -3,7 +3,8 @@ import type { Technique } from "@/lib/registry/techniques";
 import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
 import { roleIn } from "@/lib/auth/access";
-import { fastCount } from "@/lib/search/fastCount";
+import { fastCount, type CountSql } from "@/lib/search/fastCount";
+import { cursorAtSql, decodeSortedCursor, encodeSortedCursor } from "@/lib/search/keysetCursor";
 import type { QueueQuery } from "@/lib/review/schemas";
 import { CURRENT_SIGNATURE } from "@/lib/review/counts";
 import { models } from "@/models";
@@ -21,28 +22,38 @@ export type ReviewQueue = {
   total: number;
   /** False when `total` is the planner's estimate (a large queue; lib/search/fastCount.ts). */
   totalExact: boolean;
-  page: number;
   pageSize: number;
-  pages: number;
-  /** Choices for the filters: projects and samples of the groups the actor leads. */
+  /** Cursor of the next page in the same order, or null on the last page. */
+  next: string | null;
+  /** Choices for the filters: projects of the groups the actor leads, and their most recent samples (plus the one filtered on). */
   projects: { id: string; name: string }[];
   samples: { id: string; name: string }[];
 };
 
 type Row = {
+  sort_value?: string; cursor_at?: string;
   id: string; kind: FlagKind; energy_ev: number | null; fraction: number | null; shift_mev: number | null; significance: number;
   magnitude: number | null; unit: string | null; uncertainty: number | null;
   review_state: string; spectrum_id: string; file_name: string; sample_id: string | null; sample_name: string | null;
   project_id: string; project_name: string; created_at: Date; last_decision_at: Date | null;
 };
 
-const ORDER: Record<QueueQuery["sort"], string> = {
-  significance: "g.significance",
-  date: "g.created_at",
-  kind: "g.kind",
-  project: "p.name",
-  sample: "sm.name",
+/**
+ * Each sort's value, and how a cursor's text value is read back. Rows are ordered by the value,
+ * then the flag's time, then its id, all in the same direction, so one row comparison finds the
+ * next page and the significance, date and kind orders walk an index of the current signatures
+ * (migrations/0012); the project and sample orders sort the matching rows.
+ */
+const SORT_KEY: Record<QueueQuery["sort"], { sql: string; cast: string }> = {
+  significance: { sql: "g.significance", cast: "float8" },
+  date: { sql: "g.created_at", cast: "timestamptz" },
+  kind: { sql: "g.kind", cast: "text" },
+  project: { sql: "p.name", cast: "text" },
+  sample: { sql: "coalesce(sm.name, '')", cast: "text" },
 };
+
+/** Samples offered in the queue's filter: the groups' most recent (a group may have thousands). */
+const SAMPLE_CHOICES = 200;
 
 export const leadGroupIds = (actor: Actor) => actor.memberships.filter((m) => m.role === "lead").map((m) => m.groupId);
 
@@ -63,8 +74,69 @@ function toItem(r: Row): ReviewItem {
 export async function listReviewQueue(actor: Actor, q: QueueQuery): Promise<ReviewQueue> {
   models();
   const groupIds = leadGroupIds(actor);
-  const empty = { items: [], total: 0, totalExact: true, page: q.page, pageSize: q.pageSize, pages: 0, projects: [], samples: [] };
+  const empty = { items: [], total: 0, totalExact: true, pageSize: q.pageSize, next: null, projects: [], samples: [] };
   if (groupIds.length === 0) return empty;
+  const { listSql, count: countSql, params } = reviewQueueSql(groupIds, q);
+  const [count, rows, projects, samples] = await Promise.all([
+    fastCount(countSql, params),
+    selectRows<Row>(listSql, params),
+    selectRows<{ id: string; name: string }>(`SELECT id, name FROM projects WHERE group_id IN (:groupIds) ORDER BY name`, { groupIds }),
+    selectRows<{ id: string; name: string }>(
+      `SELECT id, name FROM (
+         (SELECT id, name FROM samples WHERE group_id IN (:groupIds) ORDER BY created_at DESC, id DESC LIMIT ${SAMPLE_CHOICES})
+         UNION SELECT id, name FROM samples WHERE id = CAST(:chosen AS uuid) AND group_id IN (:groupIds)
+       ) offered ORDER BY name`, { groupIds, chosen: q.sample ?? null },
+    ),
+  ]);
+  const shown = rows.slice(0, q.pageSize);
+  const last = shown[shown.length - 1];
+  return {
+    items: shown.map(toItem), total: count.value, totalExact: count.exact, pageSize: q.pageSize,
+    next: rows.length > q.pageSize && last ? encodeSortedCursor({ value: last.sort_value!, at: last.cursor_at!, id: last.id }) : null,
+    projects, samples,
+  };
+}
+
+/**
+ * The SQL of one page of the queue (keyset: strictly after the cursor in the chosen order, one row
+ * more than a page to know whether another follows) and of its count. Pure, so tests can EXPLAIN
+ * exactly what the app runs.
+ */
+export function reviewQueueSql(groupIds: string[], q: QueueQuery) {
+  const { where, params } = queueFilterSql(groupIds, q);
+  const from = `FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
+     LEFT JOIN samples sm ON sm.id = s.sample_id WHERE ${where.join(" AND ")}`;
+  const key = SORT_KEY[q.sort];
+  const dir = q.dir === "asc" ? "ASC" : "DESC";
+  const position = q.after ? decodeSortedCursor(q.after) : null;
+  const pageWhere = position
+    ? ` AND (${key.sql}, g.created_at, g.id) ${dir === "ASC" ? ">" : "<"} (CAST(:afterValue AS ${key.cast}), CAST(:afterAt AS timestamptz), CAST(:afterId AS uuid))`
+    : "";
+  const listSql = `SELECT g.id, g.kind, g.energy_ev, g.fraction, g.shift_mev, g.magnitude, g.unit, g.uncertainty, g.significance, g.review_state, g.spectrum_id,
+            s.file_name, s.sample_id, sm.name AS sample_name, p.id AS project_id, p.name AS project_name, g.created_at,
+            (SELECT max(v.created_at) FROM reviews v WHERE v.signature_id = g.id) AS last_decision_at,
+            ${key.cast === "timestamptz" ? cursorAtSql(key.sql) : `(${key.sql})::text`} AS sort_value, ${cursorAtSql("g.created_at")} AS cursor_at
+     ${from}${pageWhere} ORDER BY ${key.sql} ${dir}, g.created_at ${dir}, g.id ${dir} LIMIT :limit`;
+  // counted per project of the groups (each stopping at the cap): each project's spectra by index,
+  // and per spectrum its current signatures (OFFSET 0 keeps that a per-spectrum probe instead of a
+  // join of whole tables, which the planner otherwise picks)
+  const count: CountSql = {
+    rowsSql: `SELECT 1 FROM projects p CROSS JOIN LATERAL (
+        SELECT 1 FROM spectra s CROSS JOIN LATERAL (
+          SELECT g.id, g.review_state, g.kind, g.significance, g.created_at, g.superseded_at FROM signatures g
+           WHERE g.spectrum_id = s.id AND g.superseded_at IS NULL OFFSET 0) g
+         WHERE s.project_id = p.id AND ${where.join(" AND ")} LIMIT :countLimit) counted
+      WHERE p.group_id IN (:groupIds)`,
+    estimateSql: `SELECT 1 ${from}`,
+  };
+  return {
+    listSql, count,
+    params: { ...params, limit: q.pageSize + 1, ...(position ? { afterValue: position.value, afterAt: position.at, afterId: position.id } : {}) },
+  };
+}
+
+/** The queue's filters as SQL over `signatures g`, `spectra s`, `projects p` (values as replacements). */
+function queueFilterSql(groupIds: string[], q: QueueQuery): { where: string[]; params: Record<string, unknown> } {
   const where = ["p.group_id IN (:groupIds)"];
   const params: Record<string, unknown> = { groupIds };
   if (q.state !== "all") { where.push("g.review_state = :state"); params.state = q.state; }
@@ -76,26 +148,7 @@ export async function listReviewQueue(actor: Actor, q: QueueQuery): Promise<Revi
   if (q.to) { where.push("g.created_at < CAST(:to AS date) + 1"); params.to = q.to; }
   // Only flags of each spectrum's newest finished run: a re-analysis supersedes the earlier ones.
   where.push(CURRENT_SIGNATURE);
-  const from = `FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
-     LEFT JOIN samples sm ON sm.id = s.sample_id WHERE ${where.join(" AND ")}`;
-  const dir = q.dir === "asc" ? "ASC" : "DESC";
-  const count = await fastCount({ rowsSql: `SELECT 1 ${from}`, estimateSql: `SELECT 1 ${from}` }, params);
-  const total = count.value;
-  const rows = await selectRows<Row>(
-    `SELECT g.id, g.kind, g.energy_ev, g.fraction, g.shift_mev, g.magnitude, g.unit, g.uncertainty, g.significance, g.review_state, g.spectrum_id, s.file_name,
-            s.sample_id, sm.name AS sample_name, p.id AS project_id, p.name AS project_name, g.created_at,
-            (SELECT max(v.created_at) FROM reviews v WHERE v.signature_id = g.id) AS last_decision_at
-     ${from} ORDER BY ${ORDER[q.sort]} ${dir} NULLS LAST, g.created_at DESC, g.id LIMIT :limit OFFSET :offset`,
-    { ...params, limit: q.pageSize, offset: (q.page - 1) * q.pageSize },
-  );
-  const [projects, samples] = await Promise.all([
-    selectRows<{ id: string; name: string }>(`SELECT id, name FROM projects WHERE group_id IN (:groupIds) ORDER BY name`, { groupIds }),
-    selectRows<{ id: string; name: string }>(
-      `SELECT DISTINCT sm.id, sm.name FROM samples sm JOIN spectra s ON s.sample_id = sm.id JOIN signatures g ON g.spectrum_id = s.id
-       WHERE sm.group_id IN (:groupIds) ORDER BY sm.name`, { groupIds },
-    ),
-  ]);
-  return { items: rows.map(toItem), total, totalExact: count.exact, page: q.page, pageSize: q.pageSize, pages: Math.ceil(total / q.pageSize), projects, samples };
+  return { where, params };
 }
 
 export type ReviewHistoryEntry = {

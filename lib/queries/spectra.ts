@@ -2,9 +2,10 @@ import type { Actor } from "@/lib/auth/actor";
 import type { Technique } from "@/lib/registry/techniques";
 import { readableScope } from "@/lib/auth/access";
 import { selectRows } from "@/lib/db";
+import { HC_EV_NM } from "@/lib/search/bandRangeEv";
 import { fastCount, type CountSql, type FastCount } from "@/lib/search/fastCount";
 import { cursorAtSql, decodeCursor, encodeCursor } from "@/lib/search/keysetCursor";
-import { LATEST_RUN_JOIN, spectrumFilterSql } from "@/lib/search/spectrumFilterSql";
+import { spectrumFilterSql } from "@/lib/search/spectrumFilterSql";
 import type { SpectrumSearch } from "@/lib/search/spectrumSearchQuery";
 import { models } from "@/models";
 
@@ -51,10 +52,7 @@ export function spectrumListSql(scope: { projectIds: string[]; seriesIds: string
   const pointIds = scope.pointIds ?? [];
   const filter = spectrumFilterSql(search);
   const params: Record<string, unknown> = { ...filter.params, projectIds, seriesIds, pointIds, limit: search.limit + 1 };
-  const sampleJoin = [
-    filter.needsSample ? "LEFT JOIN samples sm ON sm.id = s.sample_id" : "",
-    filter.needsLatestRun ? LATEST_RUN_JOIN : "",
-  ].join(" ");
+  const sampleJoin = filter.needsSample ? "LEFT JOIN samples sm ON sm.id = s.sample_id" : "";
   const conditions = [...filter.conditions];
   const position = search.after ? decodeCursor(search.after) : null;
   const pageConditions = [...conditions];
@@ -91,15 +89,12 @@ export function spectrumListSql(scope: { projectIds: string[]; seriesIds: string
          ORDER BY created_at DESC, id DESC LIMIT :limit
        )
        SELECT s.id, s.file_name, s.technique, s.status, s.error_message, s.sample_id, sm.name AS sample_name,
-              s.project_id, p.name AS project_name, u.name AS uploader_name, fx.wavelength_nm AS first_exciton_nm,
-              (lr.report->'derived'->>'diameterNm')::float8 AS diameter_nm, s.created_at, ${cursorAtSql("s.created_at")} AS cursor_at
+              s.project_id, p.name AS project_name, u.name AS uploader_name, ${HC_EV_NM} / s.first_exciton_ev AS first_exciton_nm,
+              s.diameter_nm, s.created_at, ${cursorAtSql("s.created_at")} AS cursor_at
        FROM page JOIN spectra s ON s.id = page.id
        JOIN projects p ON p.id = s.project_id
        LEFT JOIN samples sm ON sm.id = s.sample_id
        LEFT JOIN users u ON u.id = s.uploaded_by
-       LEFT JOIN LATERAL (SELECT r.id, r.report FROM analysis_runs r WHERE r.spectrum_id = s.id AND r.status = 'done'
-                          ORDER BY r.created_at DESC LIMIT 1) lr ON TRUE
-       LEFT JOIN LATERAL (SELECT k.wavelength_nm FROM peaks k WHERE k.run_id = lr.id AND k.is_first_exciton LIMIT 1) fx ON TRUE
        ORDER BY s.created_at DESC, s.id DESC`;
   return { listSql, count, params };
 }

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { SIGNATURE_KINDS, REVIEW_STATES } from "@/models/Signature";
+import { decodeSortedCursor } from "@/lib/search/keysetCursor";
 
 export const DECISIONS = ["confirmed", "dismissed"] as const;
 export type Decision = (typeof DECISIONS)[number];
@@ -43,7 +44,7 @@ export const queueQuerySchema = z.object({
   to: z.preprocess(blank, z.iso.date({ error: "to must be a date, YYYY-MM-DD" }).optional()),
   sort: z.preprocess(blank, z.enum(QUEUE_SORTS, { error: `sort must be one of ${QUEUE_SORTS.join(", ")}` }).default("significance")),
   dir: z.preprocess(blank, z.enum(["asc", "desc"], { error: "dir must be asc or desc" }).default("desc")),
-  page: z.preprocess(blank, z.coerce.number({ error: "page must be a number" }).int("page must be a whole number").min(1, "page must be at least 1").default(1)),
+  after: z.preprocess(blank, z.string().max(800).refine((c) => decodeSortedCursor(c) !== null, "after must be a cursor from an earlier page").optional()),
   pageSize: z.preprocess(blank, z.coerce.number({ error: "pageSize must be a number" }).int("pageSize must be a whole number").min(1, "pageSize must be at least 1").max(200, "pageSize must be at most 200").default(25)),
 });
 export type QueueQuery = z.output<typeof queueQuerySchema>;

@@ -26,3 +26,27 @@ export function decodeCursor(cursor: string): KeysetPosition | null {
 
 /** SQL that renders a timestamptz column as the cursor's `at` (UTC, microseconds). */
 export const cursorAtSql = (column: string) => `to_char(${column} AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')`;
+
+/**
+ * A keyset position in a list sorted by some value first (the review queue's significance, kind,
+ * project or sample name), then by time and id: the value as text, as PostgreSQL wrote it.
+ */
+export type SortedPosition = KeysetPosition & { value: string };
+
+const sortedSchema = z.tuple([z.string().max(400), positionSchema.shape.at, positionSchema.shape.id]);
+
+export function encodeSortedCursor(position: SortedPosition): string {
+  return Buffer.from(JSON.stringify([position.value, position.at, position.id]), "utf8").toString("base64url");
+}
+
+/** The position in a sorted cursor, or null when the text is not one this app wrote. */
+export function decodeSortedCursor(cursor: string): SortedPosition | null {
+  let json: unknown;
+  try {
+    json = JSON.parse(Buffer.from(cursor, "base64url").toString("utf8"));
+  } catch {
+    return null;
+  }
+  const parsed = sortedSchema.safeParse(json);
+  return parsed.success ? { value: parsed.data[0], at: parsed.data[1], id: parsed.data[2] } : null;
+}

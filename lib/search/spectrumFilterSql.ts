@@ -2,28 +2,23 @@ import { bandRangeEv } from "./bandRangeEv";
 import type { BandKind, SpectrumSearch } from "./spectrumSearchQuery";
 
 /**
- * SQL conditions (on `spectra s`, `samples sm` joined on s.sample_id, and `lr`, the spectrum's
- * latest finished run) for a search's filters, with their named replacements. Every user value
- * travels as a replacement, never as SQL text.
+ * SQL conditions (on `spectra s`, and `samples sm` joined on s.sample_id) for a search's filters,
+ * with their named replacements. Every user value travels as a replacement, never as SQL text.
+ * Bands, flags and sizes are those of the spectrum's latest finished analysis, which
+ * migrations/0012 keeps on the spectrum row (latest_run_id, first_exciton_ev, emission_ev,
+ * diameter_nm): a re-analysis replaces the flags and peaks of the earlier one.
  */
-export type FilterSql = { conditions: string[]; params: Record<string, unknown>; needsSample: boolean; needsLatestRun: boolean };
-
-/**
- * The latest finished run of each spectrum `s` as `lr` (one probe of analysis_runs_done_idx): only
- * the newest analysis counts, a re-analysis replaces the flags and peaks of the earlier one. Inner
- * join: a spectrum with no finished analysis has no band, flag or size to match.
- */
-export const LATEST_RUN_JOIN = `CROSS JOIN LATERAL (SELECT r.id AS run_id FROM analysis_runs r WHERE r.spectrum_id = s.id AND r.status = 'done'
-  ORDER BY r.created_at DESC, r.id DESC LIMIT 1) lr`;
+export type FilterSql = { conditions: string[]; params: Record<string, unknown>; needsSample: boolean };
 
 /** A flag's size in its own unit (fraction, meV or signal), as the engine wrote it. */
 export const SIGNATURE_MAGNITUDE_SQL = "abs(coalesce(g.magnitude, (g.details->>'magnitude')::float8))";
 
-const BAND_PEAK: Record<BandKind, string> = {
-  "first-exciton": "k.is_first_exciton",
-  // the emission maximum: the highest peak of a PL spectrum's run
-  emission: "s.technique = 'pl' AND NOT EXISTS (SELECT 1 FROM peaks higher WHERE higher.run_id = k.run_id AND higher.height > k.height)",
-  band: "TRUE",
+/** Where each band kind's energy is: a summary column (index-only range per project) or any peak of the latest run. */
+const BAND_CONDITION: Record<BandKind, string> = {
+  "first-exciton": "s.first_exciton_ev BETWEEN :bandMinEv AND :bandMaxEv",
+  // the emission maximum: the highest peak of a PL spectrum's latest run
+  emission: "s.emission_ev BETWEEN :bandMinEv AND :bandMaxEv",
+  band: "(SELECT 1 FROM peaks k WHERE k.run_id = s.latest_run_id AND k.energy_ev BETWEEN :bandMinEv AND :bandMaxEv LIMIT 1) IS NOT NULL",
 };
 
 /**
@@ -41,7 +36,6 @@ export function spectrumFilterSql(s: SpectrumSearch): FilterSql {
   const conditions: string[] = [];
   const params: Record<string, unknown> = {};
   let needsSample = false;
-  let needsLatestRun = false;
   if (s.q) {
     params.pattern = containsPattern(s.q);
     // the ARRAY(...) of matching samples lets PostgreSQL combine the two trigram indexes (BitmapOr)
@@ -61,8 +55,7 @@ export function spectrumFilterSql(s: SpectrumSearch): FilterSql {
   if (s.to) { conditions.push("s.created_at < CAST(:to AS date) + 1"); params.to = s.to; }
   if (s.status) { conditions.push("s.status = :status"); params.status = s.status; }
   if (s.flag || s.review) {
-    needsLatestRun = true;
-    const flag: string[] = ["g.run_id = lr.run_id"];
+    const flag: string[] = ["g.run_id = s.latest_run_id"];
     if (s.flag) { flag.push("g.kind = :flag"); params.flag = s.flag; }
     if (s.flagMin !== undefined) { flag.push(`${SIGNATURE_MAGNITUDE_SQL} >= :flagMin`); params.flagMin = s.flagMin; }
     if (s.flagSig !== undefined) { flag.push("g.significance >= :flagSig"); params.flagSig = s.flagSig; }
@@ -72,15 +65,9 @@ export function spectrumFilterSql(s: SpectrumSearch): FilterSql {
   if (s.band && s.bandMin !== undefined && s.bandMax !== undefined) {
     const { minEv, maxEv } = bandRangeEv(s.bandMin, s.bandMax, s.bandUnit);
     Object.assign(params, { bandMinEv: minEv, bandMaxEv: maxEv });
-    needsLatestRun = true;
-    conditions.push(someRow(`FROM peaks k WHERE k.run_id = lr.run_id AND k.energy_ev BETWEEN :bandMinEv AND :bandMaxEv AND ${BAND_PEAK[s.band]}`));
+    conditions.push(BAND_CONDITION[s.band]);
   }
-  if (s.sizeMin !== undefined || s.sizeMax !== undefined) {
-    needsLatestRun = true;
-    const size = ["r.id = lr.run_id", "r.report->'derived'->>'diameterNm' IS NOT NULL"];
-    if (s.sizeMin !== undefined) { size.push("(r.report->'derived'->>'diameterNm')::float8 >= :sizeMin"); params.sizeMin = s.sizeMin; }
-    if (s.sizeMax !== undefined) { size.push("(r.report->'derived'->>'diameterNm')::float8 <= :sizeMax"); params.sizeMax = s.sizeMax; }
-    conditions.push(someRow(`FROM analysis_runs r WHERE ${size.join(" AND ")}`));
-  }
-  return { conditions, params, needsSample, needsLatestRun };
+  if (s.sizeMin !== undefined) { conditions.push("s.diameter_nm >= :sizeMin"); params.sizeMin = s.sizeMin; }
+  if (s.sizeMax !== undefined) { conditions.push("s.diameter_nm <= :sizeMax"); params.sizeMax = s.sizeMax; }
+  return { conditions, params, needsSample };
 }

@@ -69,7 +69,7 @@ export function scaleSeedSql(n: number, passwordHash: string): string[] {
     `INSERT INTO peaks (run_id, energy_ev, wavelength_nm, height, fwhm_mev, is_first_exciton)
        SELECT ${uuidOf(`'r' || i`)}, 1239.841984 / w.nm, w.nm, w.h, 80, w.first
        FROM generate_series(1, ${n}) i,
-            LATERAL (SELECT 450 + (i * 7919 % 250) AS base) b,
+            LATERAL (SELECT 450 + (i::bigint * 7919 % 250) AS base) b,
             LATERAL (VALUES
               (CASE WHEN i % 10 < 7 THEN b.base WHEN i % 10 < 9 THEN b.base + 25 ELSE 1e7 / (2900 + i % 50) END, CASE WHEN i % 10 < 9 THEN 0.5 ELSE 0.4 END, i % 10 < 7),
               (CASE WHEN i % 10 < 7 THEN b.base - 80 WHEN i % 10 < 9 THEN b.base + 60 ELSE 1e7 / (1700 + i % 30) END, 0.2, false),

@@ -71,6 +71,22 @@ describe("spectra search in the browser", () => {
     expect(await page.locator("table tbody tr").count()).toBe(1);
     expect(await page.locator("table tbody tr").first().innerText()).toContain("cdse-a-001.csv");
     await screenshot(page, "spectra-saved-search-opened");
+
+    // removing it asks first: "Keep" leaves it, "Remove" takes it off the Overview and out of the database
+    await page.goto(url("/"));
+    const again = page.getByRole("region", { name: "Saved searches" }).getByRole("listitem").filter({ hasText: searchName });
+    await again.getByRole("button", { name: `Remove saved search ${searchName}` }).click();
+    await again.getByRole("button", { name: "Keep" }).click();
+    expect(await selectRows("SELECT id FROM saved_searches WHERE name = :name", { name: searchName })).toHaveLength(1);
+    await again.getByRole("button", { name: `Remove saved search ${searchName}` }).click();
+    await again.getByText(`Remove “${searchName}”?`).waitFor();
+    await screenshot(page, "overview-saved-search-remove-asks");
+    await again.getByRole("group", { name: `Confirm removing ${searchName}` }).getByRole("button", { name: "Remove", exact: true }).click();
+    await expect.poll(async () => (await selectRows("SELECT id FROM saved_searches WHERE name = :name", { name: searchName })).length).toBe(0);
+    await page.reload();
+    await page.getByRole("heading", { level: 1 }).waitFor();
+    expect(await page.getByText(searchName).count()).toBe(0);
+    await screenshot(page, "overview-saved-search-removed");
   });
 
   it("shows a bad band range beside the form, naming the field", async () => {

@@ -1,9 +1,12 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import pg from "pg";
 import { QueryTypes, Sequelize } from "sequelize";
+import { reviewQueueSql } from "@/lib/queries/review";
+import { samplePageSql } from "@/lib/queries/samples";
 import { spectrumListSql } from "@/lib/queries/spectra";
+import { queueQuerySchema } from "@/lib/review/schemas";
 import { cappedCountSql, countParams } from "@/lib/search/fastCount";
-import { encodeCursor } from "@/lib/search/keysetCursor";
+import { encodeCursor, encodeSortedCursor } from "@/lib/search/keysetCursor";
 import { spectrumSearchSchema } from "@/lib/search/spectrumSearchQuery";
 import { seedScaleDatabase } from "../../scripts/seed-scale";
 
@@ -17,6 +20,7 @@ const BIG_TABLES = new Set(["spectra", "analysis_runs", "peaks", "signatures", "
 const scratch = `bandkeep_plans_${process.pid}`;
 let db: Sequelize;
 let projectIds: string[] = [];
+let groupId = "";
 
 type PlanNode = { "Node Type": string; "Relation Name"?: string; Plans?: PlanNode[] };
 function seqScans(node: PlanNode, out: string[] = []): string[] {
@@ -41,6 +45,7 @@ beforeAll(async () => {
   projectIds = (await db.query<{ id: string }>(
     "SELECT p.id FROM projects p JOIN groups g ON g.id = p.group_id WHERE g.slug = 'scale-g1'", { type: QueryTypes.SELECT },
   )).map((r) => r.id);
+  groupId = (await db.query<{ id: string }>("SELECT id FROM groups WHERE slug = 'scale-g1'", { type: QueryTypes.SELECT }))[0]!.id;
 }, 900_000);
 afterAll(async () => {
   await db?.close();
@@ -65,11 +70,44 @@ const SEARCHES: Record<string, () => Record<string, string>> = {
   "one project, deep": () => ({ project: projectIds[3]!, after: deep() }),
 };
 
+// deep in the queue: a bleach flag of about 5σ flagged eight years ago
+const deepQueue = (value: string) => encodeSortedCursor({ value, at: "2018-01-01T00:00:00.000000Z", id: "ffffffff-ffff-ffff-ffff-ffffffffffff" });
+const QUEUES: Record<string, () => Record<string, string>> = {
+  "awaiting, by significance (the default)": () => ({}),
+  "awaiting, by significance, deep page": () => ({ after: deepQueue("5.5") }),
+  "bleach ≥ 5σ": () => ({ kind: "bleach", minSignificance: "5" }),
+  "all states by date, oldest first, deep page": () => ({ state: "all", sort: "date", dir: "asc", after: deepQueue("2018-01-01T00:00:00.000000Z") }),
+  "by kind": () => ({ sort: "kind", state: "all" }),
+  "one sample": () => ({ sample: "00000000-0000-4000-8000-000000000000", state: "all" }),
+};
+
+const SAMPLE_PAGES: Record<string, () => { q?: string; after?: string }> = {
+  "first page": () => ({}),
+  "deep page": () => ({ after: deep() }),
+  "name or material filter": () => ({ q: "PbSe" }),
+};
+
 describe(`list query plans at ${N} spectra`, () => {
   for (const [name, query] of Object.entries(SEARCHES)) {
     it(`spectra list: ${name} reads the big tables through indexes`, async () => {
       const search = spectrumSearchSchema.parse(query());
       const { listSql, count, params } = spectrumListSql({ projectIds, seriesIds: [] }, search);
+      expect(seqScans(await plan(listSql, params))).toEqual([]);
+      expect(seqScans(await plan(cappedCountSql(count.rowsSql), { ...countParams, ...params }))).toEqual([]);
+    });
+  }
+
+  for (const [name, query] of Object.entries(QUEUES)) {
+    it(`review queue: ${name} reads the big tables through indexes`, async () => {
+      const { listSql, count, params } = reviewQueueSql([groupId], queueQuerySchema.parse(query()));
+      expect(seqScans(await plan(listSql, params))).toEqual([]);
+      expect(seqScans(await plan(cappedCountSql(count.rowsSql), { ...countParams, ...params }))).toEqual([]);
+    });
+  }
+
+  for (const [name, options] of Object.entries(SAMPLE_PAGES)) {
+    it(`samples list: ${name} reads samples through their keyset index`, async () => {
+      const { listSql, count, params } = samplePageSql([groupId], options());
       expect(seqScans(await plan(listSql, params))).toEqual([]);
       expect(seqScans(await plan(cappedCountSql(count.rowsSql), { ...countParams, ...params }))).toEqual([]);
     });

@@ -103,6 +103,46 @@ describe("spectra search filters (known rows)", () => {
     expect(await found({ material: "CdSe", band: "first-exciton", bandMin: "570", bandMax: "590", flag: "bleach", flagMin: "0.2" })).toEqual(["a1"]);
   });
 
+  it("the latest-analysis summary follows the runs: a deleted newest run brings the earlier one back, a new one replaces it", async () => {
+    // migrations/0012's triggers: deleting a2's 600 nm run (as the retention sweep of processed data does) leaves the 575 nm run newest
+    await selectRows("DELETE FROM analysis_runs WHERE spectrum_id = :s AND created_at = '2026-03-06T11:00:00Z' RETURNING id", { s: fixture.ids.a2 });
+    expect(await found({ band: "first-exciton", bandMin: "570", bandMax: "590" })).toEqual(["a1", "a2"]);
+    expect(await found({ sizeMin: "3.4", sizeMax: "3.55" })).toEqual(["a2"]); // 3.5 nm came back with it
+    expect(await found({ flag: "bleach", flagMin: "0.2", flagSig: "5" })).toEqual(["a1", "a2"]); // its 40 %, 20σ flag counts again
+    // a newer analysis that is still running changes nothing; once it is done its 610 nm counts
+    const [run] = await selectRows<{ id: string }>(
+      `INSERT INTO analysis_runs (spectrum_id, engine_version, parameter_hash, status, report, created_at)
+       VALUES (:s, 'fixture', md5(random()::text) || md5(random()::text), 'running', '{"derived":{"diameterNm":4.6}}', '2026-03-06T12:00:00Z') RETURNING id`,
+      { s: fixture.ids.a2 });
+    await selectRows("INSERT INTO peaks (run_id, energy_ev, wavelength_nm, height, is_first_exciton) VALUES (:r, :ev, 610, 0.5, true) RETURNING id",
+      { r: run!.id, ev: 1239.841984 / 610 });
+    expect(await found({ band: "first-exciton", bandMin: "570", bandMax: "590" })).toEqual(["a1", "a2"]);
+    await selectRows("UPDATE analysis_runs SET status = 'done' WHERE id = :r RETURNING id", { r: run!.id });
+    expect(await found({ band: "first-exciton", bandMin: "570", bandMax: "590" })).toEqual(["a1"]);
+    expect(await found({ band: "first-exciton", bandMin: "605", bandMax: "615" })).toEqual(["a2"]);
+    expect(await found({ sizeMin: "4.5", sizeMax: "4.7" })).toEqual(["a2"]);
+    expect(await found({ flag: "bleach", flagMin: "0.2", flagSig: "5" })).toEqual(["a1"]); // the new run raised no flag
+  });
+
+  it("every analysed spectrum's summary agrees with its newest finished run, worker-written ones included", async () => {
+    // computed here from analysis_runs and peaks directly, independently of refresh_spectrum_summaries
+    const disagree = await selectRows<{ id: string }>(
+      `SELECT s.id FROM spectra s
+         LEFT JOIN LATERAL (SELECT r.id, r.report FROM analysis_runs r WHERE r.spectrum_id = s.id AND r.status = 'done'
+                             ORDER BY r.created_at DESC, r.id DESC LIMIT 1) lr ON TRUE
+        WHERE s.latest_run_id IS DISTINCT FROM lr.id
+           OR s.first_exciton_ev IS DISTINCT FROM (SELECT max(k.energy_ev) FROM peaks k WHERE k.run_id = lr.id AND k.is_first_exciton)
+           OR s.diameter_nm IS DISTINCT FROM (lr.report->'derived'->>'diameterNm')::float8
+           OR (s.technique = 'pl' AND s.emission_ev IS DISTINCT FROM
+                (SELECT k.energy_ev FROM peaks k WHERE k.run_id = lr.id ORDER BY k.height DESC LIMIT 1))
+           OR (s.technique <> 'pl' AND s.emission_ev IS NOT NULL)`, {});
+    expect(disagree).toEqual([]);
+    // the demo's spectra were analysed by the running worker: at least one of them has a first exciton on its row
+    const [analysed] = await selectRows<{ n: string }>(
+      "SELECT count(*) AS n FROM spectra s JOIN projects p ON p.id = s.project_id WHERE s.first_exciton_ev IS NOT NULL AND p.id <> :p", { p: fixture.projectId });
+    expect(Number(analysed!.n)).toBeGreaterThan(0);
+  });
+
   it("keyset pages cover every row once, in order", async () => {
     const seen: string[] = [];
     let after: string | undefined;

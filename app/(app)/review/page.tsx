@@ -3,6 +3,7 @@ import Link from "next/link";
 import { requireActor } from "@/lib/auth/actor";
 import { leadGroupIds, listReviewQueue } from "@/lib/queries/review";
 import { queueHref } from "@/lib/review/queueHref";
+import { countText } from "@/lib/search/fastCount";
 import { queryObject, queueQuerySchema, type QueueQuery } from "@/lib/review/schemas";
 import { QueueFilters } from "@/components/review/QueueFilters";
 import { ReviewQueueTable, type SortHeader } from "@/components/review/ReviewQueueTable";
@@ -37,10 +38,9 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
   const headers: SortHeader[] = COLUMNS.map((c) => ({
     key: c.key,
     label: c.label,
-    href: c.sort ? queueHref(current, { sort: c.sort, dir: query.sort === c.sort && query.dir === "desc" ? "asc" : "desc", page: undefined }) : "",
+    href: c.sort ? queueHref(current, { sort: c.sort, dir: query.sort === c.sort && query.dir === "desc" ? "asc" : "desc", after: undefined }) : "",
     active: c.sort && query.sort === c.sort ? query.dir : null,
   }));
-  const first = (queue.page - 1) * queue.pageSize + 1;
   return (
     <>
       <PageHeader title="Review" subtitle="Band changes flagged by the analysis in the groups you lead. Open one to see the spectra around it; confirm or dismiss one at a time or a selection at once." />
@@ -53,9 +53,9 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
         <>
           <ReviewQueueTable items={queue.items} headers={headers} />
           <nav aria-label="Pages of the queue" className="mt-2 flex items-center gap-3 text-sm text-ink-soft">
-            <span>{first}–{first + queue.items.length - 1} of {queue.totalExact ? queue.total : `about ${queue.total.toLocaleString("en-GB")}`}</span>
-            {queue.page > 1 && <Link className="text-glow-deep hover:underline" href={queueHref(current, { page: queue.page - 1 })}>← Previous</Link>}
-            {queue.page < queue.pages && <Link className="text-glow-deep hover:underline" href={queueHref(current, { page: queue.page + 1 })}>Next →</Link>}
+            <span>{queue.items.length} shown of {countText({ value: queue.total, exact: queue.totalExact })}</span>
+            {query.after && <Link className="text-glow-deep hover:underline" href={queueHref(current, { after: undefined })}>← First page</Link>}
+            {queue.next && <Link className="text-glow-deep hover:underline" href={queueHref(current, { after: queue.next })}>Next →</Link>}
           </nav>
         </>
       )}

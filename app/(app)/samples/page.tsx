@@ -2,17 +2,34 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requireActor } from "@/lib/auth/actor";
 import { canWrite } from "@/lib/auth/access";
+import { z } from "zod";
 import { listSamples } from "@/lib/queries/samples";
+import { queryObject } from "@/lib/review/schemas";
+import { countText } from "@/lib/search/fastCount";
+import { decodeCursor } from "@/lib/search/keysetCursor";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { HazardNotice } from "@/components/ui/HazardNotice";
 import { PageHeader } from "@/components/ui/PageHeader";
 
 export const metadata: Metadata = { title: "Samples" };
 
-export default async function SamplesPage({ searchParams }: { searchParams: Promise<{ q?: string }> }) {
+const samplesQuerySchema = z.object({
+  q: z.string().trim().max(100).catch(""),
+  after: z.string().max(200).refine((c) => decodeCursor(c) !== null).optional().catch(undefined),
+});
+
+export default async function SamplesPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const actor = await requireActor("/samples");
-  const q = ((await searchParams).q ?? "").slice(0, 100);
-  const samples = await listSamples(actor, q);
+  const { q, after } = samplesQuerySchema.parse(queryObject(await searchParams));
+  const page = await listSamples(actor, { q, after });
+  const samples = page.rows;
+  const href = (changes: { after?: string }) => {
+    const params = new URLSearchParams();
+    if (q) params.set("q", q);
+    if (changes.after) params.set("after", changes.after);
+    const qs = params.toString();
+    return qs ? `/samples?${qs}` : "/samples";
+  };
   const mayRegister = actor.memberships.some((m) => canWrite(actor, m.groupId));
   return (
     <>
@@ -49,6 +66,11 @@ export default async function SamplesPage({ searchParams }: { searchParams: Prom
               ))}
             </tbody>
           </table>
+          <nav aria-label="Pages of samples" className="flex items-center gap-3 border-t border-stone-100 px-3 py-2 text-sm text-ink-soft">
+            <span>{samples.length} shown of {countText(page.count)}</span>
+            {after && <Link className="text-glow-deep hover:underline" href={href({})}>← Newest</Link>}
+            {page.next && <Link className="text-glow-deep hover:underline" href={href({ after: page.next })}>Older →</Link>}
+          </nav>
         </div>
       )}
     </>

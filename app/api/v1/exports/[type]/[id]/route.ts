@@ -1,7 +1,7 @@
 import { notFound, withActor } from "@/lib/http/respond";
 import { canReadProject, canReadSeries } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
-import { buildBundle } from "@/lib/stewardship/exportBundle";
+import { streamBundle } from "@/lib/stewardship/exportBundle";
 import { Project, Series, models } from "@/models";
 import { isUuid } from "@/lib/ids";
 import { Refusal } from "@/lib/errors";
@@ -25,13 +25,26 @@ export const GET = withActor<{ params: Promise<{ type: string; id: string }> }>(
     if (!project || !(await canReadProject(actor, project))) throw notFound(`project ${id}`);
     groupId = project.groupId;
   }
-  const bundle = await buildBundle({ type, id }, actor.email);
-  await recordAudit({ actorId: actor.id, actorLabel: actor.email, groupId, action: "exported", targetType: type, targetId: id, details: { files: bundle.manifest.files.length, bytes: bundle.bytes.length } });
-  return new Response(new Blob([bundle.bytes as Uint8Array<ArrayBuffer>]), {
+  const bundle = await streamBundle({ type, id }, actor.email);
+  // the zip is written while it is sent (lib/stewardship/exportBundle.ts); the audit event follows its last byte
+  void bundle.done.then(({ manifest, bytes }) =>
+    recordAudit({ actorId: actor.id, actorLabel: actor.email, groupId, action: "exported", targetType: type, targetId: id, details: { files: manifest.files.length, bytes } }),
+  ).catch(() => {});
+  const chunks = bundle.chunks;
+  const body = new ReadableStream<Uint8Array>({
+    async pull(controller) {
+      const next = await chunks.next();
+      if (next.done) controller.close();
+      else controller.enqueue(next.value);
+    },
+    async cancel() {
+      await chunks.return(undefined);
+    },
+  });
+  return new Response(body, {
     status: 200,
     headers: {
       "Content-Type": "application/zip",
-      "Content-Length": String(bundle.bytes.length),
       "Content-Disposition": `attachment; filename="${bundle.fileName}"`,
       "Cache-Control": "private, no-store",
       "X-Content-Type-Options": "nosniff",
