@@ -16,7 +16,7 @@ function Stat({ label, value, href }: { label: string; value: number; href?: str
   const body = (
     <div className="rounded-lg border border-stone-200 bg-white px-4 py-3">
       <p className="tabular text-2xl font-semibold">{value}</p>
-      <p className="text-xs uppercase tracking-wide text-ink-soft">{label}</p>
+      <p className="text-xs text-ink-soft">{label}</p>
     </div>
   );
   return href ? <Link href={href} className="hover:opacity-80">{body}</Link> : body;
@@ -65,7 +65,7 @@ export default async function OverviewPage() {
         </EmptyState>
       ) : (
         <section>
-          <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Latest flagged changes</h2>
+          <h2 className="mb-2 text-sm font-semibold text-ink-soft">Latest flagged changes</h2>
           {overview.recentSignatures.length === 0 ? (
             <p className="text-sm text-ink-soft">No band changes flagged yet.</p>
           ) : (

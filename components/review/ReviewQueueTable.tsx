@@ -68,7 +68,7 @@ export function ReviewQueueTable({ items, headers }: { items: ReviewItem[]; head
         </div>
         <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm" data-testid="review-queue">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft">
+            <thead className="bg-stone-100 text-left text-xs text-ink-soft">
               <tr>
                 <th className="w-8 px-2 py-2">
                   <input type="checkbox" aria-label="Select every signature on this page" checked={allSelected}

@@ -20,7 +20,7 @@ export function FitSummary({ fits, unit }: { fits: SeriesFits; unit: string }) {
   return (
     <div className="grid gap-4 md:grid-cols-2">
       {showSaturation && <section className="rounded-lg border border-stone-200 bg-white p-4" data-testid="fit-saturation">
-        <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Bleach saturation (two-line fit)</h2>
+        <h2 className="mb-2 text-sm font-semibold text-ink-soft">Bleach saturation (two-line fit)</h2>
         {s.fit ? (
           <>
             <p className="text-lg"><span className="tabular font-semibold">{pm(s.fit.breakpoint, s.fit.breakpointSe)}</span>{u} at saturation</p>
@@ -34,7 +34,7 @@ export function FitSummary({ fits, unit }: { fits: SeriesFits; unit: string }) {
         ) : <p className="text-sm text-ink-soft">{s.reason}</p>}
       </section>}
       {showSternVolmer && <section className="rounded-lg border border-stone-200 bg-white p-4" data-testid="fit-stern-volmer">
-        <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">PL quench (Stern–Volmer)</h2>
+        <h2 className="mb-2 text-sm font-semibold text-ink-soft">PL quench (Stern–Volmer)</h2>
         {sv.fit ? (
           <>
             <p className="text-lg">K<sub>SV</sub> = <span className="tabular font-semibold">{pm(sv.fit.ksv, sv.fit.ksvSe)}</span>{unit ? ` ${unit}⁻¹` : ""}</p>

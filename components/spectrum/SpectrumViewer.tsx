@@ -137,12 +137,12 @@ export function SpectrumViewer({
       </section>
 
       <section className="rounded-lg border border-stone-200 bg-white">
-        <h2 className="border-b border-stone-100 px-4 py-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Flagged changes against the parent</h2>
+        <h2 className="border-b border-stone-100 px-4 py-2 text-sm font-semibold text-ink-soft">Flagged changes against the parent</h2>
         {flags.length === 0 ? (
           <p className="px-4 py-3 text-sm text-ink-soft">{runId ? (hasReference ? "Nothing differs from the parent beyond the noise." : "No parent reference was set, so nothing was compared.") : "The analysis has not finished."}</p>
         ) : (
           <table className="w-full text-sm" data-testid="flags-table">
-            <thead className="text-left text-xs uppercase tracking-wide text-ink-soft">
+            <thead className="text-left text-xs text-ink-soft">
               <tr><th className="px-4 py-2">Change</th><th className="px-4 py-2">Position</th><th className="px-4 py-2">Magnitude</th><th className="px-4 py-2">Significance</th>{showReview && <th className="px-4 py-2">Review</th>}</tr>
             </thead>
             <tbody className="tabular">
@@ -173,12 +173,12 @@ export function SpectrumViewer({
       </section>
 
       <section className="rounded-lg border border-stone-200 bg-white">
-        <h2 className="border-b border-stone-100 px-4 py-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Excitonic peaks</h2>
+        <h2 className="border-b border-stone-100 px-4 py-2 text-sm font-semibold text-ink-soft">Excitonic peaks</h2>
         {peaks.length === 0 ? (
           <p className="px-4 py-3 text-sm text-ink-soft">No peaks found{runId ? "" : " yet"}.</p>
         ) : (
           <table className="w-full text-sm" data-testid="peaks-table">
-            <thead className="text-left text-xs uppercase tracking-wide text-ink-soft">
+            <thead className="text-left text-xs text-ink-soft">
               <tr><th className="px-4 py-2">Energy (eV)</th><th className="px-4 py-2">Wavelength (nm)</th><th className="px-4 py-2">Height</th><th className="px-4 py-2">FWHM (meV)</th><th className="px-4 py-2"></th></tr>
             </thead>
             <tbody className="tabular">

@@ -61,8 +61,8 @@ export default async function SharedPage({ params }: { params: Promise<{ token: 
         {points.length === 0 ? <p className="text-sm text-ink-soft">No spectra in this series yet.</p> : (
           <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
             <table className="w-full text-sm" data-testid="shared-series-table">
-              <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft">
-                <tr><th className="px-3 py-2 normal-case">{variable}</th><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Bleach</th><th className="px-3 py-2">PL quench</th><th className="px-3 py-2">Shift (meV)</th><th className="px-3 py-2">State</th></tr>
+              <thead className="bg-stone-100 text-left text-xs text-ink-soft">
+                <tr><th className="px-3 py-2">{variable}</th><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Bleach</th><th className="px-3 py-2">PL quench</th><th className="px-3 py-2">Shift (meV)</th><th className="px-3 py-2">State</th></tr>
               </thead>
               <tbody className="tabular">
                 {points.map((p) => (
@@ -103,7 +103,7 @@ export default async function SharedPage({ params }: { params: Promise<{ token: 
       {project.spectra.length === 0 ? <p className="text-sm text-ink-soft">No spectra.</p> : (
         <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm" data-testid="shared-spectra-table">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Technique</th><th className="px-3 py-2">Series</th><th className="px-3 py-2">State</th></tr></thead>
+            <thead className="bg-stone-100 text-left text-xs text-ink-soft"><tr><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Technique</th><th className="px-3 py-2">Series</th><th className="px-3 py-2">State</th></tr></thead>
             <tbody>
               {project.spectra.map((s) => (
                 <tr key={s.id} className="border-t border-stone-100">

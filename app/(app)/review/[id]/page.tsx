@@ -62,7 +62,7 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
       )}
       <div className="grid gap-6 lg:grid-cols-3">
         <section className="rounded-lg border border-stone-200 bg-white p-4 lg:col-span-2">
-          <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Evidence</h2>
+          <h2 className="mb-2 text-sm font-semibold text-ink-soft">Evidence</h2>
           <p className="mb-2 text-xs text-ink-soft">
             <Link className="text-glow-deep hover:underline" href={`/spectra/${sig.spectrumId}`}>{sig.fileName}</Link>
             {sig.referenceSpectrumId && <> against its reference <Link className="text-glow-deep hover:underline" href={`/spectra/${sig.referenceSpectrumId}`}>{sig.referenceFileName}</Link></>}
@@ -80,7 +80,7 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
         </section>
         <div className="space-y-6">
           <section className="rounded-lg border border-stone-200 bg-white p-4">
-            <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Decision</h2>
+            <h2 className="mb-2 text-sm font-semibold text-ink-soft">Decision</h2>
             {sig.mayDecide ? (
               <DecisionForm signatureId={sig.id} reviewState={sig.reviewState} undoableReviewId={undoableReviewId} />
             ) : (
@@ -92,7 +92,7 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
             )}
           </section>
           <section className="rounded-lg border border-stone-200 bg-white p-4">
-            <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">History</h2>
+            <h2 className="mb-2 text-sm font-semibold text-ink-soft">History</h2>
             {sig.history.length === 0 ? (
               <p className="text-sm text-ink-soft">No decision yet.</p>
             ) : (

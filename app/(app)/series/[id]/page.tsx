@@ -44,7 +44,7 @@ export default async function SeriesDetailPage({ params }: { params: Promise<{ i
           <SeriesCharts series={series} />
           <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
             <table className="w-full text-sm" data-testid="series-table">
-              <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2 normal-case">{variable}</th><th className="px-3 py-2">Spectrum</th><th className="px-3 py-2">Bleach</th><th className="px-3 py-2">PL quench</th><th className="px-3 py-2">Shift (meV)</th><th className="px-3 py-2">New-band area</th><th className="px-3 py-2">State</th></tr></thead>
+              <thead className="bg-stone-100 text-left text-xs text-ink-soft"><tr><th className="px-3 py-2">{variable}</th><th className="px-3 py-2">Spectrum</th><th className="px-3 py-2">Bleach</th><th className="px-3 py-2">PL quench</th><th className="px-3 py-2">Shift (meV)</th><th className="px-3 py-2">New-band area</th><th className="px-3 py-2">State</th></tr></thead>
               <tbody className="tabular">
                 {series.points.map((p) => (
                   <tr key={p.spectrumId} className="border-t border-stone-100">

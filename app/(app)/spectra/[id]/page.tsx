@@ -26,7 +26,7 @@ const RUN_STATES: Record<string, string> = { queued: "waiting", running: "runnin
 function Panel({ title, children, testId }: { title: string; children: React.ReactNode; testId?: string }) {
   return (
     <section className="rounded-lg border border-stone-200 bg-white p-4 text-sm" data-testid={testId}>
-      <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">{title}</h2>
+      <h2 className="mb-2 text-sm font-semibold text-ink-soft">{title}</h2>
       {children}
     </section>
   );

@@ -42,7 +42,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
       ) : (
         <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm" data-testid="audit-table">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">When</th><th className="px-3 py-2">Who</th><th className="px-3 py-2">Action</th><th className="px-3 py-2">Target</th><th className="px-3 py-2">Details</th></tr></thead>
+            <thead className="bg-stone-100 text-left text-xs text-ink-soft"><tr><th className="px-3 py-2">When</th><th className="px-3 py-2">Who</th><th className="px-3 py-2">Action</th><th className="px-3 py-2">Target</th><th className="px-3 py-2">Details</th></tr></thead>
             <tbody>
               {events.map((e) => (
                 <tr key={e.id} className="border-t border-stone-100">
