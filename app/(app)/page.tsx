@@ -9,6 +9,7 @@ import { PageHeader } from "@/components/ui/PageHeader";
 import { KIND_LABELS } from "@/lib/registry/flagKinds";
 import { listSavedSearches } from "@/lib/search/savedSearches";
 import { SavedSearchList } from "@/components/spectra/SavedSearchList";
+import { countOf } from "@/lib/format/quantity";
 
 export const metadata: Metadata = { title: "Overview" };
 
@@ -37,7 +38,7 @@ export default async function OverviewPage() {
             {shared.map((s) => (
               <li key={s.id} className="rounded-lg border border-stone-200 bg-white px-4 py-3">
                 <Link prefetch={false} href={`/series/${s.id}`} className="font-medium text-glow-deep hover:underline">{s.name}</Link>
-                <span className="ml-2 text-sm text-ink-soft">{s.projectName} · {s.spectrumCount} spectra</span>
+                <span className="ml-2 text-sm text-ink-soft">{s.projectName} · {countOf(s.spectrumCount, "spectrum")}</span>
               </li>
             ))}
           </ul>

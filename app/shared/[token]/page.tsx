@@ -7,6 +7,7 @@ import { HazardNotice } from "@/components/ui/HazardNotice";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { Project, Series, models } from "@/models";
 import { formatWhen } from "@/lib/format/dates";
+import { countOf } from "@/lib/format/quantity";
 
 // The public, read-only view of one shared project or series. The share is looked up by
 // the token's sha256 on every request: revoked, expired or unknown links get the same
@@ -55,7 +56,7 @@ export default async function SharedPage({ params }: { params: Promise<{ token: 
         <Banner link={link} />
         <header className="mb-4">
           <h1 className="text-2xl font-semibold tracking-tight" data-testid="shared-title">{series.name}</h1>
-          <p className="mt-1 text-sm text-ink-soft">{project?.name ?? ""} · {series.kind} series · {points.length} spectra · variable: {variable}</p>
+          <p className="mt-1 text-sm text-ink-soft">{project?.name ?? ""} · {series.kind} series · {countOf(points.length, "spectrum")} · variable: {variable}</p>
         </header>
         <Cautions link={link} />
         {points.length === 0 ? <p className="text-sm text-ink-soft">No spectra in this series yet.</p> : (
@@ -90,13 +91,13 @@ export default async function SharedPage({ params }: { params: Promise<{ token: 
       <Banner link={link} />
       <header className="mb-4">
         <h1 className="text-2xl font-semibold tracking-tight" data-testid="shared-title">{project.name}</h1>
-        <p className="mt-1 text-sm text-ink-soft">Project · {project.series.length} series · {project.spectra.length} spectra</p>
+        <p className="mt-1 text-sm text-ink-soft">Project · {countOf(project.series.length, "series")} · {countOf(project.spectra.length, "spectrum")}</p>
       </header>
       <Cautions link={link} />
       <h2 className="mb-2 text-base font-semibold">Series</h2>
       {project.series.length === 0 ? <p className="mb-4 text-sm text-ink-soft">No series.</p> : (
         <ul className="mb-6 divide-y divide-stone-100 rounded-lg border border-stone-200 bg-white text-sm" data-testid="shared-series-list">
-          {project.series.map((s) => <li key={s.id} className="px-3 py-2"><span className="font-medium">{s.name}</span> <span className="text-ink-soft">· {s.kind} · {s.spectra} spectra</span></li>)}
+          {project.series.map((s) => <li key={s.id} className="px-3 py-2"><span className="font-medium">{s.name}</span> <span className="text-ink-soft">· {s.kind} · {countOf(s.spectra, "spectrum")}</span></li>)}
         </ul>
       )}
       <h2 className="mb-2 text-base font-semibold">Spectra</h2>
