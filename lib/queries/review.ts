@@ -14,6 +14,7 @@ export type ReviewItem = {
   magnitude: number | null; unit: string | null; uncertainty: number | null;
   reviewState: string; spectrumId: string; fileName: string; sampleId: string | null; sampleName: string | null;
   projectId: string; projectName: string; createdAt: string; lastDecisionAt: string | null;
+  technique: Technique;
 };
 
 export type ReviewQueue = {
@@ -33,7 +34,7 @@ type Row = {
   id: string; kind: FlagKind; energy_ev: number | null; fraction: number | null; shift_mev: number | null; significance: number;
   magnitude: number | null; unit: string | null; uncertainty: number | null;
   review_state: string; spectrum_id: string; file_name: string; sample_id: string | null; sample_name: string | null;
-  project_id: string; project_name: string; created_at: Date; last_decision_at: Date | null;
+  project_id: string; project_name: string; created_at: Date; last_decision_at: Date | null; technique: Technique;
 };
 
 const ORDER: Record<QueueQuery["sort"], string> = {
@@ -52,7 +53,7 @@ function toItem(r: Row): ReviewItem {
     magnitude: r.magnitude, unit: r.unit, uncertainty: r.uncertainty,
     reviewState: r.review_state, spectrumId: r.spectrum_id, fileName: r.file_name, sampleId: r.sample_id, sampleName: r.sample_name,
     projectId: r.project_id, projectName: r.project_name, createdAt: new Date(r.created_at).toISOString(),
-    lastDecisionAt: r.last_decision_at ? new Date(r.last_decision_at).toISOString() : null,
+    lastDecisionAt: r.last_decision_at ? new Date(r.last_decision_at).toISOString() : null, technique: r.technique,
   };
 }
 
@@ -82,7 +83,7 @@ export async function listReviewQueue(actor: Actor, q: QueueQuery): Promise<Revi
   const count = await fastCount({ rowsSql: `SELECT 1 ${from}`, estimateSql: `SELECT 1 ${from}` }, params);
   const total = count.value;
   const rows = await selectRows<Row>(
-    `SELECT g.id, g.kind, g.energy_ev, g.fraction, g.shift_mev, g.magnitude, g.unit, g.uncertainty, g.significance, g.review_state, g.spectrum_id, s.file_name,
+    `SELECT g.id, g.kind, g.energy_ev, g.fraction, g.shift_mev, g.magnitude, g.unit, g.uncertainty, g.significance, g.review_state, g.spectrum_id, s.file_name, s.technique,
             s.sample_id, sm.name AS sample_name, p.id AS project_id, p.name AS project_name, g.created_at,
             (SELECT max(v.created_at) FROM reviews v WHERE v.signature_id = g.id) AS last_decision_at
      ${from} ORDER BY ${ORDER[q.sort]} ${dir} NULLS LAST, g.created_at DESC, g.id LIMIT :limit OFFSET :offset`,
