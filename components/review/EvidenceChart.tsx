@@ -27,7 +27,8 @@ export function EvidenceChart({ energy, sample, reference, centreEv, sampleName,
     [sample, reference, sampleName, referenceName],
   );
   if (energy.length < 2) return null;
-  const yLabel = unit === "counts" ? "emission (counts per eV)" : yUnitLabel(unit) || "signal";
+  const yText = unit === "counts" ? "emission (counts per eV)" : yUnitLabel(unit) || "signal";
+  const yLabel = yText.charAt(0).toUpperCase() + yText.slice(1);
   const markers = centreEv === null ? [] : [{ id: "flag", at: wavenumber ? centreEv * CM1_PER_EV : centreEv, label: KIND_LABELS[kind], colour: FLAG_COLOURS[kind] }];
   return (
     <LinePlot

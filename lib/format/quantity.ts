@@ -62,9 +62,13 @@ function signedText(value: number, body: string, signed: boolean | undefined): s
 /** A signed number in a unit: "−17.8 meV", "+3.2 meV", "12.0 %", "0.70 ± 0.01", "2.145 eV", "1650 cm⁻¹". */
 export function formatQuantity(value: number, unit: DisplayUnit, o: QuantityOptions = {}): string {
   if (!Number.isFinite(value)) return "—";
-  const number = signedText(value, digitsText(Math.abs(value), unit), o.signed);
   const u = o.uncertainty;
-  const plusMinus = u !== null && u !== undefined && Number.isFinite(u) && u > 0 ? ` ± ${digitsText(u, unit)}` : "";
+  const hasU = u !== null && u !== undefined && Number.isFinite(u) && u > 0;
+  // A signal has no natural step: with an uncertainty, both are rounded at its second significant digit (GUM §7.2.6).
+  const signalDigits = unit === "signal" && hasU ? Math.min(8, Math.max(0, 1 - Math.floor(Math.log10(u)))) : null;
+  const text = (v: number) => (signalDigits === null ? digitsText(v, unit) : v.toFixed(signalDigits));
+  const number = signedText(value, text(Math.abs(value)), o.signed);
+  const plusMinus = hasU ? ` ± ${text(u)}` : "";
   // "12.0 ± 0.5 %" keeps the unit after the uncertainty; a suffix ends the text.
   return `${withUnit(`${number}${plusMinus}`, unit)}${o.suffix ? ` ${o.suffix}` : ""}`;
 }

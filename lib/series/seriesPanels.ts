@@ -70,7 +70,7 @@ export function seriesPanels(technique: Technique, rows: PanelPoint[], fits: Ser
     "stern-volmer": () => ({
       key: "stern-volmer", title: "Stern–Volmer: F₀/F against [Q]", yLabel: "F₀/F", x,
       y: sternVolmerRatios(pts.map((p) => p.quenchFraction)),
-      fit: fits.sternVolmer.fit ? { ...sternVolmerLine(fits.sternVolmer.fit, lo, hi), label: "fit F₀/F = a + K_SV[Q]" } : null,
+      fit: fits.sternVolmer.fit ? { ...sternVolmerLine(fits.sternVolmer.fit, lo, hi), label: "fitted line" } : null,
     }),
     "new-band": () => ({ key: "new-band", title: "New-band area", yLabel: "area (signal · eV)", x, y: pts.map((p) => p.newBandArea), fit: null }),
     shift: () => ({ key: "shift", title: `Shift of the ${spec.firstBandLabel}`, yLabel: "shift (meV)", x, y: pts.map((p) => p.shiftMeV), fit: null }),

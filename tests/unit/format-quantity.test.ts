@@ -90,6 +90,11 @@ describe("uncertainties carry their unit", () => {
     expect(formatFlagUncertainty({ kind: "bleach", magnitude: 0.25, unit: "fraction", uncertainty: 0.0072 })).toBe("0.72 %");
   });
 
+  it("rounds a signal at its uncertainty's second significant digit", () => {
+    expect(formatQuantity(0.121034, "signal", { uncertainty: 0.000941 })).toBe("0.12103 ± 0.00094");
+    expect(formatQuantity(0.121034, "signal")).toBe("0.121");
+  });
+
   it("rounds a value at its uncertainty's second significant digit", () => {
     expect(formatWithUncertainty(0.080412, 0.00123, "µM⁻¹")).toBe("0.0804 ± 0.0012 µM⁻¹");
     expect(formatWithUncertainty(-1.23456, 0.05)).toBe(`${MINUS}1.235 ± 0.050`);
