@@ -15,6 +15,11 @@ export function storedReadChoice(spectrum: { columnChoice: string | null; readOp
   return choice;
 }
 
+/** A stored raw file's bytes exactly as they were uploaded. */
+export function storedRawBytes(file: Pick<StoredRawFile, "objectKey">): Promise<Uint8Array> {
+  return getObjectBytes(file.objectKey);
+}
+
 /**
  * Parses a stored raw file's bytes with the engine (spreadsheets included), under the upload
  * size limit. Throws the engine's SpectrumFileError (or a RangeError) for a file it cannot read.
@@ -49,7 +54,7 @@ export async function parsedRawFile(
   const key = `${file.objectKey}|${file.technique}|${choiceKey(choice)}`;
   const hit = parsedCache.get(key);
   if (hit) return hit;
-  const bytes = await getObjectBytes(file.objectKey);
+  const bytes = await storedRawBytes(file);
   const parsed = await guardParse(() => parseRawBytes(file, bytes, choice));
   parsedCache.set(key, parsed);
   return parsed;

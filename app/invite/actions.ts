@@ -4,7 +4,8 @@ import { redirect } from "next/navigation";
 import { z } from "zod";
 import type { ActionState } from "@/lib/actions/protected-state";
 import { currentActor } from "@/lib/auth/actor";
-import { InvitationProblem, acceptInvitation } from "@/lib/stewardship/acceptInvitation";
+import { acceptInvitation } from "@/lib/stewardship/acceptInvitation";
+import { Refusal } from "@/lib/errors";
 
 // The one server action open to people without a session: the invitation token is the
 // credential (one-time, hashed, expiring). It therefore does not go through
@@ -34,7 +35,7 @@ export async function acceptInvitationAction(_previous: ActionState, formData: F
   try {
     await acceptInvitation(parsed.data.token, { signedInUserId: actor?.id ?? null, name: parsed.data.name, password: parsed.data.password });
   } catch (error) {
-    if (error instanceof InvitationProblem) return { ok: false, message: error.message, fieldErrors: error.field ? { [error.field]: [error.message] } : undefined, values };
+    if (error instanceof Refusal) return { ok: false, message: error.message, fieldErrors: error.field ? { [error.field]: [error.message] } : undefined, values };
     console.error(error);
     return { ok: false, message: "Something went wrong on our side; nothing was saved. Try again.", values };
   }

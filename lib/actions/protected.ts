@@ -1,15 +1,10 @@
 import { z } from "zod";
 import type { Actor } from "@/lib/auth/actor";
 import { currentActor } from "@/lib/auth/actor";
+import { Refusal } from "@/lib/errors";
 
 export { initialActionState, type ActionState } from "./protected-state";
 import type { ActionState } from "./protected-state";
-
-export class ActionRefused extends Error {
-  constructor(message: string, readonly field?: string) {
-    super(message);
-  }
-}
 
 function formValues(formData: FormData): Record<string, string> {
   const out: Record<string, string> = {};
@@ -52,8 +47,10 @@ export function protectedAction<S extends z.ZodType>(
     } catch (error) {
       // Next's redirect() works by throwing; let it through.
       if (error && typeof error === "object" && "digest" in error && String((error as { digest: unknown }).digest).startsWith("NEXT_")) throw error;
-      if (error instanceof ActionRefused) {
-        return { ok: false, message: error.message, fieldErrors: error.field ? { [error.field]: [error.message] } : undefined, values };
+      if (error instanceof Refusal) {
+        // Shown beside its field, a message does not need to start with the field's name.
+        const message = error.field && error.message.startsWith(`${error.field}: `) ? error.message.slice(error.field.length + 2) : error.message;
+        return { ok: false, message, fieldErrors: error.field ? { [error.field]: [message] } : undefined, values };
       }
       console.error(error);
       return { ok: false, message: "Something went wrong on our side; nothing was saved. Try again.", values };

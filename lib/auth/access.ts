@@ -23,6 +23,11 @@ export function memberGroupIds(actor: Actor): string[] {
   return actor.memberships.filter((m) => MEMBER_ROLES.includes(m.role)).map((m) => m.groupId);
 }
 
+/** Groups in which the actor may add data. */
+export function writerGroupIds(actor: Actor): string[] {
+  return actor.memberships.filter((m) => WRITER_ROLES.includes(m.role)).map((m) => m.groupId);
+}
+
 export function canWrite(actor: Actor, groupId: string): boolean {
   return hasRole(actor, groupId, WRITER_ROLES);
 }

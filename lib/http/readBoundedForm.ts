@@ -1,7 +1,8 @@
-import { ApiError } from "./respond";
+import { Refusal } from "@/lib/errors";
+
 
 const tooLarge = (limit: number, seen: string) =>
-  new ApiError(413, "too-large", `the request is ${seen} bytes, over the limit of ${limit} bytes per request; send fewer files at a time`);
+  new Refusal(413, "too-large", `the request is ${seen} bytes, over the limit of ${limit} bytes per request; send fewer files at a time`);
 
 /**
  * Reads a multipart body while counting its bytes as they arrive, and stops reading (413)
@@ -13,7 +14,7 @@ export async function readBoundedForm(request: Request, maxBytes: number): Promi
   const declared = Number(request.headers.get("content-length") ?? Number.NaN);
   if (Number.isFinite(declared) && declared > maxBytes) throw tooLarge(maxBytes, String(declared));
   const reader = request.body?.getReader();
-  if (!reader) throw new ApiError(400, "invalid-body", "the request has no body");
+  if (!reader) throw new Refusal(400, "invalid-body", "the request has no body");
   const chunks: Uint8Array[] = [];
   let received = 0;
   for (;;) {
@@ -32,6 +33,6 @@ export async function readBoundedForm(request: Request, maxBytes: number): Promi
   try {
     return await new Response(body, { headers: { "content-type": request.headers.get("content-type") ?? "" } }).formData();
   } catch {
-    throw new ApiError(400, "invalid-body", "the request body is not readable multipart/form-data");
+    throw new Refusal(400, "invalid-body", "the request body is not readable multipart/form-data");
   }
 }

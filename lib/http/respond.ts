@@ -1,29 +1,21 @@
 import { NextResponse } from "next/server";
-import { ConnectionError } from "sequelize";
 import { ZodError } from "zod";
+import { Refusal } from "@/lib/errors";
+import { isTransientFault } from "@/lib/transientFault";
 import type { Actor } from "@/lib/auth/actor";
 import { actorFromRequest } from "@/lib/auth/actor";
 import { crossSiteWrite } from "./sameOrigin";
 
 // One error shape for the whole HTTP API:
 // { "error": { "code": "not-found", "message": "…", "field": "sampleId" } }
-export class ApiError extends Error {
-  constructor(
-    readonly status: number,
-    readonly code: string,
-    message: string,
-    readonly field?: string,
-  ) {
-    super(message);
-  }
-}
 
-export const unauthenticated = () => new ApiError(401, "unauthenticated", "Sign in or send a Bearer API token.");
-export const forbidden = (what = "this") => new ApiError(403, "forbidden", `You do not have access to ${what}.`);
-export const notFound = (what: string) => new ApiError(404, "not-found", `${what} was not found.`);
+export const unauthenticated = () => new Refusal(401, "unauthenticated", "Sign in or send a Bearer API token.");
+export const forbidden = (what = "this") => new Refusal(403, "forbidden", `You do not have access to ${what}.`);
+export const notFound = (what: string) => new Refusal(404, "not-found", `${what} was not found.`);
 
+/** A refusal as its status and body; a zod error as 400; a service fault as 503; anything else as 500 (logged). */
 export function errorResponse(error: unknown): NextResponse {
-  if (error instanceof ApiError) {
+  if (error instanceof Refusal) {
     return NextResponse.json(
       { error: { code: error.code, message: error.message, ...(error.field ? { field: error.field } : {}) } },
       { status: error.status },
@@ -37,7 +29,7 @@ export function errorResponse(error: unknown): NextResponse {
       { status: 400 },
     );
   }
-  if (error instanceof ConnectionError || (error instanceof Error && /ECONNREFUSED|Connection is closed|ETIMEDOUT/.test(error.message))) {
+  if (isTransientFault(error)) {
     return NextResponse.json(
       { error: { code: "unavailable", message: "A service Bandkeep depends on is not reachable right now. Try again shortly." } },
       { status: 503 },
@@ -57,7 +49,7 @@ export function withActor<C>(handler: Handler<C>) {
       if (!actor) throw unauthenticated();
       if (actor.via === "session") {
         const refusal = crossSiteWrite(request);
-        if (refusal) throw new ApiError(403, "cross-site", `A signed-in write must come from Bandkeep's own pages (${refusal}); scripts send a Bearer API token.`);
+        if (refusal) throw new Refusal(403, "cross-site", `A signed-in write must come from Bandkeep's own pages (${refusal}); scripts send a Bearer API token.`);
       }
       return await handler(request, { ...context, actor });
     } catch (error) {

@@ -1,7 +1,7 @@
 import { Unzip, UnzipInflate, unzipSync } from "fflate";
 import { looksLikeSpreadsheet } from "@/lib/engine/parse/looksLikeSpreadsheet";
-import { IngestError } from "./errors";
 import type { IngestLimits } from "./limits";
+import { Refusal } from "@/lib/errors";
 
 export type ZipEntry = { fileName: string; bytes: Uint8Array };
 
@@ -32,8 +32,8 @@ const mib = (n: number) => `${Math.round((n / 1024 / 1024) * 10) / 10} MiB`;
  * Directory entries, hidden files and __MACOSX folders are skipped.
  */
 export function expandZip(zipName: string, bytes: Uint8Array, limits: IngestLimits): ZipEntry[] {
-  const refuse = (what: string) => new IngestError(413, "zip-limit", `${zipName}: ${what}`, "file");
-  const unreadable = () => new IngestError(400, "zip-unreadable", `${zipName}: not a readable zip archive`, "file");
+  const refuse = (what: string) => new Refusal(413, "zip-limit", `${zipName}: ${what}`, "file");
+  const unreadable = () => new Refusal(400, "zip-unreadable", `${zipName}: not a readable zip archive`, "file");
 
   let count = 0;
   let declaredTotal = 0;
@@ -55,18 +55,18 @@ export function expandZip(zipName: string, bytes: Uint8Array, limits: IngestLimi
       },
     });
   } catch (e) {
-    if (e instanceof IngestError) throw e;
+    if (e instanceof Refusal) throw e;
     throw unreadable();
   }
-  if (count === 0) throw new IngestError(400, "zip-empty", `${zipName}: the zip holds no files`, "file");
+  if (count === 0) throw new Refusal(400, "zip-empty", `${zipName}: the zip holds no files`, "file");
 
   const entries: ZipEntry[] = [];
   let total = 0;
-  let failure: IngestError | null = null;
+  let failure: Refusal | null = null;
   const unzip = new Unzip((file) => {
     if (failure || skipped(file.name)) return;
     if (file.compression !== 0 && file.compression !== 8) {
-      failure = new IngestError(400, "zip-unreadable", `${zipName}: entry ${file.name} uses an unsupported compression method`, "file");
+      failure = new Refusal(400, "zip-unreadable", `${zipName}: entry ${file.name} uses an unsupported compression method`, "file");
       return;
     }
     const chunks: Uint8Array[] = [];
@@ -74,7 +74,7 @@ export function expandZip(zipName: string, bytes: Uint8Array, limits: IngestLimi
     file.ondata = (err, chunk, final) => {
       if (failure) return;
       if (err) {
-        failure = new IngestError(400, "zip-unreadable", `${zipName}: entry ${file.name} is damaged`, "file");
+        failure = new Refusal(400, "zip-unreadable", `${zipName}: entry ${file.name} is damaged`, "file");
         file.terminate();
         return;
       }

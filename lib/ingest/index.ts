@@ -1,6 +1,5 @@
 // The ingest pipeline: one path for the HTTP API, the upload page and the demo seed.
-export { IngestError } from "./errors";
-export { ingestFile, ingestFiles, type FileOutcome, type IncomingFile, type IngestFileInput } from "./ingestFile";
+export { ingestFiles, type FileOutcome, type IncomingFile } from "./ingestFile";
 export { requestReanalysis, type ReanalysisResult } from "./requestReanalysis";
 export { ingestMetadataSchema, INGEST_FIELDS, type IngestMetadata, type IngestMetadataInput } from "./metadata";
 export { ingestLimits, type IngestLimits } from "./limits";

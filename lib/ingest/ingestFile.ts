@@ -1,31 +1,24 @@
 import type { Actor } from "@/lib/auth/actor";
-import { IngestError } from "./errors";
 import { expandZip, looksLikeZip } from "./expandZip";
 import { ingestLimits, type IngestLimits } from "./limits";
 import type { IngestMetadataInput } from "./metadata";
 import { prepareIngest, type IngestContext } from "./prepareIngest";
 import { storeFile, type StoredFile } from "./storeFile";
-import { isTransientFault } from "./transient";
+import { isTransientFault } from "@/lib/transientFault";
+import { Refusal } from "@/lib/errors";
 
 export type IncomingFile = { fileName: string; bytes: Uint8Array; contentType?: string };
-
-export type IngestFileInput = IncomingFile & {
-  actor: Actor;
-  /** Overrides metadata.projectId when given. */
-  projectId?: string;
-  metadata: Omit<IngestMetadataInput, "projectId"> & { projectId?: string };
-};
 
 /** The outcome for one file of a batch: stored (or linked as a duplicate), or refused with a reason. */
 export type FileOutcome =
   | ({ ok: true; zip?: string } & StoredFile)
   | { ok: false; zip?: string; fileName: string; error: { status: number; code: string; message: string; field?: string } };
 
-/** An IngestError for faults of a service, so callers answer 503 instead of 500. */
-export function unavailable(error: unknown): IngestError | null {
-  if (error instanceof IngestError) return error;
+/** An Refusal for faults of a service, so callers answer 503 instead of 500. */
+export function unavailable(error: unknown): Refusal | null {
+  if (error instanceof Refusal) return error;
   if (isTransientFault(error)) {
-    return new IngestError(503, "unavailable", "Storage or database is not reachable right now; this file was not stored. Try again shortly.");
+    return new Refusal(503, "unavailable", "Storage or database is not reachable right now; this file was not stored. Try again shortly.");
   }
   return null;
 }
@@ -43,7 +36,7 @@ function outcomeOfError(fileName: string, error: unknown, zip?: string): FileOut
  * Stores every file of a batch under one set of metadata. Zips are expanded (within the
  * limits) and each entry becomes a file. One refused file does not stop the others: the
  * result lists an outcome per file. Errors of the batch as a whole (metadata, access)
- * throw an IngestError.
+ * throw an Refusal.
  */
 export async function ingestFiles(
   actor: Actor,
@@ -51,7 +44,7 @@ export async function ingestFiles(
   files: IncomingFile[],
   limits: IngestLimits = ingestLimits(),
 ): Promise<FileOutcome[]> {
-  if (files.length === 0) throw new IngestError(400, "no-file", "no file was sent (use the form field \"file\")", "file");
+  if (files.length === 0) throw new Refusal(400, "no-file", "no file was sent (use the form field \"file\")", "file");
   const context = await prepareIngest(actor, metadata);
   return ingestPrepared(context, files, limits);
 }
@@ -62,7 +55,7 @@ export async function ingestPrepared(context: IngestContext, files: IncomingFile
   for (const file of files) {
     if (file.bytes.length > 0 && looksLikeZip(file.fileName, file.bytes)) {
       if (file.bytes.length > limits.maxFileBytes) {
-        outcomes.push(outcomeOfError(file.fileName, new IngestError(413, "too-large", `${file.fileName}: ${file.bytes.length} bytes is over the upload limit of ${limits.maxFileBytes} bytes`, "file")));
+        outcomes.push(outcomeOfError(file.fileName, new Refusal(413, "too-large", `${file.fileName}: ${file.bytes.length} bytes is over the upload limit of ${limits.maxFileBytes} bytes`, "file")));
         continue;
       }
       let entries;
@@ -74,11 +67,11 @@ export async function ingestPrepared(context: IngestContext, files: IncomingFile
       }
       for (const entry of entries) {
         if (budget-- <= 0) {
-          outcomes.push(outcomeOfError(entry.fileName, new IngestError(413, "too-many-files", `${entry.fileName}: more than ${limits.maxFilesPerRequest} files in one request`, "file"), file.fileName));
+          outcomes.push(outcomeOfError(entry.fileName, new Refusal(413, "too-many-files", `${entry.fileName}: more than ${limits.maxFilesPerRequest} files in one request`, "file"), file.fileName));
           continue;
         }
         if (looksLikeZip(entry.fileName, entry.bytes)) {
-          outcomes.push(outcomeOfError(entry.fileName, new IngestError(400, "nested-zip", `${file.fileName}: entry ${entry.fileName} is itself a zip; zips inside zips are not expanded`, "file"), file.fileName));
+          outcomes.push(outcomeOfError(entry.fileName, new Refusal(400, "nested-zip", `${file.fileName}: entry ${entry.fileName} is itself a zip; zips inside zips are not expanded`, "file"), file.fileName));
           continue;
         }
         try {
@@ -90,7 +83,7 @@ export async function ingestPrepared(context: IngestContext, files: IncomingFile
       continue;
     }
     if (budget-- <= 0) {
-      outcomes.push(outcomeOfError(file.fileName, new IngestError(413, "too-many-files", `${file.fileName}: more than ${limits.maxFilesPerRequest} files in one request`, "file")));
+      outcomes.push(outcomeOfError(file.fileName, new Refusal(413, "too-many-files", `${file.fileName}: more than ${limits.maxFilesPerRequest} files in one request`, "file")));
       continue;
     }
     try {
@@ -102,17 +95,3 @@ export async function ingestPrepared(context: IngestContext, files: IncomingFile
   return outcomes;
 }
 
-/**
- * Stores one file (a zip is refused here: use ingestFiles for zips). Throws an
- * IngestError for anything refused; returns the stored spectrum, or the existing one with
- * `duplicate: true`.
- */
-export async function ingestFile(input: IngestFileInput): Promise<StoredFile> {
-  const limits = ingestLimits();
-  const context = await prepareIngest(input.actor, { ...input.metadata, projectId: input.projectId ?? input.metadata.projectId });
-  try {
-    return await storeFile(context, input, limits.maxFileBytes);
-  } catch (error) {
-    throw unavailable(error) ?? error;
-  }
-}

@@ -1,9 +1,9 @@
 import { Project, Sample, Series, Spectrum, models } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadProject, canWrite } from "@/lib/auth/access";
-import { IngestError } from "./errors";
 import { ingestMetadataSchema, type IngestMetadata, type IngestMetadataInput } from "./metadata";
 import { columnChoice, materialFromText, type AnalysisParameters } from "./parameters";
+import { Refusal } from "@/lib/errors";
 
 /** What one batch of files shares: the checked metadata, the project and the analysis parameters. */
 export type IngestContext = {
@@ -17,11 +17,11 @@ export type IngestContext = {
   solvent: string;
 };
 
-function firstIssue(error: { issues: { path: PropertyKey[]; message: string }[] }): IngestError {
+function firstIssue(error: { issues: { path: PropertyKey[]; message: string }[] }): Refusal {
   const issue = error.issues[0];
   const field = issue?.path.map(String).join(".") || undefined;
   const message = issue ? (issue.message.startsWith(field ?? "\u0000") ? issue.message : `${field ? `${field}: ` : ""}${issue.message}`) : "invalid metadata";
-  return new IngestError(400, "invalid", message, field);
+  return new Refusal(400, "invalid", message, field);
 }
 
 /**
@@ -36,23 +36,23 @@ export async function prepareIngest(actor: Actor, input: IngestMetadataInput | R
   models();
   const project = await Project.findByPk(metadata.projectId);
   if (!project || !(await canReadProject(actor, project))) {
-    throw new IngestError(404, "not-found", `project ${metadata.projectId} was not found`, "projectId");
+    throw new Refusal(404, "not-found", `project ${metadata.projectId} was not found`, "projectId");
   }
   if (!canWrite(actor, project.groupId)) {
-    throw new IngestError(403, "forbidden", `you may not add spectra to project "${project.name}"`, "projectId");
+    throw new Refusal(403, "forbidden", `you may not add spectra to project "${project.name}"`, "projectId");
   }
   let sample: Sample | null = null;
   if (metadata.sampleId) {
     sample = await Sample.findByPk(metadata.sampleId);
     if (!sample || sample.groupId !== project.groupId) {
-      throw new IngestError(400, "invalid", `sampleId: sample ${metadata.sampleId} was not found in this project's group`, "sampleId");
+      throw new Refusal(400, "invalid", `sampleId: sample ${metadata.sampleId} was not found in this project's group`, "sampleId");
     }
   }
   let series: Series | null = null;
   if (metadata.seriesId) {
     series = await Series.findByPk(metadata.seriesId);
     if (!series || series.projectId !== project.id) {
-      throw new IngestError(400, "invalid", `seriesId: series ${metadata.seriesId} was not found in this project`, "seriesId");
+      throw new Refusal(400, "invalid", `seriesId: series ${metadata.seriesId} was not found in this project`, "seriesId");
     }
   }
   let reference: Spectrum | null = null;
@@ -60,7 +60,7 @@ export async function prepareIngest(actor: Actor, input: IngestMetadataInput | R
     reference = await Spectrum.findByPk(metadata.referenceSpectrumId);
     const refProject = reference ? await Project.findByPk(reference.projectId, { attributes: ["groupId"] }) : null;
     if (!reference || refProject?.groupId !== project.groupId) {
-      throw new IngestError(
+      throw new Refusal(
         400, "invalid", `referenceSpectrumId: spectrum ${metadata.referenceSpectrumId} was not found in this project's group`, "referenceSpectrumId",
       );
     }

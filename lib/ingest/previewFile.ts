@@ -2,9 +2,9 @@ import { parseSpectrumBytes, readChoiceOptions, SpectrumFileError, X_UNITS, Y_KI
 import { Project, models } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadProject, canWrite } from "@/lib/auth/access";
-import { IngestError } from "./errors";
 import { looksLikeZip } from "./expandZip";
 import { previewFieldsSchema } from "./metadata";
+import { Refusal } from "@/lib/errors";
 
 /** At most this many points are drawn in a preview (every k-th point, the ends kept). */
 const PLOT_POINTS = 300;
@@ -64,15 +64,15 @@ export async function previewFile(actor: Actor, fileName: string, bytes: Uint8Ar
   const parsedFields = previewFieldsSchema.safeParse(fields);
   if (!parsedFields.success) {
     const issue = parsedFields.error.issues[0]!;
-    throw new IngestError(400, "invalid", issue.message, String(issue.path[0] ?? "file"));
+    throw new Refusal(400, "invalid", issue.message, String(issue.path[0] ?? "file"));
   }
   // The same access as an upload into the project: previews are for people who may store files there.
   models();
   const project = await Project.findByPk(parsedFields.data.projectId);
   if (!project || !(await canReadProject(actor, project))) {
-    throw new IngestError(404, "not-found", `project ${parsedFields.data.projectId} was not found`, "projectId");
+    throw new Refusal(404, "not-found", `project ${parsedFields.data.projectId} was not found`, "projectId");
   }
-  if (!canWrite(actor, project.groupId)) throw new IngestError(403, "forbidden", `you may not add spectra to project "${project.name}"`, "projectId");
+  if (!canWrite(actor, project.groupId)) throw new Refusal(403, "forbidden", `you may not add spectra to project "${project.name}"`, "projectId");
   if (bytes.length === 0) return { ok: false, fileName, error: `${fileName}: the file is empty (0 bytes)` };
   if (bytes.length > maxBytes) return { ok: false, fileName, error: `${fileName}: ${bytes.length} bytes is over the upload limit of ${maxBytes} bytes` };
   if (looksLikeZip(fileName, bytes)) return { ok: false, fileName, error: `${fileName}: a zip is expanded when uploaded; each of its files is read then` };

@@ -1,15 +1,14 @@
 import { listParentCandidates, parentSampleIds } from "@/lib/queries/parentChoices";
+import { listProjectChoices, type ProjectChoice } from "@/lib/queries/projects";
 import type { ParentCandidate } from "@/lib/parents/orderParentChoices";
 import { Op } from "sequelize";
-import { AnalysisRun, Group, Peak, Project, Sample, Series, Signature, Spectrum, models } from "@/models";
+import { AnalysisRun, Peak, Sample, Series, Signature, Spectrum, models } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
-import { WRITER_ROLES, canReadSeries, canReadSpectrum, groupOfSpectrum, memberGroupIds } from "@/lib/auth/access";
+import { canReadSeries, canReadSpectrum, groupOfSpectrum, memberGroupIds } from "@/lib/auth/access";
 import type { AnalysisReport } from "@/lib/engine";
+import { isUuid } from "@/lib/ids";
 
 // Reads behind the scripts' API and the upload page, reshaped into the JSON they serve.
-
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-export const isId = (s: string) => UUID.test(s);
 
 export type PeakView = { energyEv: number; wavelengthNm: number; height: number; fwhmMeV: number | null; area: number | null; firstExciton: boolean };
 export type FlagView = {
@@ -83,7 +82,7 @@ async function analysisView(run: AnalysisRun, showReview: boolean): Promise<Anal
 
 /** A spectrum the actor may read, with its latest analysis and the list of its runs; null when not found or not readable. */
 export async function getSpectrumStatus(actor: Actor, id: string) {
-  if (!isId(id)) return null;
+  if (!isUuid(id)) return null;
   models();
   const spectrum = await Spectrum.findByPk(id);
   if (!spectrum || !(await canReadSpectrum(actor, spectrum))) return null;
@@ -97,7 +96,7 @@ export async function getSpectrumStatus(actor: Actor, id: string) {
 
 /** The spectrum row for a raw download, when the actor may read it. */
 export async function getReadableSpectrum(actor: Actor, id: string): Promise<Spectrum | null> {
-  if (!isId(id)) return null;
+  if (!isUuid(id)) return null;
   models();
   const spectrum = await Spectrum.findByPk(id);
   return spectrum && (await canReadSpectrum(actor, spectrum)) ? spectrum : null;
@@ -111,7 +110,7 @@ function strongest(report: AnalysisReport | null, kind: string) {
 
 /** A series the actor may read, with each spectrum's status and key numbers from its latest analysis. */
 export async function getSeriesStatus(actor: Actor, id: string) {
-  if (!isId(id)) return null;
+  if (!isUuid(id)) return null;
   models();
   const series = await Series.findByPk(id);
   if (!series || !(await canReadSeries(actor, series))) return null;
@@ -144,19 +143,8 @@ export async function getSeriesStatus(actor: Actor, id: string) {
   };
 }
 
-export type WritableProject = { id: string; name: string; groupId: string; groupName: string };
-
-/** Projects in groups where the actor may upload. */
-export async function listWritableProjects(actor: Actor): Promise<WritableProject[]> {
-  const groupIds = actor.memberships.filter((m) => WRITER_ROLES.includes(m.role)).map((m) => m.groupId);
-  if (groupIds.length === 0) return [];
-  models();
-  const rows = await Project.findAll({ where: { groupId: { [Op.in]: groupIds } }, include: [{ model: Group, attributes: ["name"] }], order: [["name", "ASC"]] });
-  return rows.map((p) => ({ id: p.id, name: p.name, groupId: p.groupId, groupName: (p as unknown as { Group?: Group }).Group?.name ?? "" }));
-}
-
 export type UploadChoices = {
-  projects: (WritableProject & {
+  projects: (ProjectChoice & {
     samples: { id: string; name: string; material: string; coreShell: string; solvent: string; parentIds: string[] }[];
     series: { id: string; name: string; variableName: string; variableUnit: string }[];
     /** Candidate parent references (analysed spectra only), ordered per sample by components/parents/ParentPicker. */
@@ -166,7 +154,7 @@ export type UploadChoices = {
 
 /** Everything the upload form offers: writable projects with their samples, series and candidate reference spectra. */
 export async function getUploadChoices(actor: Actor): Promise<UploadChoices> {
-  const projects = await listWritableProjects(actor);
+  const projects = await listProjectChoices(actor, "write");
   if (projects.length === 0) return { projects: [] };
   const groupIds = [...new Set(projects.map((p) => p.groupId))];
   const projectIds = projects.map((p) => p.id);

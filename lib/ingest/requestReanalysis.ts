@@ -6,8 +6,8 @@ import { recordAudit } from "@/lib/audit";
 import { ENGINE_VERSION } from "@/lib/engine/version";
 import { enqueueRun } from "./enqueueRun";
 import { storedReadOptions } from "./insertUpload";
-import { IngestError } from "./errors";
 import { mergeParameters, parameterHash, reanalysisSchema, type AnalysisParameters, type ReanalysisInput } from "./parameters";
+import { Refusal } from "@/lib/errors";
 
 export type ReanalysisResult = { runId: string; status: AnalysisRun["status"]; created: boolean; queued: boolean };
 
@@ -22,13 +22,13 @@ export async function requestReanalysis(spectrumId: string, changes: ReanalysisI
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     const field = issue?.path.map(String).join(".") || undefined;
-    throw new IngestError(400, "invalid", `${field ? `${field}: ` : ""}${issue?.message ?? "invalid parameters"}`, field);
+    throw new Refusal(400, "invalid", `${field ? `${field}: ` : ""}${issue?.message ?? "invalid parameters"}`, field);
   }
   const db = models();
   const spectrum = await Spectrum.findByPk(spectrumId);
-  if (!spectrum || !(await canReadSpectrum(actor, spectrum))) throw new IngestError(404, "not-found", `spectrum ${spectrumId} was not found`);
+  if (!spectrum || !(await canReadSpectrum(actor, spectrum))) throw new Refusal(404, "not-found", `spectrum ${spectrumId} was not found`);
   const project = await Project.findByPk(spectrum.projectId, { attributes: ["id", "groupId"] });
-  if (!project || !canWrite(actor, project.groupId)) throw new IngestError(403, "forbidden", "you may not re-run analyses in this project");
+  if (!project || !canWrite(actor, project.groupId)) throw new Refusal(403, "forbidden", "you may not re-run analyses in this project");
 
   // Changes apply to the latest run that did not fail (a refused normalisation wavelength is not
   // carried on), or to the latest of all when every run failed (an unreadable upload's settings).
@@ -42,16 +42,16 @@ export async function requestReanalysis(spectrumId: string, changes: ReanalysisI
   if (parsed.data.referenceSpectrumId !== undefined) referenceSpectrumId = parsed.data.referenceSpectrumId;
   if (referenceSpectrumId) {
     if (referenceSpectrumId === spectrum.id) {
-      throw new IngestError(400, "invalid", "referenceSpectrumId: a spectrum cannot be its own reference", "referenceSpectrumId");
+      throw new Refusal(400, "invalid", "referenceSpectrumId: a spectrum cannot be its own reference", "referenceSpectrumId");
     }
     const ref = await Spectrum.findByPk(referenceSpectrumId, { attributes: ["id", "projectId"] });
     const refProject = ref ? await Project.findByPk(ref.projectId, { attributes: ["groupId"] }) : null;
     if (!ref || refProject?.groupId !== project.groupId) {
-      throw new IngestError(400, "invalid", `referenceSpectrumId: spectrum ${referenceSpectrumId} was not found in this group`, "referenceSpectrumId");
+      throw new Refusal(400, "invalid", `referenceSpectrumId: spectrum ${referenceSpectrumId} was not found in this group`, "referenceSpectrumId");
     }
   }
   if (parameters.normalization && !referenceSpectrumId) {
-    throw new IngestError(400, "invalid", "normalization: needs a parent reference spectrum, and the run would have none", "normalization");
+    throw new Refusal(400, "invalid", "normalization: needs a parent reference spectrum, and the run would have none", "normalization");
   }
   const hash = parameterHash(parameters, referenceSpectrumId);
   // The spectrum is read the way its newest run reads it, so references, viewer and exports agree.

@@ -5,11 +5,11 @@ import { recordAudit } from "@/lib/audit";
 import { deleteObject, newRawObjectKey, putObject, sha256Hex } from "@/lib/storage";
 import { enqueueRun } from "./enqueueRun";
 import { insertUpload } from "./insertUpload";
-import { IngestError } from "./errors";
 import { detailDifferences, type DetailDifference } from "./detailDifferences";
 import type { IngestContext } from "./prepareIngest";
 import { parameterHash } from "./parameters";
-import { isTransientFault } from "./transient";
+import { isTransientFault } from "@/lib/transientFault";
+import { Refusal } from "@/lib/errors";
 
 export type StoredFile = {
   fileName: string;
@@ -68,10 +68,10 @@ export async function storeFile(
 ): Promise<StoredFile> {
   const fileName = cleanFileName(file.fileName);
   const nameProblem = fileNameProblem(file.fileName);
-  if (nameProblem) throw new IngestError(400, "invalid-file-name", `${fileName.replace(/[\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]/g, "?")}: ${nameProblem}`, "file");
-  if (file.bytes.length === 0) throw new IngestError(400, "empty-file", `${fileName}: the file is empty (0 bytes)`, "file");
+  if (nameProblem) throw new Refusal(400, "invalid-file-name", `${fileName.replace(/[\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]/g, "?")}: ${nameProblem}`, "file");
+  if (file.bytes.length === 0) throw new Refusal(400, "empty-file", `${fileName}: the file is empty (0 bytes)`, "file");
   if (file.bytes.length > maxBytes) {
-    throw new IngestError(413, "too-large", `${fileName}: ${file.bytes.length} bytes is over the upload limit of ${maxBytes} bytes`, "file");
+    throw new Refusal(413, "too-large", `${fileName}: ${file.bytes.length} bytes is over the upload limit of ${maxBytes} bytes`, "file");
   }
   models();
   const sha256 = sha256Hex(file.bytes);

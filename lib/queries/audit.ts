@@ -1,5 +1,5 @@
 import { Op, type WhereOptions } from "sequelize";
-import { csvLine } from "@/lib/csv/csvCell";
+import { csvDocument, csvLine } from "@/lib/formats/csv";
 import { z } from "zod";
 import type { Actor } from "@/lib/auth/actor";
 import { AuditEvent, models } from "@/models";
@@ -59,6 +59,5 @@ export async function auditActions(actor: Actor): Promise<string[]> {
 
 /** RFC 4180 CSV; cells that a spreadsheet would run as a formula are prefixed with '. */
 export function auditCsv(rows: AuditRow[]): string {
-  const lines = ["id,at,actor,action,target,details", ...rows.map((r) => csvLine([r.id, r.at, r.actor, r.action, r.target, r.details]))];
-  return lines.join("\r\n") + "\r\n";
+  return csvDocument(["id,at,actor,action,target,details", ...rows.map((r) => csvLine([r.id, r.at, r.actor, r.action, r.target, r.details]))]);
 }

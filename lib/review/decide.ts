@@ -7,9 +7,9 @@ import { selectRows } from "@/lib/db";
 import { Review, Signature, models } from "@/models";
 import type { ReviewState } from "@/models/Signature";
 import { shortRunId } from "./carryDecisions";
-import { ReviewRefused } from "./errors";
 import { addNotices, scheduleNotices, type Notice } from "./notices";
 import type { Decision } from "./schemas";
+import { refuse } from "@/lib/errors";
 
 export type DecisionOutcome = {
   signatureId: string;
@@ -38,9 +38,9 @@ async function loadTargets(actor: Actor, ids: string[]): Promise<Map<string, Tar
     const t = byId.get(id);
     // Members of the owning group (any role) learn that it exists; everyone else sees "not found".
     if (!t || roleIn(actor, t.group_id) === null || roleIn(actor, t.group_id) === "collaborator") {
-      throw new ReviewRefused(404, `signature ${id} was not found`, "signatureIds");
+      throw refuse(404, `signature ${id} was not found`, "signatureIds");
     }
-    if (!canReview(actor, t.group_id)) throw new ReviewRefused(403, "Only a lead of the group that owns the spectrum can confirm or dismiss its signatures.", "signatureIds");
+    if (!canReview(actor, t.group_id)) throw refuse(403, "Only a lead of the group that owns the spectrum can confirm or dismiss its signatures.", "signatureIds");
   }
   return byId;
 }
@@ -50,7 +50,7 @@ async function lockCurrent(ids: string[], transaction: Transaction): Promise<Map
   const locked = await Signature.findAll({ where: { id: { [Op.in]: ids } }, lock: transaction.LOCK.UPDATE, transaction });
   for (const s of locked) {
     if (s.supersededAt !== null) {
-      throw new ReviewRefused(409,
+      throw refuse(409,
         `This flag was replaced by a newer analysis (run ${shortRunId(s.supersededByRunId ?? "")}); open the signature to find the same band in that run and decide there.`,
         "signatureIds");
     }
@@ -92,7 +92,7 @@ export async function decideSignatures(
 ): Promise<{ outcomes: DecisionOutcome[]; mailed: number }> {
   const db = models();
   const ids = [...new Set(signatureIds)];
-  if (ids.length === 0) throw new ReviewRefused(400, "choose at least one signature", "signatureIds");
+  if (ids.length === 0) throw refuse(400, "choose at least one signature", "signatureIds");
   const byId = await loadTargets(actor, ids);
   const notices: Notice[] = [];
   const outcomes = await db.transaction(async (transaction) => {
@@ -132,9 +132,9 @@ export async function decideSignatures(
 export async function undoDecisions(actor: Actor, reviewIds: string[]): Promise<{ outcomes: DecisionOutcome[]; mailed: number }> {
   const db = models();
   const wanted = [...new Set(reviewIds)];
-  if (wanted.length === 0) throw new ReviewRefused(400, "name at least one decision to undo", "reviewIds");
+  if (wanted.length === 0) throw refuse(400, "name at least one decision to undo", "reviewIds");
   const reviews = await Review.findAll({ where: { id: { [Op.in]: wanted } } });
-  if (reviews.length !== wanted.length) throw new ReviewRefused(404, "a decision to undo was not found", "reviewIds");
+  if (reviews.length !== wanted.length) throw refuse(404, "a decision to undo was not found", "reviewIds");
   const ids = [...new Set(reviews.map((r) => r.signatureId))];
   const byId = await loadTargets(actor, ids);
   const notices: Notice[] = [];
@@ -145,9 +145,9 @@ export async function undoDecisions(actor: Actor, reviewIds: string[]): Promise<
       const id = review.signatureId;
       const latest = await Review.findOne({ where: { signatureId: id }, order: [["createdAt", "DESC"], ["id", "DESC"]], transaction });
       if (review.origin !== "decision" || review.previousState === null) {
-        throw new ReviewRefused(409, "Only a lead's own decision, recorded with the state it replaced, can be undone.", "reviewIds");
+        throw refuse(409, "Only a lead's own decision, recorded with the state it replaced, can be undone.", "reviewIds");
       }
-      if (latest?.id !== review.id) throw new ReviewRefused(409, "A later decision followed this one; decide again instead of undoing it.", "reviewIds");
+      if (latest?.id !== review.id) throw refuse(409, "A later decision followed this one; decide again instead of undoing it.", "reviewIds");
       const restored = review.previousState;
       const current = locked.get(id)?.reviewState ?? review.decision;
       const undo = await Review.create(

@@ -4,14 +4,9 @@ import { canReadSeries, canWrite } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
 import { Project, Series, Spectrum, models } from "@/models";
 import type { LinkBody } from "./supernatantSchemas";
+import { refuse } from "@/lib/errors";
 
 /** A refused link or unlink, with the HTTP status it maps to and the field it concerns. */
-export class SupernatantLinkRefused extends Error {
-  constructor(readonly status: 400 | 403 | 404 | 409, message: string, readonly field?: string) {
-    super(message);
-  }
-}
-
 export type LinkOutcome = {
   supernatantSpectrumId: string;
   /** The point it is now the supernatant of; null after unlinking. */
@@ -31,10 +26,10 @@ export type LinkOutcome = {
 export async function seriesForLinking(actor: Actor, seriesId: string): Promise<{ series: Series; groupId: string }> {
   models();
   const series = await Series.findByPk(seriesId);
-  if (!series || !(await canReadSeries(actor, series))) throw new SupernatantLinkRefused(404, `series ${seriesId} was not found`);
+  if (!series || !(await canReadSeries(actor, series))) throw refuse(404, `series ${seriesId} was not found`);
   const project = await Project.findByPk(series.projectId, { attributes: ["id", "groupId"] });
   if (!project || !canWrite(actor, project.groupId)) {
-    throw new SupernatantLinkRefused(403, "Only spectroscopists and leads of the group that owns this series can link supernatant spectra.");
+    throw refuse(403, "Only spectroscopists and leads of the group that owns this series can link supernatant spectra.");
   }
   return { series, groupId: project.groupId };
 }
@@ -44,30 +39,30 @@ export async function setSupernatantLink(actor: Actor, seriesId: string, input: 
   const { series, groupId } = await seriesForLinking(actor, seriesId);
   const supernatant = await Spectrum.findByPk(input.supernatantSpectrumId);
   if (!supernatant || supernatant.projectId !== series.projectId) {
-    throw new SupernatantLinkRefused(404, `supernatantSpectrumId: spectrum ${input.supernatantSpectrumId} was not found in this series' project`, "supernatantSpectrumId");
+    throw refuse(404, `supernatantSpectrumId: spectrum ${input.supernatantSpectrumId} was not found in this series' project`, "supernatantSpectrumId");
   }
   const previous = supernatant.supernatantOfSpectrumId
     ? await Spectrum.findByPk(supernatant.supernatantOfSpectrumId, { attributes: ["id", "seriesId", "fileName"] })
     : null;
   if (previous && previous.seriesId !== series.id) {
-    throw new SupernatantLinkRefused(409, `supernatantSpectrumId: ${supernatant.fileName} is the supernatant of a point of another series; unlink it there first`, "supernatantSpectrumId");
+    throw refuse(409, `supernatantSpectrumId: ${supernatant.fileName} is the supernatant of a point of another series; unlink it there first`, "supernatantSpectrumId");
   }
 
   let point: Spectrum | null = null;
   if (input.pointSpectrumId !== null) {
     if (supernatant.technique !== "absorption") {
-      throw new SupernatantLinkRefused(400, `supernatantSpectrumId: ${supernatant.fileName} is a ${supernatant.technique} spectrum; a supernatant must be an absorption spectrum`, "supernatantSpectrumId");
+      throw refuse(400, `supernatantSpectrumId: ${supernatant.fileName} is a ${supernatant.technique} spectrum; a supernatant must be an absorption spectrum`, "supernatantSpectrumId");
     }
     if (supernatant.seriesId !== null) {
-      throw new SupernatantLinkRefused(400, `supernatantSpectrumId: ${supernatant.fileName} is itself a point of a series; upload the supernatant without a series and link it here`, "supernatantSpectrumId");
+      throw refuse(400, `supernatantSpectrumId: ${supernatant.fileName} is itself a point of a series; upload the supernatant without a series and link it here`, "supernatantSpectrumId");
     }
     point = await Spectrum.findByPk(input.pointSpectrumId, { attributes: ["id", "seriesId", "fileName"] });
     if (!point || point.seriesId !== series.id) {
-      throw new SupernatantLinkRefused(404, `pointSpectrumId: spectrum ${input.pointSpectrumId} is not a point of this series`, "pointSpectrumId");
+      throw refuse(404, `pointSpectrumId: spectrum ${input.pointSpectrumId} is not a point of this series`, "pointSpectrumId");
     }
     const taken = await Spectrum.findOne({ where: { supernatantOfSpectrumId: point.id }, attributes: ["id", "fileName"] });
     if (taken && taken.id !== supernatant.id) {
-      throw new SupernatantLinkRefused(409, `pointSpectrumId: ${point.fileName} already has ${taken.fileName} as its supernatant; unlink that one first`, "pointSpectrumId");
+      throw refuse(409, `pointSpectrumId: ${point.fileName} already has ${taken.fileName} as its supernatant; unlink that one first`, "pointSpectrumId");
     }
   }
 
@@ -89,7 +84,7 @@ export async function setSupernatantLink(actor: Actor, seriesId: string, input: 
     });
   } catch (error) {
     if (error instanceof UniqueConstraintError || (error instanceof DatabaseError && /supernatant/.test(error.message))) {
-      throw new SupernatantLinkRefused(409, "pointSpectrumId: the point or the supernatant changed while linking; reload and try again", "pointSpectrumId");
+      throw refuse(409, "pointSpectrumId: the point or the supernatant changed while linking; reload and try again", "pointSpectrumId");
     }
     throw error;
   }

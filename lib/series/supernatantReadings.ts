@@ -7,13 +7,14 @@ import { canReadSeries } from "@/lib/auth/access";
 import { selectRows } from "@/lib/db";
 import { SpectrumFileError } from "@/lib/engine";
 import type { ParsedSpectrum } from "@/lib/engine/types";
-import { ApiError } from "@/lib/http/respond";
+
 import type { ReadChoice } from "@/lib/engine";
 import { getReadableSpectrum } from "@/lib/ingest/queries";
 import { parsedRawFile, storedReadChoice } from "@/lib/rawSpectra";
 import { Series, models } from "@/models";
 import { ABSORBANCE_READING, readAbsorbanceAt } from "./readAbsorbanceAt";
 import type { AbsorbanceReading, ReadingsQuery, SupernatantReadings } from "./supernatantSchemas";
+import { Refusal } from "@/lib/errors";
 
 type StoredFile = { id: string; fileName: string; objectKey: string; sha256: string; columnChoice: string | null; readOptions: ReadChoice | null; pathLengthCm: number | null };
 type Parsed = Pick<ParsedSpectrum, "x" | "y" | "xUnit" | "yUnit" | "pathLengthCm">;
@@ -49,8 +50,8 @@ async function readFile(file: StoredFile, nmA: number, nmX: number): Promise<Abs
 async function pureSpectrum(actor: Actor, id: string | undefined, field: "pureA" | "pureX"): Promise<StoredFile | null> {
   if (!id) return null;
   const spectrum = await getReadableSpectrum(actor, id);
-  if (!spectrum) throw new ApiError(404, "not-found", `${field}: spectrum ${id} was not found`, field);
-  if (spectrum.technique !== "absorption") throw new ApiError(400, "invalid", `${field}: ${spectrum.fileName} is not an absorption spectrum`, field);
+  if (!spectrum) throw new Refusal(404, "not-found", `${field}: spectrum ${id} was not found`, field);
+  if (spectrum.technique !== "absorption") throw new Refusal(400, "invalid", `${field}: ${spectrum.fileName} is not an absorption spectrum`, field);
   return {
     id: spectrum.id, fileName: spectrum.fileName, objectKey: spectrum.objectKey, sha256: spectrum.sha256,
     columnChoice: spectrum.columnChoice, readOptions: spectrum.readOptions, pathLengthCm: spectrum.pathLengthCm,

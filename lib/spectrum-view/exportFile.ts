@@ -1,11 +1,13 @@
-import { ApiError } from "@/lib/http/respond";
+
 import { TECHNIQUE_SPECS, type Technique } from "@/lib/registry/techniques";
 import type { AnalysisReport } from "@/lib/engine/types";
 import { toDisplayAxis, type DisplayAxis } from "./axis";
 import type { ViewArrays } from "./deriveViewArrays";
 import { yLabelFor, type SeriesKey } from "./payload";
 import { writeCsv } from "./writeCsv";
-import { resampleLinear, writeJcampDx } from "./writeJcampDx";
+import { writeJcamp } from "@/lib/formats/jcamp";
+import { resampleLinear } from "./resampleLinear";
+import { Refusal } from "@/lib/errors";
 
 type SpectrumRef = { id: string; fileName: string; technique: Technique };
 type View = { arrays: ViewArrays; technique: Technique; yUnit: string };
@@ -54,10 +56,10 @@ export function exportFile(req: ExportRequest): ExportedFile {
     return { body, contentType: "text/csv; charset=utf-8", disposition: disposition(fileName), fileName };
   }
   const y = d.series[req.series];
-  if (!y) throw new ApiError(400, "invalid", `series: this analysis has no parent reference, so there is no ${req.series} curve`, "series");
+  if (!y) throw new Refusal(400, "invalid", `series: this analysis has no parent reference, so there is no ${req.series} curve`, "series");
   const uniform = req.axis === "nm" ? resampleLinear(d.x, y) : { x: d.x, y };
   const fileName = `${base}.${req.series}-${req.axis}.jdx`;
-  const body = writeJcampDx({
+  const body = writeJcamp({
     title: `${req.spectrum.fileName} (${SERIES_TITLES[req.series]})`,
     dataType: TECHNIQUE_SPECS[technique].jcampDataType,
     xUnits: JCAMP_X_UNITS[req.axis],

@@ -8,7 +8,7 @@ import { z } from "zod";
 import type { Actor } from "@/lib/auth/actor";
 import { ENGINE_VERSION, SpectrumFileError } from "@/lib/engine";
 import type { AnalysisReport, ParsedSpectrum } from "@/lib/engine/types";
-import { ApiError, notFound } from "@/lib/http/respond";
+import { notFound } from "@/lib/http/respond";
 import { readChoiceOf, type AnalysisParameters } from "@/lib/ingest/parameters";
 import type { ReadChoice } from "@/lib/engine";
 import { getReadableSpectrum } from "@/lib/ingest/queries";
@@ -19,6 +19,7 @@ import { DISPLAY_AXES, type DisplayAxis } from "./axis";
 import { deriveViewArrays, type ViewArrays } from "./deriveViewArrays";
 import { SizedLru } from "./lruCache";
 import { buildBinaryPayload, buildDataPayload } from "./payload";
+import { Refusal } from "@/lib/errors";
 
 export const viewQuerySchema = z.object({
   axis: z.enum(DISPLAY_AXES, { error: "axis must be nm, ev or cm-1" }).default("nm"),
@@ -38,7 +39,7 @@ export function parseViewQuery<S extends z.ZodType>(schema: S, url: string): z.i
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     const field = issue?.path.map(String).join(".") || undefined;
-    throw new ApiError(400, "invalid", `${field ? `${field}: ` : ""}${issue?.message ?? "invalid query"}`, field);
+    throw new Refusal(400, "invalid", `${field ? `${field}: ` : ""}${issue?.message ?? "invalid query"}`, field);
   }
   return parsed.data;
 }
@@ -79,19 +80,19 @@ async function lookupRun(spectrumId: string, runId?: string): Promise<ViewRun | 
 
 function checkedRun(spectrum: Spectrum, run: ViewRun | null, runId?: string): { spectrum: Spectrum; run: ViewRun } {
   if (!run) {
-    if (runId) throw new ApiError(404, "not-found", `run ${runId} of this spectrum was not found.`, "run");
-    if (spectrum.status === "failed") throw new ApiError(422, "analysis-failed", spectrum.errorMessage ?? "the file could not be read");
-    throw new ApiError(409, "not-ready", "this spectrum has not been analysed yet; try again when its analysis has finished.");
+    if (runId) throw new Refusal(404, "not-found", `run ${runId} of this spectrum was not found.`, "run");
+    if (spectrum.status === "failed") throw new Refusal(422, "analysis-failed", spectrum.errorMessage ?? "the file could not be read");
+    throw new Refusal(409, "not-ready", "this spectrum has not been analysed yet; try again when its analysis has finished.");
   }
-  if (run.status === "failed") throw new ApiError(422, "analysis-failed", run.errorMessage ?? spectrum.errorMessage ?? "the analysis failed");
-  if (run.status !== "done") throw new ApiError(409, "not-ready", `the analysis is ${run.status}; try again when it has finished.`);
+  if (run.status === "failed") throw new Refusal(422, "analysis-failed", run.errorMessage ?? spectrum.errorMessage ?? "the analysis failed");
+  if (run.status !== "done") throw new Refusal(409, "not-ready", `the analysis is ${run.status}; try again when it has finished.`);
   return { spectrum, run };
 }
 
 export async function getRunReport(runId: string): Promise<AnalysisReport> {
   models();
   const row = await AnalysisRun.findByPk(runId, { attributes: ["id", "report"] });
-  if (!row?.report) throw new ApiError(409, "not-ready", "this analysis run has no stored report.");
+  if (!row?.report) throw new Refusal(409, "not-ready", "this analysis run has no stored report.");
   return row.report as AnalysisReport;
 }
 
@@ -101,7 +102,7 @@ function parsedStored(spectrum: Spectrum, choice: ReadChoice): Promise<ParsedSpe
     try {
       return await parse();
     } catch (error) {
-      if (error instanceof SpectrumFileError) throw new ApiError(422, "unreadable", error.message);
+      if (error instanceof SpectrumFileError) throw new Refusal(422, "unreadable", error.message);
       throw error;
     }
   });
@@ -133,7 +134,7 @@ export async function viewArraysOf(spectrum: Spectrum, run: ViewRun): Promise<{ 
       const report = await getRunReport(run.id);
       const params = (run.parameters ?? {}) as AnalysisParameters;
       const reference = run.referenceSpectrumId ? await Spectrum.findByPk(run.referenceSpectrumId) : null;
-      if (run.referenceSpectrumId && !reference) throw new ApiError(409, "reference-missing", "the parent reference of this analysis was deleted.");
+      if (run.referenceSpectrumId && !reference) throw new Refusal(409, "reference-missing", "the parent reference of this analysis was deleted.");
       const [sample, parsedRef] = await Promise.all([
         parsedStored(spectrum, readChoiceOf(params)),
         reference ? parsedStored(reference, storedReadChoice(reference)) : Promise.resolve(null),
@@ -142,7 +143,7 @@ export async function viewArraysOf(spectrum: Spectrum, run: ViewRun): Promise<{ 
       try {
         arrays = deriveViewArrays(report, sample, parsedRef);
       } catch (error) {
-        if (error instanceof RangeError) throw new ApiError(422, "unreadable", `${spectrum.fileName}: ${error.message}`);
+        if (error instanceof RangeError) throw new Refusal(422, "unreadable", `${spectrum.fileName}: ${error.message}`);
         throw error;
       }
       const value = { arrays, technique: report.technique, yUnit: sample.yUnit };

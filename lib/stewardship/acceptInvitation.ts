@@ -2,24 +2,19 @@ import bcrypt from "bcryptjs";
 import { hashToken } from "@/lib/auth/actor";
 import { recordAudit } from "@/lib/audit";
 import { Group, Invitation, Membership, Share, User, models } from "@/models";
-
-export class InvitationProblem extends Error {
-  constructor(message: string, readonly field?: string) {
-    super(message);
-  }
-}
+import { refuse } from "@/lib/errors";
 
 export type InvitationView = { email: string; groupName: string; role: string; accountExists: boolean };
 
-/** The invitation behind a token if it can still be used; otherwise an InvitationProblem saying why. */
+/** The invitation behind a token if it can still be used; otherwise a Refusal saying why. */
 export async function usableInvitation(token: string): Promise<{ invitation: Invitation; view: InvitationView }> {
   models();
-  if (!/^[A-Za-z0-9_-]{20,100}$/.test(token)) throw new InvitationProblem("This invitation link is not valid.");
+  if (!/^[A-Za-z0-9_-]{20,100}$/.test(token)) throw refuse(400, "This invitation link is not valid.");
   const invitation = await Invitation.findOne({ where: { tokenHash: hashToken(token) } });
-  if (!invitation) throw new InvitationProblem("This invitation link is not valid.");
-  if (invitation.acceptedAt) throw new InvitationProblem("This invitation was already used. Sign in instead.");
-  if (invitation.revokedAt) throw new InvitationProblem("This invitation was withdrawn. Ask the person who sent it for a new one.");
-  if (invitation.expiresAt.getTime() <= Date.now()) throw new InvitationProblem("This invitation has expired. Ask the person who sent it for a new one.");
+  if (!invitation) throw refuse(400, "This invitation link is not valid.");
+  if (invitation.acceptedAt) throw refuse(400, "This invitation was already used. Sign in instead.");
+  if (invitation.revokedAt) throw refuse(400, "This invitation was withdrawn. Ask the person who sent it for a new one.");
+  if (invitation.expiresAt.getTime() <= Date.now()) throw refuse(400, "This invitation has expired. Ask the person who sent it for a new one.");
   const group = await Group.findByPk(invitation.groupId);
   const accountExists = (await User.count({ where: { email: invitation.email } })) > 0;
   return { invitation, view: { email: invitation.email, groupName: group?.name ?? "", role: invitation.role, accountExists } };
@@ -36,15 +31,15 @@ export async function acceptInvitation(token: string, who: { signedInUserId: str
   const passwordHash = who.password ? await bcrypt.hash(who.password, 10) : null;
   return db.transaction(async (transaction) => {
     const inv = await Invitation.findByPk(invitation.id, { transaction, lock: transaction.LOCK.UPDATE });
-    if (!inv || inv.acceptedAt || inv.revokedAt || inv.expiresAt.getTime() <= Date.now()) throw new InvitationProblem("This invitation can no longer be used.");
+    if (!inv || inv.acceptedAt || inv.revokedAt || inv.expiresAt.getTime() <= Date.now()) throw refuse(400, "This invitation can no longer be used.");
     let user = await User.findOne({ where: { email: inv.email }, transaction });
     let created = false;
     if (who.signedInUserId) {
-      if (!user || user.id !== who.signedInUserId) throw new InvitationProblem(`This invitation is for ${inv.email}. Sign out and open the link again, or ask for an invitation to your own address.`);
+      if (!user || user.id !== who.signedInUserId) throw refuse(400, `This invitation is for ${inv.email}. Sign out and open the link again, or ask for an invitation to your own address.`);
     } else if (user) {
-      throw new InvitationProblem(`An account for ${inv.email} exists: sign in first, then open the link again.`);
+      throw refuse(400, `An account for ${inv.email} exists: sign in first, then open the link again.`);
     } else {
-      if (!who.name || !passwordHash) throw new InvitationProblem("name: required.", "name");
+      if (!who.name || !passwordHash) throw refuse(400, "name: required.", "name");
       user = await User.create({ email: inv.email, name: who.name, passwordHash }, { transaction });
       created = true;
     }

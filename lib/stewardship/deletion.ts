@@ -7,6 +7,7 @@ import { deleteObject, s3 } from "@/lib/storage";
 import { Tombstone, models } from "@/models";
 import type { DeletionCause } from "@/models/Tombstone";
 import type { DataClass } from "./types";
+import { Refusal } from "@/lib/errors";
 
 // Deleting a stored spectrum or an analysis run, safely against crashes:
 //   1. one transaction re-checks holds and dependents and writes a *pending* tombstone;
@@ -15,11 +16,12 @@ import type { DataClass } from "./types";
 // A process killed anywhere leaves a pending tombstone; finishPending() completes it on
 // the next run. See docs/stewardship.md, "Interrupted sweeps".
 
-export class DeletionRefused extends Error {
-  constructor(message: string, readonly code: "held" | "referenced" | "busy" | "gone") {
-    super(message);
-  }
-}
+/** Why a deletion was refused: a Refusal whose code is one of these (404 for "gone", else 409). */
+export type DeletionRefusalCode = "held" | "referenced" | "busy" | "gone";
+const deletionRefused = (message: string, code: DeletionRefusalCode) => new Refusal(code === "gone" ? 404 : 409, code, message);
+
+/** True when a deletion was refused because the record is already gone. */
+export const isGone = (error: unknown) => error instanceof Refusal && error.code === "gone";
 
 export type DeleteRequest = {
   cause: DeletionCause;
@@ -77,7 +79,7 @@ export async function objectExists(key: string): Promise<boolean> {
   }
 }
 
-/** Step 1: re-check and journal the deletion of a spectrum. Throws DeletionRefused. */
+/** Step 1: re-check and journal the deletion of a spectrum. Throws a Refusal (see DeletionRefusalCode). */
 export async function beginSpectrumDeletion(spectrumId: string, request: DeleteRequest): Promise<Tombstone> {
   const db = models();
   return db.transaction(async (transaction) => {
@@ -86,12 +88,12 @@ export async function beginSpectrumDeletion(spectrumId: string, request: DeleteR
          FROM spectra s JOIN projects p ON p.id = s.project_id WHERE s.id = :id FOR UPDATE OF s`,
       { replacements: { id: spectrumId }, type: QueryTypes.SELECT, transaction },
     );
-    if (!row) throw new DeletionRefused("This spectrum no longer exists.", "gone");
+    if (!row) throw deletionRefused("This spectrum no longer exists.", "gone");
     const hold = await holdCoveringSpectrum(spectrumId, transaction);
-    if (hold) throw new DeletionRefused(holdMessage(hold), "held");
+    if (hold) throw deletionRefused(holdMessage(hold), "held");
     const dependent = await dependentOf(spectrumId, transaction);
-    if (dependent) throw new DeletionRefused(`This spectrum is the reference of "${dependent}", which is kept; delete or re-reference that one first.`, "referenced");
-    if (row.status === "queued" || row.status === "analysing") throw new DeletionRefused("An analysis of this spectrum is queued or running; try again when it has finished.", "busy");
+    if (dependent) throw deletionRefused(`This spectrum is the reference of "${dependent}", which is kept; delete or re-reference that one first.`, "referenced");
+    if (row.status === "queued" || row.status === "analysing") throw deletionRefused("An analysis of this spectrum is queued or running; try again when it has finished.", "busy");
     const pending = await Tombstone.findOne({ where: { targetType: "spectrum", targetId: spectrumId, state: "pending" }, transaction });
     if (pending) return pending;
     return Tombstone.create(
@@ -148,7 +150,7 @@ export async function completeTombstone(tombstoneId: string, request: Pick<Delet
 export async function deleteSpectrum(spectrumId: string, request: DeleteRequest): Promise<Tombstone> {
   const t = await beginSpectrumDeletion(spectrumId, request);
   const state = await completeTombstone(t.id, request);
-  if (state === "cancelled") throw new DeletionRefused("A legal hold or a dependent spectrum appeared while deleting; nothing was deleted.", "held");
+  if (state === "cancelled") throw deletionRefused("A legal hold or a dependent spectrum appeared while deleting; nothing was deleted.", "held");
   await t.reload();
   return t;
 }
@@ -162,10 +164,10 @@ export async function deleteAnalysisRun(runId: string, request: DeleteRequest & 
          FROM analysis_runs r JOIN spectra s ON s.id = r.spectrum_id JOIN projects p ON p.id = s.project_id WHERE r.id = :id FOR UPDATE OF r`,
       { replacements: { id: runId }, type: QueryTypes.SELECT, transaction },
     );
-    if (!run) throw new DeletionRefused("This analysis no longer exists.", "gone");
+    if (!run) throw deletionRefused("This analysis no longer exists.", "gone");
     const hold = await holdCoveringSpectrum(run.spectrum_id, transaction);
-    if (hold) throw new DeletionRefused(holdMessage(hold), "held");
-    if (run.status === "queued" || run.status === "running") throw new DeletionRefused("This analysis is queued or running.", "busy");
+    if (hold) throw deletionRefused(holdMessage(hold), "held");
+    if (run.status === "queued" || run.status === "running") throw deletionRefused("This analysis is queued or running.", "busy");
     const sha256 = run.report ? sha256Hex(run.report) : null;
     const t = await Tombstone.create(
       {

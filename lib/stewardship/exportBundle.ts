@@ -1,13 +1,13 @@
 import { sha256Hex } from "@/lib/hash";
-import { csvLine } from "@/lib/csv/csvCell";
+import { writeCsvTable } from "@/lib/formats/csv";
+import { jcampUnits, writeJcamp } from "@/lib/formats/jcamp";
 import { strToU8, zipSync, type Zippable } from "fflate";
 import { Op } from "sequelize";
-import { ENGINE_VERSION, parseSpectrumBytes, readChoiceOptions, type ParsedSpectrum } from "@/lib/engine";
+import { ENGINE_VERSION, type ParsedSpectrum } from "@/lib/engine";
 import { hazardsOf } from "@/lib/hazards";
-import { storedReadChoice } from "@/lib/rawSpectra";
-import { getObjectBytes } from "@/lib/storage";
+import { parseRawBytes, storedRawBytes, storedReadChoice } from "@/lib/rawSpectra";
 import { AnalysisRun, Group, Project, Sample, Series, Spectrum, models } from "@/models";
-import { writeJcamp } from "./writeJcamp";
+import { TECHNIQUE_SPECS } from "@/lib/registry/techniques";
 import { countOf } from "@/lib/format/quantity";
 
 // One zip per series or project: raw files as they arrived, processed data as CSV and
@@ -37,9 +37,16 @@ export type Manifest = {
 const safeName = (s: string) => s.replace(/[^A-Za-z0-9._-]+/g, "_").slice(0, 80) || "file";
 
 function processedCsv(p: ParsedSpectrum): string {
-  const rows = [csvLine([`x_${p.xUnit}`, `y_${p.yUnit}`])];
-  for (let i = 0; i < p.x.length; i++) rows.push(`${p.x[i]},${p.y[i]}`);
-  return rows.join("\n") + "\n";
+  return writeCsvTable({ header: [`x_${p.xUnit}`, `y_${p.yUnit}`], columns: [p.x, p.y] });
+}
+
+function processedJcamp(s: Spectrum, p: ParsedSpectrum, groupName: string | undefined): string {
+  const units = jcampUnits(p.xUnit, p.yUnit);
+  return writeJcamp({
+    title: s.fileName, dataType: TECHNIQUE_SPECS[s.technique].jcampDataType, xUnits: units.xUnits, yUnits: units.yUnits,
+    x: p.x, y: units.yScale === 1 ? p.y : Float64Array.from(p.y, (v) => v * units.yScale),
+    origin: groupName ?? "Bandkeep", owner: groupName ?? "", labels: { "BANDKEEP SPECTRUM": s.id, "SOURCE SHA256": s.sha256 },
+  });
 }
 
 function readme(m: Omit<Manifest, "files">, hazardLines: string[]): string {
@@ -52,7 +59,7 @@ function readme(m: Omit<Manifest, "files">, hazardLines: string[]): string {
     "What is inside",
     "  raw/         each file exactly as it was uploaded (its sha256 is the one recorded at upload)",
     "  processed/   the parsed spectrum of each file, as CSV (x,y in the file's own units, x ascending)",
-    "               and as JCAMP-DX 4.24 (AFFN ##XYPOINTS); percent transmittance is written as a fraction there",
+    "               and as JCAMP-DX 4.24 (AFFN; equal steps as XYDATA, others as a PEAK TABLE); percent transmittance is written as a fraction there",
     "  analyses/    each analysis run as JSON: parameters, noise, peaks, flagged changes, derived values",
     "  manifest.json  the project, series, samples and spectra metadata, and the sha256 and size of",
     "               every file in this bundle except manifest.json itself",
@@ -110,19 +117,15 @@ export async function buildBundle(target: { type: "project" | "series"; id: stri
   for (const s of spectra) {
     const base = `${s.id.slice(0, 8)}-${safeName(s.fileName.replace(/\.[^.]+$/, ""))}`;
     const own: string[] = [];
-    const raw = await getObjectBytes(s.objectKey);
+    const raw = await storedRawBytes(s);
     const rawPath = `raw/${s.id.slice(0, 8)}-${safeName(s.fileName)}`;
     add(rawPath, raw, "raw");
     own.push(rawPath);
     let note: string | undefined;
     try {
-      const parsed = await parseSpectrumBytes(s.fileName, raw, { technique: s.technique, ...readChoiceOptions(storedReadChoice(s)) });
+      const parsed = await parseRawBytes(s, raw, storedReadChoice(s));
       add(`processed/${base}.csv`, strToU8(processedCsv(parsed)), "processed-csv");
-      const jdx = writeJcamp({
-        title: s.fileName, technique: s.technique, x: parsed.x, y: parsed.y, xUnit: parsed.xUnit, yUnit: parsed.yUnit,
-        origin: group?.name ?? "Bandkeep", owner: group?.name ?? "", extra: { "BANDKEEP SPECTRUM": s.id, "SOURCE SHA256": s.sha256 },
-      });
-      add(`processed/${base}.jdx`, strToU8(jdx), "processed-jcamp");
+      add(`processed/${base}.jdx`, strToU8(processedJcamp(s, parsed, group?.name)), "processed-jcamp");
       own.push(`processed/${base}.csv`, `processed/${base}.jdx`);
     } catch (error) {
       note = `not processed: ${error instanceof Error ? error.message.split("\n")[0] : "unreadable file"}`;

@@ -2,7 +2,8 @@ import { Op } from "sequelize";
 import type { Actor } from "@/lib/auth/actor";
 import { canManageMembers, stewardGroupIds } from "@/lib/auth/access";
 import { selectRows } from "@/lib/db";
-import { Invitation, LegalHold, Membership, Project, RetentionPolicy, Series, Share, User, models } from "@/models";
+import { listProjectChoices } from "@/lib/queries/projects";
+import { Invitation, LegalHold, Membership, RetentionPolicy, Share, User, models } from "@/models";
 import { describeProtection, planSweep } from "./planSweep";
 import { loadSnapshot } from "./snapshot";
 import { DAY_MS, type DataClass, type PolicyRule, type SweepPlan } from "./types";
@@ -16,21 +17,10 @@ export const DATA_CLASS_LABELS: Record<DataClass, string> = {
   drafts: "Drafts and failed uploads",
 };
 
-export type ProjectOption = { id: string; name: string; groupId: string; groupName: string };
-
-export async function stewardProjects(actor: Actor): Promise<ProjectOption[]> {
-  models();
-  const groups = stewardGroupIds(actor);
-  if (!groups.length) return [];
-  const rows = await Project.findAll({ where: { groupId: { [Op.in]: groups } }, order: [["name", "ASC"]] });
-  const names = new Map(actor.memberships.map((m) => [m.groupId, m.groupName]));
-  return rows.map((p) => ({ id: p.id, name: p.name, groupId: p.groupId, groupName: names.get(p.groupId) ?? "" }));
-}
-
 export type PolicyRow = { id: string; projectId: string; projectName: string; dataClass: DataClass; keepDays: number; onExpiry: "delete" | "flag"; updatedAt: string };
 
 export async function listPolicies(actor: Actor): Promise<PolicyRow[]> {
-  const projects = await stewardProjects(actor);
+  const projects = await listProjectChoices(actor, "steward");
   if (!projects.length) return [];
   const byId = new Map(projects.map((p) => [p.id, p]));
   const rows = await RetentionPolicy.findAll({ where: { projectId: { [Op.in]: [...byId.keys()] } }, order: [["createdAt", "ASC"]] });
@@ -232,7 +222,7 @@ export type StorageRow = { projectId: string; projectName: string; dataClass: Da
 
 /** Use by project and data class, and what the current policies will free and when (holds and dependencies as of now). */
 export async function storageOverview(actor: Actor, now = new Date()): Promise<StorageRow[]> {
-  const projects = await stewardProjects(actor);
+  const projects = await listProjectChoices(actor, "steward");
   if (!projects.length) return [];
   const snapshot = await loadSnapshot(projects.map((p) => p.id));
   const at = (days: number) => planSweep(snapshot.items, snapshot.policies, snapshot.holds, new Date(now.getTime() + days * DAY_MS));
@@ -253,9 +243,4 @@ export async function storageOverview(actor: Actor, now = new Date()): Promise<S
     }
   }
   return rows;
-}
-
-export async function seriesOfProject(projectId: string) {
-  models();
-  return Series.findAll({ where: { projectId }, order: [["name", "ASC"]] });
 }

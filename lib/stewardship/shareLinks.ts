@@ -7,6 +7,8 @@ import { recordAudit } from "@/lib/audit";
 import { selectRows } from "@/lib/db";
 import { hazardsOf, usesUvOrLaserLight, type HazardFlag } from "@/lib/hazards";
 import { Group, Project, Series, Share, Spectrum, models } from "@/models";
+import { isUuid } from "@/lib/ids";
+import { refuse } from "@/lib/errors";
 
 // Read-only share links: a random token that names one project or series. Only the
 // token's sha256 is stored (shares.link_token_hash); the token itself is shown once.
@@ -19,12 +21,6 @@ export const LINK_TOKEN_BYTES = 32;
 export const LINK_PREFIX_LENGTH = 6;
 /** The longest a link may live; a steward can always revoke it sooner. */
 export const MAX_LINK_DAYS = 366;
-
-export class ShareLinkRefused extends Error {
-  constructor(message: string, readonly field?: string) {
-    super(message);
-  }
-}
 
 export type LinkTargetType = "project" | "series";
 export type LinkState = "in force" | "revoked" | "expired";
@@ -48,10 +44,10 @@ export function linkStateAt(share: { revokedAt: Date | null; expiresAt: Date | n
 /** Pure: checks a requested expiry; null means "until revoked". */
 export function checkLinkExpiry(expiresAt: Date | null, now: Date): Date | null {
   if (expiresAt === null) return null;
-  if (Number.isNaN(expiresAt.getTime())) throw new ShareLinkRefused("expiresAt: not a valid date and time.", "expiresAt");
-  if (expiresAt.getTime() <= now.getTime()) throw new ShareLinkRefused("expiresAt: choose a moment in the future.", "expiresAt");
+  if (Number.isNaN(expiresAt.getTime())) throw refuse(400, "expiresAt: not a valid date and time.", "expiresAt");
+  if (expiresAt.getTime() <= now.getTime()) throw refuse(400, "expiresAt: choose a moment in the future.", "expiresAt");
   if (expiresAt.getTime() > now.getTime() + MAX_LINK_DAYS * 86_400_000) {
-    throw new ShareLinkRefused(`expiresAt: at most ${MAX_LINK_DAYS} days from now.`, "expiresAt");
+    throw refuse(400, `expiresAt: at most ${MAX_LINK_DAYS} days from now.`, "expiresAt");
   }
   return expiresAt;
 }
@@ -76,11 +72,11 @@ export async function createShareLink(
   now = new Date(),
 ): Promise<CreatedLink> {
   models();
-  if (input.targetType !== "project" && input.targetType !== "series") throw new ShareLinkRefused("shareTarget: choose a project or series.", "shareTarget");
-  if (!/^[0-9a-f-]{36}$/i.test(input.targetId)) throw new ShareLinkRefused(NOT_FOUND, "shareTarget");
+  if (input.targetType !== "project" && input.targetType !== "series") throw refuse(400, "shareTarget: choose a project or series.", "shareTarget");
+  if (!isUuid(input.targetId)) throw refuse(404, NOT_FOUND, "shareTarget");
   const groupId = await groupOfTarget(input.targetType, input.targetId);
   // Another group's ids and a non-steward's request get the same answer.
-  if (!groupId || !canSteward(actor, groupId)) throw new ShareLinkRefused(NOT_FOUND, "shareTarget");
+  if (!groupId || !canSteward(actor, groupId)) throw refuse(404, NOT_FOUND, "shareTarget");
   const expiresAt = checkLinkExpiry(input.expiresAt, now);
   const token = newLinkToken();
   const prefix = token.slice(0, LINK_PREFIX_LENGTH);
@@ -102,11 +98,11 @@ export async function createShareLink(
 /** A data steward of the owning group revokes a link; the next request through it is refused. */
 export async function revokeShareLink(actor: Actor, shareId: string): Promise<void> {
   models();
-  if (!/^[0-9a-f-]{36}$/i.test(shareId)) throw new ShareLinkRefused("id: not a valid id.", "id");
+  if (!isUuid(shareId)) throw refuse(400, "id: not a valid id.", "id");
   await models().transaction(async (transaction) => {
     const share = await Share.findByPk(shareId, { transaction, lock: transaction.LOCK.UPDATE });
-    if (!share || share.linkTokenHash === null || !canSteward(actor, share.groupId)) throw new ShareLinkRefused("Not found, or not a link of a group you steward.");
-    if (share.revokedAt) throw new ShareLinkRefused("This link was already revoked.");
+    if (!share || share.linkTokenHash === null || !canSteward(actor, share.groupId)) throw refuse(404, "Not found, or not a link of a group you steward.");
+    if (share.revokedAt) throw refuse(400, "This link was already revoked.");
     await share.update({ revokedAt: new Date() }, { transaction });
     await recordAudit({
       actorId: actor.id, actorLabel: actor.email, groupId: share.groupId, action: "share-link-revoked", targetType: share.targetType, targetId: share.targetId,
@@ -131,7 +127,7 @@ export async function resolveShareLink(token: string, now = new Date()): Promise
 
 /** A spectrum reachable through the link: it must belong to the shared series, or to the shared project. */
 export async function spectrumThroughLink(link: ResolvedLink, spectrumId: string): Promise<Spectrum | null> {
-  if (!/^[0-9a-f-]{36}$/i.test(spectrumId)) return null;
+  if (!isUuid(spectrumId)) return null;
   models();
   const where = link.targetType === "series" ? { id: spectrumId, seriesId: link.targetId } : { id: spectrumId, projectId: link.targetId };
   return Spectrum.findOne({ where });

@@ -1,9 +1,10 @@
 import { recordAudit } from "@/lib/audit";
 import { RetentionFlag, Project, models } from "@/models";
-import { DeletionRefused, deleteAnalysisRun, deleteSpectrum, finishPending } from "./deletion";
+import { deleteAnalysisRun, deleteSpectrum, finishPending } from "./deletion";
 import { planSweep } from "./planSweep";
 import { loadSnapshot } from "./snapshot";
 import type { SweepPlan } from "./types";
+import { Refusal } from "@/lib/errors";
 
 export type SweepOptions = {
   /** Only these projects (tests, previews); every project when omitted. */
@@ -54,7 +55,7 @@ export async function runSweep(options: SweepOptions = {}): Promise<SweepSummary
       deleted++;
     } catch (error) {
       // The world changed since the plan (a hold placed, a new dependent): keep the item.
-      if (error instanceof DeletionRefused) refused.push({ id: item.id, message: error.message });
+      if (error instanceof Refusal) refused.push({ id: item.id, message: error.message });
       else throw error;
     }
   }

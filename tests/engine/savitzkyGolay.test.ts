@@ -49,7 +49,7 @@ describe('Savitzky–Golay convolution weights', () => {
 
 describe('Savitzky–Golay filter vs scipy.signal.savgol_filter(mode="interp")', () => {
   // Edge treatment: polynomial fit to the first/last window, as scipy mode='interp' (stated in
-  // savitzkyGolayFilter.ts). Interior from sliding moments (p ≤ 3) or ml-savitzky-golay's weights (p = 4).
+  // savitzkyGolayFilter.ts). Interior from sliding moments (p ≤ 3) or savitzkyGolayWeights (p = 4).
   const rng = makeRng(42);
   const n = 300;
   const h = 0.0037;
@@ -80,7 +80,7 @@ describe('Savitzky–Golay filter vs scipy.signal.savgol_filter(mode="interp")',
       for (const v of ref) scale = Math.max(scale, Math.abs(v));
       const half = (c.w - 1) / 2;
       for (let i = 0; i < n; i++) {
-        // interior: sliding moments, or ml-savitzky-golay for p=4 (its Gram-matrix inverse loses ~1e-9 for w=25)
+        // interior: sliding moments, or savitzkyGolayWeights for p=4 (a Gram-matrix solve, which may lose ~1e-9 for w=25)
         const tol = (i < half || i >= n - half ? 1e-8 : 1e-8) * scale;
         expect(Math.abs(ours[i]! - ref[i]!)).toBeLessThanOrEqual(tol);
       }

@@ -9,7 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { AnalysisRun, Peak, Signature, Spectrum, models } from "@/models";
 import { closeDb } from "@/lib/db";
 import { analysisQueue, connectionOptions } from "@/lib/queue";
-import { ingestFile } from "@/lib/ingest";
+import { ingestFiles } from "@/lib/ingest";
 import { saveAnalysis } from "@/workers/saveAnalysis";
 import { createLab, type Lab } from "../helpers/fixtures";
 import { startWorker, workerReady, type Owned } from "../helpers/processes";
@@ -33,15 +33,17 @@ afterAll(async () => {
   await closeDb();
 });
 
+/** Stores one file through the ingest entry point the API and the seed use; fails the test on a refusal. */
+async function storeOne(fileName: string, bytes: Uint8Array, metadata: { referenceSpectrumId?: string } = {}) {
+  const [outcome] = await ingestFiles(lab.actor, { projectId: lab.project.id, technique: "absorption", ...metadata }, [{ fileName, bytes }]);
+  if (!outcome?.ok) throw new Error(`${fileName} was not stored: ${outcome?.error.message}`);
+  return outcome;
+}
+
 describe("idempotent analysis writes", () => {
   it("writes once when the same run is delivered four times to two workers", async () => {
-    const reference = await ingestFile({
-      actor: lab.actor, projectId: lab.project.id, fileName: "parent.csv", bytes: enc(syntheticAbsorptionCsv({ seed: 201 })), metadata: { technique: "absorption" },
-    });
-    const stored = await ingestFile({
-      actor: lab.actor, projectId: lab.project.id, fileName: "child.csv", bytes: enc(syntheticAbsorptionCsv({ seed: 202, excitonHeight: 0.2 })),
-      metadata: { technique: "absorption", referenceSpectrumId: reference.spectrumId },
-    });
+    const reference = await storeOne("parent.csv", enc(syntheticAbsorptionCsv({ seed: 201 })));
+    const stored = await storeOne("child.csv", enc(syntheticAbsorptionCsv({ seed: 202, excitonHeight: 0.2 })), { referenceSpectrumId: reference.spectrumId });
     // Extra deliveries of the same payload under other job ids, as a crashed producer retrying would cause.
     const queue = new Queue(QUEUE, { connection: connectionOptions() });
     for (let i = 0; i < 3; i++) await queue.add("analyse", { spectrumId: stored.spectrumId, runId: stored.runId }, { jobId: `dup-${i}-${stored.runId}` });
@@ -69,9 +71,7 @@ describe("idempotent analysis writes", () => {
   });
 
   it("saveAnalysis called twice at once for one run writes one set of rows", async () => {
-    const stored = await ingestFile({
-      actor: lab.actor, projectId: lab.project.id, fileName: "twice.csv", bytes: enc(syntheticAbsorptionCsv({ seed: 203 })), metadata: { technique: "absorption" },
-    });
+    const stored = await storeOne("twice.csv", enc(syntheticAbsorptionCsv({ seed: 203 })));
     const done = await waitFor("the first analysis", async () => {
       const r = await AnalysisRun.findByPk(stored.runId!);
       return r?.status === "done" ? r : undefined;

@@ -2,11 +2,12 @@ import { afterAll, expect, it } from "vitest";
 import { canReadSeries, sharedTargets } from "@/lib/auth/access";
 import { loadActor } from "@/lib/auth/actor";
 import { closeDb } from "@/lib/db";
-import { InvitationProblem, acceptInvitation, usableInvitation } from "@/lib/stewardship/acceptInvitation";
+import { acceptInvitation, usableInvitation } from "@/lib/stewardship/acceptInvitation";
 import { sendInvitation } from "@/lib/stewardship/invitations";
 import { Invitation, Membership, Share, User, models } from "@/models";
 import { createLab, createSeries, uniq } from "../helpers/fixtures";
 import { waitFor } from "../helpers/waitFor";
+import { Refusal } from "@/lib/errors";
 
 // Sources: every count checked here is of records this test itself created (known truth of its fixtures).
 // An invitation travels through the SMTP fake; its one-time link creates the account,
@@ -44,7 +45,7 @@ it("invites a collaborator by e-mail: one-time link, account, membership, share;
   const { userId, created } = await acceptInvitation(token, { signedInUserId: null, name: "Guest Reader", password: "a long password" });
   expect(created).toBe(true);
   expect(await Membership.findOne({ where: { groupId: lab.group.id, userId } })).toMatchObject({ role: "collaborator" });
-  await expect(acceptInvitation(token, { signedInUserId: userId })).rejects.toBeInstanceOf(InvitationProblem); // single use
+  await expect(acceptInvitation(token, { signedInUserId: userId })).rejects.toBeInstanceOf(Refusal); // single use
   await expect(usableInvitation(token)).rejects.toThrow(/already used/);
 
   const guest = (await loadActor(userId, "session"))!;

@@ -2,11 +2,12 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { hashToken } from "@/lib/auth/actor";
 import { closeDb, selectRows } from "@/lib/db";
 import { getObjectBytes, sha256Hex } from "@/lib/storage";
-import { ShareLinkRefused, createShareLink, listShareLinks, resolveShareLink, revokeShareLink } from "@/lib/stewardship/shareLinks";
+import { createShareLink, listShareLinks, resolveShareLink, revokeShareLink } from "@/lib/stewardship/shareLinks";
 import { Project, Share, type Series, type Spectrum, models } from "@/models";
 import { url } from "../helpers/app";
 import { addMember, createLab, createSample, createSeries, type Lab } from "../helpers/fixtures";
 import { storedSpectrum } from "./stewardship-fixtures";
+import { Refusal } from "@/lib/errors";
 
 // Sources: HTTP status codes as RFC 9110 defines them (200, 404); every other number is a count or
 // value this test itself created (known truth of its fixtures).
@@ -167,8 +168,8 @@ it("only a data steward of the owning group creates or revokes links; bad input 
   const outsider = await createLab("steward");
   for (const actor of [spectroscopist.actor, lead.actor, outsider.actor]) {
     const refusal = await createShareLink(actor, { targetType: "series", targetId: seriesA.id, expiresAt: null }).catch((e: unknown) => e);
-    expect(refusal).toBeInstanceOf(ShareLinkRefused);
-    expect((refusal as ShareLinkRefused).field).toBe("shareTarget");
+    expect(refusal).toBeInstanceOf(Refusal);
+    expect((refusal as Refusal).field).toBe("shareTarget");
   }
   const before = await Share.count({ where: { targetId: seriesA.id } });
   const link = await createShareLink(lab.actor, { targetType: "series", targetId: seriesA.id, expiresAt: null });

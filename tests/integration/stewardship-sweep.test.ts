@@ -1,13 +1,14 @@
 import fc from "fast-check";
 import { afterAll, describe, expect, it } from "vitest";
 import { closeDb, selectRows } from "@/lib/db";
-import { DeletionRefused, deleteSpectrum } from "@/lib/stewardship/deletion";
+import { deleteSpectrum } from "@/lib/stewardship/deletion";
 import { buildBundle } from "@/lib/stewardship/exportBundle";
 import { previewPolicy } from "@/lib/stewardship/queries";
 import { runSweep } from "@/lib/stewardship/sweep";
 import { LegalHold, RetentionFlag, RetentionPolicy, Spectrum, Tombstone, models } from "@/models";
 import { createLab, createSample, createSeries, type Lab } from "../helpers/fixtures";
 import { consistency, storedRun, storedSpectrum } from "./stewardship-fixtures";
+import { Refusal } from "@/lib/errors";
 
 // The retention sweep against the real PostgreSQL and storage fake, on projects made
 // here (every sweep is scoped to them, so the demo scenario is never touched).
@@ -111,7 +112,7 @@ describe("retention sweep on the real database and storage", () => {
     const s = await storedSpectrum(lab);
     await LegalHold.create({ groupId: lab.group.id, targetType: "project", targetId: lab.project.id, reason: "audit by the funder", placedBy: null, liftedAt: null, liftedBy: null });
     const attempt = deleteSpectrum(s.id, { cause: "owner", actorId: lab.user.id, actorLabel: lab.user.email });
-    await expect(attempt).rejects.toBeInstanceOf(DeletionRefused);
+    await expect(attempt).rejects.toBeInstanceOf(Refusal);
     await expect(deleteSpectrum(s.id, { cause: "owner", actorId: lab.user.id, actorLabel: lab.user.email })).rejects.toThrow(/audit by the funder/);
     expect(await exists(s.id)).toBe(true);
   });

@@ -1,16 +1,16 @@
 import { strToU8, zipSync } from "fflate";
 import { describe, expect, it } from "vitest";
 import { expandZip, looksLikeZip } from "@/lib/ingest/expandZip";
-import { IngestError } from "@/lib/ingest/errors";
 import type { IngestLimits } from "@/lib/ingest/limits";
+import { Refusal } from "@/lib/errors";
 
 const limits: IngestLimits = { maxFileBytes: 1024 * 1024, maxZipEntries: 10, maxZipTotalBytes: 2 * 1024 * 1024, maxZipRatio: 50, maxFilesPerRequest: 100 };
 
-function refusal(fn: () => unknown): IngestError {
+function refusal(fn: () => unknown): Refusal {
   try {
     fn();
   } catch (e) {
-    if (e instanceof IngestError) return e;
+    if (e instanceof Refusal) return e;
     throw e;
   }
   throw new Error("expected a refusal");

@@ -3,7 +3,8 @@ import { describe, expect, it } from "vitest";
 import { parseSpectrumFile } from "@/lib/engine";
 import { toDisplayAxis } from "@/lib/spectrum-view/axis";
 import { writeCsv } from "@/lib/spectrum-view/writeCsv";
-import { resampleLinear, writeJcampDx } from "@/lib/spectrum-view/writeJcampDx";
+import { writeJcamp } from "@/lib/formats/jcamp";
+import { resampleLinear } from "@/lib/spectrum-view/resampleLinear";
 
 // JCAMP-DX 4.24: McDonald & Wilks, Appl. Spectrosc. 1988, 42, 151 (DOMAIN.md §7). Two readers
 // check what we write: the project's own parser (lib/engine parseSpectrumFile) and jcampconverter
@@ -18,10 +19,10 @@ function bandOnGrid(n: number) {
   return { e, a };
 }
 
-describe("writeJcampDx", () => {
+describe("writeJcamp on the viewer's display arrays", () => {
   const { e, a } = bandOnGrid(1201);
   const d = toDisplayAxis(e, { a }, "cm-1", { emission: false }); // a uniform energy grid is a uniform wavenumber grid
-  const text = writeJcampDx({ title: "cdse test (smoothed)", dataType: "UV/VIS SPECTRUM", xUnits: "1/CM", yUnits: "ABSORBANCE", x: d.x, y: d.series.a! });
+  const text = writeJcamp({ title: "cdse test (smoothed)", dataType: "UV/VIS SPECTRUM", xUnits: "1/CM", yUnits: "ABSORBANCE", x: d.x, y: d.series.a! });
   const yFactor = Number(/##YFACTOR=(.*)/.exec(text)![1]);
 
   it("writes the required labels in the order the standard gives and ends with ##END=", () => {
@@ -58,19 +59,19 @@ describe("writeJcampDx", () => {
     expect(worst).toBeLessThanOrEqual(yFactor / 2 + 1e-15);
   });
 
-  it("refuses X that is not equally spaced, naming x", () => {
+  it("writes X that is not equally spaced as X,Y pairs, and refuses a value that is not finite, naming it", () => {
     const nm = toDisplayAxis(e, { a }, "nm", { emission: false }); // uniform in energy = not uniform in wavelength
-    expect(() => writeJcampDx({ title: "t", dataType: "UV/VIS SPECTRUM", xUnits: "NANOMETERS", yUnits: "ABSORBANCE", x: nm.x, y: nm.series.a! })).toThrow(
-      /x must be equally spaced/,
-    );
-    expect(() => writeJcampDx({ title: "t", dataType: "x", xUnits: "1/CM", yUnits: "A", x: [1, 2], y: [1, Number.NaN] })).toThrow(/y\[1\] is not a finite/);
+    const pairs = writeJcamp({ title: "t", dataType: "UV/VIS SPECTRUM", xUnits: "NANOMETERS", yUnits: "ABSORBANCE", x: nm.x, y: nm.series.a! });
+    expect(pairs).toContain("##PEAK TABLE=(XY..XY)");
+    expect(pairs).not.toContain("##XYDATA");
+    expect(() => writeJcamp({ title: "t", dataType: "x", xUnits: "1/CM", yUnits: "A", x: [1, 2], y: [1, Number.NaN] })).toThrow(new RangeError("y[1] is not a finite number"));
   });
 
   it("on the wavelength axis, resampleLinear gives equal steps that both readers accept, exact for a linear curve", () => {
     const nm = toDisplayAxis(e, { a: e.map((v) => 1239.841984 / v) }, "nm", { emission: false }); // y = λ: linear in x, so interpolation is exact
     const r = resampleLinear(nm.x, nm.series.a!);
     for (let i = 0; i < r.x.length; i += 100) expect(r.y[i]).toBeCloseTo(r.x[i]!, 9);
-    const jdx = writeJcampDx({ title: "t", dataType: "UV/VIS SPECTRUM", xUnits: "NANOMETERS", yUnits: "ABSORBANCE", x: r.x, y: r.y });
+    const jdx = writeJcamp({ title: "t", dataType: "UV/VIS SPECTRUM", xUnits: "NANOMETERS", yUnits: "ABSORBANCE", x: r.x, y: r.y });
     const ours = parseSpectrumFile("nm.jdx", enc(jdx));
     expect(ours.xUnit).toBe("nm");
     const theirs = convert(jdx).flatten[0]!.spectra[0]!.data as unknown as { x: number[]; y: number[] };

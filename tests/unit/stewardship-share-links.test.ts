@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { MAX_LINK_DAYS, ShareLinkRefused, checkLinkExpiry, linkStateAt, looksLikeLinkToken, newLinkToken } from "@/lib/stewardship/shareLinks";
+import { MAX_LINK_DAYS, checkLinkExpiry, linkStateAt, looksLikeLinkToken, newLinkToken } from "@/lib/stewardship/shareLinks";
+import { Refusal } from "@/lib/errors";
 
 // The pure parts of share links: when a link is in force, which expiries are accepted,
 // and the shape of the tokens we issue.
@@ -34,9 +35,9 @@ describe("checkLinkExpiry", () => {
     for (const c of cases) {
       let refusal: unknown;
       try { checkLinkExpiry(c, now); } catch (error) { refusal = error; }
-      expect(refusal).toBeInstanceOf(ShareLinkRefused);
-      expect((refusal as ShareLinkRefused).field).toBe("expiresAt");
-      expect((refusal as ShareLinkRefused).message).toMatch(/^expiresAt: /);
+      expect(refusal).toBeInstanceOf(Refusal);
+      expect((refusal as Refusal).field).toBe("expiresAt");
+      expect((refusal as Refusal).message).toMatch(/^expiresAt: /);
     }
   });
 });

@@ -1,9 +1,8 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { ActionRefused, protectedAction } from "@/lib/actions/protected";
+import { protectedAction } from "@/lib/actions/protected";
 import { decideSignatures, undoDecisions, type DecisionOutcome } from "@/lib/review/decide";
-import { ReviewRefused } from "@/lib/review/errors";
 import { batchDecisionSchema, undoSchema } from "@/lib/review/schemas";
 
 const STATE_TEXT = { awaiting: "awaiting review", confirmed: "confirmed", dismissed: "dismissed" } as const;
@@ -30,34 +29,21 @@ function decisionMessage(decision: DecisionOutcome["decision"], outcomes: Decisi
   return parts.join(" ") + (changed.length ? mailNote(mailed) : "");
 }
 
-function refusal(error: unknown): never {
-  if (error instanceof ReviewRefused) throw new ActionRefused(error.message, error.field);
-  throw error;
-}
-
 /** Confirms or dismisses one or more signatures with a comment (group leads of the owning group only). */
 export const decideAction = protectedAction(batchDecisionSchema, async (input, actor) => {
-  try {
-    const { outcomes, mailed } = await decideSignatures(actor, input.signatureIds, input.decision, input.comment);
-    revalidate();
-    return {
-      ok: true,
-      message: decisionMessage(input.decision, outcomes, mailed),
-      written: outcomes.map((o) => o.reviewId).filter((id): id is string => id !== null),
-    };
-  } catch (error) {
-    return refusal(error);
-  }
+  const { outcomes, mailed } = await decideSignatures(actor, input.signatureIds, input.decision, input.comment);
+  revalidate();
+  return {
+    ok: true,
+    message: decisionMessage(input.decision, outcomes, mailed),
+    written: outcomes.map((o) => o.reviewId).filter((id): id is string => id !== null),
+  };
 });
 
 /** Takes back decisions just made: each signature returns to the state before them. */
 export const undoAction = protectedAction(undoSchema, async (input, actor) => {
-  try {
-    const { outcomes } = await undoDecisions(actor, input.reviewIds);
-    revalidate();
-    const states = [...new Set(outcomes.map((o) => STATE_TEXT[o.decision]))];
-    return { ok: true, message: `Undone: ${count(outcomes.length)} back to ${states.join(" or ")}, as before.`, written: [] };
-  } catch (error) {
-    return refusal(error);
-  }
+  const { outcomes } = await undoDecisions(actor, input.reviewIds);
+  revalidate();
+  const states = [...new Set(outcomes.map((o) => STATE_TEXT[o.decision]))];
+  return { ok: true, message: `Undone: ${count(outcomes.length)} back to ${states.join(" or ")}, as before.`, written: [] };
 });

@@ -4,11 +4,12 @@ import { Op, UniqueConstraintError } from "sequelize";
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { z } from "zod";
-import { ActionRefused, protectedAction } from "@/lib/actions/protected";
+import { protectedAction } from "@/lib/actions/protected";
 import { canWrite } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
 import { hazardClassOf } from "@/lib/hazards";
 import { Project, Sample, SampleParent, models } from "@/models";
+import { refuse } from "@/lib/errors";
 
 const text = (max: number) => z.string().trim().max(max, `At most ${max} characters.`);
 
@@ -27,15 +28,15 @@ const sampleSchema = z.object({
 });
 
 export const registerSample = protectedAction(sampleSchema, async (input, actor) => {
-  if (!canWrite(actor, input.groupId)) throw new ActionRefused("Only spectroscopists and group leads of this group can register samples.", "groupId");
+  if (!canWrite(actor, input.groupId)) throw refuse(400, "Only spectroscopists and group leads of this group can register samples.", "groupId");
   const db = models();
   if (input.projectId) {
     const project = await Project.findByPk(input.projectId);
-    if (!project || project.groupId !== input.groupId) throw new ActionRefused("That project is not in the chosen group.", "projectId");
+    if (!project || project.groupId !== input.groupId) throw refuse(400, "That project is not in the chosen group.", "projectId");
   }
   if (input.parentIds.length) {
     const found = await Sample.count({ where: { id: { [Op.in]: input.parentIds }, groupId: input.groupId } });
-    if (found !== new Set(input.parentIds).size) throw new ActionRefused("Every parent must be a sample of the same group.", "parentIds");
+    if (found !== new Set(input.parentIds).size) throw refuse(400, "Every parent must be a sample of the same group.", "parentIds");
   }
   let id: string;
   try {
@@ -49,7 +50,7 @@ export const registerSample = protectedAction(sampleSchema, async (input, actor)
       return sample.id;
     });
   } catch (error) {
-    if (error instanceof UniqueConstraintError) throw new ActionRefused(`A sample named "${input.name}" already exists in this group.`, "name");
+    if (error instanceof UniqueConstraintError) throw refuse(400, `A sample named "${input.name}" already exists in this group.`, "name");
     throw error;
   }
   revalidatePath("/samples");

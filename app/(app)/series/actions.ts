@@ -4,13 +4,14 @@ import { UniqueConstraintError } from "sequelize";
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { z } from "zod";
-import { ActionRefused, protectedAction } from "@/lib/actions/protected";
+import { protectedAction } from "@/lib/actions/protected";
 import type { Actor } from "@/lib/auth/actor";
 import { canWrite } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
-import { SupernatantLinkRefused, setSupernatantLink } from "@/lib/series/supernatantLinks";
+import { setSupernatantLink } from "@/lib/series/supernatantLinks";
 import { Project, Series, models } from "@/models";
 import { SERIES_KINDS } from "@/models/Series";
+import { refuse } from "@/lib/errors";
 
 const plain = (label: string, max: number) =>
   z.string().trim().max(max, `${label} must be at most ${max} characters`).refine((s) => !/[<>\u0000-\u001f]/.test(s), `${label} must be plain text`);
@@ -27,14 +28,14 @@ const seriesSchema = z.object({
 export const createSeries = protectedAction(seriesSchema, async (input, actor) => {
   models();
   const project = await Project.findByPk(input.projectId);
-  if (!project || !canWrite(actor, project.groupId)) throw new ActionRefused("Choose a project of a group where you may add data.", "projectId");
+  if (!project || !canWrite(actor, project.groupId)) throw refuse(400, "Choose a project of a group where you may add data.", "projectId");
   let id: string;
   try {
     const series = await Series.create({ ...input, createdBy: actor.id });
     id = series.id;
     await recordAudit({ actorId: actor.id, actorLabel: actor.email, groupId: project.groupId, action: "series-created", targetType: "series", targetId: id, details: { name: input.name, kind: input.kind } });
   } catch (error) {
-    if (error instanceof UniqueConstraintError) throw new ActionRefused(`A series named "${input.name}" already exists in this project.`, "name");
+    if (error instanceof UniqueConstraintError) throw refuse(400, `A series named "${input.name}" already exists in this project.`, "name");
     throw error;
   }
   revalidatePath("/series");
@@ -49,14 +50,9 @@ const linkSchema = z.object({
 const unlinkSchema = linkSchema.omit({ pointSpectrumId: true });
 
 async function changeLink(seriesId: string, supernatantSpectrumId: string, pointSpectrumId: string | null, actor: Actor) {
-  try {
-    const outcome = await setSupernatantLink(actor, seriesId, { supernatantSpectrumId, pointSpectrumId });
-    revalidatePath(`/series/${seriesId}`);
-    return outcome;
-  } catch (error) {
-    if (error instanceof SupernatantLinkRefused) throw new ActionRefused(error.message.replace(/^\w+: /, ""), error.field);
-    throw error;
-  }
+  const outcome = await setSupernatantLink(actor, seriesId, { supernatantSpectrumId, pointSpectrumId });
+  revalidatePath(`/series/${seriesId}`);
+  return outcome;
 }
 
 /** Links an absorption spectrum as the supernatant of one point of a titration (spectroscopists and leads). */

@@ -2,12 +2,13 @@
 
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
-import { ActionRefused, protectedAction } from "@/lib/actions/protected";
+import { protectedAction } from "@/lib/actions/protected";
 import { TOKEN_LIFETIMES, issueApiToken, type TokenLifetime } from "@/lib/api-tokens";
 import { forgetApiToken } from "@/lib/auth/actor";
 import { announceTokenRevoked } from "@/lib/auth/tokenRevocations";
 import { recordAudit } from "@/lib/audit";
 import { ApiToken, User, models } from "@/models";
+import { refuse } from "@/lib/errors";
 
 export const createApiToken = protectedAction(
   z.object({
@@ -25,7 +26,7 @@ export const createApiToken = protectedAction(
 export const revokeApiToken = protectedAction(z.object({ id: z.string().uuid() }), async ({ id }, actor) => {
   models();
   const token = await ApiToken.findByPk(id);
-  if (!token || token.userId !== actor.id) throw new ActionRefused("That token is not yours.");
+  if (!token || token.userId !== actor.id) throw refuse(400, "That token is not yours.");
   if (!token.revokedAt) await token.update({ revokedAt: new Date() });
   forgetApiToken(token.tokenHash);
   // Every other app process forgets it too; if Redis is down they do not cache tokens anyway.

@@ -3,10 +3,11 @@
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { z } from "zod";
-import { ActionRefused, protectedAction } from "@/lib/actions/protected";
+import { protectedAction } from "@/lib/actions/protected";
 import { canDeleteInGroup, groupOfSpectrum } from "@/lib/auth/access";
-import { DeletionRefused, deleteSpectrum } from "@/lib/stewardship/deletion";
+import { deleteSpectrum } from "@/lib/stewardship/deletion";
 import { Spectrum, models } from "@/models";
+import { refuse } from "@/lib/errors";
 
 /**
  * Deletes one spectrum (its raw file, its row, its analyses) for a spectroscopist, group
@@ -26,13 +27,8 @@ export const deleteSpectrumAction = protectedAction(
     models();
     const spectrum = await Spectrum.findByPk(input.spectrumId);
     const groupId = spectrum ? await groupOfSpectrum(spectrum) : null;
-    if (!spectrum || !groupId || !canDeleteInGroup(actor, groupId)) throw new ActionRefused("Spectrum not found.", "spectrumId");
-    try {
-      await deleteSpectrum(spectrum.id, { cause: actor.memberships.some((m) => m.groupId === groupId && m.role === "steward") ? "steward" : "owner", actorId: actor.id, actorLabel: actor.email });
-    } catch (error) {
-      if (error instanceof DeletionRefused) throw new ActionRefused(error.message);
-      throw error;
-    }
+    if (!spectrum || !groupId || !canDeleteInGroup(actor, groupId)) throw refuse(400, "Spectrum not found.", "spectrumId");
+    await deleteSpectrum(spectrum.id, { cause: actor.memberships.some((m) => m.groupId === groupId && m.role === "steward") ? "steward" : "owner", actorId: actor.id, actorLabel: actor.email });
     revalidatePath("/spectra");
     redirect("/spectra?deleted=1");
   },

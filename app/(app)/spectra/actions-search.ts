@@ -2,9 +2,10 @@
 
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
-import { ActionRefused, protectedAction } from "@/lib/actions/protected";
+import { protectedAction } from "@/lib/actions/protected";
 import { deleteSavedSearch, saveSearch } from "@/lib/search/savedSearches";
 import { hasFilters, searchQueryString, spectrumSearchSchema } from "@/lib/search/spectrumSearchQuery";
+import { refuse } from "@/lib/errors";
 
 /** Saves the search shown on the spectra page under a name, for the Overview. */
 export const saveSearchAction = protectedAction(
@@ -14,8 +15,8 @@ export const saveSearchAction = protectedAction(
   }),
   async (input, actor) => {
     const parsed = spectrumSearchSchema.safeParse(Object.fromEntries(new URLSearchParams(input.query)));
-    if (!parsed.success) throw new ActionRefused(`The search is not valid: ${parsed.error.issues[0]?.message ?? "check the filters"}.`, "query");
-    if (!hasFilters(parsed.data)) throw new ActionRefused("Set at least one filter before saving a search.", "query");
+    if (!parsed.success) throw refuse(400, `The search is not valid: ${parsed.error.issues[0]?.message ?? "check the filters"}.`, "query");
+    if (!hasFilters(parsed.data)) throw refuse(400, "Set at least one filter before saving a search.", "query");
     await saveSearch(actor, input.name, searchQueryString(parsed.data));
     revalidatePath("/");
     return { ok: true, message: `Saved “${input.name}”; it is listed on the Overview.` };
@@ -25,7 +26,7 @@ export const saveSearchAction = protectedAction(
 export const deleteSavedSearchAction = protectedAction(
   z.object({ id: z.string().uuid("id: not a valid id.") }),
   async (input, actor) => {
-    if (!(await deleteSavedSearch(actor, input.id))) throw new ActionRefused("That saved search was not found.", "id");
+    if (!(await deleteSavedSearch(actor, input.id))) throw refuse(400, "That saved search was not found.", "id");
     revalidatePath("/");
     return { ok: true, message: "Saved search removed." };
   },

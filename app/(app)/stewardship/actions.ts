@@ -3,24 +3,27 @@
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { z } from "zod";
-import { ActionRefused, protectedAction } from "@/lib/actions/protected";
+import { protectedAction } from "@/lib/actions/protected";
 import type { Actor } from "@/lib/auth/actor";
 import { canManageMembers, canSteward, groupOfTarget } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
 import { selectRows } from "@/lib/db";
-import { DeletionRefused, deleteAnalysisRun, deleteSpectrum } from "@/lib/stewardship/deletion";
+import { deleteAnalysisRun, deleteSpectrum, isGone } from "@/lib/stewardship/deletion";
 import { sendInvitation } from "@/lib/stewardship/invitations";
-import { ShareLinkRefused, createShareLink, revokeShareLink } from "@/lib/stewardship/shareLinks";
+import { createShareLink, revokeShareLink } from "@/lib/stewardship/shareLinks";
 import { Invitation, LegalHold, Membership, Project, RetentionFlag, RetentionPolicy, Share, User, models } from "@/models";
+import { UUID_PATTERN } from "@/lib/ids";
+import { refuse } from "@/lib/errors";
 
 // Writes of the stewardship pages. Every one checks the role in the owning group;
 // another group's ids are answered as "not found".
 
+const SHARE_TARGET = new RegExp(`^(project|series):${UUID_PATTERN}$`, "i");
 const id = (field: string) => z.string({ error: `${field}: required.` }).uuid(`${field}: not a valid id.`);
 const NOT_FOUND = "Not found, or not in a group you steward.";
 
 async function requireStewardOf(actor: Actor, groupId: string | null, field?: string): Promise<string> {
-  if (!groupId || !canSteward(actor, groupId)) throw new ActionRefused(NOT_FOUND, field);
+  if (!groupId || !canSteward(actor, groupId)) throw refuse(400, NOT_FOUND, field);
   return groupId;
 }
 const audit = (actor: Actor, groupId: string, action: string, targetType: string, targetId: string, details: Record<string, unknown> = {}) =>
@@ -68,15 +71,14 @@ export const decideFlag = protectedAction(
     models();
     const flag = await RetentionFlag.findByPk(input.id);
     const groupId = await requireStewardOf(actor, flag?.groupId ?? null);
-    if (flag!.decision) throw new ActionRefused("This item was already decided.");
+    if (flag!.decision) throw refuse(400, "This item was already decided.");
     if (input.decision === "delete") {
       const request = { cause: "steward" as const, actorId: actor.id, actorLabel: actor.email, policyId: flag!.policyId };
       try {
         if (flag!.targetType === "spectrum") await deleteSpectrum(flag!.targetId, request);
         else await deleteAnalysisRun(flag!.targetId, request);
       } catch (error) {
-        if (error instanceof DeletionRefused && error.code !== "gone") throw new ActionRefused(error.message);
-        if (!(error instanceof DeletionRefused)) throw error;
+        if (!isGone(error)) throw error; // already deleted: record the decision all the same
       }
     }
     await flag!.update({ decision: input.decision, decidedBy: actor.id, decidedAt: new Date() });
@@ -108,7 +110,7 @@ export const liftHold = protectedAction(z.object({ id: id("id") }), async (input
   models();
   const hold = await LegalHold.findByPk(input.id);
   const groupId = await requireStewardOf(actor, hold?.groupId ?? null);
-  if (hold!.liftedAt) throw new ActionRefused("This hold was already lifted.");
+  if (hold!.liftedAt) throw refuse(400, "This hold was already lifted.");
   await hold!.update({ liftedAt: new Date(), liftedBy: actor.id });
   await audit(actor, groupId, "hold-lifted", hold!.targetType, hold!.targetId, { holdId: hold!.id, reason: hold!.reason });
   revalidatePath("/stewardship", "layout");
@@ -121,14 +123,14 @@ const roleSchema = z.enum(["spectroscopist", "lead", "steward", "collaborator"],
 const email = z.string({ error: "email: required." }).trim().toLowerCase().email("email: not a valid e-mail address.").max(200, "email: too long.");
 
 async function requireManagerOf(actor: Actor, groupId: string | null, field?: string): Promise<string> {
-  if (!groupId || !canManageMembers(actor, groupId)) throw new ActionRefused("Not found, or not a group whose members you manage.", field);
+  if (!groupId || !canManageMembers(actor, groupId)) throw refuse(400, "Not found, or not a group whose members you manage.", field);
   return groupId;
 }
 
 async function shareTargetOf(type: "project" | "series" | undefined, targetId: string | undefined, groupId: string) {
   if (!type || !targetId) return null;
   const owner = await groupOfTarget(type, targetId);
-  if (owner !== groupId) throw new ActionRefused("shareTargetId: not a project or series of this group.", "shareTargetId");
+  if (owner !== groupId) throw refuse(400, "shareTargetId: not a project or series of this group.", "shareTargetId");
   const [row] = await selectRows<{ name: string }>(`SELECT name FROM ${type === "project" ? "projects" : "series"} WHERE id = :targetId`, { targetId });
   return { type, id: targetId, label: row?.name ?? "" };
 }
@@ -137,18 +139,18 @@ export const inviteMember = protectedAction(
   z.object({
     groupId: id("groupId"), email, role: roleSchema,
     shareTarget: z.string().optional().transform((v) => v || undefined)
-      .refine((v) => !v || /^(project|series):[0-9a-f-]{36}$/i.test(v), "shareTarget: choose a project or series."),
+      .refine((v) => !v || SHARE_TARGET.test(v), "shareTarget: choose a project or series."),
   }),
   async (input, actor) => {
     models();
     const groupId = await requireManagerOf(actor, input.groupId, "groupId");
-    if (input.role === "steward" && !canSteward(actor, groupId)) throw new ActionRefused("role: only a data steward can make someone a data steward.", "role");
+    if (input.role === "steward" && !canSteward(actor, groupId)) throw refuse(400, "role: only a data steward can make someone a data steward.", "role");
     const [type, targetId] = (input.shareTarget?.split(":") ?? []) as ["project" | "series" | undefined, string | undefined];
-    if (input.role === "collaborator" && !type) throw new ActionRefused("shareTarget: a collaborator needs a project or series to read.", "shareTarget");
+    if (input.role === "collaborator" && !type) throw refuse(400, "shareTarget: a collaborator needs a project or series to read.", "shareTarget");
     const share = input.role === "collaborator" ? await shareTargetOf(type, targetId, groupId) : null;
     const user = await User.findOne({ where: { email: input.email } });
     if (user && (await Membership.findOne({ where: { groupId, userId: user.id } })) && !share) {
-      throw new ActionRefused("email: this person is already a member; change their role below.", "email");
+      throw refuse(400, "email: this person is already a member; change their role below.", "email");
     }
     const groupName = actor.memberships.find((m) => m.groupId === groupId)?.groupName ?? "";
     const { invitation } = await sendInvitation({ groupId, groupName, email: input.email, role: input.role, invitedBy: { id: actor.id, name: actor.name }, share });
@@ -162,7 +164,7 @@ export const revokeInvitation = protectedAction(z.object({ id: id("id") }), asyn
   models();
   const inv = await Invitation.findByPk(input.id);
   const groupId = await requireManagerOf(actor, inv?.groupId ?? null);
-  if (inv!.acceptedAt) throw new ActionRefused("This invitation was already accepted.");
+  if (inv!.acceptedAt) throw refuse(400, "This invitation was already accepted.");
   await inv!.update({ revokedAt: new Date() });
   await audit(actor, groupId, "invitation-revoked", "invitation", inv!.id, { email: inv!.email });
   revalidatePath("/stewardship/sharing");
@@ -173,8 +175,8 @@ export const changeRole = protectedAction(z.object({ id: id("id"), role: roleSch
   models();
   const m = await Membership.findByPk(input.id);
   const groupId = await requireManagerOf(actor, m?.groupId ?? null);
-  if (m!.userId === actor.id) throw new ActionRefused("role: you cannot change your own role; ask another lead or steward.", "role");
-  if ((input.role === "steward" || m!.role === "steward") && !canSteward(actor, groupId)) throw new ActionRefused("role: only a data steward can give or take the data steward role.", "role");
+  if (m!.userId === actor.id) throw refuse(400, "role: you cannot change your own role; ask another lead or steward.", "role");
+  if ((input.role === "steward" || m!.role === "steward") && !canSteward(actor, groupId)) throw refuse(400, "role: only a data steward can give or take the data steward role.", "role");
   const before = m!.role;
   await m!.update({ role: input.role });
   await audit(actor, groupId, "member-role-changed", "user", m!.userId, { from: before, to: input.role });
@@ -186,8 +188,8 @@ export const removeMember = protectedAction(z.object({ id: id("id") }), async (i
   models();
   const m = await Membership.findByPk(input.id);
   const groupId = await requireManagerOf(actor, m?.groupId ?? null);
-  if (m!.userId === actor.id) throw new ActionRefused("You cannot remove yourself; ask another lead or steward.");
-  if (m!.role === "steward" && !canSteward(actor, groupId)) throw new ActionRefused("Only a data steward can remove a data steward.");
+  if (m!.userId === actor.id) throw refuse(400, "You cannot remove yourself; ask another lead or steward.");
+  if (m!.role === "steward" && !canSteward(actor, groupId)) throw refuse(400, "Only a data steward can remove a data steward.");
   await m!.destroy();
   // Shares given to this person by this group end with the membership.
   await Share.update({ revokedAt: new Date() }, { where: { groupId, granteeUserId: m!.userId, revokedAt: null } });
@@ -201,7 +203,7 @@ export const removeMember = protectedAction(z.object({ id: id("id") }), async (i
 export const shareWithCollaborator = protectedAction(
   z.object({
     email,
-    shareTarget: z.string({ error: "shareTarget: choose a project or series." }).regex(/^(project|series):[0-9a-f-]{36}$/i, "shareTarget: choose a project or series."),
+    shareTarget: z.string({ error: "shareTarget: choose a project or series." }).regex(SHARE_TARGET, "shareTarget: choose a project or series."),
     expiresOn: z.string().optional().transform((v) => v || undefined)
       .refine((v) => !v || (/^\d{4}-\d{2}-\d{2}$/.test(v) && !Number.isNaN(Date.parse(v))), "expiresOn: use a date as YYYY-MM-DD.")
       .refine((v) => !v || Date.parse(`${v}T23:59:59Z`) > Date.now(), "expiresOn: choose a date in the future."),
@@ -220,7 +222,7 @@ export const shareWithCollaborator = protectedAction(
       return { ok: true, message: `${input.email} has no account yet: an invitation was sent; the share starts when they accept.` };
     }
     const membership = await Membership.findOne({ where: { groupId, userId: user.id } });
-    if (membership && membership.role !== "collaborator") throw new ActionRefused("email: this person is a member of the group and already reads its data.", "email");
+    if (membership && membership.role !== "collaborator") throw refuse(400, "email: this person is a member of the group and already reads its data.", "email");
     if (!membership) await Membership.create({ groupId, userId: user.id, role: "collaborator" });
     const row = await Share.create({
       groupId, targetType: type, targetId, granteeUserId: user.id, linkTokenHash: null,
@@ -236,7 +238,7 @@ export const revokeShare = protectedAction(z.object({ id: id("id") }), async (in
   models();
   const share = await Share.findByPk(input.id);
   const groupId = await requireStewardOf(actor, share?.groupId ?? null);
-  if (share!.revokedAt) throw new ActionRefused("This share was already revoked.");
+  if (share!.revokedAt) throw refuse(400, "This share was already revoked.");
   await share!.update({ revokedAt: new Date() });
   await audit(actor, groupId, "share-revoked", share!.targetType, share!.targetId, { shareId: share!.id });
   revalidatePath("/stewardship/sharing");
@@ -254,7 +256,7 @@ export const shareLinkAction = protectedAction(
   z.discriminatedUnion("intent", [
     z.object({
       intent: z.literal("create"),
-      shareTarget: z.string({ error: "shareTarget: choose a project or series." }).regex(/^(project|series):[0-9a-f-]{36}$/i, "shareTarget: choose a project or series."),
+      shareTarget: z.string({ error: "shareTarget: choose a project or series." }).regex(SHARE_TARGET, "shareTarget: choose a project or series."),
       expiresAt: z.string().optional().transform((v) => v || undefined)
         .refine((v) => !v || (/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/.test(v) && !Number.isNaN(Date.parse(`${v}:00Z`))), "expiresAt: use a date and time as YYYY-MM-DDTHH:MM (UTC)."),
     }),
@@ -262,23 +264,13 @@ export const shareLinkAction = protectedAction(
   ], { error: "intent: create or revoke." }),
   async (input, actor) => {
     if (input.intent === "revoke") {
-      try {
-        await revokeShareLink(actor, input.id);
-      } catch (error) {
-        if (error instanceof ShareLinkRefused) throw new ActionRefused(error.message, error.field);
-        throw error;
-      }
+      await revokeShareLink(actor, input.id);
       revalidatePath("/stewardship/sharing");
       return { ok: true, message: "Link revoked: it stopped working at once." };
     }
     const [targetType, targetId] = input.shareTarget.split(":") as ["project" | "series", string];
-    try {
-      const link = await createShareLink(actor, { targetType, targetId, expiresAt: input.expiresAt ? new Date(`${input.expiresAt}:00Z`) : null });
-      revalidatePath("/stewardship/sharing");
-      return { ok: true, message: `/shared/${link.token}` };
-    } catch (error) {
-      if (error instanceof ShareLinkRefused) throw new ActionRefused(error.message, error.field);
-      throw error;
-    }
+    const link = await createShareLink(actor, { targetType, targetId, expiresAt: input.expiresAt ? new Date(`${input.expiresAt}:00Z`) : null });
+    revalidatePath("/stewardship/sharing");
+    return { ok: true, message: `/shared/${link.token}` };
   },
 );

@@ -2,9 +2,10 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { currentActor } from "@/lib/auth/actor";
 import { ROLE_LABELS } from "@/lib/navigation";
-import { InvitationProblem, usableInvitation, type InvitationView } from "@/lib/stewardship/acceptInvitation";
+import { usableInvitation, type InvitationView } from "@/lib/stewardship/acceptInvitation";
 import { Logo } from "@/components/shell/Logo";
 import { AcceptInvitationForm } from "@/components/stewardship/AcceptInvitationForm";
+import { Refusal } from "@/lib/errors";
 
 export const metadata: Metadata = { title: "Invitation" };
 export const dynamic = "force-dynamic";
@@ -16,7 +17,7 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
   try {
     view = (await usableInvitation(token)).view;
   } catch (error) {
-    if (!(error instanceof InvitationProblem)) throw error;
+    if (!(error instanceof Refusal)) throw error;
     problem = error.message;
   }
   const actor = await currentActor();

@@ -1,11 +1,6 @@
-import * as sgModule from 'ml-savitzky-golay';
 import { savitzkyGolayQuadraticInterior } from './savitzkyGolayQuadratic';
+import { savitzkyGolayWeights } from './savitzkyGolayWeights';
 import { solveLinearSystem } from './solveLinearSystem';
-
-type SgFn = (data: ArrayLike<number>, h: number, options: Record<string, unknown>) => number[];
-// Under Node ESM the default export of ml-savitzky-golay can arrive wrapped as { default: fn }.
-const mod = sgModule as unknown as { default: SgFn | { default: SgFn } };
-const sg: SgFn = typeof mod.default === 'function' ? mod.default : (mod.default as { default: SgFn }).default;
 
 export interface SavitzkyGolayOptions {
   /** Odd window length, at least 5 and at most the data length. Default 9. */
@@ -24,7 +19,7 @@ export interface SavitzkyGolayOptions {
  * updated in O(1) per point as the window slides (the symmetric-window normal equations split
  * into even and odd parts; the same filter as the convolution weights, see
  * savitzkyGolayQuadratic.ts); the moments are recomputed exactly every 64 points so that
- * rounding cannot drift. Other orders use ml-savitzky-golay's convolution coefficients (cached).
+ * rounding cannot drift. Other orders convolve with savitzkyGolayWeights (cached).
  * Edges: the half-window at each end is taken from a least-squares polynomial fitted to the
  * first (last) `windowSize` points, evaluated (or differentiated) at each edge point — the same
  * treatment as scipy.signal.savgol_filter with mode='interp'. Output has the input's length;
@@ -51,7 +46,7 @@ export function savitzkyGolayFilter(y: ArrayLike<number>, step: number, options:
   if (quadraticEquivalent(polynomial, derivative)) {
     savitzkyGolayQuadraticInterior(yy, windowSize, step, derivative === 0 ? out : null, derivative === 1 ? out : null, derivative === 2 ? out : null);
   } else {
-    convolveInterior(yy, coefficients(windowSize, polynomial, derivative), scale, out);
+    convolveInterior(yy, savitzkyGolayWeights(windowSize, polynomial, derivative), scale, out);
   }
   fitEdge(yy, 0, windowSize, polynomial, derivative, step, out, 0, half);
   fitEdge(yy, n - windowSize, windowSize, polynomial, derivative, step, out, n - half, n);
@@ -79,7 +74,7 @@ export function savitzkyGolayQuadraticBank(
   const firstDerivative = new Float64Array(n);
   const secondDerivative = new Float64Array(n);
   savitzkyGolayQuadraticInterior(y, windowSize, step, smoothed, polynomial === 2 ? firstDerivative : null, secondDerivative);
-  if (polynomial === 3) convolveInterior(y, coefficients(windowSize, 3, 1), 1 / step, firstDerivative);
+  if (polynomial === 3) convolveInterior(y, savitzkyGolayWeights(windowSize, 3, 1), 1 / step, firstDerivative);
   for (const [d, out] of [[0, smoothed], [1, firstDerivative], [2, secondDerivative]] as const) {
     fitEdge(y, 0, windowSize, polynomial, d, step, out, 0, half);
     fitEdge(y, n - windowSize, windowSize, polynomial, d, step, out, n - half, n);
@@ -92,7 +87,7 @@ function quadraticEquivalent(p: number, d: number): boolean {
   return (p === 2 && d <= 2) || (p === 3 && (d === 0 || d === 2));
 }
 
-/** Interior of a convolution with precomputed weights, four outputs per pass over the weights. */
+/** Interior of a convolution with weights in 'dot' order (left to right), four outputs per pass over the weights. */
 function convolveInterior(y: Float64Array, c: Float64Array, scale: number, out: Float64Array): void {
   const w = c.length;
   const half = (w - 1) / 2;
@@ -120,23 +115,6 @@ function convolveInterior(y: Float64Array, c: Float64Array, scale: number, out: 
   }
 }
 
-const cache = new Map<string, Float64Array>();
-/**
- * Convolution coefficients from ml-savitzky-golay itself (applied once to a unit impulse), cached
- * per (window, order, derivative) so that the hot loop is a plain typed-array dot product.
- */
-function coefficients(w: number, p: number, d: number): Float64Array {
-  const key = `${w}/${p}/${d}`;
-  let c = cache.get(key);
-  if (!c) {
-    const impulse = new Array<number>(2 * w - 1).fill(0);
-    impulse[w - 1] = 1;
-    const r = sg(impulse, 1, { windowSize: w, polynomial: p, derivative: d, pad: 'none' });
-    c = Float64Array.from(r).reverse();
-    cache.set(key, c);
-  }
-  return c;
-}
 
 /** Fits a polynomial to y[start..start+w) and writes its derivative at indices [from, to). */
 function fitEdge(

@@ -14,6 +14,7 @@ import { formatPosition } from "@/lib/spectrum-view/axis";
 import { formatWhen } from "@/lib/format/dates";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
+import { isUuid } from "@/lib/ids";
 
 export const metadata: Metadata = { title: "Signature" };
 
@@ -27,7 +28,7 @@ function historyWho(h: ReviewHistoryEntry): string {
 export default async function SignaturePage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const actor = await requireActor(`/review/${id}`);
-  const sig = /^[0-9a-f-]{36}$/i.test(id) ? await getSignatureReview(actor, id) : null;
+  const sig = isUuid(id) ? await getSignatureReview(actor, id) : null;
   if (!sig) notFound();
   const evidence = await loadEvidence(sig.spectrumId, sig.referenceSpectrumId, sig.energyEv);
   const label = KIND_LABELS[sig.kind];

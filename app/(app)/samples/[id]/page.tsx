@@ -8,6 +8,7 @@ import { HazardNotice } from "@/components/ui/HazardNotice";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { formatDay } from "@/lib/format/dates";
+import { isUuid } from "@/lib/ids";
 
 export const metadata: Metadata = { title: "Sample" };
 
@@ -19,7 +20,7 @@ function sourcesOf(spectra: { derived: { sizingSource: string | null } | null }[
 export default async function SamplePage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const actor = await requireActor(`/samples/${id}`);
-  const sample = /^[0-9a-f-]{36}$/i.test(id) ? await getSample(actor, id) : null;
+  const sample = isUuid(id) ? await getSample(actor, id) : null;
   if (!sample) notFound();
   const facts: [string, string][] = [
     ["Material", sample.material],

@@ -15,7 +15,7 @@ export default async function NewSamplePage() {
   if (groups.length === 0) {
     return <EmptyState title="Registering samples needs a spectroscopist or group-lead role">Ask your group lead to change your role.</EmptyState>;
   }
-  const [samples, projects] = await Promise.all([listSampleChoices(actor), listProjectChoices(actor)]);
+  const [samples, projects] = await Promise.all([listSampleChoices(actor), listProjectChoices(actor, "write")]);
   return (
     <>
       <PageHeader title="Register a sample" subtitle="One batch of dots. Products made from other batches list them as parents." />

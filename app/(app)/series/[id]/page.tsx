@@ -10,6 +10,7 @@ import { SeriesCharts } from "@/components/series/SeriesCharts";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { countOf, formatQuantity } from "@/lib/format/quantity";
+import { isUuid } from "@/lib/ids";
 import { TECHNIQUE_SPECS } from "@/lib/registry/techniques";
 import { seriesTechnique, sternVolmerRatios } from "@/lib/series/seriesPanels";
 import type { SeriesPanel, TechniqueSpec } from "@/lib/registry/techniques";
@@ -22,7 +23,7 @@ const ratio = (q: number | null) => { const r = sternVolmerRatios([q])[0]; retur
 export default async function SeriesDetailPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const actor = await requireActor(`/series/${id}`);
-  const series = /^[0-9a-f-]{36}$/i.test(id) ? await getSeriesDetail(actor, id) : null;
+  const series = isUuid(id) ? await getSeriesDetail(actor, id) : null;
   if (!series) notFound();
   const variable = `${series.variableName || "Variable"}${series.variableUnit ? ` (${series.variableUnit})` : ""}`;
   const missingValues = series.points.filter((p) => p.value === null).length;

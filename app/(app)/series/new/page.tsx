@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { requireActor } from "@/lib/auth/actor";
-import { listWritableProjects } from "@/lib/ingest/queries";
+import { listProjectChoices } from "@/lib/queries/projects";
 import { SeriesForm } from "@/components/series/SeriesForm";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
@@ -9,7 +9,7 @@ export const metadata: Metadata = { title: "New series" };
 
 export default async function NewSeriesPage() {
   const actor = await requireActor("/series/new");
-  const projects = await listWritableProjects(actor);
+  const projects = await listProjectChoices(actor, "write");
   if (projects.length === 0) {
     return <EmptyState title="No project to add a series to">Series are created by spectroscopists and group leads in their group&apos;s projects.</EmptyState>;
   }

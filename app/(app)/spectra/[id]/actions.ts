@@ -1,14 +1,15 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { ActionRefused, protectedAction } from "@/lib/actions/protected";
-import { IngestError, requestReanalysis } from "@/lib/ingest";
+import { protectedAction } from "@/lib/actions/protected";
+import { requestReanalysis } from "@/lib/ingest";
 import { formFieldOf, rerunFormSchema, toReanalysisChanges } from "@/lib/spectrum-view/rerunSchema";
+import { Refusal, refuse } from "@/lib/errors";
 
 /** Re-runs the analysis of one spectrum with changed parameters; earlier runs are kept for provenance. */
 export const rerunAnalysis = protectedAction(rerunFormSchema, async (input, actor) => {
   const changes = toReanalysisChanges(input);
-  if (Object.keys(changes).length === 0) throw new ActionRefused("Change at least one parameter; an unchanged run would repeat the last one.", "form");
+  if (Object.keys(changes).length === 0) throw refuse(400, "Change at least one parameter; an unchanged run would repeat the last one.", "form");
   try {
     const result = await requestReanalysis(input.spectrumId, changes, actor);
     revalidatePath(`/spectra/${input.spectrumId}`);
@@ -19,9 +20,9 @@ export const rerunAnalysis = protectedAction(rerunFormSchema, async (input, acto
         : "A run with these parameters is already on its way.";
     return { ok: true, message, values: { runId: result.runId, status: result.status } };
   } catch (error) {
-    if (error instanceof IngestError) {
+    if (error instanceof Refusal) {
       const { field, message } = formFieldOf(error.field, error.message);
-      throw new ActionRefused(error.status === 404 ? "This spectrum was not found." : message, field);
+      throw refuse(400, error.status === 404 ? "This spectrum was not found." : message, field);
     }
     throw error;
   }

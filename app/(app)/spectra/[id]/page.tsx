@@ -18,6 +18,7 @@ import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { rerunAnalysis } from "./actions";
 import { formatWhen } from "@/lib/format/dates";
+import { isUuid } from "@/lib/ids";
 
 export const metadata: Metadata = { title: "Spectrum" };
 
@@ -52,7 +53,7 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
   const { id } = await params;
   const query = await searchParams;
   const actor = await requireActor(`/spectra/${id}`);
-  const s = /^[0-9a-f-]{36}$/i.test(id) ? await getSpectrumDetail(actor, id) : null;
+  const s = isUuid(id) ? await getSpectrumDetail(actor, id) : null;
   if (!s) notFound();
   const latest = s.latestRun;
   const shown = s.shownRun;

@@ -2,7 +2,8 @@ import type { Metadata } from "next";
 import { z } from "zod";
 import { requireActor } from "@/lib/auth/actor";
 import { stewardGroupIds } from "@/lib/auth/access";
-import { DATA_CLASS_LABELS, listPolicies, previewPolicy, stewardProjects, type PolicyPreview } from "@/lib/stewardship/queries";
+import { listProjectChoices } from "@/lib/queries/projects";
+import { DATA_CLASS_LABELS, listPolicies, previewPolicy, type PolicyPreview } from "@/lib/stewardship/queries";
 import { ActionForm } from "@/components/stewardship/ActionForm";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
 import { formatBytes } from "@/lib/format/bytes";
@@ -44,7 +45,7 @@ export default async function PoliciesPage({ searchParams }: { searchParams: Pro
   const actor = await requireActor("/stewardship/policies");
   if (stewardGroupIds(actor).length === 0) return <StewardOnly what="Retention" />;
   const search = await searchParams;
-  const [projects, policies] = await Promise.all([stewardProjects(actor), listPolicies(actor)]);
+  const [projects, policies] = await Promise.all([listProjectChoices(actor, "steward"), listPolicies(actor)]);
   const asked = search.preview === "1";
   const draft = asked ? draftSchema.safeParse(search) : null;
   const draftErrors = draft && !draft.success ? draft.error.issues.map((i) => i.message) : [];

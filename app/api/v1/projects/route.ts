@@ -1,16 +1,11 @@
 import { NextResponse } from "next/server";
 import { withActor } from "@/lib/http/respond";
-import { listWritableProjects } from "@/lib/ingest/queries";
-import { toApiError } from "@/lib/ingest/apiErrors";
+import { listProjectChoices } from "@/lib/queries/projects";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
 
 /** GET /api/v1/projects — the projects the caller may upload to. */
 export const GET = withActor(async (_request, { actor }) => {
-  try {
-    return NextResponse.json({ projects: await listWritableProjects(actor) }, { headers: { "Cache-Control": "no-store" } });
-  } catch (error) {
-    throw toApiError(error);
-  }
+  return NextResponse.json({ projects: await listProjectChoices(actor, "write") }, { headers: { "Cache-Control": "no-store" } });
 });

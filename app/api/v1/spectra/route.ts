@@ -1,12 +1,12 @@
 import { NextResponse } from "next/server";
 import { mediaTypeOf } from "@/lib/http/mediaType";
 import { readBoundedForm } from "@/lib/http/readBoundedForm";
-import { ApiError, withActor } from "@/lib/http/respond";
+import { withActor } from "@/lib/http/respond";
 import { INGEST_FIELDS, ingestFiles, ingestLimits, type IncomingFile } from "@/lib/ingest";
-import { toApiError } from "@/lib/ingest/apiErrors";
 import { listSpectra } from "@/lib/queries/spectra";
 import { queryObject } from "@/lib/review/schemas";
 import { SEARCH_PAGE_SIZE, searchQueryString, spectrumSearchSchema } from "@/lib/search/spectrumSearchQuery";
+import { Refusal } from "@/lib/errors";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
@@ -20,7 +20,7 @@ const KNOWN_FIELDS = new Set<string>(["file", ...INGEST_FIELDS]);
 export const GET = withActor(async (request, { actor }) => {
   const search = spectrumSearchSchema.parse(queryObject(new URL(request.url).searchParams));
   const page = await listSpectra(actor, search);
-  if (!page) throw new ApiError(404, "not-found", "project was not found.", "project");
+  if (!page) throw new Refusal(404, "not-found", "project was not found.", "project");
   const nextQuery = page.next ? searchQueryString(search, { after: page.next }) : null;
   return NextResponse.json(
     {
@@ -39,7 +39,7 @@ export const GET = withActor(async (request, { actor }) => {
  */
 export const POST = withActor(async (request, { actor }) => {
   if (mediaTypeOf(request) !== "multipart/form-data") {
-    throw new ApiError(415, "unsupported-media-type", "send the files as multipart/form-data (field \"file\")");
+    throw new Refusal(415, "unsupported-media-type", "send the files as multipart/form-data (field \"file\")");
   }
   const limits = ingestLimits();
   const requestLimit = Number(process.env.UPLOAD_REQUEST_MAX_BYTES ?? limits.maxFileBytes * 5);
@@ -47,22 +47,17 @@ export const POST = withActor(async (request, { actor }) => {
   const metadata: Record<string, string> = {};
   const files: IncomingFile[] = [];
   for (const [name, value] of form.entries()) {
-    if (!KNOWN_FIELDS.has(name)) throw new ApiError(400, "unknown-field", `unknown form field "${name.slice(0, 60)}"`, name.slice(0, 60));
+    if (!KNOWN_FIELDS.has(name)) throw new Refusal(400, "unknown-field", `unknown form field "${name.slice(0, 60)}"`, name.slice(0, 60));
     if (name === "file") {
-      if (typeof value === "string") throw new ApiError(400, "invalid", "file: must be a file upload, not text", "file");
+      if (typeof value === "string") throw new Refusal(400, "invalid", "file: must be a file upload, not text", "file");
       files.push({ fileName: value.name || "unnamed", bytes: new Uint8Array(await value.arrayBuffer()), contentType: value.type });
     } else if (typeof value === "string") {
       if (!(name in metadata)) metadata[name] = value;
     } else {
-      throw new ApiError(400, "invalid", `${name}: must be text, not a file`, name);
+      throw new Refusal(400, "invalid", `${name}: must be text, not a file`, name);
     }
   }
-  let outcomes;
-  try {
-    outcomes = await ingestFiles(actor, metadata, files, limits);
-  } catch (error) {
-    throw toApiError(error);
-  }
+  const outcomes = await ingestFiles(actor, metadata, files, limits);
   const body = {
     files: outcomes.map((o) => (o.ok ? { ...o, url: `/api/v1/spectra/${o.spectrumId}` } : o)),
   };

@@ -1,9 +1,10 @@
-import { ApiError, notFound, withActor } from "@/lib/http/respond";
+import { notFound, withActor } from "@/lib/http/respond";
 import { canReadProject, canReadSeries } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
-import { isId } from "@/lib/ingest/queries";
 import { buildBundle } from "@/lib/stewardship/exportBundle";
 import { Project, Series, models } from "@/models";
+import { isUuid } from "@/lib/ids";
+import { Refusal } from "@/lib/errors";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
@@ -11,8 +12,8 @@ export const dynamic = "force-dynamic";
 /** GET /api/v1/exports/{project|series}/{id} — the export bundle (zip), for anyone who may read it. */
 export const GET = withActor<{ params: Promise<{ type: string; id: string }> }>(async (_request, { actor, params }) => {
   const { type, id } = await params;
-  if (type !== "project" && type !== "series") throw new ApiError(400, "invalid", "type: use project or series.", "type");
-  if (!isId(id)) throw notFound(`${type} ${id.slice(0, 80)}`);
+  if (type !== "project" && type !== "series") throw new Refusal(400, "invalid", "type: use project or series.", "type");
+  if (!isUuid(id)) throw notFound(`${type} ${id.slice(0, 80)}`);
   models();
   let groupId: string;
   if (type === "series") {

@@ -1,16 +1,16 @@
 import { notFound, withActor } from "@/lib/http/respond";
 import { getSeriesDetail } from "@/lib/queries/series-detail";
 import { seriesCsv } from "@/lib/series/seriesCsv";
+import { isUuid } from "@/lib/ids";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 /** GET /api/v1/series/{id}/export — the series table and its fits as CSV. */
 export const GET = withActor<{ params: Promise<{ id: string }> }>(async (_request, { actor, params }) => {
   const { id } = await params;
-  const series = UUID.test(id) ? await getSeriesDetail(actor, id) : null;
+  const series = isUuid(id) ? await getSeriesDetail(actor, id) : null;
   if (!series) throw notFound(`series ${id.slice(0, 80)}`);
   const slug = series.name.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "") || "series";
   return new Response(seriesCsv(series), {

@@ -1,22 +1,23 @@
 import { NextResponse } from "next/server";
 import { isJson } from "@/lib/http/mediaType";
 import { revalidatePath } from "next/cache";
-import { ApiError, notFound, withActor } from "@/lib/http/respond";
-import { SupernatantLinkRefused, seriesForLinking, setSupernatantLink } from "@/lib/series/supernatantLinks";
+import { notFound, withActor } from "@/lib/http/respond";
+import { seriesForLinking, setSupernatantLink } from "@/lib/series/supernatantLinks";
 import { getSupernatantReadings } from "@/lib/series/supernatantReadings";
 import { linkBodySchema, readingsQuerySchema } from "@/lib/series/supernatantSchemas";
 import { parseViewQuery } from "@/lib/spectrum-view/viewData";
+import { isUuid } from "@/lib/ids";
+import { Refusal } from "@/lib/errors";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 type Ctx = { params: Promise<{ id: string }> };
 
 /** GET /api/v1/series/{id}/supernatants?nmA=&nmX=[&pureA=&pureX=] — each point's linked supernatant read at the two wavelengths. */
 export const GET = withActor<Ctx>(async (request, { actor, params }) => {
   const { id } = await params;
-  if (!UUID.test(id)) throw notFound(`series ${id.slice(0, 80)}`);
+  if (!isUuid(id)) throw notFound(`series ${id.slice(0, 80)}`);
   const query = parseViewQuery(readingsQuerySchema, request.url);
   const readings = await getSupernatantReadings(actor, id, query);
   if (!readings) throw notFound(`series ${id}`);
@@ -26,29 +27,19 @@ export const GET = withActor<Ctx>(async (request, { actor, params }) => {
 /** POST /api/v1/series/{id}/supernatants — link a supernatant spectrum to a point of the series, or unlink it (pointSpectrumId null). */
 export const POST = withActor<Ctx>(async (request, { actor, params }) => {
   const { id } = await params;
-  if (!UUID.test(id)) throw notFound(`series ${id.slice(0, 80)}`);
-  await seriesForLinking(actor, id).catch((error: unknown) => { throw apiErrorOf(error); });
+  if (!isUuid(id)) throw notFound(`series ${id.slice(0, 80)}`);
+  await seriesForLinking(actor, id);
   if (!isJson(request)) {
-    throw new ApiError(415, "unsupported-media-type", "Send JSON: {\"supernatantSpectrumId\": \"…\", \"pointSpectrumId\": \"…\" | null}.");
+    throw new Refusal(415, "unsupported-media-type", "Send JSON: {\"supernatantSpectrumId\": \"…\", \"pointSpectrumId\": \"…\" | null}.");
   }
   let body: unknown;
   try {
     body = await request.json();
   } catch {
-    throw new ApiError(400, "invalid", "The body is not valid JSON.");
+    throw new Refusal(400, "invalid", "The body is not valid JSON.");
   }
   const input = linkBodySchema.parse(body ?? {});
-  try {
-    const outcome = await setSupernatantLink(actor, id, input);
-    if (outcome.changed) revalidatePath(`/series/${id}`);
-    return NextResponse.json(outcome, { status: 200 });
-  } catch (error) {
-    throw apiErrorOf(error);
-  }
+  const outcome = await setSupernatantLink(actor, id, input);
+  if (outcome.changed) revalidatePath(`/series/${id}`);
+  return NextResponse.json(outcome, { status: 200 });
 });
-
-function apiErrorOf(error: unknown): unknown {
-  if (!(error instanceof SupernatantLinkRefused)) return error;
-  const code = error.status === 404 ? "not-found" : error.status === 403 ? "forbidden" : error.status === 409 ? "conflict" : "invalid";
-  return new ApiError(error.status, code, error.message, error.field);
-}

@@ -1,25 +1,25 @@
 import { NextResponse } from "next/server";
 import { isJson } from "@/lib/http/mediaType";
 import { revalidatePath } from "next/cache";
-import { ApiError, notFound, withActor } from "@/lib/http/respond";
+import { notFound, withActor } from "@/lib/http/respond";
+import { Refusal } from "@/lib/errors";
 import { getSignatureReview } from "@/lib/queries/review";
-import { reviewApiError } from "@/lib/review/apiErrors";
 import { decideSignatures, undoDecisions } from "@/lib/review/decide";
 import { decisionSchema } from "@/lib/review/schemas";
 import { z } from "zod";
+import { isUuid } from "@/lib/ids";
 
 const undoBodySchema = z.object({ undo: z.string().trim().uuid("undo must be the id (UUID) of a decision in this signature's history") }).strict();
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 type Ctx = { params: Promise<{ id: string }> };
 
 /** GET /api/v1/signatures/{id}/decisions — the signature's state and its decision history, newest first. */
 export const GET = withActor<Ctx>(async (_request, { actor, params }) => {
   const { id } = await params;
-  const review = UUID.test(id) ? await getSignatureReview(actor, id) : null;
+  const review = isUuid(id) ? await getSignatureReview(actor, id) : null;
   if (!review) throw notFound(`signature ${id.slice(0, 80)}`);
   return NextResponse.json({ id: review.id, reviewState: review.reviewState, supersededBy: review.supersededBy, history: review.history }, { headers: { "Cache-Control": "no-store" } });
 });
@@ -32,37 +32,33 @@ export const GET = withActor<Ctx>(async (_request, { actor, params }) => {
 export const POST = withActor<Ctx>(async (request, { actor, params }) => {
   const { id } = await params;
   // The caller first: another group's id is not found, a member who is not its lead is refused.
-  const review = UUID.test(id) ? await getSignatureReview(actor, id) : null;
+  const review = isUuid(id) ? await getSignatureReview(actor, id) : null;
   if (!review) throw notFound(`signature ${id.slice(0, 80)}`);
   if (review.supersededBy) {
-    throw new ApiError(409, "conflict", `This flag was replaced by a newer analysis (run ${review.supersededBy.runId.slice(0, 8)}); decide on ${review.supersededBy.matchId ? `signature ${review.supersededBy.matchId}` : "the newer run's flags"}.`);
+    throw new Refusal(409, "conflict", `This flag was replaced by a newer analysis (run ${review.supersededBy.runId.slice(0, 8)}); decide on ${review.supersededBy.matchId ? `signature ${review.supersededBy.matchId}` : "the newer run's flags"}.`);
   }
-  if (!review.mayDecide) throw new ApiError(403, "forbidden", "Only a lead of the group that owns the spectrum can confirm or dismiss its signatures.");
+  if (!review.mayDecide) throw new Refusal(403, "forbidden", "Only a lead of the group that owns the spectrum can confirm or dismiss its signatures.");
   if (!isJson(request)) {
-    throw new ApiError(415, "unsupported-media-type", "Send the decision as JSON: {\"decision\": \"confirmed\" | \"dismissed\", \"comment\": \"…\"}.");
+    throw new Refusal(415, "unsupported-media-type", "Send the decision as JSON: {\"decision\": \"confirmed\" | \"dismissed\", \"comment\": \"…\"}.");
   }
   let body: unknown;
   try {
     body = await request.json();
   } catch {
-    throw new ApiError(400, "invalid", "The body is not valid JSON.");
+    throw new Refusal(400, "invalid", "The body is not valid JSON.");
   }
   const undo = undoBodySchema.safeParse(body ?? {});
-  try {
-    if (undo.success) {
-      if (!review.history.some((h) => h.id === undo.data.undo)) throw new ApiError(404, "not-found", `decision ${undo.data.undo} of signature ${id} was not found`, "undo");
-      const { outcomes, mailed } = await undoDecisions(actor, [undo.data.undo]);
-      revalidatePath("/review", "layout");
-      const o = outcomes[0]!;
-      return NextResponse.json({ ...o, reviewState: o.decision, uploaderMailed: mailed > 0 }, { status: 201 });
-    }
-    const input = decisionSchema.parse(body ?? {});
-    const { outcomes, mailed } = await decideSignatures(actor, [id], input.decision, input.comment);
+  if (undo.success) {
+    if (!review.history.some((h) => h.id === undo.data.undo)) throw new Refusal(404, "not-found", `decision ${undo.data.undo} of signature ${id} was not found`, "undo");
+    const { outcomes, mailed } = await undoDecisions(actor, [undo.data.undo]);
     revalidatePath("/review", "layout");
     const o = outcomes[0]!;
-    // A decision equal to the current state records nothing: 200 with unchanged = true.
-    return NextResponse.json({ ...o, reviewState: o.decision, uploaderMailed: mailed > 0 }, { status: o.unchanged ? 200 : 201 });
-  } catch (error) {
-    throw reviewApiError(error);
+    return NextResponse.json({ ...o, reviewState: o.decision, uploaderMailed: mailed > 0 }, { status: 201 });
   }
+  const input = decisionSchema.parse(body ?? {});
+  const { outcomes, mailed } = await decideSignatures(actor, [id], input.decision, input.comment);
+  revalidatePath("/review", "layout");
+  const o = outcomes[0]!;
+  // A decision equal to the current state records nothing: 200 with unchanged = true.
+  return NextResponse.json({ ...o, reviewState: o.decision, uploaderMailed: mailed > 0 }, { status: o.unchanged ? 200 : 201 });
 });

@@ -1,8 +1,8 @@
 import { NextResponse } from "next/server";
 import { isJson } from "@/lib/http/mediaType";
-import { ApiError, withActor } from "@/lib/http/respond";
+import { withActor } from "@/lib/http/respond";
 import { requestReanalysis } from "@/lib/ingest";
-import { toApiError } from "@/lib/ingest/apiErrors";
+import { Refusal } from "@/lib/errors";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
@@ -13,17 +13,13 @@ export const POST = withActor<{ params: Promise<{ id: string }> }>(async (reques
   let body: unknown = {};
   const text = await request.text();
   if (text.trim() !== "") {
-    if (!isJson(request)) throw new ApiError(415, "unsupported-media-type", "send the parameters as application/json");
+    if (!isJson(request)) throw new Refusal(415, "unsupported-media-type", "send the parameters as application/json");
     try {
       body = JSON.parse(text);
     } catch {
-      throw new ApiError(400, "invalid-body", "the request body is not valid JSON");
+      throw new Refusal(400, "invalid-body", "the request body is not valid JSON");
     }
   }
-  try {
-    const result = await requestReanalysis(id, body, actor);
-    return NextResponse.json(result, { status: result.created ? 201 : 200 });
-  } catch (error) {
-    throw toApiError(error);
-  }
+  const result = await requestReanalysis(id, body, actor);
+  return NextResponse.json(result, { status: result.created ? 201 : 200 });
 });

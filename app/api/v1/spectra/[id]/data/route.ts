@@ -1,5 +1,4 @@
 import { withActor } from "@/lib/http/respond";
-import { toApiError } from "@/lib/ingest/apiErrors";
 import { COLUMNS_MEDIA_TYPE } from "@/lib/spectrum-view/columnsFormat";
 import { dataPayload, dataQuerySchema, findViewRun, parseViewQuery } from "@/lib/spectrum-view/viewData";
 
@@ -14,15 +13,11 @@ export const dynamic = "force-dynamic";
 export const GET = withActor<{ params: Promise<{ id: string }> }>(async (request, { actor, params }) => {
   const { id } = await params;
   const query = parseViewQuery(dataQuerySchema, request.url);
-  try {
-    const { spectrum, run } = await findViewRun(actor, id, query.run);
-    const etag = `"${run.id}-${query.axis}-${query.format}-v1"`;
-    const headers = { ETag: etag, "Cache-Control": "private, no-cache", Vary: "Authorization, Cookie" };
-    if (request.headers.get("if-none-match") === etag) return new Response(null, { status: 304, headers });
-    const { body, cache } = await dataPayload(spectrum, run, query.axis, query.format);
-    const contentType = query.format === "binary" ? COLUMNS_MEDIA_TYPE : "application/json; charset=utf-8";
-    return new Response(body as Uint8Array<ArrayBuffer>, { status: 200, headers: { ...headers, "Content-Type": contentType, "Content-Length": String(body.length), "X-Bandkeep-Cache": cache } });
-  } catch (error) {
-    throw toApiError(error);
-  }
+  const { spectrum, run } = await findViewRun(actor, id, query.run);
+  const etag = `"${run.id}-${query.axis}-${query.format}-v1"`;
+  const headers = { ETag: etag, "Cache-Control": "private, no-cache", Vary: "Authorization, Cookie" };
+  if (request.headers.get("if-none-match") === etag) return new Response(null, { status: 304, headers });
+  const { body, cache } = await dataPayload(spectrum, run, query.axis, query.format);
+  const contentType = query.format === "binary" ? COLUMNS_MEDIA_TYPE : "application/json; charset=utf-8";
+  return new Response(body as Uint8Array<ArrayBuffer>, { status: 200, headers: { ...headers, "Content-Type": contentType, "Content-Length": String(body.length), "X-Bandkeep-Cache": cache } });
 });

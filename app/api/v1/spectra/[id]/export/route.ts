@@ -1,6 +1,5 @@
 import { z } from "zod";
 import { withActor } from "@/lib/http/respond";
-import { toApiError } from "@/lib/ingest/apiErrors";
 import { DISPLAY_AXES } from "@/lib/spectrum-view/axis";
 import { exportFile } from "@/lib/spectrum-view/exportFile";
 import { findViewRun, getRunReport, parseViewQuery, viewArraysOf } from "@/lib/spectrum-view/viewData";
@@ -22,23 +21,19 @@ const exportQuerySchema = z.object({
 export const GET = withActor<{ params: Promise<{ id: string }> }>(async (request, { actor, params }) => {
   const { id } = await params;
   const query = parseViewQuery(exportQuerySchema, request.url);
-  try {
-    const { spectrum, run } = await findViewRun(actor, id, query.run);
-    const report = await getRunReport(run.id);
-    const file =
-      query.format === "json"
-        ? exportFile({ format: "json", spectrum, runId: run.id, report })
-        : exportFile({ format: query.format, spectrum, runId: run.id, report, axis: query.axis, series: query.series, view: await viewArraysOf(spectrum, run) });
-    return new Response(file.body, {
-      status: 200,
-      headers: {
-        "Content-Type": file.contentType,
-        "Content-Disposition": file.disposition,
-        "Cache-Control": "private, no-store",
-        "X-Content-Type-Options": "nosniff",
-      },
-    });
-  } catch (error) {
-    throw toApiError(error);
-  }
+  const { spectrum, run } = await findViewRun(actor, id, query.run);
+  const report = await getRunReport(run.id);
+  const file =
+    query.format === "json"
+      ? exportFile({ format: "json", spectrum, runId: run.id, report })
+      : exportFile({ format: query.format, spectrum, runId: run.id, report, axis: query.axis, series: query.series, view: await viewArraysOf(spectrum, run) });
+  return new Response(file.body, {
+    status: 200,
+    headers: {
+      "Content-Type": file.contentType,
+      "Content-Disposition": file.disposition,
+      "Cache-Control": "private, no-store",
+      "X-Content-Type-Options": "nosniff",
+    },
+  });
 });

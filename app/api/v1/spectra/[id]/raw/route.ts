@@ -1,6 +1,5 @@
 import { notFound, withActor } from "@/lib/http/respond";
 import { getReadableSpectrum } from "@/lib/ingest/queries";
-import { toApiError } from "@/lib/ingest/apiErrors";
 import { getObjectBytes } from "@/lib/storage";
 
 export const runtime = "nodejs";
@@ -17,23 +16,19 @@ function contentDisposition(fileName: string): string {
 /** GET /api/v1/spectra/{id}/raw — the file exactly as uploaded, after the access check. */
 export const GET = withActor<{ params: Promise<{ id: string }> }>(async (_request, { actor, params }) => {
   const { id } = await params;
-  try {
-    const spectrum = await getReadableSpectrum(actor, id);
-    if (!spectrum) throw notFound(`spectrum ${id.slice(0, 80)}`);
-    const bytes = await getObjectBytes(spectrum.objectKey);
-    return new Response(new Blob([bytes as Uint8Array<ArrayBuffer>]), {
-      status: 200,
-      headers: {
-        "Content-Type": SAFE_TYPES.has(spectrum.contentType) ? spectrum.contentType : "application/octet-stream",
-        "Content-Length": String(bytes.length),
-        "Content-Disposition": contentDisposition(spectrum.fileName),
-        "X-Content-Type-Options": "nosniff",
-        "Content-Security-Policy": "sandbox; default-src 'none'",
-        "Cache-Control": "private, no-store",
-        "X-Bandkeep-Sha256": spectrum.sha256,
-      },
-    });
-  } catch (error) {
-    throw toApiError(error);
-  }
+  const spectrum = await getReadableSpectrum(actor, id);
+  if (!spectrum) throw notFound(`spectrum ${id.slice(0, 80)}`);
+  const bytes = await getObjectBytes(spectrum.objectKey);
+  return new Response(new Blob([bytes as Uint8Array<ArrayBuffer>]), {
+    status: 200,
+    headers: {
+      "Content-Type": SAFE_TYPES.has(spectrum.contentType) ? spectrum.contentType : "application/octet-stream",
+      "Content-Length": String(bytes.length),
+      "Content-Disposition": contentDisposition(spectrum.fileName),
+      "X-Content-Type-Options": "nosniff",
+      "Content-Security-Policy": "sandbox; default-src 'none'",
+      "Cache-Control": "private, no-store",
+      "X-Bandkeep-Sha256": spectrum.sha256,
+    },
+  });
 });

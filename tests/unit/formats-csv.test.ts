@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { csvCell, csvLine } from "@/lib/csv/csvCell";
+import { csvCell, csvLine, writeCsvTable } from "@/lib/formats/csv";
 import { writeCsv } from "@/lib/spectrum-view/writeCsv";
 
 // OWASP "CSV Injection": cells starting with = + - @ (and tab, CR) are run as formulas by
@@ -29,5 +29,16 @@ describe("csvCell", () => {
     const csv = writeCsv({ axis: "nm", x: new Float64Array([400, 401]), series: { measured: new Float64Array([-0.1, 0.2]) } },
       { columnNames: { measured: "=cmd|' /C calc'!A0" }, metadata: { sample: "@evil", pathLengthCm: 1 } });
     expect(csv.split("\r\n")).toEqual(["sample,'@evil", "pathLengthCm,1", "wavelength (nm),'=cmd|' /C calc'!A0", "400,-0.1", "401,0.2", ""]);
+  });
+});
+
+// RFC 4180 §2: CRLF line ends, a line end after the last record allowed; every line of a table has the header's field count.
+describe("writeCsvTable", () => {
+  it("writes metadata, the header and one line per point, CRLF-ended, empty cells for non-finite numbers", () => {
+    const csv = writeCsvTable({ metadata: { spectrum: "a,b.csv" }, header: ["x_nm", "y_absorbance"], columns: [[400, 401], [0.5, Number.NaN]] });
+    expect(csv).toBe('spectrum,"a,b.csv"\r\nx_nm,y_absorbance\r\n400,0.5\r\n401,\r\n');
+  });
+  it("refuses columns of different lengths, naming the column", () => {
+    expect(() => writeCsvTable({ header: ["x", "y"], columns: [[1, 2], [1]] })).toThrow(new RangeError("column y has 1 values for 2 points"));
   });
 });
