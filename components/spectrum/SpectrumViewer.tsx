@@ -24,6 +24,8 @@ async function fetchData(url: string): Promise<SpectrumDataPayload> {
 }
 
 const num = (v: number | null | undefined, digits: number) => (v === null || v === undefined || !Number.isFinite(v) ? "—" : v.toFixed(digits));
+/** A band's height to 4 significant digits: absorbance 0.1732, emission counts 3,126,000. */
+const heightText = (v: number | null) => (v === null || !Number.isFinite(v) ? "—" : Number(v.toPrecision(4)).toLocaleString("en-GB", { maximumSignificantDigits: 4 }));
 const bare = (text: string) => text.replace(/ (eV|nm|meV|cm⁻¹)$/, "");
 
 const magnitude = (f: FlagRow): string => formatFlagMagnitude(f);
@@ -236,7 +238,7 @@ export function SpectrumViewer({
                         <td className="px-4 py-1.5">{bare(position(p.energyEv, "nm"))}</td>
                       </>
                     )}
-                    <td className="px-4 py-1.5">{num(p.height, 4)}</td>
+                    <td className="px-4 py-1.5">{heightText(p.height)}</td>
                     <td className="px-4 py-1.5">{widthText(p.fwhmMeV, spec)}</td>
                     <td className="px-4 py-1.5 text-xs text-glow-deep">{p.isFirstExciton ? spec.firstBandLabel : ""}</td>
                   </tr>
