@@ -1,10 +1,12 @@
 import pg from "pg";
 import { QueryTypes, Sequelize } from "sequelize";
 import { config } from "./config";
+import { processSlot } from "./processSingleton";
 
 // The one Sequelize instance of a process. Created lazily so that importing a model
 // does not need a database until it is used.
-const globalForDb = globalThis as unknown as { bandkeepSequelize?: Sequelize; bandkeepMigrationSequelize?: Sequelize };
+const appDb = processSlot<Sequelize>("bandkeepSequelize");
+const migrationDb = processSlot<Sequelize>("bandkeepMigrationSequelize");
 
 const connect = (url: string, poolMax: number) =>
   new Sequelize(url, {
@@ -17,20 +19,22 @@ const connect = (url: string, poolMax: number) =>
 
 /** The app's connection, as the least-privilege app role (DATABASE_URL). */
 export function sequelize(): Sequelize {
-  globalForDb.bandkeepSequelize ??= connect(config().DATABASE_URL, Number(process.env.DB_POOL_MAX ?? 10));
-  return globalForDb.bandkeepSequelize;
+  const open = appDb.get() ?? connect(config().DATABASE_URL, Number(process.env.DB_POOL_MAX ?? 10));
+  appDb.set(open);
+  return open;
 }
 
 /** The migrations' connection, as the schema owner (MIGRATION_DATABASE_URL, else DATABASE_URL for a one-role set-up). */
 export function migrationSequelize(): Sequelize {
-  globalForDb.bandkeepMigrationSequelize ??= connect(config().MIGRATION_DATABASE_URL ?? config().DATABASE_URL, 2);
-  return globalForDb.bandkeepMigrationSequelize;
+  const open = migrationDb.get() ?? connect(config().MIGRATION_DATABASE_URL ?? config().DATABASE_URL, 2);
+  migrationDb.set(open);
+  return open;
 }
 
 export async function closeDb(): Promise<void> {
-  const open = [globalForDb.bandkeepSequelize, globalForDb.bandkeepMigrationSequelize];
-  globalForDb.bandkeepSequelize = undefined;
-  globalForDb.bandkeepMigrationSequelize = undefined;
+  const open = [appDb.get(), migrationDb.get()];
+  appDb.set(undefined);
+  migrationDb.set(undefined);
   await Promise.all(open.map((db) => db?.close()));
 }
 

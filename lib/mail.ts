@@ -1,15 +1,13 @@
 import nodemailer, { type Transporter } from "nodemailer";
 import { config } from "./config";
-
-const globalForMail = globalThis as unknown as { bandkeepMail?: Transporter };
+import { processSingleton } from "@/lib/processSingleton";
 
 export function mailer(): Transporter {
-  if (!globalForMail.bandkeepMail) {
+  return processSingleton("bandkeepMail", () => {
     // ignoreTLS: the local SMTP fake offers no STARTTLS; a real relay is configured by SMTP_URL.
     const url = config().SMTP_URL;
-    globalForMail.bandkeepMail = nodemailer.createTransport(url, { ignoreTLS: url.startsWith("smtp://127.") });
-  }
-  return globalForMail.bandkeepMail;
+    return nodemailer.createTransport(url, { ignoreTLS: url.startsWith("smtp://127.") });
+  });
 }
 
 /**

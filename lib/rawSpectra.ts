@@ -1,7 +1,8 @@
 import { config } from "@/lib/config";
 import { parseSpectrumBytes, readChoiceOptions, type ParsedSpectrum, type ReadChoice, type Technique } from "@/lib/engine";
-import { SizedLru } from "@/lib/spectrum-view/lruCache";
+import { SizedLru } from "@/lib/lruCache";
 import { getObjectBytes } from "@/lib/storage";
+import { processSingleton } from "@/lib/processSingleton";
 
 /** What it takes to read a stored raw file back: its name (for messages), technique and object key. */
 export type StoredRawFile = { fileName: string; technique: Technique; objectKey: string };
@@ -32,8 +33,7 @@ export function parseRawBytes(file: StoredRawFile, bytes: Uint8Array, choice: Re
   });
 }
 
-const globalForCache = globalThis as unknown as { bandkeepParsedRaw?: SizedLru<ParsedSpectrum> };
-const parsedCache = (globalForCache.bandkeepParsedRaw ??= new SizedLru<ParsedSpectrum>(48 * 1024 * 1024, (s) => 16 * (s.x.length + s.y.length) + 1024));
+const parsedCache = processSingleton("bandkeepParsedRaw", () => new SizedLru<ParsedSpectrum>(48 * 1024 * 1024, (s) => 16 * (s.x.length + s.y.length) + 1024));
 
 const choiceKey = (choice: ReadChoice) =>
   (["column", "block", "pair", "sheet", "xUnit", "yKind"] as const).map((k) => String(choice[k] ?? "")).join("|");

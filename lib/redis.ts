@@ -1,12 +1,11 @@
 import { Redis } from "ioredis";
 import { config } from "./config";
-
-const globalForRedis = globalThis as unknown as { bandkeepRedis?: Redis };
+import { processSingleton } from "@/lib/processSingleton";
 
 /** Shared connection for short commands in requests (sign-in limits, caches). */
 export function redis(): Redis {
-  if (!globalForRedis.bandkeepRedis) {
-    globalForRedis.bandkeepRedis = new Redis(config().REDIS_URL, {
+  return processSingleton("bandkeepRedis", () => {
+    const client = new Redis(config().REDIS_URL, {
       // Commands sent while the first connection is still opening wait for it; a Redis
       // that is down fails each command within two seconds instead of hanging a request.
       maxRetriesPerRequest: 1,
@@ -14,9 +13,9 @@ export function redis(): Redis {
       connectTimeout: 2000,
       commandTimeout: 2000,
     });
-    globalForRedis.bandkeepRedis.on("error", () => {
+    client.on("error", () => {
       // Reported through health checks and the failing call; avoid an unhandled event.
     });
-  }
-  return globalForRedis.bandkeepRedis;
+    return client;
+  });
 }

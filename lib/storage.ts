@@ -1,22 +1,21 @@
 import { randomUUID } from "node:crypto";
 import { DeleteObjectCommand, GetObjectCommand, HeadBucketCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
 import { config } from "./config";
+import { processSingleton } from "@/lib/processSingleton";
 
 // All object storage goes through here and through @aws-sdk/client-s3 only, so a
 // managed S3 endpoint is a change of environment variables.
-const globalForS3 = globalThis as unknown as { bandkeepS3?: S3Client };
 
 export function s3(): S3Client {
-  if (!globalForS3.bandkeepS3) {
+  return processSingleton("bandkeepS3", () => {
     const c = config();
-    globalForS3.bandkeepS3 = new S3Client({
+    return new S3Client({
       region: c.S3_REGION,
       endpoint: c.S3_ENDPOINT,
       forcePathStyle: c.S3_FORCE_PATH_STYLE === "true",
       credentials: { accessKeyId: c.S3_ACCESS_KEY_ID, secretAccessKey: c.S3_SECRET_ACCESS_KEY },
     });
-  }
-  return globalForS3.bandkeepS3;
+  });
 }
 
 export { sha256Hex } from "./hash";

@@ -1,7 +1,7 @@
 import { Op } from "sequelize";
 import { AnalysisRun, models } from "@/models";
 import { enqueueRun } from "@/lib/ingest/enqueueRun";
-import { analysisQueue } from "@/lib/queue";
+import { analysisJobId, analysisQueue } from "@/lib/queue";
 
 const LIVE_STATES = new Set(["waiting", "active", "delayed", "prioritized", "waiting-children"]);
 
@@ -20,7 +20,7 @@ export async function sweepWaitingRuns(olderThanMs: number, limit = 500): Promis
   });
   let queued = 0;
   for (const run of runs) {
-    const job = await analysisQueue().getJob(`run-${run.id}`);
+    const job = await analysisQueue().getJob(analysisJobId(run.id));
     if (job && LIVE_STATES.has(await job.getState())) continue;
     await enqueueRun(run.spectrumId, run.id, { replaceFinished: true });
     await AnalysisRun.update({ updatedAt: new Date() }, { where: { id: run.id } }).catch(() => {});

@@ -7,7 +7,7 @@ import { listSeries } from "@/lib/queries/series";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { KIND_LABELS } from "@/lib/registry/flagKinds";
-import { listSavedSearches } from "@/lib/search/savedSearches";
+import { listSavedSearches } from "@/lib/queries/savedSearches";
 import { SavedSearchList } from "@/components/spectra/SavedSearchList";
 import { countOf } from "@/lib/format/quantity";
 

@@ -3,7 +3,7 @@ import { redirect } from "next/navigation";
 import { currentActor } from "@/lib/auth/actor";
 import { Logo } from "@/components/shell/Logo";
 import { SignInForm } from "@/components/auth/SignInForm";
-import { safeReturnPath } from "@/lib/http/returnPath";
+import { safeReturnPath } from "@/lib/auth/returnPath";
 
 export const metadata: Metadata = { title: "Sign in" };
 

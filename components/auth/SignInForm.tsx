@@ -2,7 +2,7 @@
 
 import { signIn } from "next-auth/react";
 import { useState, type FormEvent } from "react";
-import { safeReturnPath } from "@/lib/http/returnPath";
+import { safeReturnPath } from "@/lib/auth/returnPath";
 import { SIGN_IN_REFUSALS, type SignInRefusal } from "@/lib/auth/signInRefusals";
 
 export function SignInForm({ returnTo }: { returnTo: string }) {

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { countText } from "@/lib/search/fastCount";
-import type { SavedSearch } from "@/lib/search/savedSearches";
+import type { SavedSearch } from "@/lib/queries/savedSearches";
 
 /** The person's saved spectra searches with what each finds now; each opens the search. */
 export function SavedSearchList({ searches }: { searches: SavedSearch[] }) {

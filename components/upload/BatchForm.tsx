@@ -7,7 +7,7 @@ import { ParentPicker } from "@/components/parents/ParentPicker";
 import type { Technique } from "@/lib/engine";
 import { hazardsOf } from "@/lib/hazards";
 import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "@/lib/ingest/metadata";
-import type { UploadChoices } from "@/lib/ingest/queries";
+import type { UploadChoices } from "@/lib/queries/spectrum-status";
 import { X_UNITS, X_UNIT_NAMES, Y_KINDS, Y_KIND_NAMES } from "@/lib/engine/parse/readChoice";
 
 export type BatchValues = {

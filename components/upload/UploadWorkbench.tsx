@@ -2,7 +2,7 @@
 
 import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { ingestMetadataSchema } from "@/lib/ingest/metadata";
-import type { UploadChoices } from "@/lib/ingest/queries";
+import type { UploadChoices } from "@/lib/queries/spectrum-status";
 import { LIGHT_CAUTION, usesUvOrLaserLight } from "@/lib/hazards";
 import { formatBytes } from "@/lib/format/bytes";
 import { BatchForm, EMPTY_VALUES, type BatchValues } from "./BatchForm";

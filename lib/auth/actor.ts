@@ -7,6 +7,7 @@ import { ApiToken, models } from "@/models";
 import type { Role } from "@/models/Membership";
 import { authOptions } from "./options";
 import { FORGET_ALL, onTokenRevoked, revocationEpoch } from "./tokenRevocations";
+import { processSingleton, processSlot } from "@/lib/processSingleton";
 
 export type ActorMembership = { groupId: string; groupName: string; groupSlug: string; role: Role };
 export type Actor = {
@@ -63,18 +64,17 @@ export function hashToken(token: string): string {
 const TOKEN_CACHE_MS = Number.isFinite(Number(process.env.AUTH_CACHE_MS)) ? Number(process.env.AUTH_CACHE_MS) : 5000;
 // On globalThis: the server action that revokes and the route handler that reads may be
 // bundled as separate module copies in one process.
-const globalForTokens = globalThis as unknown as { bandkeepTokenCache?: Map<string, { actor: Actor; until: number }> };
-const tokenCache = (globalForTokens.bandkeepTokenCache ??= new Map());
+const tokenCache = processSingleton("bandkeepTokenCache", () => new Map<string, { actor: Actor; until: number }>());
 
 export function forgetApiToken(tokenHash: string): void {
   if (tokenHash === FORGET_ALL) tokenCache.clear();
   else tokenCache.delete(tokenHash);
 }
 
-const globalForListener = globalThis as unknown as { bandkeepTokenListener?: boolean };
+const listening = processSlot<boolean>("bandkeepTokenListener");
 function listenForRevocations(): void {
-  if (globalForListener.bandkeepTokenListener) return;
-  globalForListener.bandkeepTokenListener = true;
+  if (listening.get()) return;
+  listening.set(true);
   onTokenRevoked(forgetApiToken);
 }
 

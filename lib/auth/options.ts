@@ -6,11 +6,11 @@ import { User, models } from "@/models";
 import { recordAudit } from "@/lib/audit";
 import { config } from "@/lib/config";
 import { sendMail } from "@/lib/mail";
-import { CLIENT_ADDRESS_HEADER } from "@/lib/http/clientAddressHeader";
+import { CLIENT_ADDRESS_HEADER } from "@/lib/clientAddressHeader";
 import { SignInRefused } from "./signInRefusals";
 import { issueUnlockToken, recordFailedSignIn, recordSuccessfulSignIn, signInGate, UNLOCK_LINK_SECONDS, type FailureCount } from "./rate-limit";
 import { currentSessionVersion, revokeSessions } from "./sessionVersion";
-import { safeReturnPath } from "@/lib/http/returnPath";
+import { safeReturnPath } from "@/lib/auth/returnPath";
 
 // Under plain Node ESM (scripts, tests) the CommonJS default arrives wrapped.
 const Credentials = (CredentialsImport as unknown as { default?: typeof CredentialsImport }).default ?? CredentialsImport;

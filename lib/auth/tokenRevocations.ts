@@ -1,5 +1,6 @@
 import type { Redis } from "ioredis";
 import { redis } from "@/lib/redis";
+import { processSlot } from "@/lib/processSingleton";
 
 /**
  * Tells every app process at once that an API token was revoked, over Redis pub/sub, so the
@@ -11,10 +12,11 @@ const CHANNEL = "bandkeep:api-token-revoked";
 export const FORGET_ALL = "*";
 
 type Feed = { subscriber: Redis; live: boolean; epoch: number; listeners: Set<(tokenHash: string) => void> };
-const globalForFeed = globalThis as unknown as { bandkeepRevocationFeed?: Feed };
+const feedSlot = processSlot<Feed>("bandkeepRevocationFeed");
 
 function feed(): Feed {
-  if (globalForFeed.bandkeepRevocationFeed) return globalForFeed.bandkeepRevocationFeed;
+  const existing = feedSlot.get();
+  if (existing) return existing;
   const subscriber = redis().duplicate({ maxRetriesPerRequest: null, commandTimeout: undefined });
   const state: Feed = { subscriber, live: false, epoch: 0, listeners: new Set() };
   const tell = (tokenHash: string) => {
@@ -35,7 +37,7 @@ function feed(): Feed {
     // A Redis that is down shows in the health checks; tokens are simply not cached meanwhile.
   });
   subscriber.on("message", (_channel: string, tokenHash: string) => tell(tokenHash));
-  globalForFeed.bandkeepRevocationFeed = state;
+  feedSlot.set(state);
   return state;
 }
 

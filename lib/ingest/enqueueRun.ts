@@ -1,4 +1,4 @@
-import { analysisQueue, enqueueAnalysis } from "@/lib/queue";
+import { analysisJobId, analysisQueue, enqueueAnalysis } from "@/lib/queue";
 
 /**
  * Puts a run on the analysis queue. The job id is `run-<runId>`, so a run already waiting
@@ -8,7 +8,7 @@ import { analysisQueue, enqueueAnalysis } from "@/lib/queue";
  */
 export async function enqueueRun(spectrumId: string, runId: string, options: { replaceFinished?: boolean } = {}): Promise<void> {
   if (options.replaceFinished) {
-    const job = await analysisQueue().getJob(`run-${runId}`);
+    const job = await analysisQueue().getJob(analysisJobId(runId));
     if (job) {
       const state = await job.getState();
       if (state === "completed" || state === "failed") await job.remove();

@@ -11,15 +11,16 @@ import type { AnalysisReport, ParsedSpectrum } from "@/lib/engine/types";
 import { notFound } from "@/lib/http/respond";
 import { readChoiceOf, type AnalysisParameters } from "@/lib/ingest/parameters";
 import type { ReadChoice } from "@/lib/engine";
-import { getReadableSpectrum } from "@/lib/ingest/queries";
+import { getReadableSpectrum } from "@/lib/queries/spectrum-status";
 import { redis } from "@/lib/redis";
 import { parsedRawFile, storedReadChoice } from "@/lib/rawSpectra";
 import { AnalysisRun, Spectrum, models } from "@/models";
 import { DISPLAY_AXES, type DisplayAxis } from "./axis";
 import { deriveViewArrays, type ViewArrays } from "./deriveViewArrays";
-import { SizedLru } from "./lruCache";
+import { SizedLru } from "@/lib/lruCache";
 import { buildBinaryPayload, buildDataPayload } from "./payload";
 import { Refusal } from "@/lib/errors";
+import { processSingleton } from "@/lib/processSingleton";
 
 export const viewQuerySchema = z.object({
   axis: z.enum(DISPLAY_AXES, { error: "axis must be nm, ev or cm-1" }).default("nm"),
@@ -108,15 +109,11 @@ function parsedStored(spectrum: Spectrum, choice: ReadChoice): Promise<ParsedSpe
   });
 }
 
-const globalCache = globalThis as unknown as {
-  bandkeepViewArrays?: SizedLru<{ arrays: ViewArrays; technique: Technique; yUnit: string }>;
-  bandkeepViewPayloads?: SizedLru<Buffer>;
-  bandkeepViewInflight?: Map<string, Promise<{ arrays: ViewArrays; technique: Technique; yUnit: string }>>;
-};
+type ViewEntry = { arrays: ViewArrays; technique: Technique; yUnit: string };
 const MB = 1024 * 1024;
-const arraysCache = (globalCache.bandkeepViewArrays ??= new SizedLru<{ arrays: ViewArrays; technique: Technique; yUnit: string }>(64 * MB, (v) => v.arrays.energyEv.length * 8 * 5 + 256));
-const payloadCache = (globalCache.bandkeepViewPayloads ??= new SizedLru<Buffer>(96 * MB, (b) => b.length));
-const inflight = (globalCache.bandkeepViewInflight ??= new Map());
+const arraysCache = processSingleton("bandkeepViewArrays", () => new SizedLru<ViewEntry>(64 * MB, (v) => v.arrays.energyEv.length * 8 * 5 + 256));
+const payloadCache = processSingleton("bandkeepViewPayloads", () => new SizedLru<Buffer>(96 * MB, (b) => b.length));
+const inflight = processSingleton("bandkeepViewInflight", () => new Map<string, Promise<ViewEntry>>());
 const REDIS_TTL_S = 7 * 24 * 3600;
 
 const arraysKey = (runId: string) => `${ENGINE_VERSION}:${runId}`;

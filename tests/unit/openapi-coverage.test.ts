@@ -1,7 +1,7 @@
 import { readdirSync, readFileSync, statSync } from "node:fs";
 import { join, relative } from "node:path";
 import { describe, expect, it } from "vitest";
-import { openApiDocument } from "@/lib/ingest/openapi";
+import { openApiDocument } from "@/lib/http/openapi";
 
 // Every route handler under app/api/v1 is described in the served OpenAPI document,
 // with each HTTP method it exports, so the description cannot fall behind the code.

@@ -84,7 +84,7 @@ describe("a fake flag kind and a fake technique added to the registries", () => 
   });
 
   it("reach the OpenAPI enums and the thresholds object", async () => {
-    const { openApiDocument } = await import("@/lib/ingest/openapi");
+    const { openApiDocument } = await import("@/lib/http/openapi");
     const text = JSON.stringify(openApiDocument());
     const kindEnums = [...text.matchAll(/"enum":\[("bleach"[^\]]*)\]/g)].map((m) => m[1]!);
     expect(kindEnums.length).toBeGreaterThanOrEqual(2);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { safeReturnPath } from "@/lib/http/returnPath";
+import { safeReturnPath } from "@/lib/auth/returnPath";
 
 // Shapes of open-redirect payloads as listed by OWASP's "Unvalidated Redirects and Forwards
 // Cheat Sheet" and the WHATWG URL standard's parsing rules (backslash is a path separator

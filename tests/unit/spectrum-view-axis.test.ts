@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { analyzeSpectrum } from "@/lib/engine";
 import { axisToEnergy, energyToAxis, toDisplayAxis } from "@/lib/spectrum-view/axis";
 import { deriveViewArrays } from "@/lib/spectrum-view/deriveViewArrays";
-import { SizedLru } from "@/lib/spectrum-view/lruCache";
+import { SizedLru } from "@/lib/lruCache";
 import { PARENT_BANDS, absorbanceSpectrum, plSpectrum } from "../engine/synthetic";
 
 // References: CODATA 2018 (hc = 1239.841984 eV·nm, 1 eV = 8065.54394 cm⁻¹; Tiesinga et al.,

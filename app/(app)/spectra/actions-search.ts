@@ -3,7 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { protectedAction } from "@/lib/actions/protected";
-import { deleteSavedSearch, saveSearch } from "@/lib/search/savedSearches";
+import { deleteSavedSearch, saveSearch } from "@/lib/queries/savedSearches";
 import { hasFilters, searchQueryString, spectrumSearchSchema } from "@/lib/search/spectrumSearchQuery";
 import { refuse } from "@/lib/errors";
 

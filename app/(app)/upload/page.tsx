@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { requireActor } from "@/lib/auth/actor";
 import { config } from "@/lib/config";
-import { getUploadChoices } from "@/lib/ingest/queries";
+import { getUploadChoices } from "@/lib/queries/spectrum-status";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { UploadWorkbench } from "@/components/upload/UploadWorkbench";

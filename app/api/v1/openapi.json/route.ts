@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { withActor } from "@/lib/http/respond";
-import { openApiDocument } from "@/lib/ingest/openapi";
+import { openApiDocument } from "@/lib/http/openapi";
 
 export const runtime = "nodejs";
 

@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { notFound, withActor } from "@/lib/http/respond";
-import { getSeriesStatus } from "@/lib/ingest/queries";
+import { getSeriesStatus } from "@/lib/queries/spectrum-status";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";

@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { notFound, withActor } from "@/lib/http/respond";
-import { getSpectrumStatus } from "@/lib/ingest/queries";
+import { getSpectrumStatus } from "@/lib/queries/spectrum-status";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";

@@ -1,6 +1,6 @@
 import { notFound, withActor } from "@/lib/http/respond";
 import { getSeriesDetail } from "@/lib/queries/series-detail";
-import { seriesCsv } from "@/lib/series/seriesCsv";
+import { seriesCsv } from "@/lib/queries/seriesCsv";
 import { isUuid } from "@/lib/ids";
 
 export const runtime = "nodejs";

@@ -3,7 +3,7 @@ import { isJson } from "@/lib/http/mediaType";
 import { revalidatePath } from "next/cache";
 import { notFound, withActor } from "@/lib/http/respond";
 import { seriesForLinking, setSupernatantLink } from "@/lib/series/supernatantLinks";
-import { getSupernatantReadings } from "@/lib/series/supernatantReadings";
+import { getSupernatantReadings } from "@/lib/queries/supernatantReadings";
 import { linkBodySchema, readingsQuerySchema } from "@/lib/series/supernatantSchemas";
 import { parseViewQuery } from "@/lib/spectrum-view/viewData";
 import { isUuid } from "@/lib/ids";

@@ -1,5 +1,5 @@
 import { notFound, withActor } from "@/lib/http/respond";
-import { getReadableSpectrum } from "@/lib/ingest/queries";
+import { getReadableSpectrum } from "@/lib/queries/spectrum-status";
 import { getObjectBytes } from "@/lib/storage";
 
 export const runtime = "nodejs";

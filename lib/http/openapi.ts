@@ -1,7 +1,7 @@
 import { ENGINE_VERSION } from "@/lib/engine/version";
 import { FLAG_KINDS, FLAG_UNITS, THRESHOLD_SPECS } from "@/lib/registry/flagKinds";
-import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "./metadata";
-import { MAX_CONCENTRATION_RATIO, NORMALIZATION_WAVELENGTH_NM } from "./normalization";
+import { INGEST_MATERIALS, INGEST_TECHNIQUES } from "@/lib/ingest/metadata";
+import { MAX_CONCENTRATION_RATIO, NORMALIZATION_WAVELENGTH_NM } from "@/lib/ingest/normalization";
 import { X_UNIT_NAMES, Y_KIND_NAMES } from "@/lib/engine/parse/readChoice";
 
 const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });

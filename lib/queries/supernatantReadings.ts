@@ -9,11 +9,11 @@ import { SpectrumFileError } from "@/lib/engine";
 import type { ParsedSpectrum } from "@/lib/engine/types";
 
 import type { ReadChoice } from "@/lib/engine";
-import { getReadableSpectrum } from "@/lib/ingest/queries";
+import { getReadableSpectrum } from "@/lib/queries/spectrum-status";
 import { parsedRawFile, storedReadChoice } from "@/lib/rawSpectra";
 import { Series, models } from "@/models";
-import { ABSORBANCE_READING, readAbsorbanceAt } from "./readAbsorbanceAt";
-import type { AbsorbanceReading, ReadingsQuery, SupernatantReadings } from "./supernatantSchemas";
+import { ABSORBANCE_READING, readAbsorbanceAt } from "@/lib/series/readAbsorbanceAt";
+import type { AbsorbanceReading, ReadingsQuery, SupernatantReadings } from "@/lib/series/supernatantSchemas";
 import { Refusal } from "@/lib/errors";
 
 type StoredFile = { id: string; fileName: string; objectKey: string; sha256: string; columnChoice: string | null; readOptions: ReadChoice | null; pathLengthCm: number | null };

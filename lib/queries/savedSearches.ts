@@ -2,8 +2,8 @@ import { QueryTypes } from "sequelize";
 import type { Actor } from "@/lib/auth/actor";
 import { selectRows, sequelize } from "@/lib/db";
 import { listSpectra } from "@/lib/queries/spectra";
-import type { FastCount } from "./fastCount";
-import { spectrumSearchSchema } from "./spectrumSearchQuery";
+import type { FastCount } from "@/lib/search/fastCount";
+import { spectrumSearchSchema } from "@/lib/search/spectrumSearchQuery";
 
 export type SavedSearch = { id: string; name: string; query: string; count: FastCount | null };
 
