@@ -6,7 +6,7 @@ import { CURVE_STYLES } from "@/components/charts/theme";
 import { CM1_PER_EV } from "@/lib/engine/constants";
 import { FLAG_COLOURS, KIND_LABELS, type FlagKind } from "@/lib/registry/flagKinds";
 import { TECHNIQUE_SPECS, type Technique } from "@/lib/registry/techniques";
-import { yUnitLabel } from "@/lib/registry/units";
+import { yUnitLabel } from "@/lib/format/unitLabels";
 
 /**
  * Sample against reference around a flag, in the house chart look: energy for electronic spectra,

@@ -1,6 +1,6 @@
 import { selectRows } from "@/lib/db";
 import { BAND_ROLE_LABELS, TECHNIQUE_SPECS, type BandRole, type Technique } from "@/lib/registry/techniques";
-import { xUnitLabel, yUnitLabel } from "@/lib/registry/units";
+import { xUnitLabel, yUnitLabel } from "@/lib/format/unitLabels";
 import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadSpectrum, canWrite, groupOfSpectrum, memberGroupIds } from "@/lib/auth/access";
