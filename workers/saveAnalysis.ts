@@ -65,6 +65,7 @@ function signatureRows(report: AnalysisReport, plan: CarryPlan) {
       fwhmChangeMeV: finiteOrNull(f.fwhmChangeMeV),
       widthMeV: bandWidthAt(report, finiteOrNull(f.energyEv)),
       ...(f.intraband !== undefined ? { intraband: f.intraband } : {}),
+      ...(f.bandRole !== undefined ? { bandRole: f.bandRole } : {}),
     },
   }));
 }

@@ -9,6 +9,7 @@ import { PageHeader } from "@/components/ui/PageHeader";
 import { KIND_LABELS } from "@/lib/registry/flagKinds";
 import { listSavedSearches } from "@/lib/queries/savedSearches";
 import { SavedSearchList } from "@/components/spectra/SavedSearchList";
+import { countOf } from "@/lib/format/quantity";
 
 export const metadata: Metadata = { title: "Overview" };
 
@@ -16,7 +17,7 @@ function Stat({ label, value, href }: { label: string; value: number; href?: str
   const body = (
     <div className="rounded-lg border border-stone-200 bg-white px-4 py-3">
       <p className="tabular text-2xl font-semibold">{value}</p>
-      <p className="text-xs uppercase tracking-wide text-ink-soft">{label}</p>
+      <p className="text-xs text-ink-soft">{label}</p>
     </div>
   );
   return href ? <Link href={href} className="hover:opacity-80">{body}</Link> : body;
@@ -38,7 +39,7 @@ export default async function OverviewPage() {
             {shared.map((s) => (
               <li key={s.id} className="rounded-lg border border-stone-200 bg-white px-4 py-3">
                 <Link prefetch={false} href={`/series/${s.id}`} className="font-medium text-glow-deep hover:underline">{s.name}</Link>
-                <span className="ml-2 text-sm text-ink-soft">{s.projectName} · {s.spectrumCount} spectra</span>
+                <span className="ml-2 text-sm text-ink-soft">{s.projectName} · {countOf(s.spectrumCount, "spectrum")}</span>
               </li>
             ))}
           </ul>
@@ -65,7 +66,7 @@ export default async function OverviewPage() {
         </EmptyState>
       ) : (
         <section>
-          <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Latest flagged changes</h2>
+          <h2 className="mb-2 text-sm font-semibold text-ink-soft">Latest flagged changes</h2>
           {overview.recentSignatures.length === 0 ? (
             <p className="text-sm text-ink-soft">No band changes flagged yet.</p>
           ) : (

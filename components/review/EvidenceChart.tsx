@@ -1,63 +1,47 @@
 "use client";
 
-import { useEffect, useRef } from "react";
-import uPlot from "uplot";
-import "uplot/dist/uPlot.min.css";
+import { useMemo } from "react";
+import { LinePlot, type PlotCurve } from "@/components/charts/LinePlot";
+import { CURVE_STYLES } from "@/components/charts/theme";
+import { CM1_PER_EV } from "@/lib/engine/constants";
+import { FLAG_COLOURS, KIND_LABELS, type FlagKind } from "@/lib/registry/flagKinds";
+import { TECHNIQUE_SPECS, type Technique } from "@/lib/registry/techniques";
+import { yUnitLabel } from "@/lib/format/unitLabels";
 
-/** Sample against reference around a flag, on an energy axis; a dashed line marks the flag. */
-export function EvidenceChart({ energy, sample, reference, centreEv, sampleName, referenceName, unit }: {
+/**
+ * Sample against reference around a flag, in the house chart look: energy for electronic spectra,
+ * wavenumber (high to low, as the technique's default) for mid-IR; the flag drawn as a labelled marker.
+ */
+export function EvidenceChart({ energy, sample, reference, centreEv, sampleName, referenceName, unit, kind, technique }: {
   energy: number[]; sample: number[]; reference: (number | null)[] | null; centreEv: number | null;
-  sampleName: string; referenceName: string | null; unit: string;
+  sampleName: string; referenceName: string | null; unit: string; kind: FlagKind; technique: Technique;
 }) {
-  const box = useRef<HTMLDivElement>(null);
-  useEffect(() => {
-    const el = box.current;
-    if (!el || energy.length < 2) return;
-    const series: uPlot.Series[] = [
-      { label: "Energy (eV)", value: (_u, v) => (v == null ? "—" : v.toFixed(3)) },
-      { label: `Sample: ${sampleName}`, stroke: "#d9622b", width: 2 },
-    ];
-    const data: uPlot.AlignedData = [energy, sample];
-    if (reference) {
-      series.push({ label: `Reference: ${referenceName ?? "parent"}`, stroke: "#4b5566", width: 1.5, dash: [6, 4] });
-      (data as (number | null)[][]).push(reference);
-    }
-    const marker: uPlot.Plugin = {
-      hooks: {
-        draw: (u) => {
-          if (centreEv === null) return;
-          const x = u.valToPos(centreEv, "x", true);
-          const ctx = u.ctx;
-          ctx.save();
-          ctx.strokeStyle = "#b7791f";
-          ctx.setLineDash([3, 3]);
-          ctx.beginPath();
-          ctx.moveTo(x, u.bbox.top);
-          ctx.lineTo(x, u.bbox.top + u.bbox.height);
-          ctx.stroke();
-          ctx.restore();
-        },
-      },
-    };
-    const plot = new uPlot(
-      {
-        width: Math.max(320, el.clientWidth),
-        height: 300,
-        scales: { x: { time: false } },
-        axes: [{ label: "Energy (eV)" }, { label: unit === "counts" ? "PL (per eV)" : unit || "signal" }],
-        series,
-        plugins: [marker],
-        legend: { live: true },
-      },
-      data,
-      el,
-    );
-    const resize = () => plot.setSize({ width: Math.max(320, el.clientWidth), height: 300 });
-    window.addEventListener("resize", resize);
-    return () => {
-      window.removeEventListener("resize", resize);
-      plot.destroy();
-    };
-  }, [energy, sample, reference, centreEv, sampleName, referenceName, unit]);
-  return <div ref={box} className="w-full" data-testid="evidence-chart" role="img" aria-label={`Spectra of ${sampleName}${referenceName ? ` and its reference ${referenceName}` : ""} around the flagged energy`} />;
+  const spec = TECHNIQUE_SPECS[technique];
+  const wavenumber = spec.defaultAxis === "cm-1";
+  const x = useMemo(() => (wavenumber ? energy.map((e) => e * CM1_PER_EV) : energy), [energy, wavenumber]);
+  const curves = useMemo<PlotCurve[]>(
+    () => [
+      { key: "sample", label: `sample ${sampleName}`, style: CURVE_STYLES.sample, y: sample },
+      ...(reference ? [{ key: "reference", label: `reference ${referenceName ?? "parent"}`, style: CURVE_STYLES.reference, y: reference }] : []),
+    ],
+    [sample, reference, sampleName, referenceName],
+  );
+  if (energy.length < 2) return null;
+  const yText = unit === "counts" ? "emission (counts per eV)" : yUnitLabel(unit) || "signal";
+  const yLabel = yText.charAt(0).toUpperCase() + yText.slice(1);
+  const markers = centreEv === null ? [] : [{ id: "flag", at: wavenumber ? centreEv * CM1_PER_EV : centreEv, label: KIND_LABELS[kind], colour: FLAG_COLOURS[kind] }];
+  return (
+    <LinePlot
+      x={x}
+      curves={curves}
+      xLabel={wavenumber ? "Wavenumber (cm⁻¹)" : "Energy (eV)"}
+      xUnit={wavenumber ? "cm⁻¹" : "eV"}
+      yLabel={yLabel}
+      height={300}
+      markers={markers}
+      descending={wavenumber && spec.defaultDirection === "descending"}
+      testId="evidence-chart"
+      ariaLabel={`Spectra of ${sampleName}${referenceName ? ` and its reference ${referenceName}` : ""} around the flagged band`}
+    />
+  );
 }

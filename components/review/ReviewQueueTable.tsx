@@ -8,6 +8,8 @@ import type { ReviewItem } from "@/lib/queries/review";
 import { KIND_LABELS } from "@/lib/registry/flagKinds";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { formatFlagMagnitude } from "@/lib/format/quantity";
+import { TECHNIQUE_SPECS } from "@/lib/registry/techniques";
+import { formatPosition } from "@/lib/spectrum-view/axis";
 import { formatWhen } from "@/lib/format/dates";
 
 export type SortHeader = { key: string; label: string; href: string; active: "asc" | "desc" | null };
@@ -68,7 +70,7 @@ export function ReviewQueueTable({ items, headers }: { items: ReviewItem[]; head
         </div>
         <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm" data-testid="review-queue">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft">
+            <thead className="bg-stone-100 text-left text-xs text-ink-soft">
               <tr>
                 <th className="w-8 px-2 py-2">
                   <input type="checkbox" aria-label="Select every signature on this page" checked={allSelected}
@@ -91,7 +93,7 @@ export function ReviewQueueTable({ items, headers }: { items: ReviewItem[]; head
                   </td>
                   <td className="whitespace-nowrap px-2 py-1.5 font-medium"><Link prefetch={false} className="text-glow-deep hover:underline" href={`/review/${i.id}`}>{KIND_LABELS[i.kind]}</Link></td>
                   <td className="px-2 py-1.5">{i.significance.toFixed(1)}σ</td>
-                  <td className="whitespace-nowrap px-2 py-1.5">{formatFlagMagnitude(i)}{i.energyEv !== null && <span className="block text-xs text-ink-faint">{i.energyEv.toFixed(3)} eV</span>}</td>
+                  <td className="whitespace-nowrap px-2 py-1.5">{formatFlagMagnitude(i)}{i.energyEv !== null && <span className="block text-xs text-ink-faint">{formatPosition(i.energyEv, TECHNIQUE_SPECS[i.technique].defaultAxis === "cm-1" ? "cm-1" : "ev")}</span>}</td>
                   <td className="max-w-48 truncate px-2 py-1.5"><Link prefetch={false} className="hover:underline" href={`/spectra/${i.spectrumId}`}>{i.fileName}</Link></td>
                   <td className="whitespace-nowrap px-2 py-1.5">{i.sampleName ?? "—"}</td>
                   <td className="max-w-40 px-2 py-1.5 text-xs text-ink-soft">{i.projectName}</td>

@@ -120,7 +120,7 @@ export function DepletionPanel({ seriesId, projectName, variableName, variableUn
 
   return (
     <section className="rounded-lg border border-stone-200 bg-white p-4" aria-labelledby="depletion-title" data-testid="depletion-panel">
-      <h2 id="depletion-title" className="mb-1 text-sm font-semibold uppercase tracking-wide text-ink-soft">Composition from supernatant depletion</h2>
+      <h2 id="depletion-title" className="mb-1 text-sm font-semibold text-ink-soft">Composition from supernatant depletion</h2>
       <p className="mb-3 text-xs text-ink-soft">
         Bound = added − left in the supernatant; left by Beer–Lambert, c = A/(ε·l), with ε from each dot&apos;s sizing curve, read where that ε is defined.
       </p>

@@ -75,7 +75,7 @@ export function SharedSpectrumPanel({ token, view }: { token: string; view: Shar
         ) : isLoading || !data ? (
           <div className="h-[380px] animate-pulse rounded bg-stone-100" aria-label="Loading the curves" />
         ) : (
-          <SpectrumChart data={data} axis={axis} markers={markers} active={active} onHover={setActive} onPick={(id) => setActive((a) => (a === id ? null : id))} />
+          <SpectrumChart data={data} axis={axis} descending={axis === spec.defaultAxis && spec.defaultDirection === "descending"} markers={markers} active={active} onHover={setActive} onPick={(id) => setActive((a) => (a === id ? null : id))} />
         )}
       </section>
 

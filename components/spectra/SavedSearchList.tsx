@@ -7,7 +7,7 @@ import { RemoveSavedSearch } from "./RemoveSavedSearch";
 export function SavedSearchList({ searches }: { searches: SavedSearch[] }) {
   return (
     <section className="mb-8" aria-labelledby="saved-searches">
-      <h2 id="saved-searches" className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Saved searches</h2>
+      <h2 id="saved-searches" className="mb-2 text-sm font-semibold text-ink-soft">Saved searches</h2>
       <ul className="divide-y divide-stone-100 rounded-lg border border-stone-200 bg-white">
         {searches.map((s) => (
           <li key={s.id} className="flex items-center justify-between px-4 py-2 text-sm">

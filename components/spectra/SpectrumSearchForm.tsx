@@ -76,7 +76,7 @@ export function SpectrumSearchForm({ values, choices, error }: {
         )}
       </div>
       <fieldset className="flex flex-wrap items-end gap-3">
-        <legend className="mb-1 text-xs font-semibold uppercase tracking-wide text-ink-soft">Band</legend>
+        <legend className="mb-1 text-xs font-semibold text-ink-soft">Band</legend>
         <label className={label}>Which band<br />
           <select name="band" defaultValue={v("band")} className={control} {...invalid("band")}>
             <option value="">—</option>
@@ -102,7 +102,7 @@ export function SpectrumSearchForm({ values, choices, error }: {
         </label>
       </fieldset>
       <fieldset className="flex flex-wrap items-end gap-3">
-        <legend className="mb-1 text-xs font-semibold uppercase tracking-wide text-ink-soft">Flagged change</legend>
+        <legend className="mb-1 text-xs font-semibold text-ink-soft">Flagged change</legend>
         <label className={label}>Kind<br />
           <select name="flag" defaultValue={v("flag")} aria-label="Flag kind" className={control} {...invalid("flag")}>
             <option value="">—</option>

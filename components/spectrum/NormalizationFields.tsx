@@ -23,7 +23,7 @@ export function NormalizationFields({
   const error = errors.normalizationMode;
   return (
     <fieldset className="space-y-2" data-testid="rerun-normalization">
-      <legend className="mb-1 text-xs font-semibold uppercase tracking-wide text-ink-soft">Normalisation against the reference</legend>
+      <legend className="mb-1 text-xs font-semibold text-ink-soft">Normalisation against the reference</legend>
       <div>
         <label htmlFor="rerun-normalizationMode" className="text-xs font-medium">Scale the sample</label>
         <select

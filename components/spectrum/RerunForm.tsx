@@ -106,7 +106,7 @@ export function RerunForm({
           field={field}
         />
         <fieldset className="grid grid-cols-2 gap-3">
-          <legend className="mb-1 text-xs font-semibold uppercase tracking-wide text-ink-soft">Flag thresholds</legend>
+          <legend className="mb-1 text-xs font-semibold text-ink-soft">Flag thresholds</legend>
           {THRESHOLD_FIELDS.map((f) => field(f.name, f.label, current.thresholds[f.name] !== undefined ? String(current.thresholds[f.name]) : f.hint.replace("default ", ""), f.hint))}
         </fieldset>
         {(errors.form || (!state.ok && state.message)) && (

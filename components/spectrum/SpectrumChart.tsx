@@ -4,7 +4,10 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import { createPortal } from "react-dom";
 import uPlot from "uplot";
 import "uplot/dist/uPlot.min.css";
-import { energyToAxis, type DisplayAxis } from "@/lib/spectrum-view/axis";
+import { ChartLegend } from "@/components/charts/ChartLegend";
+import { ChartReadout, type Reading } from "@/components/charts/ChartReadout";
+import { axisOf, seriesOf } from "@/components/charts/theme";
+import { AXIS_LABELS, energyToAxis, type DisplayAxis } from "@/lib/spectrum-view/axis";
 import type { SeriesKey, SpectrumDataPayload } from "@/lib/spectrum-view/payload";
 import { FLAG_COLOURS, PEAK_COLOUR, SERIES_STYLE } from "./markerStyle";
 import type { Marker } from "./types";
@@ -12,20 +15,23 @@ import type { Marker } from "./types";
 const HEIGHT = 380;
 const ORDER: SeriesKey[] = ["raw", "smoothed", "reference", "difference"];
 
-type Readout = { x: number; values: { key: SeriesKey; value: number | null }[] } | null;
-
-const fmt = (v: number | null | undefined, digits = 4) => (v === null || v === undefined || !Number.isFinite(v) ? "—" : Math.abs(v) >= 1e5 || (Math.abs(v) < 1e-3 && v !== 0) ? v.toExponential(digits - 1) : v.toPrecision(digits));
+/** Markers closer than this (px) share one strip, whose click offers a choice between them. */
+const CLUSTER_PX = 8;
+const readingLabel = (k: SeriesKey) => SERIES_STYLE[k].label.replace(" (right axis)", "");
 
 /**
  * The interactive chart: uPlot, created in an effect (it needs the DOM), with drag-to-zoom, wheel
  * zoom, Shift+drag pan, a crosshair readout of every series, and HTML markers for peaks and flags
  * placed over the plot so they can be hovered, clicked and found by tests and screen readers.
+ * Every marker has its own label button; markers at one place also share a strip that opens a
+ * small chooser, so each of them can be picked. `descending` draws the x axis high to low.
  */
 export function SpectrumChart({
-  data, axis, markers, active, onHover, onPick,
+  data, axis, descending, markers, active, onHover, onPick,
 }: {
   data: SpectrumDataPayload;
   axis: DisplayAxis;
+  descending: boolean;
   markers: Marker[];
   active: string | null;
   onHover: (id: string | null) => void;
@@ -34,7 +40,8 @@ export function SpectrumChart({
   const box = useRef<HTMLDivElement>(null);
   const [plot, setPlot] = useState<uPlot | null>(null);
   const [, setTick] = useState(0);
-  const [readout, setReadout] = useState<Readout>(null);
+  const [reading, setReading] = useState<Reading>(null);
+  const [chooser, setChooser] = useState<{ left: number; ids: string[] } | null>(null);
   const keys = useMemo(() => ORDER.filter((k) => data.series[k]), [data]);
   const [hidden, setHidden] = useState<Set<SeriesKey>>(new Set());
 
@@ -50,23 +57,15 @@ export function SpectrumChart({
       height: HEIGHT,
       legend: { show: false },
       cursor: { drag: { x: true, y: false, setScale: true }, points: { size: 6 } },
-      scales: { x: { time: false }, y: { auto: true }, ...(hasDiff ? { d: { auto: true } } : {}) },
+      scales: { x: { time: false, dir: descending ? -1 : 1 }, y: { auto: true }, ...(hasDiff ? { d: { auto: true } } : {}) },
       axes: [
-        { label: data.xLabel, labelSize: 24, stroke: "#4b5566", grid: { stroke: "#eceae7" }, ticks: { stroke: "#d6d3d1" } },
-        { label: data.yLabel, labelSize: 24, stroke: "#4b5566", grid: { stroke: "#eceae7" }, ticks: { stroke: "#d6d3d1" }, size: 64 },
-        ...(hasDiff ? [{ scale: "d", side: 1 as const, label: "difference", labelSize: 24, stroke: "#a8431a", grid: { show: false }, size: 64 }] : []),
+        axisOf(data.xLabel),
+        axisOf(data.yLabel, { size: 64 }),
+        ...(hasDiff ? [axisOf("difference", { scale: "d", side: 1, stroke: "#a8431a", grid: false, size: 64 })] : []),
       ],
       series: [
         { label: data.xLabel },
-        ...keys.map((k) => ({
-          label: SERIES_STYLE[k].label,
-          stroke: SERIES_STYLE[k].stroke,
-          width: SERIES_STYLE[k].width,
-          ...("dash" in SERIES_STYLE[k] ? { dash: [...(SERIES_STYLE[k] as { dash: readonly number[] }).dash] } : {}),
-          scale: k === "difference" ? "d" : "y",
-          points: { show: false },
-          show: !hidden.has(k),
-        })),
+        ...keys.map((k) => seriesOf(SERIES_STYLE[k].label, SERIES_STYLE[k], { scale: k === "difference" ? "d" : "y", show: !hidden.has(k) })),
       ],
       hooks: {
         setScale: [() => setTick((t) => t + 1)],
@@ -74,8 +73,8 @@ export function SpectrumChart({
         setCursor: [
           (u) => {
             const i = u.cursor.idx;
-            if (i === null || i === undefined) return setReadout(null);
-            setReadout({ x: u.data[0][i]!, values: keys.map((k, j) => ({ key: k, value: (u.data[j + 1]![i] ?? null) as number | null })) });
+            if (i === null || i === undefined) return setReading(null);
+            setReading({ x: u.data[0][i]!, values: keys.map((k, j) => ({ key: k, label: readingLabel(k), style: SERIES_STYLE[k], value: (u.data[j + 1]![i] ?? null) as number | null })) });
           },
         ],
         ready: [
@@ -107,7 +106,8 @@ export function SpectrumChart({
                 e.preventDefault();
                 const start = e.clientX;
                 const { min, max } = u.scales.x as { min: number; max: number };
-                const perPx = (max - min) / over.clientWidth;
+                // on a high-to-low axis a drag to the right moves to higher values
+                const perPx = ((max - min) / over.clientWidth) * (descending ? -1 : 1);
                 const move = (m: MouseEvent) => u.setScale("x", clamp(min - (m.clientX - start) * perPx, max - (m.clientX - start) * perPx));
                 const up = () => {
                   window.removeEventListener("mousemove", move);
@@ -133,7 +133,7 @@ export function SpectrumChart({
       setPlot(null);
     };
     // hidden is applied by the effect below, without recreating the chart
-  }, [data, keys]);
+  }, [data, keys, descending]);
 
   useEffect(() => {
     if (!plot) return;
@@ -171,48 +171,81 @@ export function SpectrumChart({
     m.row = row;
   }
   const peakTop = 2 + Math.max(1, rowEnds.length) * 18;
+  // markers within CLUSTER_PX of each other share one strip
+  const clusters: (typeof placed)[] = [];
+  for (const m of [...placed].sort((a, b) => a.left - b.left)) {
+    const last = clusters.at(-1);
+    if (last && m.left - last[0]!.left <= CLUSTER_PX) last.push(m);
+    else clusters.push([m]);
+  }
+  const colourOf = (m: Marker) => (m.kind !== "peak" && m.kind !== "first-exciton" ? FLAG_COLOURS[m.kind] : PEAK_COLOUR);
+  const byId = new Map(placed.map((m) => [m.id, m]));
+  const xUnit = AXIS_LABELS[axis].unit;
 
   return (
     <div>
-      <div className="mb-2 flex flex-wrap items-center gap-x-4 gap-y-1 text-xs" data-testid="series-toggles">
-        {keys.map((k) => (
-          <label key={k} className="inline-flex cursor-pointer items-center gap-1.5">
-            <input
-              type="checkbox"
-              className="accent-glow"
-              checked={!hidden.has(k)}
-              onChange={() => setHidden((h) => { const n = new Set(h); if (n.has(k)) n.delete(k); else n.add(k); return n; })}
-            />
-            <span className="inline-block h-0.5 w-5" style={{ background: SERIES_STYLE[k].stroke }} aria-hidden />
-            {SERIES_STYLE[k].label}
-          </label>
-        ))}
-        <span className="ml-auto flex gap-1">
-          <button type="button" onClick={() => zoomBy(0.5)} className="rounded border border-stone-300 px-2 py-0.5 hover:bg-stone-50" aria-label="Zoom in">+</button>
-          <button type="button" onClick={() => zoomBy(2)} className="rounded border border-stone-300 px-2 py-0.5 hover:bg-stone-50" aria-label="Zoom out">−</button>
-          <button type="button" onClick={resetZoom} className="rounded border border-stone-300 px-2 py-0.5 hover:bg-stone-50">Whole range</button>
-        </span>
-      </div>
-      <div className="tabular mb-1 h-5 overflow-hidden text-ellipsis whitespace-nowrap text-xs text-ink-soft" data-testid="readout" aria-live="off">
-        {readout ? (
+      <ChartLegend
+        testId="series-toggles"
+        entries={keys.map((k) => ({ key: k, label: SERIES_STYLE[k].label, style: SERIES_STYLE[k] }))}
+        hidden={hidden}
+        onToggle={(k) => setHidden((h) => { const n = new Set(h); if (n.has(k as SeriesKey)) n.delete(k as SeriesKey); else n.add(k as SeriesKey); return n; })}
+        extra={
           <>
-            <span className="font-medium text-ink">{fmt(readout.x, 6)} {axis === "ev" ? "eV" : axis === "nm" ? "nm" : "cm⁻¹"}</span>
-            {readout.values.map((v) => (
-              <span key={v.key} className="ml-3"><span style={{ color: SERIES_STYLE[v.key].stroke }}>■</span> {SERIES_STYLE[v.key].label.replace(" (right axis)", "")} {fmt(v.value)}</span>
-            ))}
+            <button type="button" onClick={() => zoomBy(0.5)} className="rounded border border-stone-300 px-2 py-0.5 hover:bg-stone-50" aria-label="Zoom in">+</button>
+            <button type="button" onClick={() => zoomBy(2)} className="rounded border border-stone-300 px-2 py-0.5 hover:bg-stone-50" aria-label="Zoom out">−</button>
+            <button type="button" onClick={resetZoom} className="rounded border border-stone-300 px-2 py-0.5 hover:bg-stone-50">Whole range</button>
           </>
-        ) : (
-          <span className="text-ink-faint">Point at the chart to read every curve · drag to zoom · wheel to zoom · Shift+drag to pan · double-click for the whole range</span>
-        )}
-      </div>
+        }
+      />
+      <ChartReadout
+        reading={reading}
+        xUnit={xUnit}
+        hint="Point at the chart to read every curve · drag to zoom · wheel to zoom · Shift+drag to pan · double-click for the whole range"
+      />
       <div ref={box} className="relative w-full select-none" data-testid="spectrum-chart" style={{ minHeight: HEIGHT }} />
-      <p className="sr-only" data-testid="axis-caption">Horizontal axis: {data.xLabel}. Vertical axis: {data.yLabel}.</p>
+      <p className="sr-only" data-testid="axis-caption">Horizontal axis: {data.xLabel}{descending ? ", high to low" : ""}. Vertical axis: {data.yLabel}.</p>
       {plot &&
         createPortal(
           <div className="pointer-events-none absolute inset-0">
-            {/* peaks first, flags after: a flag paints over a peak at nearly the same place and gets the pointer */}
-            {[...placed.filter((q) => q.group === "peak"), ...placed.filter((q) => q.group === "flag")].map((m) => {
-              const colour = m.kind !== "peak" && m.kind !== "first-exciton" ? FLAG_COLOURS[m.kind] : PEAK_COLOUR;
+            {/* the lines, then one strip per place (a chooser where markers share it), then the labels on top */}
+            {placed.map((m) => {
+              const on = active === m.id;
+              const colour = colourOf(m);
+              return (
+                <span
+                  key={`line-${m.id}`}
+                  className="absolute top-0 h-full -translate-x-1/2"
+                  style={{
+                    left: m.left,
+                    width: on ? 3 : 1,
+                    background: m.group === "flag" ? colour : "transparent",
+                    borderLeft: m.group === "peak" ? `1px dashed ${colour}` : undefined,
+                    opacity: on ? 1 : m.group === "flag" ? 0.75 : 0.9,
+                  }}
+                  aria-hidden
+                />
+              );
+            })}
+            {clusters.map((c) => {
+              const single = c.length === 1 ? c[0]! : null;
+              const left = c.reduce((a, m) => a + m.left, 0) / c.length;
+              return (
+                <button
+                  key={`strip-${c.map((m) => m.id).join("-")}`}
+                  type="button"
+                  data-testid="marker-strip"
+                  tabIndex={-1}
+                  aria-hidden
+                  title={c.map((m) => m.label).join("\n")}
+                  onMouseEnter={() => single && onHover(single.id)}
+                  onMouseLeave={() => single && onHover(null)}
+                  onClick={() => (single ? onPick(single.id) : setChooser((o) => (o && o.ids[0] === c[0]!.id ? null : { left, ids: c.map((m) => m.id) })))}
+                  className="pointer-events-auto absolute top-0 z-10 h-full w-3 -translate-x-1/2 cursor-pointer"
+                  style={{ left }}
+                />
+              );
+            })}
+            {placed.map((m) => {
               const on = active === m.id;
               return (
                 <button
@@ -225,28 +258,44 @@ export function SpectrumChart({
                   aria-pressed={on}
                   onMouseEnter={() => onHover(m.id)}
                   onMouseLeave={() => onHover(null)}
-                  onClick={() => onPick(m.id)}
-                  className={`pointer-events-auto absolute top-0 h-full -translate-x-1/2 cursor-pointer ${m.group === "flag" ? "w-3" : "w-2"}`}
-                  style={{ left: m.left }}
+                  onClick={() => { setChooser(null); onPick(m.id); }}
+                  className="pointer-events-auto absolute z-20 -translate-x-1/2 cursor-pointer whitespace-nowrap rounded px-1 text-[10px] font-semibold leading-4 text-white shadow-sm"
+                  style={{ left: m.left, top: m.group === "flag" ? 2 + m.row * 18 : peakTop, background: colourOf(m), outline: on ? "2px solid #1d2430" : undefined }}
                 >
-                  <span
-                    className="absolute left-1/2 top-0 h-full -translate-x-1/2"
-                    style={{
-                      width: on ? 3 : 1,
-                      background: m.group === "flag" ? colour : "transparent",
-                      borderLeft: m.group === "peak" ? `1px dashed ${colour}` : undefined,
-                      opacity: on ? 1 : m.group === "flag" ? 0.75 : 0.9,
-                    }}
-                  />
-                  <span
-                    className="absolute left-1/2 -translate-x-1/2 whitespace-nowrap rounded px-1 text-[10px] font-semibold leading-4 text-white shadow-sm"
-                    style={{ top: m.group === "flag" ? 2 + m.row * 18 : peakTop, background: colour, outline: on ? "2px solid #1d2430" : undefined }}
-                  >
-                    {m.group === "flag" ? m.label.split(" at ")[0] : "▼"}
-                  </span>
+                  {m.group === "flag" ? m.label.split(" at ")[0] : "▼"}
                 </button>
               );
             })}
+            {chooser && (
+              <div
+                role="menu"
+                aria-label="Markers at this place"
+                data-testid="marker-chooser"
+                className="pointer-events-auto absolute z-30 min-w-40 -translate-x-1/2 rounded-md border border-stone-200 bg-white py-1 text-xs shadow-lg"
+                style={{ left: chooser.left, top: peakTop + 20 }}
+                onKeyDown={(e) => e.key === "Escape" && setChooser(null)}
+              >
+                <p className="px-2 pb-1 text-ink-faint">{chooser.ids.length} markers here: pick one</p>
+                {chooser.ids.map((id) => {
+                  const m = byId.get(id);
+                  if (!m) return null;
+                  return (
+                    <button
+                      key={id}
+                      type="button"
+                      role="menuitem"
+                      className="flex w-full items-center gap-1.5 px-2 py-1 text-left hover:bg-stone-50"
+                      onMouseEnter={() => onHover(id)}
+                      onMouseLeave={() => onHover(null)}
+                      onClick={() => { setChooser(null); onPick(id); }}
+                    >
+                      <span className="inline-block h-2.5 w-2.5 rounded-sm" style={{ background: colourOf(m) }} aria-hidden />
+                      {m.label}
+                    </button>
+                  );
+                })}
+              </div>
+            )}
           </div>,
           plot.over,
         )}

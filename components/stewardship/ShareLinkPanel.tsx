@@ -74,14 +74,14 @@ export function ShareLinkPanel({ targets, links }: { targets: Target[]; links: L
       {links.length === 0 ? <p className="text-sm text-ink-soft">No share links yet.</p> : (
         <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm" data-testid="share-links-table">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft">
+            <thead className="bg-stone-100 text-left text-xs text-ink-soft">
               <tr><th className="px-3 py-2">Link</th><th className="px-3 py-2">What</th><th className="px-3 py-2">Created</th><th className="px-3 py-2">Expires</th><th className="px-3 py-2">State</th><th /></tr>
             </thead>
             <tbody>
               {links.map((l) => (
                 <tr key={l.id} className="border-t border-stone-100" data-testid="share-link-row">
                   <td className="whitespace-nowrap px-3 py-1.5"><code className="text-xs text-ink-soft">/shared/{l.prefix || "?"}…</code></td>
-                  <td className="px-3 py-1.5"><span className="text-xs uppercase text-ink-soft">{l.targetType}</span> {l.targetLabel}</td>
+                  <td className="px-3 py-1.5"><span className="text-xs text-ink-soft">{l.targetType}</span> {l.targetLabel}</td>
                   <td className="px-3 py-1.5">{formatWhen(l.createdAt)}{l.createdBy && <span className="block text-xs text-ink-soft">{l.createdBy}</span>}</td>
                   <td className="px-3 py-1.5">{l.expiresAt ? formatWhen(l.expiresAt) : "until revoked"}</td>
                   <td className="whitespace-nowrap px-3 py-1.5"><span className={`rounded-full px-2 py-0.5 text-xs font-medium ${STATE_CLASS[l.state]}`}>{l.state}</span></td>

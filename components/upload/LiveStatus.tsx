@@ -3,6 +3,7 @@
 import Link from "next/link";
 import useSWR from "swr";
 import { StatusBadge } from "@/components/ui/StatusBadge";
+import { countOf } from "@/lib/format/quantity";
 
 type SpectrumStatus = {
   spectrum: { id: string; status: string; error: string | null };
@@ -38,7 +39,7 @@ export function LiveStatus({ spectrumId, duplicate }: { spectrumId: string; dupl
       {spectrum.status === "analysed" && analysis && (
         <span className="tabular text-xs text-ink-soft">
           {analysis.firstExciton ? `1st exciton ${analysis.firstExciton.wavelengthNm.toFixed(1)} nm · ` : ""}
-          {analysis.peaks.length} peaks · {analysis.flags.length} flags
+          {countOf(analysis.peaks.length, "peak")} · {countOf(analysis.flags.length, "flag")}
         </span>
       )}
       {spectrum.status === "failed" && (

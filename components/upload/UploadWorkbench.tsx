@@ -193,7 +193,7 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
   return (
     <div className="space-y-6">
       <section aria-labelledby="batch-heading" className="rounded-xl border border-stone-200 bg-white p-5">
-        <h2 id="batch-heading" className="mb-3 text-sm font-semibold uppercase tracking-wide text-ink-soft">Describe the batch</h2>
+        <h2 id="batch-heading" className="mb-3 text-sm font-semibold text-ink-soft">Describe the batch</h2>
         <BatchForm choices={choices} values={values} errors={errors} disabled={busy} onChange={setValues} waitingFiles={waitingFiles}
           profiles={profiles} onDeleteProfile={(id) => void removeProfile(id)} />
         {usesUvOrLaserLight(values.technique) && <p className="mt-3 text-xs text-caution">{LIGHT_CAUTION}</p>}
@@ -203,8 +203,8 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
 
       <section aria-labelledby="files-heading">
         <div className="mb-2 flex flex-wrap items-center justify-between gap-3">
-          <h2 id="files-heading" className="text-sm font-semibold uppercase tracking-wide text-ink-soft">
-            Files <span className="tabular font-normal normal-case">({items.length})</span>
+          <h2 id="files-heading" className="text-sm font-semibold text-ink-soft">
+            Files <span className="tabular font-normal">({items.length})</span>
           </h2>
           <div className="flex items-center gap-3 text-xs text-ink-soft">
             {counts.stored > 0 && <span>{counts.stored} stored</span>}

@@ -87,6 +87,26 @@ export const AUDIT_EVENT_KINDS = {
         ", which was kept", differences > 0 && ` (${plural(differences, "detail")} given differently, the stored ones kept)`);
     },
   },
+  "spectrum.details-update": {
+    category: "upload",
+    sentence: (t, e) => {
+      const differences = Array.isArray(e.details.differences) ? e.details.differences.length : 0;
+      return sentence(t.who, " updated the stored details of ", t.ref("spectrum", e.targetId, t.text("fileName") || "a spectrum"),
+        differences > 0 && ` (${plural(differences, "detail")})`, " from a new upload of the same file");
+    },
+  },
+  "import-profile.create": {
+    category: "upload",
+    sentence: (t) => sentence(t.who, " saved the import profile ", quoted(t.text("name")) || "(unnamed)"),
+  },
+  "import-profile.replace": {
+    category: "upload",
+    sentence: (t) => sentence(t.who, " replaced the import profile ", quoted(t.text("name")) || "(unnamed)"),
+  },
+  "import-profile.delete": {
+    category: "upload",
+    sentence: (t) => sentence(t.who, " deleted the import profile ", quoted(t.text("name")) || "(unnamed)"),
+  },
   "sample-registered": {
     category: "upload",
     sentence: (t, e) => sentence(t.who, " registered the sample ", t.ref("sample", e.targetId, t.text("name") || "a sample"), t.text("material") && ` (${t.text("material")})`),

@@ -15,6 +15,7 @@ export type ReviewItem = {
   magnitude: number | null; unit: string | null; uncertainty: number | null;
   reviewState: string; spectrumId: string; fileName: string; sampleId: string | null; sampleName: string | null;
   projectId: string; projectName: string; createdAt: string; lastDecisionAt: string | null;
+  technique: Technique;
 };
 
 export type ReviewQueue = {
@@ -35,7 +36,7 @@ type Row = {
   id: string; kind: FlagKind; energy_ev: number | null; fraction: number | null; shift_mev: number | null; significance: number;
   magnitude: number | null; unit: string | null; uncertainty: number | null;
   review_state: string; spectrum_id: string; file_name: string; sample_id: string | null; sample_name: string | null;
-  project_id: string; project_name: string; created_at: Date; last_decision_at: Date | null;
+  project_id: string; project_name: string; created_at: Date; last_decision_at: Date | null; technique: Technique;
 };
 
 /**
@@ -63,7 +64,7 @@ function toItem(r: Row): ReviewItem {
     magnitude: r.magnitude, unit: r.unit, uncertainty: r.uncertainty,
     reviewState: r.review_state, spectrumId: r.spectrum_id, fileName: r.file_name, sampleId: r.sample_id, sampleName: r.sample_name,
     projectId: r.project_id, projectName: r.project_name, createdAt: new Date(r.created_at).toISOString(),
-    lastDecisionAt: r.last_decision_at ? new Date(r.last_decision_at).toISOString() : null,
+    lastDecisionAt: r.last_decision_at ? new Date(r.last_decision_at).toISOString() : null, technique: r.technique,
   };
 }
 
@@ -113,7 +114,7 @@ export function reviewQueueSql(groupIds: string[], q: QueueQuery) {
     ? ` AND (${key.sql}, g.created_at, g.id) ${dir === "ASC" ? ">" : "<"} (CAST(:afterValue AS ${key.cast}), CAST(:afterAt AS timestamptz), CAST(:afterId AS uuid))`
     : "";
   const listSql = `SELECT g.id, g.kind, g.energy_ev, g.fraction, g.shift_mev, g.magnitude, g.unit, g.uncertainty, g.significance, g.review_state, g.spectrum_id,
-            s.file_name, s.sample_id, sm.name AS sample_name, p.id AS project_id, p.name AS project_name, g.created_at,
+            s.file_name, s.technique, s.sample_id, sm.name AS sample_name, p.id AS project_id, p.name AS project_name, g.created_at,
             (SELECT max(v.created_at) FROM reviews v WHERE v.signature_id = g.id) AS last_decision_at,
             ${key.cast === "timestamptz" ? cursorAtSql(key.sql) : `(${key.sql})::text`} AS sort_value, ${cursorAtSql("g.created_at")} AS cursor_at
      ${from}${pageWhere} ORDER BY ${key.sql} ${dir}, g.created_at ${dir}, g.id ${dir} LIMIT :limit`;

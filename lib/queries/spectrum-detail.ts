@@ -1,5 +1,6 @@
 import { selectRows } from "@/lib/db";
-import type { Technique } from "@/lib/registry/techniques";
+import { BAND_ROLE_LABELS, TECHNIQUE_SPECS, type BandRole, type Technique } from "@/lib/registry/techniques";
+import { xUnitLabel, yUnitLabel } from "@/lib/format/unitLabels";
 import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadSpectrum, canWrite, groupOfSpectrum, memberGroupIds } from "@/lib/auth/access";
@@ -35,11 +36,16 @@ export type SpectrumDetail = {
   latestRun: (RunSummary & { warnings: string[]; derived: Record<string, unknown> | null }) | null;
   /** The most recent finished run: the one the chart, peaks and flags show. */
   shownRun: (RunSummary & { warnings: string[]; derived: Record<string, unknown> | null; report: ReportParameters | null }) | null;
-  peaks: { id: string; energyEv: number; wavelengthNm: number; height: number; fwhmMeV: number | null; area: number | null; isFirstExciton: boolean }[];
+  /** Peaks of the shown run; every peak of a spectrum has its technique's band role (lib/engine/analyzeSpectrum.ts). */
+  peaks: { id: string; energyEv: number; wavelengthNm: number; height: number; fwhmMeV: number | null; area: number | null; isFirstExciton: boolean; bandRole: BandRole }[];
   signatures: {
     id: string; kind: FlagKind; energyEv: number | null; wavelengthNm: number | null; fraction: number | null; shiftMeV: number | null;
     fwhmChangeMeV: number | null; magnitude: number | null; unit: string | null; uncertainty: number | null; significance: number;
     message: string | null; intraband: boolean;
+    /** What the flagged band is (new-band and band-change flags), when the engine said. */
+    bandRole: BandRole | null;
+    /** FWHM of the band under the flag, meV, when measured. */
+    widthMeV: number | null;
     /** Members of the owning group only; null for a collaborator. */
     reviewState: string | null;
   }[];
@@ -129,7 +135,7 @@ export async function getSpectrumDetail(actor: Actor, id: string): Promise<Spect
     };
   };
   const acquisition = [
-    ["Axis unit", spectrum.axisUnit], ["Value unit", spectrum.valueUnit], ["Path length", fmt(spectrum.pathLengthCm, "cm")],
+    ["Axis unit", spectrum.axisUnit ? xUnitLabel(spectrum.axisUnit) : null], ["Value unit", spectrum.valueUnit ? yUnitLabel(spectrum.valueUnit) : null], ["Path length", fmt(spectrum.pathLengthCm, "cm")],
     ["Excitation", fmt(spectrum.excitationNm, "nm")], ["Slit", fmt(spectrum.slitNm, "nm")], ["Integration", fmt(spectrum.integrationMs, "ms")],
     ["Solvent", spectrum.solvent || null], ["Column", spectrum.columnChoice], ["Series value", spectrum.seriesValue === null ? null : String(spectrum.seriesValue)],
   ].filter((r): r is [string, string] => Boolean(r[1])).map(([label, value]) => ({ label, value }));
@@ -146,14 +152,16 @@ export async function getSpectrumDetail(actor: Actor, id: string): Promise<Spect
     mayWrite: groupId ? canWrite(actor, groupId) : false,
     latestRun: latest && withReport(latest),
     shownRun: shown && { ...withReport(shown), report: reportParameters(reportOf(shown.id)) },
-    peaks: peaks.map((p) => ({ id: p.id, energyEv: p.energyEv, wavelengthNm: p.wavelengthNm, height: p.height, fwhmMeV: p.fwhmMeV, area: p.area, isFirstExciton: p.isFirstExciton })),
+    peaks: peaks.map((p) => ({ id: p.id, energyEv: p.energyEv, wavelengthNm: p.wavelengthNm, height: p.height, fwhmMeV: p.fwhmMeV, area: p.area, isFirstExciton: p.isFirstExciton, bandRole: TECHNIQUE_SPECS[spectrum.technique].bandRole })),
     signatures: signatures.map((s) => {
       const d = (s.details ?? {}) as Record<string, unknown>;
       return {
         id: s.id, kind: s.kind, energyEv: s.energyEv, wavelengthNm: num(d.wavelengthNm), fraction: s.fraction, shiftMeV: s.shiftMeV,
         fwhmChangeMeV: num(d.fwhmChangeMeV), magnitude: s.magnitude, unit: s.unit,
         uncertainty: s.uncertainty, significance: s.significance, message: typeof d.message === "string" ? d.message : null,
-        intraband: d.intraband === true, reviewState: groupId && memberGroupIds(actor).includes(groupId) ? s.reviewState : null,
+        intraband: d.intraband === true, bandRole: typeof d.bandRole === "string" && Object.hasOwn(BAND_ROLE_LABELS, d.bandRole) ? (d.bandRole as BandRole) : d.intraband === true ? "intraband-candidate" : null,
+        widthMeV: num(d.widthMeV),
+        reviewState: groupId && memberGroupIds(actor).includes(groupId) ? s.reviewState : null,
       };
     }),
     earlierRuns: runs.slice(1).map(summary),

@@ -16,6 +16,21 @@ export const BAND_ROLE_LABELS: Readonly<Record<BandRole, string>> = {
   "intraband-candidate": "Intraband candidate",
 };
 
+/** The same, for a list of several. */
+export const BAND_ROLE_PLURALS: Readonly<Record<BandRole, string>> = {
+  "excitonic-transition": "Excitonic transitions",
+  "emission-band": "Emission bands",
+  "vibrational-band": "Vibrational bands",
+  "intraband-candidate": "Intraband candidates",
+};
+
+/**
+ * The panels a series page draws point by point against the series variable (components/series):
+ * the first exciton's bleach, the emission's Stern–Volmer plot (F₀/F against [Q]), the area of new
+ * bands, and the shift of the first band (titled with the technique's firstBandLabel).
+ */
+export type SeriesPanel = "bleach" | "stern-volmer" | "new-band" | "shift";
+
 /** Cautions a technique calls for (texts in lib/hazards.ts). */
 export type TechniqueCaution = "uv-laser-light";
 
@@ -42,6 +57,10 @@ export interface TechniqueSpec {
   firstBandWord: string;
   /** Plural used when two spectra's first bands are compared. */
   firstBandsWord: string;
+  /** What the peak marked as the first band is called on screen ("first exciton", "emission maximum"). */
+  firstBandLabel: string;
+  /** The panels of a series of this technique, in order (a PL series has no bleach and no exciton shift). */
+  seriesPlot: readonly SeriesPanel[];
   /** Span of the default smoothing window, meV (common practice: well under a band's width). */
   smoothingSpanMeV: number;
   /** Span of the default window for first and second derivatives, meV (common practice). */
@@ -68,6 +87,8 @@ export const TECHNIQUE_SPECS = {
     firstExciton: "lowest-energy-peak",
     firstBandWord: "first exciton",
     firstBandsWord: "first excitons",
+    firstBandLabel: "first exciton",
+    seriesPlot: ["bleach", "shift", "new-band"],
     smoothingSpanMeV: 25,
     derivativeSpanMeV: 80,
     baseline: "offset",
@@ -87,6 +108,8 @@ export const TECHNIQUE_SPECS = {
     firstExciton: "emission-maximum",
     firstBandWord: "emission",
     firstBandsWord: "emission maxima",
+    firstBandLabel: "emission maximum",
+    seriesPlot: ["stern-volmer", "shift"],
     smoothingSpanMeV: 25,
     derivativeSpanMeV: 80,
     baseline: "none",
@@ -106,6 +129,8 @@ export const TECHNIQUE_SPECS = {
     firstExciton: "none",
     firstBandWord: "main band",
     firstBandsWord: "main bands",
+    firstBandLabel: "main band",
+    seriesPlot: ["new-band"],
     smoothingSpanMeV: 3,
     derivativeSpanMeV: 8,
     baseline: "none",

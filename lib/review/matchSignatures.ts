@@ -1,4 +1,5 @@
 import type { FlagKind } from "@/lib/engine";
+import { formatFlagMagnitude } from "@/lib/format/quantity";
 
 /** What matching needs of one signature of a run (the engine report's flag fields). */
 export type MatchableSignature = {
@@ -53,10 +54,7 @@ export function matchToleranceMeV(a: MatchableSignature, b: MatchableSignature, 
 }
 
 function magnitudeText(s: MatchableSignature): string {
-  if (s.magnitude === null) return "unknown";
-  if (s.kind === "bleach" || s.kind === "pl-quench" || s.kind === "broadening") return `${(s.magnitude * 100).toFixed(1)} %`;
-  if (s.kind === "shift") return `${s.magnitude.toFixed(1)} meV`;
-  return s.magnitude.toPrecision(3);
+  return s.magnitude === null ? "unknown" : formatFlagMagnitude({ kind: s.kind, magnitude: s.magnitude, unit: null });
 }
 
 /**

@@ -5,6 +5,7 @@ import { sendMail } from "@/lib/mail";
 import { noticeQueue } from "@/lib/queue";
 import { KIND_LABELS, type FlagKind } from "@/lib/registry/flagKinds";
 import { User, models } from "@/models";
+import { countOf } from "@/lib/format/quantity";
 
 // Decision mail to uploaders, coalesced per person: each decision adds a notice row in the
 // decision's transaction; a delayed job per person (its id taken from the person's oldest unsent
@@ -71,7 +72,7 @@ export function composeNotice(name: string, rows: readonly PendingRow[], base: s
   const one = changed.length === 1 ? changed[0]![0]! : null;
   const subject = one
     ? `Bandkeep: ${label(one)} in ${one.file_name} ${STATE_TEXT[one.current_state] ?? one.current_state}`
-    : `Bandkeep: decisions on ${changed.length} signatures in your uploads`;
+    : `Bandkeep: ${changed.length === 1 ? "a decision" : "decisions"} on ${countOf(changed.length, "signature")} in your uploads`;
   const text = [
     `Hello ${name},`, "",
     `Band changes flagged in your uploads were reviewed:`, "",

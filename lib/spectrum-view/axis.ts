@@ -10,6 +10,7 @@
  * the same on every axis.
  */
 import { CM1_PER_EV, HC_EV_NM } from "@/lib/engine/constants";
+import { formatQuantity, type DisplayUnit } from "@/lib/format/quantity";
 
 export const DISPLAY_AXES = ["nm", "ev", "cm-1"] as const;
 export type DisplayAxis = (typeof DISPLAY_AXES)[number];
@@ -98,4 +99,12 @@ export function toDisplayAxis<K extends string>(
     out[key] = v;
   }
   return { axis, x, series: out };
+}
+
+const AXIS_UNITS: Record<DisplayAxis, DisplayUnit> = { nm: "nm", ev: "eV", "cm-1": "cm-1" };
+
+/** A band's position on a display axis with its unit: "577.9 nm", "2.145 eV", "2178 cm⁻¹" ("—" when unknown). */
+export function formatPosition(energyEv: number | null | undefined, axis: DisplayAxis): string {
+  if (energyEv === null || energyEv === undefined || !(energyEv > 0) || !Number.isFinite(energyEv)) return "—";
+  return formatQuantity(energyToAxis(energyEv, axis), AXIS_UNITS[axis]);
 }

@@ -9,6 +9,7 @@ import { hazardsOf } from "@/lib/hazards";
 import { parseRawBytes, storedRawBytes, storedReadChoice } from "@/lib/rawSpectra";
 import { AnalysisRun, Group, Project, Sample, Series, Spectrum, models } from "@/models";
 import { TECHNIQUE_SPECS } from "@/lib/registry/techniques";
+import { countOf } from "@/lib/format/quantity";
 
 // One zip per series or project: raw files as they arrived, processed data as CSV and
 // JCAMP-DX, analyses as JSON, a manifest with the sha256 of every other file, and a README.
@@ -54,7 +55,7 @@ function readme(m: Omit<Manifest, "files">, hazardLines: string[]): string {
     `Bandkeep export bundle — ${m.target.type} "${m.target.name}"`,
     "",
     `Made ${m.createdAt} by ${m.createdBy}, group ${m.group}, project "${m.project.name}".`,
-    `${m.spectra.length} spectra in ${m.series.length} series. Format ${BUNDLE_FORMAT}; analysis engine ${m.engineVersion}.`,
+    `${countOf(m.spectra.length, "spectrum")} in ${countOf(m.series.length, "series")}. Format ${BUNDLE_FORMAT}; analysis engine ${m.engineVersion}.`,
     "",
     "What is inside",
     "  raw/         each file exactly as it was uploaded (its sha256 is the one recorded at upload)",

@@ -57,6 +57,13 @@ const CASES: Record<AuditAction, { event: AuditEventInput; sentence: string }> =
     event: ev("spectrum.upload-duplicate", { targetType: "spectrum", targetId: SPECTRUM, details: { fileName: "copy.csv", differences: [{ field: "solvent" }] } }),
     sentence: "Imre Vasko uploaded copy.csv again; it is the same file as titration-1.00eq.csv, which was kept (1 detail given differently, the stored ones kept)",
   },
+  "spectrum.details-update": {
+    event: ev("spectrum.details-update", { targetType: "spectrum", targetId: SPECTRUM, details: { fileName: "copy.csv", differences: [{ field: "solvent" }, { field: "pathLengthCm" }] } }),
+    sentence: "Imre Vasko updated the stored details of titration-1.00eq.csv (2 details) from a new upload of the same file",
+  },
+  "import-profile.create": { event: ev("import-profile.create", { targetType: "import-profile", targetId: "p", details: { name: "bench photometer" } }), sentence: "Imre Vasko saved the import profile “bench photometer”" },
+  "import-profile.replace": { event: ev("import-profile.replace", { targetType: "import-profile", targetId: "p", details: { name: "bench photometer" } }), sentence: "Imre Vasko replaced the import profile “bench photometer”" },
+  "import-profile.delete": { event: ev("import-profile.delete", { targetType: "import-profile", targetId: "p", details: { name: "bench photometer" } }), sentence: "Imre Vasko deleted the import profile “bench photometer”" },
   "sample-registered": { event: ev("sample-registered", { targetType: "sample", targetId: SAMPLE, details: { name: "QD-CdSe-07", material: "CdSe" } }), sentence: "Imre Vasko registered the sample QD-CdSe-07 (CdSe)" },
   "series-created": { event: ev("series-created", { targetType: "series", targetId: SERIES, details: { name: "Thiol titration", kind: "titration" } }), sentence: "Imre Vasko created the titration series Thiol titration" },
   "supernatant-linked": {

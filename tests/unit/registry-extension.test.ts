@@ -30,6 +30,8 @@ const FAKE_TECHNIQUE = {
   firstExciton: "none",
   firstBandWord: "main band",
   firstBandsWord: "main bands",
+  firstBandLabel: "main band",
+  seriesPlot: ["new-band"],
   smoothingSpanMeV: 2,
   derivativeSpanMeV: 6,
   baseline: "none",

@@ -51,7 +51,7 @@ export default async function SamplesPage({ searchParams }: { searchParams: Prom
       ) : (
         <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft">
+            <thead className="bg-stone-100 text-left text-xs text-ink-soft">
               <tr><th className="px-3 py-2">Name</th><th className="px-3 py-2">Material</th><th className="px-3 py-2">Parents</th><th className="px-3 py-2">Spectra</th><th className="px-3 py-2">Cautions</th></tr>
             </thead>
             <tbody>

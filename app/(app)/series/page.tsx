@@ -24,7 +24,7 @@ export default async function SeriesPage() {
       ) : (
         <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">Series</th><th className="px-3 py-2">Kind</th><th className="px-3 py-2">Variable</th><th className="px-3 py-2">Project</th><th className="px-3 py-2">Spectra</th></tr></thead>
+            <thead className="bg-stone-100 text-left text-xs text-ink-soft"><tr><th className="px-3 py-2">Series</th><th className="px-3 py-2">Kind</th><th className="px-3 py-2">Variable</th><th className="px-3 py-2">Project</th><th className="px-3 py-2">Spectra</th></tr></thead>
             <tbody>
               {series.map((s) => (
                 <tr key={s.id} className="border-t border-stone-100 hover:bg-stone-50">

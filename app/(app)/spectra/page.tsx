@@ -47,7 +47,7 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
       ) : (
         <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft">
+            <thead className="bg-stone-100 text-left text-xs text-ink-soft">
               <tr>
                 <th className="px-3 py-2">File</th><th className="px-3 py-2">Technique</th><th className="px-3 py-2">Sample</th>
                 <th className="px-3 py-2">Project</th><th className="px-3 py-2 text-right">1st exciton</th><th className="px-3 py-2 text-right">Size</th>

@@ -10,6 +10,7 @@ import { HazardNotice } from "@/components/ui/HazardNotice";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { Project, Series, models } from "@/models";
 import { formatWhen } from "@/lib/format/dates";
+import { countOf } from "@/lib/format/quantity";
 
 // The public, read-only view of one shared project or series. The share is looked up by
 // the token's sha256 on every request: revoked, expired or unknown links get the same
@@ -100,14 +101,14 @@ export default async function SharedPage({ params, searchParams }: { params: Pro
         <Banner link={link} />
         <header className="mb-4">
           <h1 className="text-2xl font-semibold tracking-tight" data-testid="shared-title">{series.name}</h1>
-          <p className="mt-1 text-sm text-ink-soft">{project?.name ?? ""} · {series.kind} series · {points.length} spectra · variable: {variable}</p>
+          <p className="mt-1 text-sm text-ink-soft">{project?.name ?? ""} · {series.kind} series · {countOf(points.length, "spectrum")} · variable: {variable}</p>
         </header>
         <Cautions link={link} />
         {points.length === 0 ? <p className="text-sm text-ink-soft">No spectra in this series yet.</p> : (
           <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
             <table className="w-full text-sm" data-testid="shared-series-table">
-              <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft">
-                <tr><th className="px-3 py-2 normal-case">{variable}</th><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Bleach</th><th className="px-3 py-2">PL quench</th><th className="px-3 py-2">Shift (meV)</th><th className="px-3 py-2">State</th><th className="px-3 py-2" aria-label="Plot" /></tr>
+              <thead className="bg-stone-100 text-left text-xs text-ink-soft">
+                <tr><th className="px-3 py-2">{variable}</th><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Bleach</th><th className="px-3 py-2">PL quench</th><th className="px-3 py-2">Shift (meV)</th><th className="px-3 py-2">State</th><th className="px-3 py-2" aria-label="Plot" /></tr>
               </thead>
               <tbody className="tabular">
                 {points.map((p) => (
@@ -140,20 +141,20 @@ export default async function SharedPage({ params, searchParams }: { params: Pro
       <Banner link={link} />
       <header className="mb-4">
         <h1 className="text-2xl font-semibold tracking-tight" data-testid="shared-title">{project.name}</h1>
-        <p className="mt-1 text-sm text-ink-soft">Project · {project.series.length} series · {project.spectra.length} spectra</p>
+        <p className="mt-1 text-sm text-ink-soft">Project · {countOf(project.series.length, "series")} · {countOf(project.spectra.length, "spectrum")}</p>
       </header>
       <Cautions link={link} />
       <h2 className="mb-2 text-base font-semibold">Series</h2>
       {project.series.length === 0 ? <p className="mb-4 text-sm text-ink-soft">No series.</p> : (
         <ul className="mb-6 divide-y divide-stone-100 rounded-lg border border-stone-200 bg-white text-sm" data-testid="shared-series-list">
-          {project.series.map((s) => <li key={s.id} className="px-3 py-2"><span className="font-medium">{s.name}</span> <span className="text-ink-soft">· {s.kind} · {s.spectra} spectra</span></li>)}
+          {project.series.map((s) => <li key={s.id} className="px-3 py-2"><span className="font-medium">{s.name}</span> <span className="text-ink-soft">· {s.kind} · {countOf(s.spectra, "spectrum")}</span></li>)}
         </ul>
       )}
       <h2 className="mb-2 text-base font-semibold">Spectra</h2>
       {project.spectra.length === 0 ? <p className="text-sm text-ink-soft">No spectra.</p> : (
         <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm" data-testid="shared-spectra-table">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Technique</th><th className="px-3 py-2">Series</th><th className="px-3 py-2">State</th><th className="px-3 py-2" aria-label="Plot" /></tr></thead>
+            <thead className="bg-stone-100 text-left text-xs text-ink-soft"><tr><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Technique</th><th className="px-3 py-2">Series</th><th className="px-3 py-2">State</th><th className="px-3 py-2" aria-label="Plot" /></tr></thead>
             <tbody>
               {project.spectra.map((s) => (
                 <tr key={s.id} className="border-t border-stone-100">

@@ -11,7 +11,7 @@ export function ReadingsTable({ readings, variableLabel }: { readings: Supernata
     <div className="mt-2">
       <table className="w-full tabular text-sm" data-testid="depletion-readings">
         <thead className="text-left text-xs text-ink-soft">
-          <tr><th className="normal-case">{variableLabel}</th><th>supernatant spectrum</th><th>A at {a} nm</th><th>A at {x} nm</th><th>path (cm)</th></tr>
+          <tr><th>{variableLabel}</th><th>supernatant spectrum</th><th>A at {a} nm</th><th>A at {x} nm</th><th>path (cm)</th></tr>
         </thead>
         <tbody>
           {rows.map((p) => {

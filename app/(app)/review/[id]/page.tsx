@@ -8,7 +8,9 @@ import { loadEvidence } from "@/lib/review/loadEvidence";
 import { KIND_LABELS } from "@/lib/registry/flagKinds";
 import { DecisionForm } from "@/components/review/DecisionForm";
 import { EvidenceChart } from "@/components/review/EvidenceChart";
-import { formatFlagMagnitude } from "@/lib/format/quantity";
+import { formatFlagMagnitude, formatFlagUncertainty } from "@/lib/format/quantity";
+import { TECHNIQUE_SPECS } from "@/lib/registry/techniques";
+import { formatPosition } from "@/lib/spectrum-view/axis";
 import { formatWhen } from "@/lib/format/dates";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
@@ -34,8 +36,10 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
   const undoableReviewId = latest && latest.origin === "decision" && latest.previousState !== null ? latest.id : null;
   const facts: [string, string][] = [
     ["Magnitude", formatFlagMagnitude(sig)],
-    ["Energy", sig.energyEv !== null ? `${sig.energyEv.toFixed(3)} eV (${(1239.841984 / sig.energyEv).toFixed(1)} nm)` : "—"],
-    ["Significance", `${sig.significance.toFixed(1)}σ${sig.uncertainty !== null ? ` (standard uncertainty ${sig.uncertainty.toPrecision(2)})` : ""}`],
+    ["Position", sig.energyEv === null ? "—" : TECHNIQUE_SPECS[sig.technique].defaultAxis === "cm-1"
+      ? `${formatPosition(sig.energyEv, "cm-1")} (${formatPosition(sig.energyEv, "ev")})`
+      : `${formatPosition(sig.energyEv, "ev")} (${formatPosition(sig.energyEv, "nm")})`],
+    ["Significance", `${sig.significance.toFixed(1)}σ${sig.uncertainty !== null ? ` (standard uncertainty ${formatFlagUncertainty(sig, TECHNIQUE_SPECS[sig.technique].valueWord)})` : ""}`],
     ["Sample", sig.sampleName ?? "—"],
     ["Project", sig.projectName],
     ["Flagged", formatWhen(sig.createdAt)],
@@ -63,17 +67,17 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
       )}
       <div className="grid gap-6 lg:grid-cols-3">
         <section className="rounded-lg border border-stone-200 bg-white p-4 lg:col-span-2">
-          <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Evidence</h2>
+          <h2 className="mb-2 text-sm font-semibold text-ink-soft">Evidence</h2>
           <p className="mb-2 text-xs text-ink-soft">
             <Link className="text-glow-deep hover:underline" href={`/spectra/${sig.spectrumId}`}>{sig.fileName}</Link>
             {sig.referenceSpectrumId && <> against its reference <Link className="text-glow-deep hover:underline" href={`/spectra/${sig.referenceSpectrumId}`}>{sig.referenceFileName}</Link></>}
-            {sig.energyEv !== null ? ", within 0.3 eV of the flag (dashed line)." : ", whole range."}
+            {sig.energyEv !== null ? ", within 0.3 eV of the flag (marked)." : ", whole range."}
           </p>
           {evidence.problem ? (
             <p className="text-sm text-ink-soft">{evidence.problem}</p>
           ) : (
             <EvidenceChart energy={evidence.energy} sample={evidence.sample} reference={evidence.reference} centreEv={evidence.centreEv}
-              sampleName={evidence.sampleName} referenceName={evidence.referenceName} unit={evidence.unit} />
+              sampleName={evidence.sampleName} referenceName={evidence.referenceName} unit={evidence.unit} kind={sig.kind} technique={sig.technique} />
           )}
           <dl className="mt-4 grid grid-cols-[8rem_1fr] gap-y-1 text-sm">
             {facts.map(([k, v]) => (<Fragment key={k}><dt className="text-ink-soft">{k}</dt><dd className="tabular">{v}</dd></Fragment>))}
@@ -81,7 +85,7 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
         </section>
         <div className="space-y-6">
           <section className="rounded-lg border border-stone-200 bg-white p-4">
-            <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Decision</h2>
+            <h2 className="mb-2 text-sm font-semibold text-ink-soft">Decision</h2>
             {sig.mayDecide ? (
               <DecisionForm signatureId={sig.id} reviewState={sig.reviewState} undoableReviewId={undoableReviewId} />
             ) : (
@@ -93,7 +97,7 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
             )}
           </section>
           <section className="rounded-lg border border-stone-200 bg-white p-4">
-            <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">History</h2>
+            <h2 className="mb-2 text-sm font-semibold text-ink-soft">History</h2>
             {sig.history.length === 0 ? (
               <p className="text-sm text-ink-soft">No decision yet.</p>
             ) : (

@@ -36,14 +36,14 @@ export default async function SamplePage({ params }: { params: Promise<{ id: str
       <div className="mb-6"><HazardNotice flags={sample.hazards} /></div>
       <div className="grid gap-6 lg:grid-cols-2">
         <section className="rounded-lg border border-stone-200 bg-white p-4">
-          <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Batch</h2>
+          <h2 className="mb-2 text-sm font-semibold text-ink-soft">Batch</h2>
           <dl className="grid grid-cols-[8rem_1fr] gap-y-1 text-sm">
             {facts.map(([k, v]) => (<Fragment key={k}><dt className="text-ink-soft">{k}</dt><dd>{v}</dd></Fragment>))}
           </dl>
           {sample.notes && <p className="mt-3 whitespace-pre-wrap text-sm">{sample.notes}</p>}
         </section>
         <section className="rounded-lg border border-stone-200 bg-white p-4">
-          <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Lineage</h2>
+          <h2 className="mb-2 text-sm font-semibold text-ink-soft">Lineage</h2>
           <p className="text-sm text-ink-soft">Made from</p>
           <ul className="mb-3 text-sm">{sample.parents.length ? sample.parents.map((p) => <li key={p.id}><Link prefetch={false} className="text-glow-deep hover:underline" href={`/samples/${p.id}`}>{p.name}</Link></li>) : <li>— (an as-made batch)</li>}</ul>
           <p className="text-sm text-ink-soft">Used in</p>
@@ -51,13 +51,13 @@ export default async function SamplePage({ params }: { params: Promise<{ id: str
         </section>
       </div>
       <section className="mt-6 rounded-lg border border-stone-200 bg-white p-4">
-        <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">Spectra and derived size</h2>
+        <h2 className="mb-2 text-sm font-semibold text-ink-soft">Spectra and derived size</h2>
         {sample.spectra.length === 0 ? (
           <p className="text-sm text-ink-soft">No spectra yet. <Link className="text-glow-deep hover:underline" href="/upload">Upload exports</Link> and choose this sample.</p>
         ) : (
           <>
             <table className="w-full text-sm" data-testid="sample-spectra">
-              <thead className="text-left text-xs uppercase tracking-wide text-ink-soft">
+              <thead className="text-left text-xs text-ink-soft">
                 <tr><th className="py-1.5 pr-3">Spectrum</th><th className="pr-3">Technique</th><th className="pr-3">Diameter</th><th className="pr-3">Concentration</th><th className="pr-3">ε</th><th>State</th></tr>
               </thead>
               <tbody className="tabular">

@@ -27,7 +27,7 @@ const RUN_STATES: Record<string, string> = { queued: "waiting", running: "runnin
 function Panel({ title, children, testId }: { title: string; children: React.ReactNode; testId?: string }) {
   return (
     <section className="rounded-lg border border-stone-200 bg-white p-4 text-sm" data-testid={testId}>
-      <h2 className="mb-2 text-sm font-semibold uppercase tracking-wide text-ink-soft">{title}</h2>
+      <h2 className="mb-2 text-sm font-semibold text-ink-soft">{title}</h2>
       {children}
     </section>
   );
@@ -60,6 +60,9 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
   const p = shown?.report ?? null;
   const defaultAxis: DisplayAxis = TECHNIQUE_SPECS[s.technique].defaultAxis;
   const initialAxis = isDisplayAxis(query.axis) ? query.axis : defaultAxis;
+  // the trade's direction for the technique's own axis (mid-IR high to low), low to high otherwise; ?dir= overrides
+  const initialDirection = query.dir === "asc" ? "ascending" : query.dir === "desc" ? "descending"
+    : initialAxis === defaultAxis ? TECHNIQUE_SPECS[s.technique].defaultDirection : "ascending";
   const inProgress = latest !== null && (latest.status === "queued" || latest.status === "running");
   const hasReference = shown ? shown.referenceSpectrumId !== null : false;
   // requestReanalysis starts from the latest run that did not fail (else the latest), reference included
@@ -96,6 +99,8 @@ export default async function SpectrumPage({ params, searchParams }: { params: P
         <div className="min-w-0 xl:col-span-2">
           <SpectrumViewer
             spectrumId={s.id}
+            technique={s.technique}
+            initialDirection={initialDirection}
             runId={shown?.id ?? null}
             initialAxis={initialAxis}
             peaks={s.peaks}

@@ -17,7 +17,7 @@ export default async function ExportsPage() {
       <ul className="divide-y divide-stone-100 rounded-lg border border-stone-200 bg-white text-sm" data-testid="exports">
         {targets.map((t) => (
           <li key={t.id} className="flex items-center justify-between px-3 py-2">
-            <span><span className="text-xs uppercase text-ink-soft">{t.type}</span> <span className="font-medium">{t.label}</span></span>
+            <span><span className="text-xs text-ink-soft">{t.type}</span> <span className="font-medium">{t.label}</span></span>
             <a href={`/api/v1/exports/${t.type}/${t.id}`} className="rounded-md border border-stone-300 bg-white px-3 py-1 text-sm hover:bg-stone-50" download>Download zip</a>
           </li>
         ))}

@@ -34,11 +34,11 @@ export default async function HoldsPage() {
       {active.length === 0 ? <p className="mb-6 text-sm text-ink-soft">No holds in force.</p> : (
         <div className="mb-6 overflow-hidden rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm" data-testid="holds-table">
-            <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">On</th><th className="px-3 py-2">Reason</th><th className="px-3 py-2">Placed</th><th /></tr></thead>
+            <thead className="bg-stone-100 text-left text-xs text-ink-soft"><tr><th className="px-3 py-2">On</th><th className="px-3 py-2">Reason</th><th className="px-3 py-2">Placed</th><th /></tr></thead>
             <tbody>
               {active.map((h) => (
                 <tr key={h.id} className="border-t border-stone-100 align-top">
-                  <td className="px-3 py-1.5"><span className="text-xs uppercase text-ink-soft">{h.targetType}</span> <span className="font-medium">{h.targetLabel}</span></td>
+                  <td className="px-3 py-1.5"><span className="text-xs text-ink-soft">{h.targetType}</span> <span className="font-medium">{h.targetLabel}</span></td>
                   <td className="px-3 py-1.5">{h.reason}</td>
                   <td className="whitespace-nowrap px-3 py-1.5 text-ink-soft">{formatDay(h.placedAt)} · {h.placedBy}</td>
                   <td className="px-3 py-1.5 text-right"><ActionForm action={liftHold} submit="Lift" danger className="inline-flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={h.id} /></ActionForm></td>
@@ -52,7 +52,7 @@ export default async function HoldsPage() {
         <details className="text-sm">
           <summary className="cursor-pointer text-ink-soft">Lifted holds ({lifted.length})</summary>
           <ul className="mt-2 space-y-1">
-            {lifted.map((h) => <li key={h.id}><span className="text-xs uppercase text-ink-soft">{h.targetType}</span> {h.targetLabel}: {h.reason} — lifted {formatDay(h.liftedAt)} by {h.liftedBy}</li>)}
+            {lifted.map((h) => <li key={h.id}><span className="text-xs text-ink-soft">{h.targetType}</span> {h.targetLabel}: {h.reason} — lifted {formatDay(h.liftedAt)} by {h.liftedBy}</li>)}
           </ul>
         </details>
       )}

@@ -108,7 +108,7 @@ export default async function PoliciesPage({ searchParams }: { searchParams: Pro
         {policies.length === 0 ? <p className="text-sm text-ink-soft">No policies yet: everything is kept.</p> : (
           <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
             <table className="w-full text-sm" data-testid="policies-table">
-              <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">Project</th><th className="px-3 py-2">Class</th><th className="px-3 py-2">Keep</th><th className="px-3 py-2">At the end</th><th className="px-3 py-2">Changed</th><th /></tr></thead>
+              <thead className="bg-stone-100 text-left text-xs text-ink-soft"><tr><th className="px-3 py-2">Project</th><th className="px-3 py-2">Class</th><th className="px-3 py-2">Keep</th><th className="px-3 py-2">At the end</th><th className="px-3 py-2">Changed</th><th /></tr></thead>
               <tbody>
                 {policies.map((p) => (
                   <tr key={p.id} className="border-t border-stone-100">

@@ -51,7 +51,7 @@ export default async function SharingPage() {
       <h2 className="mb-2 text-base font-semibold">Members</h2>
       <div className="mb-6 overflow-hidden rounded-lg border border-stone-200 bg-white">
         <table className="w-full text-sm" data-testid="members-table">
-          <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">Person</th><th className="px-3 py-2">Group</th><th className="px-3 py-2">Role</th><th /></tr></thead>
+          <thead className="bg-stone-100 text-left text-xs text-ink-soft"><tr><th className="px-3 py-2">Person</th><th className="px-3 py-2">Group</th><th className="px-3 py-2">Role</th><th /></tr></thead>
           <tbody>
             {members.map((m) => (
               <tr key={m.id} className="border-t border-stone-100">
@@ -88,11 +88,11 @@ export default async function SharingPage() {
           {shares.length === 0 ? <p className="text-sm text-ink-soft">Nothing is shared outside the group.</p> : (
             <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
               <table className="w-full text-sm" data-testid="shares-table">
-                <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft"><tr><th className="px-3 py-2">What</th><th className="px-3 py-2">With</th><th className="px-3 py-2">Until</th><th className="px-3 py-2">State</th><th /></tr></thead>
+                <thead className="bg-stone-100 text-left text-xs text-ink-soft"><tr><th className="px-3 py-2">What</th><th className="px-3 py-2">With</th><th className="px-3 py-2">Until</th><th className="px-3 py-2">State</th><th /></tr></thead>
                 <tbody>
                   {shares.map((s) => (
                     <tr key={s.id} className="border-t border-stone-100">
-                      <td className="px-3 py-1.5"><span className="text-xs uppercase text-ink-soft">{s.targetType}</span> {s.targetLabel}</td>
+                      <td className="px-3 py-1.5"><span className="text-xs text-ink-soft">{s.targetType}</span> {s.targetLabel}</td>
                       <td className="px-3 py-1.5">{s.grantee}</td><td className="px-3 py-1.5">{s.expiresAt ? formatDay(s.expiresAt) : "no end date"}</td>
                       <td className="px-3 py-1.5">{s.revokedAt ? "revoked" : s.live ? "in force" : "expired"}</td>
                       <td className="px-3 py-1.5 text-right">{s.live && <ActionForm action={revokeShare} submit="Revoke" danger className="inline-flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={s.id} /></ActionForm>}</td>

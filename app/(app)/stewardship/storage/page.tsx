@@ -19,7 +19,7 @@ export default async function StoragePage() {
       <PageHeader title="Space used" subtitle={<>Use by project and data class ({formatBytes(total)} in all), and what the policies in force will free — counting today&apos;s holds and dependencies.</>} />
       <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
         <table className="w-full text-sm" data-testid="storage-table">
-          <thead className="bg-stone-100 text-left text-xs uppercase tracking-wide text-ink-soft">
+          <thead className="bg-stone-100 text-left text-xs text-ink-soft">
             <tr><th className="px-3 py-2">Project</th><th className="px-3 py-2">Class</th><th className="px-3 py-2 text-right">Items</th><th className="px-3 py-2 text-right">Size</th><th className="px-3 py-2">Policy</th><th className="px-3 py-2 text-right">Freed at next sweep</th><th className="px-3 py-2 text-right">within 30 days</th><th className="px-3 py-2 text-right">within a year</th><th className="px-3 py-2">Next expiry</th></tr>
           </thead>
           <tbody>
