@@ -241,11 +241,18 @@ export function pickFirstExciton(peaks: ExcitonicPeak[], smoothed: Float64Array,
   if (policy === 'none' || peaks.length === 0) return null;
   if (policy === 'emission-maximum') {
     let best: ExcitonicPeak | null = null;
-    for (const p of peaks) if (p.kind === 'maximum' && (!best || p.height > best.height)) best = p;
+    for (let i = 0; i < peaks.length; i++) {
+      const p = peaks[i]!;
+      if (p.kind === 'maximum' && (!best || p.height > best.height)) best = p;
+    }
     return best ?? peaks.reduce((a, b) => (b.amplitude > a.amplitude ? b : a));
   }
   let max = 0;
   for (let i = 0; i < smoothed.length; i++) if (Math.abs(smoothed[i]!) > max) max = Math.abs(smoothed[i]!);
-  for (const p of peaks) if (p.amplitude >= 0.02 * max && p.height > 0) return p;
+  const floor = 0.02 * max;
+  for (let i = 0; i < peaks.length; i++) {
+    const p = peaks[i]!;
+    if (p.amplitude >= floor && p.height > 0) return p;
+  }
   return null;
 }
