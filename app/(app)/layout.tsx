@@ -4,7 +4,7 @@ import { navFor, ROLE_LABELS } from "@/lib/navigation";
 import { Logo } from "@/components/shell/Logo";
 import { MobileMenu } from "@/components/shell/MobileMenu";
 import { NavRail } from "@/components/shell/NavRail";
-import { leadGroupIds } from "@/lib/queries/review";
+import { leadGroupIds } from "@/lib/auth/access";
 import { awaitingReviewCounts } from "@/lib/review/counts";
 import { SignOutButton } from "@/components/shell/SignOutButton";
 

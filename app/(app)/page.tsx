@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requireActor } from "@/lib/auth/actor";
-import { canWrite } from "@/lib/auth/access";
+import { leadGroupIds, writesSomewhere } from "@/lib/auth/access";
 import { getOverview } from "@/lib/queries/overview";
 import { listSeries } from "@/lib/queries/series";
 import { EmptyState } from "@/components/ui/EmptyState";
@@ -48,7 +48,7 @@ export default async function OverviewPage() {
     );
   }
   const total = Object.values(overview.spectraByStatus).reduce((a, b) => a + b, 0);
-  const writer = actor.memberships.some((m) => canWrite(actor, m.groupId));
+  const writer = writesSomewhere(actor);
   return (
     <>
       <PageHeader title={`Welcome, ${actor.name}`} subtitle="What arrived, what the analysis flagged, and what waits for a decision." />
@@ -56,7 +56,7 @@ export default async function OverviewPage() {
         <Stat label="Spectra" value={total} href="/spectra" />
         <Stat label="Being analysed" value={(overview.spectraByStatus.queued ?? 0) + (overview.spectraByStatus.analysing ?? 0)} />
         <Stat label="Could not read" value={overview.spectraByStatus.failed ?? 0} href="/spectra?status=failed" />
-        <Stat label="Signatures to review" value={overview.awaitingSignatures} href={actor.memberships.some((m) => m.role === "lead") ? "/review" : undefined} />
+        <Stat label="Signatures to review" value={overview.awaitingSignatures} href={leadGroupIds(actor).length > 0 ? "/review" : undefined} />
         <Stat label="Samples" value={overview.samples} href="/samples" />
       </div>
       {saved.length > 0 && <SavedSearchList searches={saved} />}

@@ -1,7 +1,7 @@
 "use client";
 
 import { useState } from "react";
-import { ActionForm } from "@/components/stewardship/ActionForm";
+import { ActionForm } from "@/components/forms/ActionForm";
 import { deleteSavedSearchAction } from "@/app/(app)/spectra/actions-search";
 
 /** Removes a saved search after a second, explicit click (the first only asks). */

@@ -1,6 +1,6 @@
 "use client";
 
-import { ActionForm } from "@/components/stewardship/ActionForm";
+import { ActionForm } from "@/components/forms/ActionForm";
 import { saveSearchAction } from "@/app/(app)/spectra/actions-search";
 
 /** Names the current search and keeps it for the Overview. */

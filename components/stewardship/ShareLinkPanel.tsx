@@ -4,7 +4,7 @@ import { useActionState, useRef, useState } from "react";
 import { shareLinkAction } from "@/app/(app)/stewardship/actions";
 import { initialActionState } from "@/lib/actions/protected-state";
 import { inputClass } from "@/components/forms/Field";
-import { ActionForm } from "./ActionForm";
+import { ActionForm } from "@/components/forms/ActionForm";
 import { formatWhen } from "@/lib/format/dates";
 
 type Target = { type: "project" | "series"; id: string; label: string };

@@ -15,7 +15,7 @@ const DATA_TABS: Tab[] = [
 ];
 const PEOPLE_TABS: Tab[] = [
   { href: "/stewardship/sharing", label: "People & sharing" },
-  { href: "/stewardship/audit", label: "Activity log" },
+  { href: "/stewardship/audit", label: "Audit trail" },
 ];
 
 function Shelf({ title, tabs, path }: { title: string; tabs: Tab[]; path: string }) {

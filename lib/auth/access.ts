@@ -28,6 +28,21 @@ export function writerGroupIds(actor: Actor): string[] {
   return actor.memberships.filter((m) => WRITER_ROLES.includes(m.role)).map((m) => m.groupId);
 }
 
+/** The actor's memberships in groups where they may add data (for group pickers). */
+export function writerMemberships(actor: Actor): Actor["memberships"] {
+  return actor.memberships.filter((m) => WRITER_ROLES.includes(m.role));
+}
+
+/** Whether the actor may add data in at least one group. */
+export function writesSomewhere(actor: Actor): boolean {
+  return writerGroupIds(actor).length > 0;
+}
+
+/** Groups in which the actor is the group lead (and so reviews signatures). */
+export function leadGroupIds(actor: Actor): string[] {
+  return actor.memberships.filter((m) => m.role === "lead").map((m) => m.groupId);
+}
+
 export function canWrite(actor: Actor, groupId: string): boolean {
   return hasRole(actor, groupId, WRITER_ROLES);
 }

@@ -2,7 +2,7 @@ import { selectRows } from "@/lib/db";
 import type { Technique } from "@/lib/registry/techniques";
 import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
-import { roleIn } from "@/lib/auth/access";
+import { leadGroupIds, roleIn } from "@/lib/auth/access";
 import { fastCount, type CountSql } from "@/lib/search/fastCount";
 import { cursorAtSql, decodeSortedCursor, encodeSortedCursor } from "@/lib/search/keysetCursor";
 import type { QueueQuery } from "@/lib/review/schemas";
@@ -56,7 +56,6 @@ const SORT_KEY: Record<QueueQuery["sort"], { sql: string; cast: string }> = {
 /** Samples offered in the queue's filter: the groups' most recent (a group may have thousands). */
 const SAMPLE_CHOICES = 200;
 
-export const leadGroupIds = (actor: Actor) => actor.memberships.filter((m) => m.role === "lead").map((m) => m.groupId);
 
 function toItem(r: Row): ReviewItem {
   return {

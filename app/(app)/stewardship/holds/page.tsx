@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { requireActor } from "@/lib/auth/actor";
 import { stewardGroupIds } from "@/lib/auth/access";
 import { holdTargetOptions, listHolds } from "@/lib/stewardship/queries";
-import { ActionForm } from "@/components/stewardship/ActionForm";
+import { ActionForm } from "@/components/forms/ActionForm";
 import { HoldTargetPicker } from "@/components/stewardship/HoldTargetPicker";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
 import { formatDay } from "@/lib/format/dates";

@@ -4,7 +4,7 @@ import { requireActor } from "@/lib/auth/actor";
 import { stewardGroupIds } from "@/lib/auth/access";
 import { listProjectChoices } from "@/lib/queries/projects";
 import { DATA_CLASS_LABELS, listPolicies, previewPolicy, type PolicyPreview } from "@/lib/stewardship/queries";
-import { ActionForm } from "@/components/stewardship/ActionForm";
+import { ActionForm } from "@/components/forms/ActionForm";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
 import { formatBytes } from "@/lib/format/bytes";
 import { formatDay } from "@/lib/format/dates";

@@ -4,7 +4,7 @@ import { stewardGroupIds } from "@/lib/auth/access";
 import { ROLE_LABELS } from "@/lib/navigation";
 import { listInvitations, listMembers, listShares, managedGroups, shareTargetOptions } from "@/lib/stewardship/queries";
 import { listShareLinks } from "@/lib/stewardship/shareLinks";
-import { ActionForm } from "@/components/stewardship/ActionForm";
+import { ActionForm } from "@/components/forms/ActionForm";
 import { ShareLinkPanel } from "@/components/stewardship/ShareLinkPanel";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
 import { formatDay } from "@/lib/format/dates";

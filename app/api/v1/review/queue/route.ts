@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
 import { withActor } from "@/lib/http/respond";
-import { listReviewQueue, leadGroupIds } from "@/lib/queries/review";
+import { listReviewQueue } from "@/lib/queries/review";
+import { leadGroupIds } from "@/lib/auth/access";
 import { queryObject, queueQuerySchema } from "@/lib/review/schemas";
 import { Refusal } from "@/lib/errors";
 
