@@ -20,7 +20,14 @@ import { createRequire } from "node:module";
 import { loadProfileEnv } from "./profileEnv";
 
 type AutocannonInstance = { on(event: "response", fn: (client: unknown, status: number, bytes: number, ms: number) => void): void };
-type AutocannonResult = { requests: { average: number; total: number }; non2xx: number; errors: number; timeouts: number; duration: number; throughput: { average: number } };
+type AutocannonResult = {
+  requests: { average: number; total: number };
+  non2xx: number;
+  errors: number;
+  timeouts: number;
+  duration: number;
+  throughput: { average: number };
+};
 type Autocannon = (opts: Record<string, unknown>, cb: (err: Error | null, result: AutocannonResult) => void) => AutocannonInstance;
 
 const args = process.argv.slice(2);
@@ -45,13 +52,22 @@ const { syntheticAbsorptionCsv } = await import("@/tests/helpers/spectra");
 
 async function benchAccount() {
   models();
-  const [group] = await Group.findOrCreate({ where: { slug: "api-bench-lab" }, defaults: { name: "API bench lab", slug: "api-bench-lab" } });
-  const [project] = await Project.findOrCreate({ where: { groupId: group.id, name: "API bench" }, defaults: { groupId: group.id, name: "API bench" } });
+  const [group] = await Group.findOrCreate({
+    where: { slug: "api-bench-lab" },
+    defaults: { name: "API bench lab", slug: "api-bench-lab" },
+  });
+  const [project] = await Project.findOrCreate({
+    where: { groupId: group.id, name: "API bench" },
+    defaults: { groupId: group.id, name: "API bench" },
+  });
   const email = "api-bench@bandkeep.invalid";
   let user = await User.findOne({ where: { email } });
   user ??= await User.create({ email, name: "API bench", passwordHash: await bcrypt.hash(randomBytes(18).toString("base64url"), 10) });
   // a group lead: uploads, and may read the review queue
-  const [membership] = await Membership.findOrCreate({ where: { groupId: group.id, userId: user.id }, defaults: { groupId: group.id, userId: user.id, role: "lead" } });
+  const [membership] = await Membership.findOrCreate({
+    where: { groupId: group.id, userId: user.id },
+    defaults: { groupId: group.id, userId: user.id, role: "lead" },
+  });
   if (membership.role !== "lead") await membership.update({ role: "lead" });
   return { project, user };
 }
@@ -61,9 +77,13 @@ async function upload(token: string, fields: Record<string, string>, fileName: s
   for (const [k, v] of Object.entries(fields)) form.append(k, v);
   form.append("file", new Blob([text], { type: "text/csv" }), fileName);
   const res = await fetch(`${APP}/api/v1/spectra`, { method: "POST", headers: { Authorization: `Bearer ${token}` }, body: form });
-  const body = (await res.json()) as { files?: { ok: boolean; spectrumId?: string; error?: { message: string } }[]; error?: { message: string } };
+  const body = (await res.json()) as {
+    files?: { ok: boolean; spectrumId?: string; error?: { message: string } }[];
+    error?: { message: string };
+  };
   const f = body.files?.[0];
-  if (!f?.ok || !f.spectrumId) throw new Error(`upload of ${fileName} answered ${res.status}: ${f?.error?.message ?? body.error?.message ?? "no file result"}`);
+  if (!f?.ok || !f.spectrumId)
+    throw new Error(`upload of ${fileName} answered ${res.status}: ${f?.error?.message ?? body.error?.message ?? "no file result"}`);
   return f.spectrumId;
 }
 
@@ -93,8 +113,13 @@ function load(name: string, url: string, headers: Record<string, string>, durati
       if (err) return reject(err);
       times.sort((a, b) => a - b);
       resolve({
-        name, rps: result.requests.total / result.duration, p50: percentile(times, 50), p95: percentile(times, 95), p99: percentile(times, 99),
-        total: result.requests.total, bad: result.non2xx + result.errors + result.timeouts,
+        name,
+        rps: result.requests.total / result.duration,
+        p50: percentile(times, 50),
+        p95: percentile(times, 95),
+        p99: percentile(times, 99),
+        total: result.requests.total,
+        bad: result.non2xx + result.errors + result.timeouts,
       });
     });
     instance.on("response", (_client, _status, _bytes, ms) => times.push(ms));
@@ -111,12 +136,20 @@ try {
   // parent and sample, 4,096 points each, uploaded once (the API links a second upload of the same bytes)
   const parentText = syntheticAbsorptionCsv({ points: POINTS, seed: 4096, excitonHeight: 0.4 });
   const sampleText = syntheticAbsorptionCsv({ points: POINTS, seed: 4097, excitonHeight: 0.26 });
-  const existing = await Spectrum.findOne({ where: { projectId: project.id, fileName: "bench-4096-sample.csv" }, order: [["createdAt", "DESC"]] });
+  const existing = await Spectrum.findOne({
+    where: { projectId: project.id, fileName: "bench-4096-sample.csv" },
+    order: [["createdAt", "DESC"]],
+  });
   let sampleId = existing?.id;
   if (!sampleId) {
     const parentId = await upload(secret, { projectId: project.id, technique: "absorption" }, "bench-4096-parent.csv", parentText);
     await settled(secret, parentId);
-    sampleId = await upload(secret, { projectId: project.id, technique: "absorption", referenceSpectrumId: parentId }, "bench-4096-sample.csv", sampleText);
+    sampleId = await upload(
+      secret,
+      { projectId: project.id, technique: "absorption", referenceSpectrumId: parentId },
+      "bench-4096-sample.csv",
+      sampleText,
+    );
   }
   await settled(secret, sampleId);
 
@@ -127,7 +160,13 @@ try {
   if (!warm.ok) throw new Error(`data endpoint answered ${warm.status}: ${await warm.text()}`);
   const payload = (await warm.json()) as { points: number; series: Record<string, unknown[] | null> };
   const bytes = JSON.stringify(payload).length;
-  console.log(`spectrum ${sampleId}: ${payload.points} grid points, series ${Object.keys(payload.series).filter((k) => payload.series[k]).join(", ")}, ${(bytes / 1024).toFixed(0)} KiB JSON; first request ${firstMs.toFixed(0)} ms (${warm.headers.get("x-bandkeep-cache")})`);
+  console.log(
+    `spectrum ${sampleId}: ${payload.points} grid points, series ${Object.keys(payload.series)
+      .filter((k) => payload.series[k])
+      .join(
+        ", ",
+      )}, ${(bytes / 1024).toFixed(0)} KiB JSON; first request ${firstMs.toFixed(0)} ms (${warm.headers.get("x-bandkeep-cache")})`,
+  );
   console.log(`${CONNECTIONS} connections, ${DURATION} s each, against ${APP}\n`);
 
   const binaryUrl = `${dataUrl}&format=binary`;
@@ -144,25 +183,51 @@ try {
   rows.push(await load(`spectrum data, JSON`, dataUrl, auth));
   const probe = await fetch(`${APP}/api/v1/review/queue`, { headers: auth });
   const isJson = (probe.headers.get("content-type") ?? "").includes("json");
-  if (probe.status === 404 && !isJson) rows.push({ name: "review queue", rps: NaN, p50: NaN, p95: NaN, p99: NaN, total: 0, bad: 0, note: "not available (GET /api/v1/review/queue does not exist in this build)" });
-  else if (!probe.ok) rows.push({ name: "review queue", rps: NaN, p50: NaN, p95: NaN, p99: NaN, total: 0, bad: 0, note: `not available (answered ${probe.status})` });
+  if (probe.status === 404 && !isJson)
+    rows.push({
+      name: "review queue",
+      rps: NaN,
+      p50: NaN,
+      p95: NaN,
+      p99: NaN,
+      total: 0,
+      bad: 0,
+      note: "not available (GET /api/v1/review/queue does not exist in this build)",
+    });
+  else if (!probe.ok)
+    rows.push({
+      name: "review queue",
+      rps: NaN,
+      p50: NaN,
+      p95: NaN,
+      p99: NaN,
+      total: 0,
+      bad: 0,
+      note: `not available (answered ${probe.status})`,
+    });
   else rows.push(await load("review queue", `${APP}/api/v1/review/queue`, auth));
   rows.push(await load("health", `${APP}/api/health`, {}));
 
   const pad = (s: string, n: number) => s.padStart(n);
   const ms = (v: number) => (Number.isFinite(v) ? `${v.toFixed(1)} ms` : "—");
-  console.log(`${"endpoint".padEnd(28)}${pad("req/s", 10)}${pad("p50", 11)}${pad("p95", 11)}${pad("p99", 11)}${pad("requests", 10)}${pad("non-2xx", 9)}`);
+  console.log(
+    `${"endpoint".padEnd(28)}${pad("req/s", 10)}${pad("p50", 11)}${pad("p95", 11)}${pad("p99", 11)}${pad("requests", 10)}${pad("non-2xx", 9)}`,
+  );
   for (const r of rows) {
     if (r.note) {
       console.log(`${r.name.padEnd(28)}${r.note}`);
       continue;
     }
-    console.log(`${r.name.padEnd(28)}${pad(r.rps.toFixed(0), 10)}${pad(ms(r.p50), 11)}${pad(ms(r.p95), 11)}${pad(ms(r.p99), 11)}${pad(String(r.total), 10)}${pad(String(r.bad), 9)}`);
+    console.log(
+      `${r.name.padEnd(28)}${pad(r.rps.toFixed(0), 10)}${pad(ms(r.p50), 11)}${pad(ms(r.p95), 11)}${pad(ms(r.p99), 11)}${pad(String(r.total), 10)}${pad(String(r.bad), 9)}`,
+    );
   }
   const [viewer, json] = rows;
   console.log("");
   for (const r of [viewer!, json!]) {
-    console.log(`target p95 < 50 ms, ${r.name}: ${r.p95 < 50 ? "met" : "NOT met"} (p95 ${ms(r.p95)})${r.bad ? `; ${r.bad} requests were not 2xx` : ""}`);
+    console.log(
+      `target p95 < 50 ms, ${r.name}: ${r.p95 < 50 ? "met" : "NOT met"} (p95 ${ms(r.p95)})${r.bad ? `; ${r.bad} requests were not 2xx` : ""}`,
+    );
   }
 } finally {
   await ApiToken.update({ revokedAt: new Date() }, { where: { id: tokenId } });

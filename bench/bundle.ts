@@ -33,7 +33,10 @@ const inParallel = async (fn: (key: string) => Promise<void>) => {
 await inParallel((key) => putObject(key, raw, "text/plain", sha));
 const [group] = await selectRows<{ id: string }>("SELECT id FROM groups ORDER BY name LIMIT 1");
 if (!group) throw new Error("no group in this database: run npm run seed first");
-const [project] = await selectRows<{ id: string }>("INSERT INTO projects (group_id, name) VALUES (:g, :n) RETURNING id", { g: group.id, n: `Bundle bench ${prefix}` });
+const [project] = await selectRows<{ id: string }>("INSERT INTO projects (group_id, name) VALUES (:g, :n) RETURNING id", {
+  g: group.id,
+  n: `Bundle bench ${prefix}`,
+});
 try {
   await selectRows(
     `INSERT INTO spectra (project_id, technique, file_name, object_key, sha256, size_bytes, metadata, status, created_at)
@@ -48,7 +51,9 @@ try {
   for await (const chunk of bundle.chunks) bytes += chunk.length; // written nowhere: the zip is not kept
   const { manifest } = await bundle.done;
   const seconds = (performance.now() - started) / 1000;
-  console.log(`bundle of ${n} spectra (${(raw.length / 1024).toFixed(0)} KiB raw file each): ${(bytes / 2 ** 20).toFixed(1)} MiB zip, ${manifest.files.length} files, ${seconds.toFixed(1)} s`);
+  console.log(
+    `bundle of ${n} spectra (${(raw.length / 1024).toFixed(0)} KiB raw file each): ${(bytes / 2 ** 20).toFixed(1)} MiB zip, ${manifest.files.length} files, ${seconds.toFixed(1)} s`,
+  );
   console.log(`peak RSS (VmHWM): ${peakRssMb().toFixed(0)} MB (before the bundle: ${rssBefore.toFixed(0)} MB)`);
 } finally {
   await selectRows("DELETE FROM spectra WHERE project_id = :p RETURNING id", { p: project!.id });

@@ -21,7 +21,7 @@ function rng(seed: number) {
     a = (a + 0x6d2b79f5) >>> 0;
     let t = Math.imul(a ^ (a >>> 15), a | 1);
     t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return (((t ^ (t >>> 14)) >>> 0) / 4294967296) - 0.5;
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296 - 0.5;
   };
 }
 
@@ -39,7 +39,21 @@ function make(k: number): ParsedSpectrum {
       0.5 * Math.exp(-0.5 * ((e - 2.9) / 0.15) ** 2) +
       0.004 * r();
   }
-  return { fileName: `b${k}`, format: 'delimited', x, y, xUnit: 'nm', yUnit: 'absorbance', xOrderInFile: 'ascending', technique: 'absorption', columnName: 'A', columnIndex: 1, availableColumns: ['A'], metadata: {}, warnings: [] };
+  return {
+    fileName: `b${k}`,
+    format: 'delimited',
+    x,
+    y,
+    xUnit: 'nm',
+    yUnit: 'absorbance',
+    xOrderInFile: 'ascending',
+    technique: 'absorption',
+    columnName: 'A',
+    columnIndex: 1,
+    availableColumns: ['A'],
+    metadata: {},
+    warnings: [],
+  };
 }
 
 const spectra: ParsedSpectrum[] = [];
@@ -82,7 +96,15 @@ try {
     ours.wall += (performance.now() - t0) / 1000;
     const c = process.cpuUsage(c0);
     ours.cpu += (c.user + c.system) / 1e6;
-    const out = execFileSync('python3', [path.join(here, 'engine-reference.py'), bin, String(N), String(M), String(window), String(start), String(end)]);
+    const out = execFileSync('python3', [
+      path.join(here, 'engine-reference.py'),
+      bin,
+      String(N),
+      String(M),
+      String(window),
+      String(start),
+      String(end),
+    ]);
     const r = JSON.parse(out.toString()) as { seconds: number; cpuSeconds: number };
     theirs.wall += r.seconds;
     theirs.cpu += r.cpuSeconds;
@@ -93,7 +115,13 @@ try {
 peakRss = Math.max(peakRss, process.memoryUsage().rss);
 const rate = (t: number) => N / t;
 console.log(`spectra: ${N} x ${M} points (absorption vs reference), flags raised: ${flags}, ${ROUNDS} alternating rounds`);
-console.log(`Bandkeep engine: ${rate(ours.wall).toFixed(1)} spectra/s (${ours.wall.toFixed(2)} s wall; ${rate(ours.cpu).toFixed(1)} spectra/s per CPU second)`);
-console.log(`scipy pipeline:  ${rate(theirs.wall).toFixed(1)} spectra/s (${theirs.wall.toFixed(2)} s wall; ${rate(theirs.cpu).toFixed(1)} spectra/s per CPU second)`);
-console.log(`ratio Bandkeep/scipy: ${(rate(ours.wall) / rate(theirs.wall)).toFixed(2)} (wall), ${(rate(ours.cpu) / rate(theirs.cpu)).toFixed(2)} (CPU time)`);
+console.log(
+  `Bandkeep engine: ${rate(ours.wall).toFixed(1)} spectra/s (${ours.wall.toFixed(2)} s wall; ${rate(ours.cpu).toFixed(1)} spectra/s per CPU second)`,
+);
+console.log(
+  `scipy pipeline:  ${rate(theirs.wall).toFixed(1)} spectra/s (${theirs.wall.toFixed(2)} s wall; ${rate(theirs.cpu).toFixed(1)} spectra/s per CPU second)`,
+);
+console.log(
+  `ratio Bandkeep/scipy: ${(rate(ours.wall) / rate(theirs.wall)).toFixed(2)} (wall), ${(rate(ours.cpu) / rate(theirs.cpu)).toFixed(2)} (CPU time)`,
+);
 console.log(`peak RSS (Node): ${(peakRss / 1048576).toFixed(1)} MB`);

@@ -37,11 +37,15 @@ const PROFILE_DIR = args.includes("--profile") ? path.resolve(args[args.indexOf(
 const profileFlags = PROFILE_DIR ? ["--cpu-prof", `--cpu-prof-dir=${PROFILE_DIR}`] : [];
 
 // The test profile's environment, read from scripts/env.sh so addresses stay in one place.
-const envText = execFileSync("bash", ["-c", "export BANDKEEP_PROFILE=test; source scripts/env.sh; source scripts/services.sh; start_services >&2; env -0"], {
-  cwd: ROOT,
-  encoding: "utf8",
-  stdio: ["ignore", "pipe", "inherit"],
-});
+const envText = execFileSync(
+  "bash",
+  ["-c", "export BANDKEEP_PROFILE=test; source scripts/env.sh; source scripts/services.sh; start_services >&2; env -0"],
+  {
+    cwd: ROOT,
+    encoding: "utf8",
+    stdio: ["ignore", "pipe", "inherit"],
+  },
+);
 for (const pair of envText.split("\0")) {
   const i = pair.indexOf("=");
   if (i > 0) process.env[pair.slice(0, i)] = pair.slice(i + 1);
@@ -78,39 +82,58 @@ let stopping = false;
 async function stopAll() {
   stopping = true;
   await Promise.all(
-    children.map((c) => new Promise<void>((resolve) => {
-      if (c.exitCode !== null) return resolve();
-      c.once("exit", () => resolve());
-      c.kill("SIGTERM");
-      setTimeout(() => c.kill("SIGKILL"), 15_000).unref();
-    })),
+    children.map(
+      (c) =>
+        new Promise<void>((resolve) => {
+          if (c.exitCode !== null) return resolve();
+          c.once("exit", () => resolve());
+          c.kill("SIGTERM");
+          setTimeout(() => c.kill("SIGKILL"), 15_000).unref();
+        }),
+    ),
   );
 }
 process.on("SIGINT", () => void stopAll().then(() => process.exit(130)));
 
 /** A multipart/form-data body (RFC 7578) with text fields and one part per file. */
-function multipartBody(fields: Record<string, string>, files: { fileName: string; bytes: Uint8Array }[]): { body: Buffer; type: string; count: number } {
+function multipartBody(
+  fields: Record<string, string>,
+  files: { fileName: string; bytes: Uint8Array }[],
+): { body: Buffer; type: string; count: number } {
   const boundary = `----bench${randomBytes(12).toString("hex")}`;
   const parts: Buffer[] = [];
   for (const [name, value] of Object.entries(fields)) {
     parts.push(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="${name}"\r\n\r\n${value}\r\n`));
   }
   for (const f of files) {
-    parts.push(Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${f.fileName}"\r\nContent-Type: text/csv\r\n\r\n`));
+    parts.push(
+      Buffer.from(
+        `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${f.fileName}"\r\nContent-Type: text/csv\r\n\r\n`,
+      ),
+    );
     parts.push(Buffer.from(f.bytes), Buffer.from("\r\n"));
   }
   parts.push(Buffer.from(`--${boundary}--\r\n`));
   return { body: Buffer.concat(parts), type: `multipart/form-data; boundary=${boundary}`, count: files.length };
 }
 
-function postBody(url: string, b: { body: Buffer; type: string }, headers: Record<string, string>, agent: http.Agent): Promise<{ status: number; text: string }> {
+function postBody(
+  url: string,
+  b: { body: Buffer; type: string },
+  headers: Record<string, string>,
+  agent: http.Agent,
+): Promise<{ status: number; text: string }> {
   return new Promise((resolve, reject) => {
-    const req = http.request(url, { method: "POST", agent, headers: { ...headers, "Content-Type": b.type, "Content-Length": String(b.body.length) } }, (res) => {
-      const chunks: Buffer[] = [];
-      res.on("data", (c: Buffer) => chunks.push(c));
-      res.on("end", () => resolve({ status: res.statusCode ?? 0, text: Buffer.concat(chunks).toString("utf8") }));
-      res.on("error", reject);
-    });
+    const req = http.request(
+      url,
+      { method: "POST", agent, headers: { ...headers, "Content-Type": b.type, "Content-Length": String(b.body.length) } },
+      (res) => {
+        const chunks: Buffer[] = [];
+        res.on("data", (c: Buffer) => chunks.push(c));
+        res.on("end", () => resolve({ status: res.statusCode ?? 0, text: Buffer.concat(chunks).toString("utf8") }));
+        res.on("error", reject);
+      },
+    );
     req.on("error", reject);
     req.end(b.body);
   });
@@ -137,12 +160,14 @@ async function waitHttp(url: string, timeoutMs: number) {
 
 async function pool<T>(items: T[], parallel: number, fn: (item: T, i: number) => Promise<void>) {
   let next = 0;
-  await Promise.all(Array.from({ length: parallel }, async () => {
-    while (next < items.length) {
-      const i = next++;
-      await fn(items[i], i);
-    }
-  }));
+  await Promise.all(
+    Array.from({ length: parallel }, async () => {
+      while (next < items.length) {
+        const i = next++;
+        await fn(items[i], i);
+      }
+    }),
+  );
 }
 
 try {
@@ -151,32 +176,44 @@ try {
     execFileSync(process.execPath, ["node_modules/next/dist/bin/next", "build"], { cwd: ROOT, stdio: "inherit" });
   }
   const app = start("app", [...profileFlags, "scripts/serve.mjs", "-H", "127.0.0.1", "-p", String(BENCH_PORT)]);
-  const workers = Array.from({ length: WORKERS }, () => start("worker", [...profileFlags, "--import", "tsx", "workers/index.ts"], { WORKER_CONCURRENCY: String(CONCURRENCY) }));
+  const workers = Array.from({ length: WORKERS }, () =>
+    start("worker", [...profileFlags, "--import", "tsx", "workers/index.ts"], { WORKER_CONCURRENCY: String(CONCURRENCY) }),
+  );
   await waitHttp(`http://127.0.0.1:${BENCH_PORT}/api/v1/projects`, 60_000);
 
   models();
   const lab = await createLab("spectroscopist");
   const bareProject = await Project.create({ groupId: lab.group.id, name: `Bare storage path ${randomBytes(3).toString("hex")}` });
-  const files = Array.from({ length: FILES }, (_, i) => ({ fileName: `bench-${i}.csv`, bytes: enc(syntheticAbsorptionCsv({ seed: 900_000 + i, points: 2000 })) }));
+  const files = Array.from({ length: FILES }, (_, i) => ({
+    fileName: `bench-${i}.csv`,
+    bytes: enc(syntheticAbsorptionCsv({ seed: 900_000 + i, points: 2000 })),
+  }));
   const mb = files.reduce((s, f) => s + f.bytes.length, 0) / 1024 / 1024;
-  console.log(`\n${FILES} exports of 2,000 points (${mb.toFixed(1)} MiB), ${PER_REQUEST} file(s) per request, ${PARALLEL} requests in flight, ${WORKERS} worker(s) × concurrency ${CONCURRENCY}, queue ${QUEUE}`);
+  console.log(
+    `\n${FILES} exports of 2,000 points (${mb.toFixed(1)} MiB), ${PER_REQUEST} file(s) per request, ${PARALLEL} requests in flight, ${WORKERS} worker(s) × concurrency ${CONCURRENCY}, queue ${QUEUE}`,
+  );
 
   // Warm the app's routes so the first requests do not carry start-up cost.
   const warm = new FormData();
   warm.append("projectId", lab.project.id);
   warm.append("technique", "absorption");
   warm.append("file", new Blob([enc(syntheticAbsorptionCsv({ seed: 1, points: 2000 })) as Uint8Array<ArrayBuffer>]), "warm.csv");
-  await fetch(`http://127.0.0.1:${BENCH_PORT}/api/v1/spectra`, { method: "POST", headers: { Authorization: `Bearer ${lab.token}` }, body: warm });
+  await fetch(`http://127.0.0.1:${BENCH_PORT}/api/v1/spectra`, {
+    method: "POST",
+    headers: { Authorization: `Bearer ${lab.token}` },
+    body: warm,
+  });
 
   // Where the CPU goes: every process tree of the stack, read from /proc before and after each phase.
   const runDir = path.join(process.env.BANDKEEP_DATA_DIR!, "run");
-  const trees = () => cpuMsOfTrees({
-    app: app.pid,
-    ...Object.fromEntries(workers.map((w, i) => [workers.length > 1 ? `worker${i + 1}` : "worker", w.pid])),
-    postgres: pidFromFile(path.join(process.env.BANDKEEP_DATA_DIR!, "pg", "postmaster.pid")),
-    redis: pidFromFile(path.join(runDir, "redis.pid")),
-    storage: pidFromFile(path.join(runDir, "storage.pid")),
-  });
+  const trees = () =>
+    cpuMsOfTrees({
+      app: app.pid,
+      ...Object.fromEntries(workers.map((w, i) => [workers.length > 1 ? `worker${i + 1}` : "worker", w.pid])),
+      postgres: pidFromFile(path.join(process.env.BANDKEEP_DATA_DIR!, "pg", "postmaster.pid")),
+      redis: pidFromFile(path.join(runDir, "redis.pid")),
+      storage: pidFromFile(path.join(runDir, "storage.pid")),
+    });
   const clientCpuMs = () => {
     const u = process.cpuUsage();
     return (u.user + u.system) / 1000;
@@ -186,7 +223,8 @@ try {
   // starts and sent over kept-alive node:http sockets, so the load generator takes as little of
   // the two cores as it can (fetch + FormData cost the client about 8 ms of CPU per upload).
   const bodies = Array.from({ length: Math.ceil(files.length / PER_REQUEST) }, (_, i) =>
-    multipartBody({ projectId: lab.project.id, technique: "absorption" }, files.slice(i * PER_REQUEST, (i + 1) * PER_REQUEST)));
+    multipartBody({ projectId: lab.project.id, technique: "absorption" }, files.slice(i * PER_REQUEST, (i + 1) * PER_REQUEST)),
+  );
   const agent = new http.Agent({ keepAlive: true, maxSockets: PARALLEL });
   const ids: string[] = [];
   const cpu0 = { ...trees(), "bench client": clientCpuMs() };
@@ -220,10 +258,28 @@ try {
     const sha256 = sha256Hex(f.bytes);
     await putObject(key, f.bytes, "text/csv", sha256);
     await Spectrum.create({
-      projectId: bareProject.id, sampleId: null, seriesId: null, seriesValue: null, referenceSpectrumId: null, technique: "absorption",
-      fileName: f.fileName, objectKey: key, sha256, sizeBytes: f.bytes.length, contentType: "text/csv", columnChoice: null, axisUnit: null,
-      valueUnit: null, pathLengthCm: null, excitationNm: null, slitNm: null, integrationMs: null, material: null, status: "received",
-      errorMessage: null, uploadedBy: lab.user.id,
+      projectId: bareProject.id,
+      sampleId: null,
+      seriesId: null,
+      seriesValue: null,
+      referenceSpectrumId: null,
+      technique: "absorption",
+      fileName: f.fileName,
+      objectKey: key,
+      sha256,
+      sizeBytes: f.bytes.length,
+      contentType: "text/csv",
+      columnChoice: null,
+      axisUnit: null,
+      valueUnit: null,
+      pathLengthCm: null,
+      excitationNm: null,
+      slitNm: null,
+      integrationMs: null,
+      material: null,
+      status: "received",
+      errorMessage: null,
+      uploadedBy: lab.user.id,
     });
   });
   const tBare = performance.now();
@@ -234,15 +290,23 @@ try {
   const uploadRate = ids.length / s(tUploaded - t0);
   const bareRate = FILES / s(tBare - t1);
   console.log("");
-  console.log(`HTTP API, upload → analysed : ${ids.length} files in ${s(tAnalysed - t0).toFixed(1)} s = ${pipelineRate.toFixed(1)} files/s (${failed} failed, ${refused} refused)`);
+  console.log(
+    `HTTP API, upload → analysed : ${ids.length} files in ${s(tAnalysed - t0).toFixed(1)} s = ${pipelineRate.toFixed(1)} files/s (${failed} failed, ${refused} refused)`,
+  );
   console.log(`  of which uploads accepted : ${s(tUploaded - t0).toFixed(1)} s = ${uploadRate.toFixed(1)} files/s`);
   console.log(`bare storage path (put+row) : ${FILES} files in ${s(tBare - t1).toFixed(1)} s = ${bareRate.toFixed(1)} files/s`);
-  console.log(`ratio pipeline / bare       : ${(pipelineRate / bareRate).toFixed(3)}   (upload acceptance / bare: ${(uploadRate / bareRate).toFixed(3)})`);
+  console.log(
+    `ratio pipeline / bare       : ${(pipelineRate / bareRate).toFixed(3)}   (upload acceptance / bare: ${(uploadRate / bareRate).toFixed(3)})`,
+  );
   console.log(`CPU per file, pipeline      : ${formatCpuPer(cpuMsPer(cpu0, cpu1, ids.length))}`);
   console.log(`CPU per file, bare path     : ${formatCpuPer(cpuMsPer(cpu2, cpu3, FILES))}`);
-  console.log(`worker peak RSS (VmHWM)     : ${peakRss.map((m) => `${m.toFixed(0)} MB`).join(", ")}   (app: ${appRss.toFixed(0)} MB, largest of ${appProcesses.length} processes)`);
+  console.log(
+    `worker peak RSS (VmHWM)     : ${peakRss.map((m) => `${m.toFixed(0)} MB`).join(", ")}   (app: ${appRss.toFixed(0)} MB, largest of ${appProcesses.length} processes)`,
+  );
 
-  await analysisQueue().obliterate({ force: true }).catch(() => {});
+  await analysisQueue()
+    .obliterate({ force: true })
+    .catch(() => {});
   await analysisQueue().close();
   await closeDb();
 } finally {

@@ -69,7 +69,14 @@ const row = (label: string, ttfb: number[], lcp: number[]) =>
 const browser = await chromium.launch({
   executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
   headless: true,
-  args: ["--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+  args: [
+    "--no-sandbox",
+    "--disable-gpu",
+    "--no-first-run",
+    "--disable-background-networking",
+    "--disable-component-update",
+    "--disable-sync",
+  ],
 });
 
 const lines: string[] = [];
@@ -107,20 +114,36 @@ try {
       firstVisits.push(`${`${role} ${p.replace(/[0-9a-f-]{36}/, "{id}")}`.padEnd(44)} ${fmt(first!.ttfb)} ${fmt(first!.lcp)}`);
       const ttfb = timings.slice(1).map((t) => t.ttfb);
       worstP95 = Math.max(worstP95, quantile(ttfb, 0.95));
-      lines.push(row(`${role} ${p.replace(/[0-9a-f-]{36}/, "{id}")}`, ttfb, timings.slice(1).map((t) => t.lcp)));
+      lines.push(
+        row(
+          `${role} ${p.replace(/[0-9a-f-]{36}/, "{id}")}`,
+          ttfb,
+          timings.slice(1).map((t) => t.lcp),
+        ),
+      );
     }
     await context.close();
   }
 
   console.log(`Page loads in headless chromium against ${APP}, ${ROUNDS} loads each (first load reported apart)\n`);
-  console.log(`${"page (role path)".padEnd(44)} ${"TTFB p50".padStart(8)} ${"p95".padStart(8)}   ${"LCP p50".padStart(8)} ${"p95".padStart(8)}`);
+  console.log(
+    `${"page (role path)".padEnd(44)} ${"TTFB p50".padStart(8)} ${"p95".padStart(8)}   ${"LCP p50".padStart(8)} ${"p95".padStart(8)}`,
+  );
   console.log(row("floor: GET /api/health (cheapest route)", health, health));
-  console.log(row("floor: /signin (no session)", signinPage.map((t) => t.ttfb), signinPage.map((t) => t.lcp)));
+  console.log(
+    row(
+      "floor: /signin (no session)",
+      signinPage.map((t) => t.ttfb),
+      signinPage.map((t) => t.lcp),
+    ),
+  );
   for (const l of lines) console.log(l);
   console.log(`\nfirst visit after sign-in (TTFB, LCP):`);
   for (const l of firstVisits) console.log(l);
   console.log(`\nsign-in to Overview heading: ${signIns.map((ms) => `${ms.toFixed(0)} ms`).join(", ")} (target < 1000 ms)`);
-  console.log(`worst server render p95: ${worstP95.toFixed(0)} ms (target < 200 ms), ${(worstP95 / quantile(health, 0.95)).toFixed(1)}× the health floor's p95`);
+  console.log(
+    `worst server render p95: ${worstP95.toFixed(0)} ms (target < 200 ms), ${(worstP95 / quantile(health, 0.95)).toFixed(1)}× the health floor's p95`,
+  );
 } finally {
   await browser.close();
 }

@@ -35,10 +35,11 @@ export function descendantPids(pid: number): number[] {
   const stack = [pid];
   while (stack.length) {
     const parent = stack.pop()!;
-    for (const s of stats) if (s.ppid === parent) {
-      out.push(s.pid);
-      stack.push(s.pid);
-    }
+    for (const s of stats)
+      if (s.ppid === parent) {
+        out.push(s.pid);
+        stack.push(s.pid);
+      }
   }
   return out;
 }
@@ -73,7 +74,9 @@ export function cpuMsPer(before: Record<string, number>, after: Record<string, n
 
 export function formatCpuPer(per: Record<string, number>): string {
   const total = Object.values(per).reduce((s, v) => s + v, 0);
-  return `${Object.entries(per).map(([name, ms]) => `${name} ${ms.toFixed(1)}`).join(", ")} = ${total.toFixed(1)} ms`;
+  return `${Object.entries(per)
+    .map(([name, ms]) => `${name} ${ms.toFixed(1)}`)
+    .join(", ")} = ${total.toFixed(1)} ms`;
 }
 
 export function pidFromFile(file: string): number | undefined {

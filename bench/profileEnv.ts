@@ -9,11 +9,15 @@ export const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "
  * variables the caller set win) and returns the app's URL (APP_URL, else http://127.0.0.1:$PORT).
  */
 export function loadProfileEnv(): string {
-  const envText = execFileSync("bash", ["-c", `export BANDKEEP_PROFILE=${process.env.BANDKEEP_PROFILE ?? "dev"}; source scripts/env.sh >/dev/null; env -0`], {
-    cwd: ROOT,
-    encoding: "utf8",
-    env: process.env,
-  });
+  const envText = execFileSync(
+    "bash",
+    ["-c", `export BANDKEEP_PROFILE=${process.env.BANDKEEP_PROFILE ?? "dev"}; source scripts/env.sh >/dev/null; env -0`],
+    {
+      cwd: ROOT,
+      encoding: "utf8",
+      env: process.env,
+    },
+  );
   for (const pair of envText.split("\0")) {
     const i = pair.indexOf("=");
     if (i > 0 && process.env[pair.slice(0, i)] === undefined) process.env[pair.slice(0, i)] = pair.slice(i + 1);

@@ -45,14 +45,21 @@ for (const n of sizes) {
   }
   console.error(`measuring at ${n} spectra …`);
   const out = execFileSync(process.execPath, ["--import", "tsx", "bench/scaleQueries.ts"], {
-    env: { ...process.env, DATABASE_URL: url, MIGRATION_DATABASE_URL: url }, encoding: "utf8", stdio: ["ignore", "pipe", "inherit"], maxBuffer: 1 << 20,
+    env: { ...process.env, DATABASE_URL: url, MIGRATION_DATABASE_URL: url },
+    encoding: "utf8",
+    stdio: ["ignore", "pipe", "inherit"],
+    maxBuffer: 1 << 20,
   });
   results.set(n, JSON.parse(out.trim().split("\n").pop()!));
 }
 
 const names = [...new Set([...results.values()].flatMap((r) => Object.keys(r)))];
 const cell = (t: Timing | undefined) => (!t ? "—" : "error" in t ? `error: ${t.error}` : `${t.p50.toFixed(1)} / ${t.p95.toFixed(1)}`);
-const header = ["query (p50 / p95 ms)", ...sizes.map((n) => n.toLocaleString("en-GB")), ...(sizes.length > 1 ? [`p95 growth ${sizes.at(-2)!.toLocaleString("en-GB")} → ${sizes.at(-1)!.toLocaleString("en-GB")}`] : [])];
+const header = [
+  "query (p50 / p95 ms)",
+  ...sizes.map((n) => n.toLocaleString("en-GB")),
+  ...(sizes.length > 1 ? [`p95 growth ${sizes.at(-2)!.toLocaleString("en-GB")} → ${sizes.at(-1)!.toLocaleString("en-GB")}`] : []),
+];
 console.log(`| ${header.join(" | ")} |`);
 console.log(`|${header.map(() => "---").join("|")}|`);
 for (const name of names) {

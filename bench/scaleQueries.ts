@@ -43,8 +43,12 @@ const who = async (email: string) => {
 
 const lead = await who("lead@scale-g1.test");
 const steward = await who("steward@scale-g1.test");
-const [sample] = await selectRows<{ id: string }>("SELECT s.id FROM samples s JOIN groups g ON g.id = s.group_id WHERE g.slug = 'scale-g1' ORDER BY s.created_at LIMIT 1 OFFSET 10");
-const [project] = await selectRows<{ id: string }>("SELECT p.id FROM projects p JOIN groups g ON g.id = p.group_id WHERE g.slug = 'scale-g1' ORDER BY p.name LIMIT 1");
+const [sample] = await selectRows<{ id: string }>(
+  "SELECT s.id FROM samples s JOIN groups g ON g.id = s.group_id WHERE g.slug = 'scale-g1' ORDER BY s.created_at LIMIT 1 OFFSET 10",
+);
+const [project] = await selectRows<{ id: string }>(
+  "SELECT p.id FROM projects p JOIN groups g ON g.id = p.group_id WHERE g.slug = 'scale-g1' ORDER BY p.name LIMIT 1",
+);
 const search = (q: Record<string, string>) => spectrumSearchSchema.parse(q);
 const deep = encodeCursor({ at: "2018-01-01T00:00:00.000000Z", id: "ffffffff-ffff-ffff-ffff-ffffffffffff" });
 
@@ -56,8 +60,20 @@ const cases: [string, number, () => Promise<unknown>][] = [
   ["spectra list, deep page (2018)", RUNS, () => listSpectra(lead, search({ after: deep }))],
   ["text search, rare (sample name)", RUNS, () => listSpectra(lead, search({ q: "QD-CdSe-1005" }))],
   ["text search, common (metadata)", RUNS, () => listSpectra(lead, search({ q: "fibre spectrometer" }))],
-  ["band search, first exciton 570–590 nm", RUNS, () => listSpectra(lead, search({ band: "first-exciton", bandMin: "570", bandMax: "590" }))],
-  ["band + flag: bleach ≥ 20 %, ≥ 5σ, awaiting", RUNS, () => listSpectra(lead, search({ band: "first-exciton", bandMin: "570", bandMax: "590", flag: "bleach", flagMin: "0.2", flagSig: "5", review: "awaiting" }))],
+  [
+    "band search, first exciton 570–590 nm",
+    RUNS,
+    () => listSpectra(lead, search({ band: "first-exciton", bandMin: "570", bandMax: "590" })),
+  ],
+  [
+    "band + flag: bleach ≥ 20 %, ≥ 5σ, awaiting",
+    RUNS,
+    () =>
+      listSpectra(
+        lead,
+        search({ band: "first-exciton", bandMin: "570", bandMax: "590", flag: "bleach", flagMin: "0.2", flagSig: "5", review: "awaiting" }),
+      ),
+  ],
   ["size range 3.0–3.2 nm", RUNS, () => listSpectra(lead, search({ sizeMin: "3.0", sizeMax: "3.2" }))],
   ["review queue, bleach ≥ 5σ", RUNS, () => listReviewQueue(lead, queueQuerySchema.parse({ kind: "bleach", minSignificance: "5" }))],
   ["review queue, awaiting, second page", RUNS, () => listReviewQueue(lead, queueQuerySchema.parse({ after: queueSecondPage }))],
@@ -66,7 +82,11 @@ const cases: [string, number, () => Promise<unknown>][] = [
   ["sample detail", RUNS, () => getSample(lead, sample!.id)],
   ["audit trail, first 200", RUNS, () => listAuditPage(steward, {}, 200)],
   ["storage overview", SLOW_RUNS, () => storageOverview(steward)],
-  ["retention dry-run (one project, raw, 365 d)", SLOW_RUNS, () => previewPolicy({ projectId: project!.id, dataClass: "raw", keepDays: 365, onExpiry: "delete" })],
+  [
+    "retention dry-run (one project, raw, 365 d)",
+    SLOW_RUNS,
+    () => previewPolicy({ projectId: project!.id, dataClass: "raw", keepDays: 365, onExpiry: "delete" }),
+  ],
 ];
 
 const out: Record<string, unknown> = {};

@@ -7,12 +7,24 @@ export const TOKEN_LIFETIMES = { never: null, "30": 30, "90": 90, "365": 365 } a
 export type TokenLifetime = keyof typeof TOKEN_LIFETIMES;
 
 /** Makes a token for lab scripts. The secret is returned once; only its sha256 is stored. */
-export async function issueApiToken(userId: string, name: string, lifetime: TokenLifetime = "never"): Promise<{ id: string; secret: string }> {
+export async function issueApiToken(
+  userId: string,
+  name: string,
+  lifetime: TokenLifetime = "never",
+): Promise<{ id: string; secret: string }> {
   models();
   const secret = `bk_${randomBytes(24).toString("base64url")}`;
   const days = TOKEN_LIFETIMES[lifetime];
   const expiresAt = days === null ? null : new Date(Date.now() + days * 86_400_000);
-  const row = await ApiToken.create({ userId, name, tokenHash: hashToken(secret), prefix: secret.slice(0, 7), lastUsedAt: null, revokedAt: null, expiresAt });
+  const row = await ApiToken.create({
+    userId,
+    name,
+    tokenHash: hashToken(secret),
+    prefix: secret.slice(0, 7),
+    lastUsedAt: null,
+    revokedAt: null,
+    expiresAt,
+  });
   return { id: row.id, secret };
 }
 
@@ -20,8 +32,12 @@ export async function listApiTokens(userId: string) {
   models();
   const rows = await ApiToken.findAll({ where: { userId }, order: [["createdAt", "DESC"]] });
   return rows.map((t) => ({
-    id: t.id, name: t.name, prefix: t.prefix, createdAt: t.createdAt.toISOString(),
-    lastUsedAt: t.lastUsedAt?.toISOString() ?? null, revokedAt: t.revokedAt?.toISOString() ?? null,
+    id: t.id,
+    name: t.name,
+    prefix: t.prefix,
+    createdAt: t.createdAt.toISOString(),
+    lastUsedAt: t.lastUsedAt?.toISOString() ?? null,
+    revokedAt: t.revokedAt?.toISOString() ?? null,
     expiresAt: t.expiresAt?.toISOString() ?? null,
   }));
 }

@@ -17,7 +17,11 @@ const schema = z.object({
   MAIL_VIEW_URL: z.string().url().optional(),
   APP_URL: z.string().url().default("http://127.0.0.1:3000"),
   BANDKEEP_QUEUE: z.string().min(1).default("bandkeep-analysis"),
-  UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(20 * 1024 * 1024),
+  UPLOAD_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(20 * 1024 * 1024),
   /** Decision mail to one person waits this long for more decisions, then goes as one message. */
   NOTICE_WINDOW_MS: z.coerce.number().int().min(0).default(60_000),
 });

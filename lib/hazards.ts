@@ -25,14 +25,24 @@ function toFlag(s: SubstanceHazard): HazardFlag {
 }
 
 /** Cautions for a sample from its material, core/shell, ligand and solvent text, most serious first. */
-export function hazardsOf(sample: { material: string; coreShell?: string | null; ligand?: string | null; solvent?: string | null }): HazardFlag[] {
+export function hazardsOf(sample: {
+  material: string;
+  coreShell?: string | null;
+  ligand?: string | null;
+  solvent?: string | null;
+}): HazardFlag[] {
   const formula = `${sample.material} ${sample.coreShell ?? ""}`;
   const names = `${sample.ligand ?? ""} ${sample.solvent ?? ""}`;
   return SUBSTANCES.filter((s) => s.pattern.test(s.group === "element" ? formula : names)).map(toFlag);
 }
 
 /** The stored hazard class: the most serious flag's code, or "none". */
-export function hazardClassOf(sample: { material: string; coreShell?: string | null; ligand?: string | null; solvent?: string | null }): string {
+export function hazardClassOf(sample: {
+  material: string;
+  coreShell?: string | null;
+  ligand?: string | null;
+  solvent?: string | null;
+}): string {
   return hazardsOf(sample)[0]?.code ?? "none";
 }
 

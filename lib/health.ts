@@ -7,10 +7,7 @@ export type ServiceName = "database" | "redis" | "storage" | "mail";
 export type ServiceHealth = { status: "up" | "down"; latencyMs: number; error?: string };
 
 function withTimeout<T>(promise: Promise<T>, ms: number): Promise<T> {
-  return Promise.race([
-    promise,
-    new Promise<T>((_, reject) => setTimeout(() => reject(new Error(`no answer within ${ms} ms`)), ms)),
-  ]);
+  return Promise.race([promise, new Promise<T>((_, reject) => setTimeout(() => reject(new Error(`no answer within ${ms} ms`)), ms))]);
 }
 
 async function probe(check: () => Promise<unknown>): Promise<ServiceHealth> {
@@ -45,7 +42,9 @@ export function checkServicesCached(): Promise<ServiceReport> {
         settled = { at: now, report };
         return report;
       })
-      .finally(() => { running = null; });
+      .finally(() => {
+        running = null;
+      });
   }
   if (settled && now - settled.at < 5 * HEALTH_CACHE_MS) return Promise.resolve(settled.report);
   return running;

@@ -4,7 +4,6 @@ import { processSingleton } from "@/lib/processSingleton";
 
 export type AnalysisJob = { spectrumId: string; runId: string };
 
-
 export function connectionOptions() {
   const url = new URL(config().REDIS_URL);
   return {

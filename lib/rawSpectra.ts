@@ -33,7 +33,10 @@ export function parseRawBytes(file: StoredRawFile, bytes: Uint8Array, choice: Re
   });
 }
 
-const parsedCache = processSingleton("bandkeepParsedRaw", () => new SizedLru<ParsedSpectrum>(48 * 1024 * 1024, (s) => 16 * (s.x.length + s.y.length) + 1024));
+const parsedCache = processSingleton(
+  "bandkeepParsedRaw",
+  () => new SizedLru<ParsedSpectrum>(48 * 1024 * 1024, (s) => 16 * (s.x.length + s.y.length) + 1024),
+);
 
 const choiceKey = (choice: ReadChoice) =>
   (["column", "block", "pair", "sheet", "xUnit", "yKind"] as const).map((k) => String(choice[k] ?? "")).join("|");

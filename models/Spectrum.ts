@@ -61,7 +61,13 @@ export class Spectrum extends Model<InferAttributes<Spectrum>, InferCreationAttr
         objectKey: { type: DataTypes.TEXT, allowNull: false },
         sha256: { type: DataTypes.CHAR(64), allowNull: false },
         traceKey: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
-        sizeBytes: { type: DataTypes.BIGINT, allowNull: false, get() { return Number(this.getDataValue("sizeBytes")); } },
+        sizeBytes: {
+          type: DataTypes.BIGINT,
+          allowNull: false,
+          get() {
+            return Number(this.getDataValue("sizeBytes"));
+          },
+        },
         contentType: { type: DataTypes.TEXT, allowNull: false, defaultValue: "application/octet-stream" },
         columnChoice: { type: DataTypes.TEXT, allowNull: true },
         readOptions: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },

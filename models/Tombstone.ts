@@ -38,7 +38,14 @@ export class Tombstone extends Model<InferAttributes<Tombstone>, InferCreationAt
         label: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
         objectKey: { type: DataTypes.TEXT, allowNull: true },
         sha256: { type: DataTypes.CHAR(64), allowNull: true },
-        sizeBytes: { type: DataTypes.BIGINT, allowNull: false, defaultValue: 0, get() { return Number(this.getDataValue("sizeBytes")); } },
+        sizeBytes: {
+          type: DataTypes.BIGINT,
+          allowNull: false,
+          defaultValue: 0,
+          get() {
+            return Number(this.getDataValue("sizeBytes"));
+          },
+        },
         cause: { type: DataTypes.TEXT, allowNull: false },
         actorId: { type: DataTypes.UUID, allowNull: true },
         state: { type: DataTypes.ENUM("pending", "done", "cancelled"), allowNull: false, defaultValue: "pending" },

@@ -15,7 +15,14 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
     User.init(
       {
         id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
-        email: { type: DataTypes.TEXT, allowNull: false, unique: true, set(v: string) { this.setDataValue("email", v.trim().toLowerCase()); } },
+        email: {
+          type: DataTypes.TEXT,
+          allowNull: false,
+          unique: true,
+          set(v: string) {
+            this.setDataValue("email", v.trim().toLowerCase());
+          },
+        },
         name: { type: DataTypes.TEXT, allowNull: false },
         passwordHash: { type: DataTypes.TEXT, allowNull: false },
         isSiteAdmin: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },

@@ -22,8 +22,23 @@ import { Tombstone } from "./Tombstone";
 import { User } from "./User";
 
 export {
-  AnalysisRun, ApiToken, AuditEvent, Group, LegalHold, Membership, Peak, Project, RetentionPolicy,
-  Review, Sample, SampleParent, Series, Share, Signature, Spectrum, User,
+  AnalysisRun,
+  ApiToken,
+  AuditEvent,
+  Group,
+  LegalHold,
+  Membership,
+  Peak,
+  Project,
+  RetentionPolicy,
+  Review,
+  Sample,
+  SampleParent,
+  Series,
+  Share,
+  Signature,
+  Spectrum,
+  User,
 };
 export { ImportProfile, Invitation, RetentionFlag, Tombstone };
 
@@ -32,8 +47,29 @@ export function models() {
   const db = sequelize();
   // Checked on the class itself: bundlers may load this module more than once per process.
   if (User.sequelize === db) return db;
-  for (const m of [User, Group, Membership, Project, Sample, SampleParent, Series, Spectrum, AnalysisRun,
-    Peak, Signature, Review, RetentionPolicy, LegalHold, Share, AuditEvent, ApiToken, Tombstone, RetentionFlag, Invitation, ImportProfile]) {
+  for (const m of [
+    User,
+    Group,
+    Membership,
+    Project,
+    Sample,
+    SampleParent,
+    Series,
+    Spectrum,
+    AnalysisRun,
+    Peak,
+    Signature,
+    Review,
+    RetentionPolicy,
+    LegalHold,
+    Share,
+    AuditEvent,
+    ApiToken,
+    Tombstone,
+    RetentionFlag,
+    Invitation,
+    ImportProfile,
+  ]) {
     m.initialize(db);
   }
   Membership.belongsTo(User, { foreignKey: "userId" });

@@ -10,7 +10,16 @@
  */
 import { readFileSync, statSync } from 'node:fs';
 import { basename } from 'node:path';
-import { analyzeSpectrum, parseSpectrumBytes, SpectrumFileError, isMaterialName, DEFAULT_MAX_BYTES, X_UNIT_NAMES, Y_KIND_NAMES, readChoiceOptions } from '../lib/engine/index';
+import {
+  analyzeSpectrum,
+  parseSpectrumBytes,
+  SpectrumFileError,
+  isMaterialName,
+  DEFAULT_MAX_BYTES,
+  X_UNIT_NAMES,
+  Y_KIND_NAMES,
+  readChoiceOptions,
+} from '../lib/engine/index';
 import type { AnalysisOptions, Normalization, ParseOptions, ReadChoice, Technique, XUnit, YKind } from '../lib/engine/index';
 import { TECHNIQUES, isTechnique } from '../lib/registry/techniques';
 
@@ -41,8 +50,7 @@ function readChoice(opts: Record<string, string>): ReadChoice {
   return choice;
 }
 
-const USAGE =
-  `usage: analyze SAMPLE [--reference REF] [--technique ${TECHNIQUES.join('|')}] [--material CdSe|CdTe|CdS|PbS|PbSe] [--path-length-cm L] [--excitation-nm N] [--column NAME|INDEX] [--reference-column NAME|INDEX] [--sizing yu2003|jasieniak2009] [--normalize auto|none|wavelength:NM|concentration:SAMPLE/REF] [--dark-level auto|none] [--sample-abs-ex A] [--sample-abs-em A] [--sample-dots-abs-ex A] [--reference-abs-ex A] [--reference-abs-em A] [--reference-dots-abs-ex A] [--x-unit nm|um|cm-1|eV] [--y-kind absorbance|transmittance-percent|intensity] [--block N] [--pair N] [--sheet NAME|N]`;
+const USAGE = `usage: analyze SAMPLE [--reference REF] [--technique ${TECHNIQUES.join('|')}] [--material CdSe|CdTe|CdS|PbS|PbSe] [--path-length-cm L] [--excitation-nm N] [--column NAME|INDEX] [--reference-column NAME|INDEX] [--sizing yu2003|jasieniak2009] [--normalize auto|none|wavelength:NM|concentration:SAMPLE/REF] [--dark-level auto|none] [--sample-abs-ex A] [--sample-abs-em A] [--sample-dots-abs-ex A] [--reference-abs-ex A] [--reference-abs-em A] [--reference-dots-abs-ex A] [--x-unit nm|um|cm-1|eV] [--y-kind absorbance|transmittance-percent|intensity] [--block N] [--pair N] [--sheet NAME|N]`;
 
 /** PL absorbance flags and the AnalysisOptions member each one sets. */
 const ABSORBANCE_FLAGS = {
@@ -60,13 +68,15 @@ function parseNormalize(v: string): Normalization {
   const wl = /^wavelength:(.+)$/.exec(v);
   if (wl) {
     const nm = Number(wl[1]);
-    if (!Number.isFinite(nm) || nm <= 0) throw new UsageError(`--normalize wavelength:NM needs a positive wavelength in nm, got "${wl[1]}"`);
+    if (!Number.isFinite(nm) || nm <= 0)
+      throw new UsageError(`--normalize wavelength:NM needs a positive wavelength in nm, got "${wl[1]}"`);
     return { mode: 'wavelength', wavelengthNm: nm };
   }
   const c = /^concentration:([^/]+)\/(.+)$/.exec(v);
   if (c) {
     const [a, b] = [Number(c[1]), Number(c[2])];
-    if (!(Number.isFinite(a) && a > 0 && Number.isFinite(b) && b > 0)) throw new UsageError(`--normalize concentration:SAMPLE/REF needs two positive concentrations, got "${c[1]}/${c[2]}"`);
+    if (!(Number.isFinite(a) && a > 0 && Number.isFinite(b) && b > 0))
+      throw new UsageError(`--normalize concentration:SAMPLE/REF needs two positive concentrations, got "${c[1]}/${c[2]}"`);
     return { mode: 'concentration', sampleConcentration: a, referenceConcentration: b };
   }
   throw new UsageError(`--normalize must be auto, none, wavelength:NM or concentration:SAMPLE/REF, got "${v}"`);
@@ -75,7 +85,20 @@ function parseNormalize(v: string): Normalization {
 function parseArgs(argv: string[]) {
   const positional: string[] = [];
   const opts: Record<string, string> = {};
-  const known = new Set(['reference', 'technique', 'material', 'path-length-cm', 'excitation-nm', 'column', 'reference-column', 'sizing', 'normalize', 'dark-level', ...Object.keys(ABSORBANCE_FLAGS), ...READ_OPTIONS]);
+  const known = new Set([
+    'reference',
+    'technique',
+    'material',
+    'path-length-cm',
+    'excitation-nm',
+    'column',
+    'reference-column',
+    'sizing',
+    'normalize',
+    'dark-level',
+    ...Object.keys(ABSORBANCE_FLAGS),
+    ...READ_OPTIONS,
+  ]);
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i]!;
     if (a.startsWith('--')) {
@@ -106,7 +129,8 @@ function readBytes(path: string): Uint8Array {
   } catch {
     throw new UsageError(`${path}: file not found or unreadable`);
   }
-  if (size > DEFAULT_MAX_BYTES) throw new SpectrumFileError(basename(path), `file is ${size} bytes, over the ${DEFAULT_MAX_BYTES}-byte limit`);
+  if (size > DEFAULT_MAX_BYTES)
+    throw new SpectrumFileError(basename(path), `file is ${size} bytes, over the ${DEFAULT_MAX_BYTES}-byte limit`);
   return new Uint8Array(readFileSync(path));
 }
 
@@ -114,12 +138,16 @@ async function main(): Promise<void> {
   const { sample, opts } = parseArgs(process.argv.slice(2));
   const technique = opts['technique'] as Technique | undefined;
   if (technique && !isTechnique(technique)) {
-    throw new UsageError(`--technique must be ${TECHNIQUES.slice(0, -1).join(', ')} or ${TECHNIQUES[TECHNIQUES.length - 1]}, got "${technique}"`);
+    throw new UsageError(
+      `--technique must be ${TECHNIQUES.slice(0, -1).join(', ')} or ${TECHNIQUES[TECHNIQUES.length - 1]}, got "${technique}"`,
+    );
   }
   const material = opts['material'];
-  if (material !== undefined && !isMaterialName(material)) throw new UsageError(`--material must be CdSe, CdTe, CdS, PbS or PbSe, got "${material}"`);
+  if (material !== undefined && !isMaterialName(material))
+    throw new UsageError(`--material must be CdSe, CdTe, CdS, PbS or PbSe, got "${material}"`);
   const sizing = opts['sizing'];
-  if (sizing !== undefined && sizing !== 'yu2003' && sizing !== 'jasieniak2009') throw new UsageError('--sizing must be yu2003 or jasieniak2009');
+  if (sizing !== undefined && sizing !== 'yu2003' && sizing !== 'jasieniak2009')
+    throw new UsageError('--sizing must be yu2003 or jasieniak2009');
   const choice = readChoice(opts);
   const colArg = (v: string | undefined) => (v === undefined ? undefined : /^\d+$/.test(v) ? Number(v) : v);
   const parseOpts = (col: string | undefined): ParseOptions => {
@@ -130,7 +158,13 @@ async function main(): Promise<void> {
     return o;
   };
   const s = await parseSpectrumBytes(basename(sample), readBytes(sample), parseOpts(opts['column']));
-  const r = opts['reference'] ? await parseSpectrumBytes(basename(opts['reference']), readBytes(opts['reference']), parseOpts(opts['reference-column'] ?? opts['column'])) : undefined;
+  const r = opts['reference']
+    ? await parseSpectrumBytes(
+        basename(opts['reference']),
+        readBytes(opts['reference']),
+        parseOpts(opts['reference-column'] ?? opts['column']),
+      )
+    : undefined;
   const a: AnalysisOptions & { reference?: typeof s } = {};
   if (technique) a.technique = technique;
   if (material) a.material = material;
@@ -146,7 +180,9 @@ async function main(): Promise<void> {
     if (dark !== 'auto' && dark !== 'none') throw new UsageError(`--dark-level must be auto or none, got "${dark}"`);
     a.darkLevel = dark;
   }
-  for (const [flag, member] of Object.entries(ABSORBANCE_FLAGS) as Array<[keyof typeof ABSORBANCE_FLAGS, (typeof ABSORBANCE_FLAGS)[keyof typeof ABSORBANCE_FLAGS]]>) {
+  for (const [flag, member] of Object.entries(ABSORBANCE_FLAGS) as Array<
+    [keyof typeof ABSORBANCE_FLAGS, (typeof ABSORBANCE_FLAGS)[keyof typeof ABSORBANCE_FLAGS]]
+  >) {
     const v = opts[flag];
     if (v === undefined) continue;
     const x = Number(v);
@@ -158,7 +194,10 @@ async function main(): Promise<void> {
 }
 
 main().catch((e: unknown) => {
-  const msg = e instanceof SpectrumFileError || e instanceof UsageError || e instanceof RangeError ? e.message : `internal error: ${e instanceof Error ? e.message : String(e)}`;
+  const msg =
+    e instanceof SpectrumFileError || e instanceof UsageError || e instanceof RangeError
+      ? e.message
+      : `internal error: ${e instanceof Error ? e.message : String(e)}`;
   process.stderr.write(`analyze: ${msg.split('\n')[0]}\n`);
   process.exitCode = e instanceof SpectrumFileError || e instanceof UsageError || e instanceof RangeError ? 2 : 1;
 });

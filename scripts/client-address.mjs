@@ -13,7 +13,10 @@ export const CLIENT_ADDRESS_HEADER = "x-bandkeep-client-address";
 /** @param {string | undefined} spec */
 export function trustedProxies(spec) {
   const list = new BlockList();
-  for (const raw of (spec ?? "").split(",").map((s) => s.trim()).filter(Boolean)) {
+  for (const raw of (spec ?? "")
+    .split(",")
+    .map((s) => s.trim())
+    .filter(Boolean)) {
     const [address, bits] = raw.split("/");
     const family = isIP(address);
     if (!family) throw new Error(`TRUSTED_PROXIES: "${raw}" is not an IP address or CIDR block`);
@@ -21,7 +24,8 @@ export function trustedProxies(spec) {
     if (bits === undefined) list.addAddress(address, type);
     else {
       const prefix = Number(bits);
-      if (!Number.isInteger(prefix) || prefix < 0 || prefix > (family === 6 ? 128 : 32)) throw new Error(`TRUSTED_PROXIES: "${raw}" has a bad prefix length`);
+      if (!Number.isInteger(prefix) || prefix < 0 || prefix > (family === 6 ? 128 : 32))
+        throw new Error(`TRUSTED_PROXIES: "${raw}" has a bad prefix length`);
       list.addSubnet(address, prefix, type);
     }
   }
@@ -51,7 +55,10 @@ export function clientAddress(peer, forwardedFor, proxies) {
   const socket = normalise(peer);
   if (!socket) return "unknown";
   if (!isTrusted(proxies, socket)) return socket;
-  const hops = (Array.isArray(forwardedFor) ? forwardedFor.join(",") : forwardedFor ?? "").split(",").map((h) => h.trim()).filter(Boolean);
+  const hops = (Array.isArray(forwardedFor) ? forwardedFor.join(",") : (forwardedFor ?? ""))
+    .split(",")
+    .map((h) => h.trim())
+    .filter(Boolean);
   let client = socket;
   for (let i = hops.length - 1; i >= 0; i--) {
     const hop = normalise(hops[i]);

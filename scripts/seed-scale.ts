@@ -29,7 +29,10 @@ export async function seedScaleDatabase(n: number, name: string, log: (line: str
     await admin.end();
   }
   const url = scaleDatabaseUrl(name);
-  execFileSync(process.execPath, ["--import", "tsx", "scripts/migrate.ts", "up"], { env: { ...process.env, DATABASE_URL: url, MIGRATION_DATABASE_URL: url }, stdio: "ignore" });
+  execFileSync(process.execPath, ["--import", "tsx", "scripts/migrate.ts", "up"], {
+    env: { ...process.env, DATABASE_URL: url, MIGRATION_DATABASE_URL: url },
+    stdio: "ignore",
+  });
   const client = new pg.Client({ connectionString: url });
   await client.connect();
   try {

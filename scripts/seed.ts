@@ -51,17 +51,51 @@ async function seed() {
   await member(aurora.id, guest.id, "collaborator");
   await member(borealis.id, other.id, "spectroscopist");
 
-  const transfer = await Project.create({ groupId: aurora.id, name: "Interdot charge transfer", description: "CdSe acceptor dots titrated with PbS donor dots; reduced CdSe as a charged reference." });
-  const shells = await Project.create({ groupId: aurora.id, name: "Shell growth calibration", description: "CdSe cores before shell growth." });
-  const borealisProject = await Project.create({ groupId: borealis.id, name: "Perovskite-free emitters", description: "Another group's data: invisible to Aurora." });
+  const transfer = await Project.create({
+    groupId: aurora.id,
+    name: "Interdot charge transfer",
+    description: "CdSe acceptor dots titrated with PbS donor dots; reduced CdSe as a charged reference.",
+  });
+  const shells = await Project.create({
+    groupId: aurora.id,
+    name: "Shell growth calibration",
+    description: "CdSe cores before shell growth.",
+  });
+  const borealisProject = await Project.create({
+    groupId: borealis.id,
+    name: "Perovskite-free emitters",
+    description: "Another group's data: invisible to Aurora.",
+  });
 
-  const sample = async (groupId: string, projectId: string, name: string, material: string, extra: Partial<{ coreShell: string; ligand: string; solvent: string; notes: string }> = {}, createdBy = spectro.id) =>
-    Sample.create({ groupId, projectId, name, material, ...extra, hazardClass: hazardClassOf({ material, ...extra }), createdBy });
-  const cdse = await sample(aurora.id, transfer.id, "AUR-CdSe-0412", "CdSe", { ligand: "oleate", solvent: "hexane", notes: "Hot-injection batch, first exciton near 577 nm." });
+  const sample = async (
+    groupId: string,
+    projectId: string,
+    name: string,
+    material: string,
+    extra: Partial<{ coreShell: string; ligand: string; solvent: string; notes: string }> = {},
+    createdBy = spectro.id,
+  ) => Sample.create({ groupId, projectId, name, material, ...extra, hazardClass: hazardClassOf({ material, ...extra }), createdBy });
+  const cdse = await sample(aurora.id, transfer.id, "AUR-CdSe-0412", "CdSe", {
+    ligand: "oleate",
+    solvent: "hexane",
+    notes: "Hot-injection batch, first exciton near 577 nm.",
+  });
   const pbs = await sample(aurora.id, transfer.id, "AUR-PbS-0415", "PbS", { ligand: "oleate", solvent: "toluene" });
-  const reduced = await sample(aurora.id, transfer.id, "AUR-CdSe-0412-n", "CdSe", { ligand: "oleate", solvent: "hexane", notes: "Chemically reduced aliquot of AUR-CdSe-0412 (air-free)." });
-  const product = await sample(aurora.id, transfer.id, "AUR-CdSe:PbS-0420", "CdSe + PbS", { ligand: "oleate", solvent: "hexane", notes: "Product of the 1:1 titration point." });
-  const cores = await sample(aurora.id, shells.id, "AUR-CdSe-core-0501", "CdSe", { coreShell: "CdSe core for CdSe/ZnS", ligand: "TOPO", solvent: "toluene" });
+  const reduced = await sample(aurora.id, transfer.id, "AUR-CdSe-0412-n", "CdSe", {
+    ligand: "oleate",
+    solvent: "hexane",
+    notes: "Chemically reduced aliquot of AUR-CdSe-0412 (air-free).",
+  });
+  const product = await sample(aurora.id, transfer.id, "AUR-CdSe:PbS-0420", "CdSe + PbS", {
+    ligand: "oleate",
+    solvent: "hexane",
+    notes: "Product of the 1:1 titration point.",
+  });
+  const cores = await sample(aurora.id, shells.id, "AUR-CdSe-core-0501", "CdSe", {
+    coreShell: "CdSe core for CdSe/ZnS",
+    ligand: "TOPO",
+    solvent: "toluene",
+  });
   await SampleParent.bulkCreate([
     { sampleId: reduced.id, parentId: cdse.id },
     { sampleId: product.id, parentId: cdse.id },
@@ -69,9 +103,32 @@ async function seed() {
   ]);
   const otherSample = await sample(borealis.id, borealisProject.id, "BOR-InP-0007", "InP/ZnSe", { solvent: "toluene" }, other.id);
 
-  const titration = await Series.create({ projectId: transfer.id, name: "CdSe + PbS titration", kind: "titration", variableName: "PbS per CdSe", variableUnit: "equivalents", createdBy: spectro.id });
-  const plSeries = await Series.create({ projectId: transfer.id, name: "CdSe PL quench by PbS", kind: "titration", variableName: "PbS concentration", variableUnit: "µM", createdBy: spectro.id });
-  await Share.create({ groupId: aurora.id, targetType: "series", targetId: titration.id, granteeUserId: guest.id, linkTokenHash: null, expiresAt: null, revokedAt: null, createdBy: steward.id });
+  const titration = await Series.create({
+    projectId: transfer.id,
+    name: "CdSe + PbS titration",
+    kind: "titration",
+    variableName: "PbS per CdSe",
+    variableUnit: "equivalents",
+    createdBy: spectro.id,
+  });
+  const plSeries = await Series.create({
+    projectId: transfer.id,
+    name: "CdSe PL quench by PbS",
+    kind: "titration",
+    variableName: "PbS concentration",
+    variableUnit: "µM",
+    createdBy: spectro.id,
+  });
+  await Share.create({
+    groupId: aurora.id,
+    targetType: "series",
+    targetId: titration.id,
+    granteeUserId: guest.id,
+    linkTokenHash: null,
+    expiresAt: null,
+    revokedAt: null,
+    createdBy: steward.id,
+  });
 
   const actor = await loadActor(spectro.id, "session");
   const otherActor = await loadActor(other.id, "session");
@@ -79,33 +136,75 @@ async function seed() {
   const upload = uploader(actor);
 
   const base = { projectId: transfer.id, technique: "absorption", material: "CdSe", pathLengthCm: 1, solvent: "hexane" };
-  const parentAbs = await upload("cdse-0412-abs.csv", absorptionCsv({ firstExcitonEv: E1, seed: 11 }, "AUR-CdSe-0412"), { ...base, sampleId: cdse.id });
-  await upload("cdse-0412-n-abs.csv", absorptionCsv({ firstExcitonEv: E1, bleach: 0.42, newBand: { centreEv: 1.72, height: 0.05, sigmaEv: 0.08 }, seed: 12 }, "AUR-CdSe-0412-n"), { ...base, sampleId: reduced.id, referenceSpectrumId: parentAbs });
-  await upload("cdse-0412-stark.csv", absorptionCsv({ firstExcitonEv: E1, shiftMeV: -14, seed: 13 }, "AUR-CdSe-0412 near PbS film"), { ...base, sampleId: cdse.id, referenceSpectrumId: parentAbs });
-  await upload("cdse-0412-repeat.csv", absorptionCsv({ firstExcitonEv: E1, seed: 14 }, "AUR-CdSe-0412 repeat"), { ...base, sampleId: cdse.id, referenceSpectrumId: parentAbs });
+  const parentAbs = await upload("cdse-0412-abs.csv", absorptionCsv({ firstExcitonEv: E1, seed: 11 }, "AUR-CdSe-0412"), {
+    ...base,
+    sampleId: cdse.id,
+  });
+  await upload(
+    "cdse-0412-n-abs.csv",
+    absorptionCsv(
+      { firstExcitonEv: E1, bleach: 0.42, newBand: { centreEv: 1.72, height: 0.05, sigmaEv: 0.08 }, seed: 12 },
+      "AUR-CdSe-0412-n",
+    ),
+    { ...base, sampleId: reduced.id, referenceSpectrumId: parentAbs },
+  );
+  await upload("cdse-0412-stark.csv", absorptionCsv({ firstExcitonEv: E1, shiftMeV: -14, seed: 13 }, "AUR-CdSe-0412 near PbS film"), {
+    ...base,
+    sampleId: cdse.id,
+    referenceSpectrumId: parentAbs,
+  });
+  await upload("cdse-0412-repeat.csv", absorptionCsv({ firstExcitonEv: E1, seed: 14 }, "AUR-CdSe-0412 repeat"), {
+    ...base,
+    sampleId: cdse.id,
+    referenceSpectrumId: parentAbs,
+  });
 
   // Titration: the bleach grows with added PbS and saturates at one equivalent (1:1 product).
   for (const eq of [0.25, 0.5, 0.75, 1, 1.5, 2]) {
     const bleach = 0.45 * Math.min(eq, 1);
-    await upload(`titration-${eq.toFixed(2)}eq.csv`, absorptionCsv({ firstExcitonEv: E1, bleach, seed: 100 + Math.round(eq * 100) }, `titration ${eq} eq`),
-      { ...base, sampleId: product.id, referenceSpectrumId: parentAbs, seriesId: titration.id, seriesValue: eq });
+    await upload(
+      `titration-${eq.toFixed(2)}eq.csv`,
+      absorptionCsv({ firstExcitonEv: E1, bleach, seed: 100 + Math.round(eq * 100) }, `titration ${eq} eq`),
+      { ...base, sampleId: product.id, referenceSpectrumId: parentAbs, seriesId: titration.id, seriesValue: eq },
+    );
   }
 
   // PL quench following Stern–Volmer, F0/F = 1 + K·[Q] with K = 0.08 µM⁻¹.
   const plBase = { projectId: transfer.id, technique: "pl", material: "CdSe", excitationNm: 405, solvent: "hexane" };
-  const plParent = await upload("cdse-0412-pl.csv", emissionCsv({ peakEv: 2.1, intensity: 20000, seed: 21 }, "AUR-CdSe-0412"), { ...plBase, sampleId: cdse.id, seriesId: plSeries.id, seriesValue: 0 });
+  const plParent = await upload("cdse-0412-pl.csv", emissionCsv({ peakEv: 2.1, intensity: 20000, seed: 21 }, "AUR-CdSe-0412"), {
+    ...plBase,
+    sampleId: cdse.id,
+    seriesId: plSeries.id,
+    seriesValue: 0,
+  });
   for (const q of [2.5, 5, 10, 20]) {
-    await upload(`pl-quench-${q}uM.csv`, emissionCsv({ peakEv: 2.1, intensity: 20000 / (1 + 0.08 * q), seed: 200 + q * 10 }, `PL with ${q} µM PbS`),
-      { ...plBase, sampleId: product.id, referenceSpectrumId: plParent, seriesId: plSeries.id, seriesValue: q });
+    await upload(
+      `pl-quench-${q}uM.csv`,
+      emissionCsv({ peakEv: 2.1, intensity: 20000 / (1 + 0.08 * q), seed: 200 + q * 10 }, `PL with ${q} µM PbS`),
+      { ...plBase, sampleId: product.id, referenceSpectrumId: plParent, seriesId: plSeries.id, seriesValue: q },
+    );
   }
 
   // Mid-IR: the reduced dots show the 1Se→1Pe intraband band near 0.27 eV.
   const irBase = { projectId: transfer.id, technique: "ir", material: "CdSe" };
   const irParent = await upload("cdse-0412-midir.csv", midIrCsv({ seed: 31 }, "AUR-CdSe-0412"), { ...irBase, sampleId: cdse.id });
-  await upload("cdse-0412-n-midir.csv", midIrCsv({ intrabandEv: 0.27, seed: 32 }, "AUR-CdSe-0412-n"), { ...irBase, sampleId: reduced.id, referenceSpectrumId: irParent });
+  await upload("cdse-0412-n-midir.csv", midIrCsv({ intrabandEv: 0.27, seed: 32 }, "AUR-CdSe-0412-n"), {
+    ...irBase,
+    sampleId: reduced.id,
+    referenceSpectrumId: irParent,
+  });
 
-  await upload("cdse-core-0501-abs.csv", absorptionCsv({ firstExcitonEv: 2.25, seed: 41 }, "AUR-CdSe-core-0501"), { ...base, projectId: shells.id, sampleId: cores.id });
-  await upload("inp-0007-abs.csv", absorptionCsv({ firstExcitonEv: 2.3, seed: 51 }, "BOR-InP-0007"), { projectId: borealisProject.id, technique: "absorption", sampleId: otherSample.id, pathLengthCm: 1 }, otherActor);
+  await upload("cdse-core-0501-abs.csv", absorptionCsv({ firstExcitonEv: 2.25, seed: 41 }, "AUR-CdSe-core-0501"), {
+    ...base,
+    projectId: shells.id,
+    sampleId: cores.id,
+  });
+  await upload(
+    "inp-0007-abs.csv",
+    absorptionCsv({ firstExcitonEv: 2.3, seed: 51 }, "BOR-InP-0007"),
+    { projectId: borealisProject.id, technique: "absorption", sampleId: otherSample.id, pathLengthCm: 1 },
+    otherActor,
+  );
 }
 
 /**
@@ -122,7 +221,8 @@ async function seedSupernatants(): Promise<number> {
   const product = await Sample.findOne({ where: { name: "AUR-CdSe:PbS-0420" } });
   if (!titration || !spectro || !pbs || !product) return 0;
   const [{ n }] = await selectRows<{ n: string }>(
-    `SELECT count(*) AS n FROM spectra p JOIN spectra s ON s.supernatant_of_spectrum_id = p.id WHERE p.series_id = :id`, { id: titration.id },
+    `SELECT count(*) AS n FROM spectra p JOIN spectra s ON s.supernatant_of_spectrum_id = p.id WHERE p.series_id = :id`,
+    { id: titration.id },
   );
   if (Number(n) > 0) return 0;
   const actor = await loadActor(spectro.id, "session");
@@ -130,8 +230,11 @@ async function seedSupernatants(): Promise<number> {
   const upload = uploader(actor);
   const base = { projectId: titration.projectId, technique: "absorption", pathLengthCm: 1 };
   const pbsExcitonEv = 1.033; // near 1200 nm
-  await upload("pbs-0415-abs.csv", leadChalcogenideCsv({ firstExcitonEv: pbsExcitonEv, scale: 2, noise: 0.0005, seed: 61 }, "AUR-PbS-0415"),
-    { ...base, sampleId: pbs.id, material: "PbS", solvent: "toluene" });
+  await upload(
+    "pbs-0415-abs.csv",
+    leadChalcogenideCsv({ firstExcitonEv: pbsExcitonEv, scale: 2, noise: 0.0005, seed: 61 }, "AUR-PbS-0415"),
+    { ...base, sampleId: pbs.id, material: "PbS", solvent: "toluene" },
+  );
 
   const cdseNm = 1239.841984 / E1;
   const epsA = dotExtinction("CdSe", cdseNm).epsilonPerMPerCm; // Yu 2003, at the first exciton
@@ -142,11 +245,15 @@ async function seedSupernatants(): Promise<number> {
     const eq = point.seriesValue ?? 0;
     const leftA = addedA * Math.max(0, 1 - eq);
     const leftX = addedA * Math.max(0, eq - 1);
-    const text = supernatantCsv({
-      cdse: { firstExcitonEv: E1, atNm: cdseNm, absorbance: epsA * leftA * 1e-6 },
-      pbs: { firstExcitonEv: pbsExcitonEv, atNm: 400, absorbance: epsX * leftX * 1e-6 },
-      noise: 0.0005, seed: 300 + Math.round(eq * 100),
-    }, `supernatant of titration ${eq} eq`);
+    const text = supernatantCsv(
+      {
+        cdse: { firstExcitonEv: E1, atNm: cdseNm, absorbance: epsA * leftA * 1e-6 },
+        pbs: { firstExcitonEv: pbsExcitonEv, atNm: 400, absorbance: epsX * leftX * 1e-6 },
+        noise: 0.0005,
+        seed: 300 + Math.round(eq * 100),
+      },
+      `supernatant of titration ${eq} eq`,
+    );
     const id = await upload(`titration-${eq.toFixed(2)}eq-supernatant.csv`, text, { ...base, sampleId: product.id, solvent: "hexane" });
     await setSupernatantLink(actor, titration.id, { supernatantSpectrumId: id, pointSpectrumId: point.id });
   }
@@ -162,7 +269,8 @@ try {
     console.log("demo scenario loaded: 2 groups, 5 people, 7 samples, 19 spectra queued for analysis");
   }
   const added = await seedSupernatants();
-  if (added > 0) console.log(`demo supernatant depletion loaded: ${added} absorption spectra queued, ${added - 1} linked to the titration's points`);
+  if (added > 0)
+    console.log(`demo supernatant depletion loaded: ${added} absorption spectra queued, ${added - 1} linked to the titration's points`);
 } catch (error) {
   console.error(`seeding failed: ${error instanceof Error ? error.message : String(error)}`);
   process.exitCode = 1;

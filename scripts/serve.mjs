@@ -25,7 +25,18 @@ const dir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 // The pages a person opens first. Each is asked for once, without a session, before this process
 // takes requests: the page's modules load and run up to the sign-in check (a redirect), so the
 // first real visit after a start does not pay for loading them (measured by npm run bench:pages).
-const WARM_PATHS = ["/signin", "/", "/spectra", "/samples", "/series", "/review", "/upload", "/stewardship", "/stewardship/audit", "/settings"];
+const WARM_PATHS = [
+  "/signin",
+  "/",
+  "/spectra",
+  "/samples",
+  "/series",
+  "/review",
+  "/upload",
+  "/stewardship",
+  "/stewardship/audit",
+  "/settings",
+];
 
 /** Serves WARM_PATHS once through this process's own handler on a private loopback port. */
 async function warmUp(server) {
@@ -35,7 +46,9 @@ async function warmUp(server) {
   const { port: probePort } = probe.address();
   try {
     for (const p of WARM_PATHS) {
-      await fetch(`http://127.0.0.1:${probePort}${p}`, { redirect: "manual", signal: AbortSignal.timeout(20_000) }).then((r) => r.arrayBuffer()).catch(() => {});
+      await fetch(`http://127.0.0.1:${probePort}${p}`, { redirect: "manual", signal: AbortSignal.timeout(20_000) })
+        .then((r) => r.arrayBuffer())
+        .catch(() => {});
     }
   } finally {
     probe.close();

@@ -1,6 +1,13 @@
 declare module "s3rver" {
   type BucketConfig = { name: string; configs: (string | Buffer)[] };
-  type Options = { address?: string; port?: number; silent?: boolean; directory?: string; resetOnClose?: boolean; configureBuckets?: BucketConfig[] };
+  type Options = {
+    address?: string;
+    port?: number;
+    silent?: boolean;
+    directory?: string;
+    resetOnClose?: boolean;
+    configureBuckets?: BucketConfig[];
+  };
   export default class S3rver {
     constructor(options: Options);
     run(): Promise<{ address: string; port: number }>;

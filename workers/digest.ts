@@ -19,7 +19,14 @@ const connection = { ...connectionOptions(), maxRetriesPerRequest: null };
 const queue = new Queue(queueName, { connection });
 queue.on("error", (error) => log("warn", "digest queue error", { error: error.message }));
 void queue
-  .upsertJobScheduler("review-digest", { every: everyMs }, { name: "review-digest", opts: { removeOnComplete: { count: 100 }, removeOnFail: { count: 100 }, attempts: 3, backoff: { type: "exponential", delay: 5000 } } })
+  .upsertJobScheduler(
+    "review-digest",
+    { every: everyMs },
+    {
+      name: "review-digest",
+      opts: { removeOnComplete: { count: 100 }, removeOnFail: { count: 100 }, attempts: 3, backoff: { type: "exponential", delay: 5000 } },
+    },
+  )
   .catch((error: Error) => log("warn", "digest schedule not set", { error: error.message }));
 
 const worker = new Worker<Record<string, never>, DigestSummary>(

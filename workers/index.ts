@@ -63,14 +63,19 @@ async function shutdown(signal: string) {
   closing = true;
   log("info", "closing worker", { signal });
   clearInterval(sweepTimer);
-  const force = setTimeout(() => {
-    log("error", "worker did not close in time, exiting");
-    process.exit(1);
-  }, intEnv("WORKER_CLOSE_TIMEOUT_MS", 30_000));
+  const force = setTimeout(
+    () => {
+      log("error", "worker did not close in time, exiting");
+      process.exit(1);
+    },
+    intEnv("WORKER_CLOSE_TIMEOUT_MS", 30_000),
+  );
   force.unref();
   try {
     await worker.close();
-    await analysisQueue().close().catch(() => {});
+    await analysisQueue()
+      .close()
+      .catch(() => {});
     await closeDb();
   } finally {
     process.exit(0);

@@ -12,13 +12,29 @@ export type RunToAnalyse = {
   referenceSpectrumId: string | null;
   spectrum: { fileName: string; technique: Technique; objectKey: string };
   /** Null when the run names a reference that no longer exists. */
-  reference: { fileName: string; technique: Technique; objectKey: string; columnChoice: string | null; readOptions: ReadChoice | null } | null;
+  reference: {
+    fileName: string;
+    technique: Technique;
+    objectKey: string;
+    columnChoice: string | null;
+    readOptions: ReadChoice | null;
+  } | null;
 };
 
 type Row = {
-  run_id: string; spectrum_id: string; status: RunToAnalyse["status"]; parameters: AnalysisParameters | null; reference_spectrum_id: string | null;
-  file_name: string; technique: Technique; object_key: string;
-  ref_file_name: string | null; ref_technique: Technique | null; ref_object_key: string | null; ref_column_choice: string | null; ref_read_options: ReadChoice | null;
+  run_id: string;
+  spectrum_id: string;
+  status: RunToAnalyse["status"];
+  parameters: AnalysisParameters | null;
+  reference_spectrum_id: string | null;
+  file_name: string;
+  technique: Technique;
+  object_key: string;
+  ref_file_name: string | null;
+  ref_technique: Technique | null;
+  ref_object_key: string | null;
+  ref_column_choice: string | null;
+  ref_read_options: ReadChoice | null;
 };
 
 export async function loadRun(runId: string): Promise<RunToAnalyse | null> {
@@ -43,7 +59,13 @@ export async function loadRun(runId: string): Promise<RunToAnalyse | null> {
     referenceSpectrumId: row.reference_spectrum_id,
     spectrum: { fileName: row.file_name, technique: row.technique, objectKey: row.object_key },
     reference: row.ref_object_key
-      ? { fileName: row.ref_file_name!, technique: row.ref_technique!, objectKey: row.ref_object_key, columnChoice: row.ref_column_choice, readOptions: row.ref_read_options }
+      ? {
+          fileName: row.ref_file_name!,
+          technique: row.ref_technique!,
+          objectKey: row.ref_object_key,
+          columnChoice: row.ref_column_choice,
+          readOptions: row.ref_read_options,
+        }
       : null,
   };
 }

@@ -11,7 +11,13 @@ import { saveAnalysis, saveFailure } from "./saveAnalysis";
 
 const payloadSchema = z.object({ spectrumId: z.string().uuid(), runId: z.string().uuid() }).strict();
 
-export type JobSummary = { runId: string; outcome: "done" | "already-done" | "already-failed" | "failed"; peaks?: number; flags?: number; message?: string };
+export type JobSummary = {
+  runId: string;
+  outcome: "done" | "already-done" | "already-failed" | "failed";
+  peaks?: number;
+  flags?: number;
+  message?: string;
+};
 
 /** A fault of the data (or of the engine on this data): retrying cannot help. */
 class DataFault extends Error {}
@@ -63,7 +69,8 @@ export async function processAnalysis(job: Job<AnalysisJob>): Promise<JobSummary
   const { spectrumId, runId } = payload.data;
   models();
   const run = await loadRun(runId);
-  if (!run || run.spectrumId !== spectrumId) throw new UnrecoverableError(`job ${job.id}: run ${runId} of spectrum ${spectrumId} does not exist`);
+  if (!run || run.spectrumId !== spectrumId)
+    throw new UnrecoverableError(`job ${job.id}: run ${runId} of spectrum ${spectrumId} does not exist`);
   if (run.status === "done") return { runId, outcome: "already-done" };
   if (run.status === "failed") return { runId, outcome: "already-failed" };
   const spectrum = run.spectrum;

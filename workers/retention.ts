@@ -19,7 +19,15 @@ const disabled = process.env.RETENTION_SWEEP === "off";
 
 if (!disabled) {
   const connection = { ...connectionOptions(), maxRetriesPerRequest: null };
-  const queue = new Queue(QUEUE, { connection, defaultJobOptions: { removeOnComplete: { count: 100 }, removeOnFail: { count: 100 }, attempts: 3, backoff: { type: "exponential", delay: 60_000 } } });
+  const queue = new Queue(QUEUE, {
+    connection,
+    defaultJobOptions: {
+      removeOnComplete: { count: 100 },
+      removeOnFail: { count: 100 },
+      attempts: 3,
+      backoff: { type: "exponential", delay: 60_000 },
+    },
+  });
   queue.on("error", (error) => log("warn", "retention queue error", { error: error.message }));
   void queue
     .upsertJobScheduler("retention-sweep", { every: everyMs }, { name: "sweep", data: {} })

@@ -174,15 +174,20 @@ export async function saveFailure(runId: string, message: string, durationMs?: n
     const run = await AnalysisRun.findByPk(runId, { lock: transaction.LOCK.UPDATE, transaction });
     if (!run || run.status === "done") return false;
     await run.update(
-      { status: "failed", errorMessage: text, finishedAt: new Date(), durationMs: durationMs === undefined ? null : Math.max(0, Math.round(durationMs)) },
+      {
+        status: "failed",
+        errorMessage: text,
+        finishedAt: new Date(),
+        durationMs: durationMs === undefined ? null : Math.max(0, Math.round(durationMs)),
+      },
       { transaction },
     );
     if (!(await laterRunPending(run, transaction))) {
       const analysedBefore = (await AnalysisRun.count({ where: { spectrumId: run.spectrumId, status: "done" }, transaction })) > 0;
-      await Spectrum.update(
-        analysedBefore ? { status: "analysed", errorMessage: null } : { status: "failed", errorMessage: text },
-        { where: { id: run.spectrumId }, transaction },
-      );
+      await Spectrum.update(analysedBefore ? { status: "analysed", errorMessage: null } : { status: "failed", errorMessage: text }, {
+        where: { id: run.spectrumId },
+        transaction,
+      });
     }
     return true;
   });

@@ -20,7 +20,9 @@ function Brand() {
 function WhoAmI({ actor }: { actor: Actor }) {
   return (
     <div className="border-t border-dusk-line px-2 pt-3">
-      <p className="truncate text-sm text-white" data-testid="signed-in-as">{actor.name}</p>
+      <p className="truncate text-sm text-white" data-testid="signed-in-as">
+        {actor.name}
+      </p>
       <ul className="mb-2 mt-1 space-y-0.5">
         {actor.memberships.map((m) => (
           <li key={m.groupId} className="text-xs text-stone-400">

@@ -20,7 +20,13 @@ function Stat({ label, value, href }: { label: string; value: number; href?: str
       <p className="text-xs text-ink-soft">{label}</p>
     </div>
   );
-  return href ? <Link href={href} className="hover:opacity-80">{body}</Link> : body;
+  return href ? (
+    <Link href={href} className="hover:opacity-80">
+      {body}
+    </Link>
+  ) : (
+    body
+  );
 }
 
 export default async function OverviewPage() {
@@ -33,13 +39,19 @@ export default async function OverviewPage() {
       <>
         <PageHeader title={`Welcome, ${actor.name}`} subtitle="You have read-only access to what a group shared with you." />
         {shared.length === 0 ? (
-          <EmptyState title="Nothing has been shared with you yet">When a group shares a series or project with you, it appears here.</EmptyState>
+          <EmptyState title="Nothing has been shared with you yet">
+            When a group shares a series or project with you, it appears here.
+          </EmptyState>
         ) : (
           <ul className="space-y-2">
             {shared.map((s) => (
               <li key={s.id} className="rounded-lg border border-stone-200 bg-white px-4 py-3">
-                <Link prefetch={false} href={`/series/${s.id}`} className="font-medium text-glow-deep hover:underline">{s.name}</Link>
-                <span className="ml-2 text-sm text-ink-soft">{s.projectName} · {countOf(s.spectrumCount, "spectrum")}</span>
+                <Link prefetch={false} href={`/series/${s.id}`} className="font-medium text-glow-deep hover:underline">
+                  {s.name}
+                </Link>
+                <span className="ml-2 text-sm text-ink-soft">
+                  {s.projectName} · {countOf(s.spectrumCount, "spectrum")}
+                </span>
               </li>
             ))}
           </ul>
@@ -56,13 +68,18 @@ export default async function OverviewPage() {
         <Stat label="Spectra" value={total} href="/spectra" />
         <Stat label="Being analysed" value={(overview.spectraByStatus.queued ?? 0) + (overview.spectraByStatus.analysing ?? 0)} />
         <Stat label="Could not read" value={overview.spectraByStatus.failed ?? 0} href="/spectra?status=failed" />
-        <Stat label="Signatures to review" value={overview.awaitingSignatures} href={leadGroupIds(actor).length > 0 ? "/review" : undefined} />
+        <Stat
+          label="Signatures to review"
+          value={overview.awaitingSignatures}
+          href={leadGroupIds(actor).length > 0 ? "/review" : undefined}
+        />
         <Stat label="Samples" value={overview.samples} href="/samples" />
       </div>
       {saved.length > 0 && <SavedSearchList searches={saved} />}
       {total === 0 ? (
         <EmptyState title="No spectra yet" action={writer ? { href: "/upload", label: "Upload instrument exports" } : undefined}>
-          Register a sample, then drop its absorption, PL or mid-IR exports. Each spectrum is compared with its parent reference and changes are flagged here.
+          Register a sample, then drop its absorption, PL or mid-IR exports. Each spectrum is compared with its parent reference and changes
+          are flagged here.
         </EmptyState>
       ) : (
         <section>
@@ -73,7 +90,12 @@ export default async function OverviewPage() {
             <ul className="divide-y divide-stone-100 rounded-lg border border-stone-200 bg-white">
               {overview.recentSignatures.map((s) => (
                 <li key={s.id} className="flex items-center justify-between px-4 py-2 text-sm">
-                  <span><span className="font-medium">{KIND_LABELS[s.kind]}</span> in <Link prefetch={false} className="text-glow-deep hover:underline" href={`/spectra/${s.spectrumId}`}>{s.fileName}</Link></span>
+                  <span>
+                    <span className="font-medium">{KIND_LABELS[s.kind]}</span> in{" "}
+                    <Link prefetch={false} className="text-glow-deep hover:underline" href={`/spectra/${s.spectrumId}`}>
+                      {s.fileName}
+                    </Link>
+                  </span>
                   <span className="tabular text-ink-soft">{s.significance.toFixed(1)}σ</span>
                 </li>
               ))}

@@ -18,7 +18,9 @@ const schema = z.object({
 });
 
 export async function acceptInvitationAction(_previous: ActionState, formData: FormData): Promise<ActionState> {
-  const values = Object.fromEntries([...formData.entries()].filter(([k, v]) => typeof v === "string" && !k.startsWith("$") && k !== "password")) as Record<string, string>;
+  const values = Object.fromEntries(
+    [...formData.entries()].filter(([k, v]) => typeof v === "string" && !k.startsWith("$") && k !== "password"),
+  ) as Record<string, string>;
   const parsed = schema.safeParse(Object.fromEntries([...formData.entries()].filter(([, v]) => typeof v === "string")));
   if (!parsed.success) {
     const fieldErrors: Record<string, string[]> = {};
@@ -33,9 +35,14 @@ export async function acceptInvitationAction(_previous: ActionState, formData: F
     if (Object.keys(fieldErrors).length) return { ok: false, message: "Check the highlighted fields.", fieldErrors, values };
   }
   try {
-    await acceptInvitation(parsed.data.token, { signedInUserId: actor?.id ?? null, name: parsed.data.name, password: parsed.data.password });
+    await acceptInvitation(parsed.data.token, {
+      signedInUserId: actor?.id ?? null,
+      name: parsed.data.name,
+      password: parsed.data.password,
+    });
   } catch (error) {
-    if (error instanceof Refusal) return { ok: false, message: error.message, fieldErrors: error.field ? { [error.field]: [error.message] } : undefined, values };
+    if (error instanceof Refusal)
+      return { ok: false, message: error.message, fieldErrors: error.field ? { [error.field]: [error.message] } : undefined, values };
     console.error(error);
     return { ok: false, message: "Something went wrong on our side; nothing was saved. Try again.", values };
   }

@@ -23,8 +23,13 @@ export function SignInForm({ returnTo }: { returnTo: string }) {
     if (!result || result.error) {
       // Only our own refusal codes are shown; anything else (an outage's raw message) stays in the server log.
       const code = result?.error ?? "CredentialsSignin";
-      setError(code === "CredentialsSignin" ? SIGN_IN_REFUSALS.mismatch
-        : code in SIGN_IN_REFUSALS ? SIGN_IN_REFUSALS[code as SignInRefusal] : SIGN_IN_REFUSALS.unavailable);
+      setError(
+        code === "CredentialsSignin"
+          ? SIGN_IN_REFUSALS.mismatch
+          : code in SIGN_IN_REFUSALS
+            ? SIGN_IN_REFUSALS[code as SignInRefusal]
+            : SIGN_IN_REFUSALS.unavailable,
+      );
       return;
     }
     window.location.assign(safeReturnPath(returnTo));
@@ -34,19 +39,34 @@ export function SignInForm({ returnTo }: { returnTo: string }) {
     <form onSubmit={onSubmit} className="space-y-4" noValidate>
       <label className="block">
         <span className="text-sm font-medium">E-mail</span>
-        <input name="email" type="email" autoComplete="username" required
-          className="mt-1 w-full rounded-md border border-stone-300 px-3 py-2 focus:border-glow focus:outline-none focus:ring-2 focus:ring-glow/30" />
+        <input
+          name="email"
+          type="email"
+          autoComplete="username"
+          required
+          className="mt-1 w-full rounded-md border border-stone-300 px-3 py-2 focus:border-glow focus:outline-none focus:ring-2 focus:ring-glow/30"
+        />
       </label>
       <label className="block">
         <span className="text-sm font-medium">Password</span>
-        <input name="password" type="password" autoComplete="current-password" required
-          className="mt-1 w-full rounded-md border border-stone-300 px-3 py-2 focus:border-glow focus:outline-none focus:ring-2 focus:ring-glow/30" />
+        <input
+          name="password"
+          type="password"
+          autoComplete="current-password"
+          required
+          className="mt-1 w-full rounded-md border border-stone-300 px-3 py-2 focus:border-glow focus:outline-none focus:ring-2 focus:ring-glow/30"
+        />
       </label>
       {error && (
-        <p role="alert" className="rounded-md bg-red-50 px-3 py-2 text-sm text-red-800">{error}</p>
+        <p role="alert" className="rounded-md bg-red-50 px-3 py-2 text-sm text-red-800">
+          {error}
+        </p>
       )}
-      <button type="submit" disabled={pending}
-        className="w-full rounded-md bg-glow px-4 py-2 font-medium text-white hover:bg-glow-deep disabled:opacity-60">
+      <button
+        type="submit"
+        disabled={pending}
+        className="w-full rounded-md bg-glow px-4 py-2 font-medium text-white hover:bg-glow-deep disabled:opacity-60"
+      >
         {pending ? "Signing in…" : "Sign in"}
       </button>
     </form>

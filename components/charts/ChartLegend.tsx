@@ -20,7 +20,13 @@ export function Swatch({ style }: { style: CurveStyle }) {
  * Our legend: one swatch and name per curve; with `hidden`/`onToggle` each entry is a checkbox that
  * shows or hides its curve. `extra` sits at the right end (zoom buttons).
  */
-export function ChartLegend({ entries, hidden, onToggle, extra, testId }: {
+export function ChartLegend({
+  entries,
+  hidden,
+  onToggle,
+  extra,
+  testId,
+}: {
   entries: LegendEntry[];
   hidden?: ReadonlySet<string>;
   onToggle?: (key: string) => void;

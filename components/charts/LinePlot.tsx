@@ -17,9 +17,28 @@ export type PlotMarker = { id: string; at: number; label: string; colour: string
  * readout instead of the library's, labelled markers, an x axis that may run high to low.
  * `x` is ascending; every curve has one value (or null) per x.
  */
-export function LinePlot({ x, curves, xLabel, xUnit, yLabel, height = 260, markers = [], descending = false, testId, ariaLabel }: {
-  x: number[]; curves: PlotCurve[]; xLabel: string; xUnit: string; yLabel: string; height?: number;
-  markers?: PlotMarker[]; descending?: boolean; testId?: string; ariaLabel: string;
+export function LinePlot({
+  x,
+  curves,
+  xLabel,
+  xUnit,
+  yLabel,
+  height = 260,
+  markers = [],
+  descending = false,
+  testId,
+  ariaLabel,
+}: {
+  x: number[];
+  curves: PlotCurve[];
+  xLabel: string;
+  xUnit: string;
+  yLabel: string;
+  height?: number;
+  markers?: PlotMarker[];
+  descending?: boolean;
+  testId?: string;
+  ariaLabel: string;
 }) {
   const box = useRef<HTMLDivElement>(null);
   const [plot, setPlot] = useState<uPlot | null>(null);
@@ -45,7 +64,15 @@ export function LinePlot({ x, curves, xLabel, xUnit, yLabel, height = 260, marke
             (p) => {
               const i = p.cursor.idx;
               if (i === null || i === undefined) return setReading(null);
-              setReading({ x: p.data[0][i]!, values: curves.map((c, j) => ({ key: c.key, label: c.label, style: c.style, value: (p.data[j + 1]![i] ?? null) as number | null })) });
+              setReading({
+                x: p.data[0][i]!,
+                values: curves.map((c, j) => ({
+                  key: c.key,
+                  label: c.label,
+                  style: c.style,
+                  value: (p.data[j + 1]![i] ?? null) as number | null,
+                })),
+              });
             },
           ],
         },
@@ -77,7 +104,12 @@ export function LinePlot({ x, curves, xLabel, xUnit, yLabel, height = 260, marke
               return (
                 <div key={m.id} className="absolute top-0 h-full" style={{ left }} data-testid="plot-marker">
                   <span className="absolute top-0 h-full -translate-x-1/2" style={{ width: 1, background: m.colour, opacity: 0.8 }} />
-                  <span className="absolute top-0.5 -translate-x-1/2 whitespace-nowrap rounded px-1 text-[10px] font-semibold leading-4 text-white shadow-sm" style={{ background: m.colour }}>{m.label}</span>
+                  <span
+                    className="absolute top-0.5 -translate-x-1/2 whitespace-nowrap rounded px-1 text-[10px] font-semibold leading-4 text-white shadow-sm"
+                    style={{ background: m.colour }}
+                  >
+                    {m.label}
+                  </span>
                 </div>
               );
             })}

@@ -18,7 +18,10 @@ export const CURVE_STYLES = {
 } as const satisfies Record<string, CurveStyle>;
 
 /** An axis in the house style; `scale` names a second y scale. */
-export function axisOf(label: string, o: { size?: number; scale?: string; side?: 0 | 1 | 2 | 3; stroke?: string; grid?: boolean } = {}): uPlot.Axis {
+export function axisOf(
+  label: string,
+  o: { size?: number; scale?: string; side?: 0 | 1 | 2 | 3; stroke?: string; grid?: boolean } = {},
+): uPlot.Axis {
   return {
     label,
     labelSize: 24,

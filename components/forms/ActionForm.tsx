@@ -11,8 +11,22 @@ type ServerAction = (state: ActionState, formData: FormData) => Promise<ActionSt
  * A refused form keeps what was typed (React resets a form after an action prop runs, so the
  * action is dispatched from onSubmit instead); a successful one is cleared.
  */
-export function ActionForm({ action, children, submit, pendingLabel, className = "", danger = false, label }: {
-  action: ServerAction; children?: ReactNode; submit: string; pendingLabel?: string; className?: string; danger?: boolean; label?: string;
+export function ActionForm({
+  action,
+  children,
+  submit,
+  pendingLabel,
+  className = "",
+  danger = false,
+  label,
+}: {
+  action: ServerAction;
+  children?: ReactNode;
+  submit: string;
+  pendingLabel?: string;
+  className?: string;
+  danger?: boolean;
+  label?: string;
 }) {
   const [state, formAction, pending] = useActionState(action, initialActionState);
   const errors = Object.values(state.fieldErrors ?? {}).flat();
@@ -35,15 +49,24 @@ export function ActionForm({ action, children, submit, pendingLabel, className =
       {children}
       <button
         disabled={pending}
-        className={danger
-          ? "rounded-md border border-red-300 bg-white px-2.5 py-1 text-xs font-medium text-red-700 hover:bg-red-50 disabled:opacity-50"
-          : "rounded-md bg-glow px-3 py-1.5 text-sm font-medium text-white hover:bg-glow-deep disabled:opacity-60"}
+        className={
+          danger
+            ? "rounded-md border border-red-300 bg-white px-2.5 py-1 text-xs font-medium text-red-700 hover:bg-red-50 disabled:opacity-50"
+            : "rounded-md bg-glow px-3 py-1.5 text-sm font-medium text-white hover:bg-glow-deep disabled:opacity-60"
+        }
       >
         {pending ? (pendingLabel ?? "Working…") : submit}
       </button>
-      {state.message && (state.ok
-        ? <p role="status" className="basis-full text-sm text-leaf">{state.message}</p>
-        : <p role="alert" className="basis-full text-sm text-red-700">{errors.length ? errors.join(" ") : state.message}</p>)}
+      {state.message &&
+        (state.ok ? (
+          <p role="status" className="basis-full text-sm text-leaf">
+            {state.message}
+          </p>
+        ) : (
+          <p role="alert" className="basis-full text-sm text-red-700">
+            {errors.length ? errors.join(" ") : state.message}
+          </p>
+        ))}
     </form>
   );
 }

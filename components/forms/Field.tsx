@@ -1,15 +1,33 @@
 import type { ReactNode } from "react";
 
 /** A labelled field with its error beside it, wired for screen readers. */
-export function Field({ name, label, hint, errors, children }: { name: string; label: string; hint?: string; errors?: string[]; children: ReactNode }) {
+export function Field({
+  name,
+  label,
+  hint,
+  errors,
+  children,
+}: {
+  name: string;
+  label: string;
+  hint?: string;
+  errors?: string[];
+  children: ReactNode;
+}) {
   const errorId = `${name}-error`;
   return (
     <div className="block">
-      <label htmlFor={name} className="text-sm font-medium">{label}</label>
+      <label htmlFor={name} className="text-sm font-medium">
+        {label}
+      </label>
       {hint && <p className="text-xs text-ink-faint">{hint}</p>}
-      <div className="mt-1" aria-describedby={errors?.length ? errorId : undefined}>{children}</div>
+      <div className="mt-1" aria-describedby={errors?.length ? errorId : undefined}>
+        {children}
+      </div>
       {errors?.length ? (
-        <p id={errorId} role="alert" className="mt-1 text-sm text-red-700">{errors.join(" ")}</p>
+        <p id={errorId} role="alert" className="mt-1 text-sm text-red-700">
+          {errors.join(" ")}
+        </p>
       ) : null}
     </div>
   );

@@ -12,9 +12,26 @@ import { yUnitLabel } from "@/lib/format/unitLabels";
  * Sample against reference around a flag, in the house chart look: energy for electronic spectra,
  * wavenumber (high to low, as the technique's default) for mid-IR; the flag drawn as a labelled marker.
  */
-export function EvidenceChart({ energy, sample, reference, centreEv, sampleName, referenceName, unit, kind, technique }: {
-  energy: number[]; sample: number[]; reference: (number | null)[] | null; centreEv: number | null;
-  sampleName: string; referenceName: string | null; unit: string; kind: FlagKind; technique: Technique;
+export function EvidenceChart({
+  energy,
+  sample,
+  reference,
+  centreEv,
+  sampleName,
+  referenceName,
+  unit,
+  kind,
+  technique,
+}: {
+  energy: number[];
+  sample: number[];
+  reference: (number | null)[] | null;
+  centreEv: number | null;
+  sampleName: string;
+  referenceName: string | null;
+  unit: string;
+  kind: FlagKind;
+  technique: Technique;
 }) {
   const spec = TECHNIQUE_SPECS[technique];
   const wavenumber = spec.defaultAxis === "cm-1";
@@ -22,14 +39,19 @@ export function EvidenceChart({ energy, sample, reference, centreEv, sampleName,
   const curves = useMemo<PlotCurve[]>(
     () => [
       { key: "sample", label: `sample ${sampleName}`, style: CURVE_STYLES.sample, y: sample },
-      ...(reference ? [{ key: "reference", label: `reference ${referenceName ?? "parent"}`, style: CURVE_STYLES.reference, y: reference }] : []),
+      ...(reference
+        ? [{ key: "reference", label: `reference ${referenceName ?? "parent"}`, style: CURVE_STYLES.reference, y: reference }]
+        : []),
     ],
     [sample, reference, sampleName, referenceName],
   );
   if (energy.length < 2) return null;
   const yText = unit === "counts" ? "emission (counts per eV)" : yUnitLabel(unit) || "signal";
   const yLabel = yText.charAt(0).toUpperCase() + yText.slice(1);
-  const markers = centreEv === null ? [] : [{ id: "flag", at: wavenumber ? centreEv * CM1_PER_EV : centreEv, label: KIND_LABELS[kind], colour: FLAG_COLOURS[kind] }];
+  const markers =
+    centreEv === null
+      ? []
+      : [{ id: "flag", at: wavenumber ? centreEv * CM1_PER_EV : centreEv, label: KIND_LABELS[kind], colour: FLAG_COLOURS[kind] }];
   return (
     <LinePlot
       x={x}

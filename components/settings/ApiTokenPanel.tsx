@@ -6,7 +6,15 @@ import { initialActionState } from "@/lib/actions/protected-state";
 import { inputClass } from "@/components/forms/Field";
 import { formatDay, formatWhen } from "@/lib/format/dates";
 
-type Token = { id: string; name: string; prefix: string; createdAt: string; lastUsedAt: string | null; revokedAt: string | null; expiresAt: string | null };
+type Token = {
+  id: string;
+  name: string;
+  prefix: string;
+  createdAt: string;
+  lastUsedAt: string | null;
+  revokedAt: string | null;
+  expiresAt: string | null;
+};
 
 function tokenState(t: Token): string {
   if (t.revokedAt) return "revoked";
@@ -20,7 +28,9 @@ function RevokeButton({ id }: { id: string }) {
   return (
     <form action={action}>
       <input type="hidden" name="id" value={id} />
-      <button disabled={pending} className="text-xs text-red-700 hover:underline disabled:opacity-50">{pending ? "Revoking…" : "Revoke"}</button>
+      <button disabled={pending} className="text-xs text-red-700 hover:underline disabled:opacity-50">
+        {pending ? "Revoking…" : "Revoke"}
+      </button>
     </form>
   );
 }
@@ -31,8 +41,18 @@ export function ApiTokenPanel({ tokens }: { tokens: Token[] }) {
     <div className="space-y-3">
       <form action={action} className="flex items-start gap-2">
         <div>
-          <input name="name" placeholder="e.g. titration-robot" aria-label="Token name" aria-invalid={!!state.fieldErrors?.name} className={`${inputClass} w-64`} />
-          {state.fieldErrors?.name && <p role="alert" className="mt-1 text-sm text-red-700">{state.fieldErrors.name.join(" ")}</p>}
+          <input
+            name="name"
+            placeholder="e.g. titration-robot"
+            aria-label="Token name"
+            aria-invalid={!!state.fieldErrors?.name}
+            className={`${inputClass} w-64`}
+          />
+          {state.fieldErrors?.name && (
+            <p role="alert" className="mt-1 text-sm text-red-700">
+              {state.fieldErrors.name.join(" ")}
+            </p>
+          )}
         </div>
         <label className="flex items-center gap-1 text-sm">
           <span className="text-ink-soft">Expires</span>
@@ -43,13 +63,22 @@ export function ApiTokenPanel({ tokens }: { tokens: Token[] }) {
             <option value="never">never</option>
           </select>
         </label>
-        <button disabled={pending} className="rounded-md bg-glow px-3 py-1.5 text-sm font-medium text-white hover:bg-glow-deep disabled:opacity-60">Create token</button>
+        <button
+          disabled={pending}
+          className="rounded-md bg-glow px-3 py-1.5 text-sm font-medium text-white hover:bg-glow-deep disabled:opacity-60"
+        >
+          Create token
+        </button>
       </form>
       {state.ok && state.message && (
         <div role="status" className="rounded-md border border-leaf/40 bg-leaf-soft px-3 py-2 text-sm">
           <p className="font-medium">Copy this token now: it is shown only once.</p>
-          <code data-testid="new-token" className="mt-1 block break-all font-mono text-xs">{state.message}</code>
-          <p className="mt-1 text-xs text-ink-soft">Send it as <code>Authorization: Bearer …</code> (see the API section of the README).</p>
+          <code data-testid="new-token" className="mt-1 block break-all font-mono text-xs">
+            {state.message}
+          </code>
+          <p className="mt-1 text-xs text-ink-soft">
+            Send it as <code>Authorization: Bearer …</code> (see the API section of the README).
+          </p>
         </div>
       )}
       {tokens.length === 0 ? (
@@ -58,8 +87,10 @@ export function ApiTokenPanel({ tokens }: { tokens: Token[] }) {
         <ul className="divide-y divide-stone-100 rounded-md border border-stone-200">
           {tokens.map((t) => (
             <li key={t.id} className="flex items-center justify-between px-3 py-2 text-sm">
-              <span><span className="font-medium">{t.name}</span> <code className="text-xs text-ink-soft">{t.prefix}…</code>
-                <span className="ml-2 text-xs text-ink-faint">{tokenState(t)}</span></span>
+              <span>
+                <span className="font-medium">{t.name}</span> <code className="text-xs text-ink-soft">{t.prefix}…</code>
+                <span className="ml-2 text-xs text-ink-faint">{tokenState(t)}</span>
+              </span>
               {!t.revokedAt && <RevokeButton id={t.id} />}
             </li>
           ))}

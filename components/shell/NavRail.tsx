@@ -23,8 +23,13 @@ export function NavRail({ items, awaitingReview = 0 }: { items: NavItem[]; await
             <span className="flex items-center justify-between text-sm font-medium">
               <span data-testid="nav-label">{item.label}</span>
               {item.href === "/review" && awaitingReview > 0 && (
-                <span data-testid="nav-awaiting-review" aria-label={`${awaitingReview} awaiting review`}
-                  className="tabular rounded-full bg-glow px-1.5 text-xs font-semibold text-white">{awaitingReview}</span>
+                <span
+                  data-testid="nav-awaiting-review"
+                  aria-label={`${awaitingReview} awaiting review`}
+                  className="tabular rounded-full bg-glow px-1.5 text-xs font-semibold text-white"
+                >
+                  {awaitingReview}
+                </span>
               )}
             </span>
             <span className={`block text-xs ${active ? "text-stone-300" : "text-stone-500 group-hover:text-stone-400"}`}>{item.hint}</span>

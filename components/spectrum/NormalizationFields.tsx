@@ -10,7 +10,11 @@ type FieldRenderer = (name: string, label: string, placeholder: string, hint?: s
  * Disabled, with a hint, when the run would have no parent reference to scale against.
  */
 export function NormalizationFields({
-  current, hasReference, initialMode, errors, field,
+  current,
+  hasReference,
+  initialMode,
+  errors,
+  field,
 }: {
   /** How the shown run was normalised, in words ("none", "by concentration …"); null before any run finished. */
   current: string | null;
@@ -25,7 +29,9 @@ export function NormalizationFields({
     <fieldset className="space-y-2" data-testid="rerun-normalization">
       <legend className="mb-1 text-xs font-semibold text-ink-soft">Normalisation against the reference</legend>
       <div>
-        <label htmlFor="rerun-normalizationMode" className="text-xs font-medium">Scale the sample</label>
+        <label htmlFor="rerun-normalizationMode" className="text-xs font-medium">
+          Scale the sample
+        </label>
         <select
           id="rerun-normalizationMode"
           name="normalizationMode"
@@ -47,7 +53,11 @@ export function NormalizationFields({
             Normalisation scales the sample to its parent reference spectrum; this spectrum has none.
           </p>
         )}
-        {error && <p id="rerun-normalizationMode-error" role="alert" className="mt-0.5 text-xs text-red-700">{error.join(" ")}</p>}
+        {error && (
+          <p id="rerun-normalizationMode-error" role="alert" className="mt-0.5 text-xs text-red-700">
+            {error.join(" ")}
+          </p>
+        )}
       </div>
       {hasReference && mode === "concentration" && (
         <>
@@ -55,11 +65,19 @@ export function NormalizationFields({
             {field("sampleConcentration", "Sample concentration", "e.g. 0.6")}
             {field("referenceConcentration", "Reference concentration", "e.g. 1")}
           </div>
-          <p className="text-[11px] text-ink-faint">Same unit for both; the sample is multiplied by reference ÷ sample (absorbance is proportional to concentration).</p>
+          <p className="text-[11px] text-ink-faint">
+            Same unit for both; the sample is multiplied by reference ÷ sample (absorbance is proportional to concentration).
+          </p>
         </>
       )}
-      {hasReference && mode === "wavelength" &&
-        field("normalizationWavelengthNm", "Wavelength (nm)", "e.g. 450", "The sample is scaled to equal the reference here; pick a wavelength the change does not touch.")}
+      {hasReference &&
+        mode === "wavelength" &&
+        field(
+          "normalizationWavelengthNm",
+          "Wavelength (nm)",
+          "e.g. 450",
+          "The sample is scaled to equal the reference here; pick a wavelength the change does not touch.",
+        )}
     </fieldset>
   );
 }

@@ -10,7 +10,10 @@ import { NormalizationFields } from "./NormalizationFields";
 import { RunProgress } from "./RunProgress";
 
 type Current = {
-  windowSize: number | null; polynomial: number | null; baseline: string | null; thresholds: Record<string, number>;
+  windowSize: number | null;
+  polynomial: number | null;
+  baseline: string | null;
+  thresholds: Record<string, number>;
   /** The shown run's normalisation in words. */
   normalization: string | null;
 };
@@ -20,7 +23,11 @@ type Current = {
  * fields before anything is sent) and in the server action.
  */
 export function RerunForm({
-  spectrumId, current, hasReference, action, parents,
+  spectrumId,
+  current,
+  hasReference,
+  action,
+  parents,
 }: {
   spectrumId: string;
   current: Current;
@@ -42,7 +49,9 @@ export function RerunForm({
 
   const field = (name: string, label: string, placeholder: string, hint?: string) => (
     <div key={name}>
-      <label htmlFor={`rerun-${name}`} className="text-xs font-medium">{label}</label>
+      <label htmlFor={`rerun-${name}`} className="text-xs font-medium">
+        {label}
+      </label>
       <input
         id={`rerun-${name}`}
         name={name}
@@ -54,7 +63,11 @@ export function RerunForm({
         className={`${inputClass} mt-0.5 py-1`}
       />
       {hint && !errors[name] && <p className="text-[11px] text-ink-faint">{hint}</p>}
-      {errors[name] && <p id={`rerun-${name}-error`} role="alert" className="mt-0.5 text-xs text-red-700">{errors[name].join(" ")}</p>}
+      {errors[name] && (
+        <p id={`rerun-${name}-error`} role="alert" className="mt-0.5 text-xs text-red-700">
+          {errors[name].join(" ")}
+        </p>
+      )}
     </div>
   );
 
@@ -79,22 +92,47 @@ export function RerunForm({
           {field("smoothingPolynomial", "Polynomial order", current.polynomial ? String(current.polynomial) : "2")}
         </div>
         <div>
-          <label htmlFor="rerun-baseline" className="text-xs font-medium">Baseline</label>
-          <select id="rerun-baseline" name="baseline" defaultValue={value("baseline")} className={`${inputClass} mt-0.5 py-1`} aria-invalid={errors.baseline ? true : undefined}>
+          <label htmlFor="rerun-baseline" className="text-xs font-medium">
+            Baseline
+          </label>
+          <select
+            id="rerun-baseline"
+            name="baseline"
+            defaultValue={value("baseline")}
+            className={`${inputClass} mt-0.5 py-1`}
+            aria-invalid={errors.baseline ? true : undefined}
+          >
             <option value="">keep ({current.baseline ?? "default"})</option>
             <option value="none">none</option>
             <option value="offset">offset below the gap</option>
             <option value="scatter">scatter (a + b·E⁴)</option>
           </select>
-          {errors.baseline && <p role="alert" className="mt-0.5 text-xs text-red-700">{errors.baseline.join(" ")}</p>}
+          {errors.baseline && (
+            <p role="alert" className="mt-0.5 text-xs text-red-700">
+              {errors.baseline.join(" ")}
+            </p>
+          )}
         </div>
         {parents && (
           <div>
-            <label htmlFor="rerun-reference" className="text-xs font-medium">Parent reference</label>
-            <ParentPicker id="rerun-reference" name="referenceChoice" value={parentId} onChange={setParentId}
-              candidates={parents.candidates} target={parents.target} errors={errors.referenceSpectrumId} />
+            <label htmlFor="rerun-reference" className="text-xs font-medium">
+              Parent reference
+            </label>
+            <ParentPicker
+              id="rerun-reference"
+              name="referenceChoice"
+              value={parentId}
+              onChange={setParentId}
+              candidates={parents.candidates}
+              target={parents.target}
+              errors={errors.referenceSpectrumId}
+            />
             <input type="hidden" name="referenceSpectrumId" value={parentChanged ? parentId || "none" : ""} />
-            {errors.referenceSpectrumId && <p id="referenceChoice-error" role="alert" className="mt-0.5 text-xs text-red-700">{errors.referenceSpectrumId.join(" ")}</p>}
+            {errors.referenceSpectrumId && (
+              <p id="referenceChoice-error" role="alert" className="mt-0.5 text-xs text-red-700">
+                {errors.referenceSpectrumId.join(" ")}
+              </p>
+            )}
           </div>
         )}
         <NormalizationFields
@@ -107,17 +145,32 @@ export function RerunForm({
         />
         <fieldset className="grid grid-cols-2 gap-3">
           <legend className="mb-1 text-xs font-semibold text-ink-soft">Flag thresholds</legend>
-          {THRESHOLD_FIELDS.map((f) => field(f.name, f.label, current.thresholds[f.name] !== undefined ? String(current.thresholds[f.name]) : f.hint.replace("default ", ""), f.hint))}
+          {THRESHOLD_FIELDS.map((f) =>
+            field(
+              f.name,
+              f.label,
+              current.thresholds[f.name] !== undefined ? String(current.thresholds[f.name]) : f.hint.replace("default ", ""),
+              f.hint,
+            ),
+          )}
         </fieldset>
         {(errors.form || (!state.ok && state.message)) && (
-          <p role="alert" className="text-sm text-red-700">{errors.form?.join(" ") ?? state.message}</p>
+          <p role="alert" className="text-sm text-red-700">
+            {errors.form?.join(" ") ?? state.message}
+          </p>
         )}
         {state.ok && state.message && <p className="text-sm text-leaf">{state.message}</p>}
-        <button type="submit" disabled={pending} className="rounded-md bg-glow px-3 py-1.5 text-sm font-medium text-white hover:bg-glow-deep disabled:opacity-60">
+        <button
+          type="submit"
+          disabled={pending}
+          className="rounded-md bg-glow px-3 py-1.5 text-sm font-medium text-white hover:bg-glow-deep disabled:opacity-60"
+        >
           {pending ? "Queuing…" : "Re-run analysis"}
         </button>
       </form>
-      {state.ok && state.values?.runId && state.values.status !== "done" && <RunProgress key={state.values.runId} spectrumId={spectrumId} runId={state.values.runId} />}
+      {state.ok && state.values?.runId && state.values.status !== "done" && (
+        <RunProgress key={state.values.runId} spectrumId={spectrumId} runId={state.values.runId} />
+      )}
     </div>
   );
 }

@@ -36,17 +36,27 @@ export function RunProgress({ spectrumId, runId }: { spectrumId: string; runId?:
   const runFailed = data?.analysis?.status === "failed";
   return (
     <div role="status" className="flex items-center gap-2 rounded-md bg-sky-50 px-3 py-2 text-sm text-sky-900" data-testid="run-progress">
-      {!data ? (error ? "Status unavailable, retrying…" : "Checking the analysis…") : FINAL.has(data.spectrum.status) ? (
+      {!data ? (
+        error ? (
+          "Status unavailable, retrying…"
+        ) : (
+          "Checking the analysis…"
+        )
+      ) : FINAL.has(data.spectrum.status) ? (
         runFailed && data.spectrum.status === "analysed" ? (
-          <span className="text-red-800">The new run failed: {data.analysis?.error ?? ""} The chart still shows the last finished run.</span>
+          <span className="text-red-800">
+            The new run failed: {data.analysis?.error ?? ""} The chart still shows the last finished run.
+          </span>
         ) : (
           <>
-            The new run has finished: <StatusBadge status={data.spectrum.status} /> {data.spectrum.status === "failed" ? (data.spectrum.error ?? data.analysis?.error ?? "") : "showing it now."}
+            The new run has finished: <StatusBadge status={data.spectrum.status} />{" "}
+            {data.spectrum.status === "failed" ? (data.spectrum.error ?? data.analysis?.error ?? "") : "showing it now."}
           </>
         )
       ) : (
         <>
-          <span className="inline-block h-3 w-3 animate-spin rounded-full border-2 border-sky-700 border-t-transparent" aria-hidden /> New analysis run: <StatusBadge status={data.spectrum.status} />
+          <span className="inline-block h-3 w-3 animate-spin rounded-full border-2 border-sky-700 border-t-transparent" aria-hidden /> New
+          analysis run: <StatusBadge status={data.spectrum.status} />
           <span className="text-xs text-sky-800">the chart shows the last finished run until it is done</span>
         </>
       )}

@@ -27,7 +27,13 @@ const readingLabel = (k: SeriesKey) => SERIES_STYLE[k].label.replace(" (right ax
  * small chooser, so each of them can be picked. `descending` draws the x axis high to low.
  */
 export function SpectrumChart({
-  data, axis, descending, markers, active, onHover, onPick,
+  data,
+  axis,
+  descending,
+  markers,
+  active,
+  onHover,
+  onPick,
 }: {
   data: SpectrumDataPayload;
   axis: DisplayAxis;
@@ -65,7 +71,9 @@ export function SpectrumChart({
       ],
       series: [
         { label: data.xLabel },
-        ...keys.map((k) => seriesOf(SERIES_STYLE[k].label, SERIES_STYLE[k], { scale: k === "difference" ? "d" : "y", show: !hidden.has(k) })),
+        ...keys.map((k) =>
+          seriesOf(SERIES_STYLE[k].label, SERIES_STYLE[k], { scale: k === "difference" ? "d" : "y", show: !hidden.has(k) }),
+        ),
       ],
       hooks: {
         setScale: [() => setTick((t) => t + 1)],
@@ -74,7 +82,15 @@ export function SpectrumChart({
           (u) => {
             const i = u.cursor.idx;
             if (i === null || i === undefined) return setReading(null);
-            setReading({ x: u.data[0][i]!, values: keys.map((k, j) => ({ key: k, label: readingLabel(k), style: SERIES_STYLE[k], value: (u.data[j + 1]![i] ?? null) as number | null })) });
+            setReading({
+              x: u.data[0][i]!,
+              values: keys.map((k, j) => ({
+                key: k,
+                label: readingLabel(k),
+                style: SERIES_STYLE[k],
+                value: (u.data[j + 1]![i] ?? null) as number | null,
+              })),
+            });
           },
         ],
         ready: [
@@ -108,7 +124,8 @@ export function SpectrumChart({
                 const { min, max } = u.scales.x as { min: number; max: number };
                 // on a high-to-low axis a drag to the right moves to higher values
                 const perPx = ((max - min) / over.clientWidth) * (descending ? -1 : 1);
-                const move = (m: MouseEvent) => u.setScale("x", clamp(min - (m.clientX - start) * perPx, max - (m.clientX - start) * perPx));
+                const move = (m: MouseEvent) =>
+                  u.setScale("x", clamp(min - (m.clientX - start) * perPx, max - (m.clientX - start) * perPx));
                 const up = () => {
                   window.removeEventListener("mousemove", move);
                   window.removeEventListener("mouseup", up);
@@ -188,12 +205,35 @@ export function SpectrumChart({
         testId="series-toggles"
         entries={keys.map((k) => ({ key: k, label: SERIES_STYLE[k].label, style: SERIES_STYLE[k] }))}
         hidden={hidden}
-        onToggle={(k) => setHidden((h) => { const n = new Set(h); if (n.has(k as SeriesKey)) n.delete(k as SeriesKey); else n.add(k as SeriesKey); return n; })}
+        onToggle={(k) =>
+          setHidden((h) => {
+            const n = new Set(h);
+            if (n.has(k as SeriesKey)) n.delete(k as SeriesKey);
+            else n.add(k as SeriesKey);
+            return n;
+          })
+        }
         extra={
           <>
-            <button type="button" onClick={() => zoomBy(0.5)} className="rounded border border-stone-300 px-2 py-0.5 hover:bg-stone-50" aria-label="Zoom in">+</button>
-            <button type="button" onClick={() => zoomBy(2)} className="rounded border border-stone-300 px-2 py-0.5 hover:bg-stone-50" aria-label="Zoom out">−</button>
-            <button type="button" onClick={resetZoom} className="rounded border border-stone-300 px-2 py-0.5 hover:bg-stone-50">Whole range</button>
+            <button
+              type="button"
+              onClick={() => zoomBy(0.5)}
+              className="rounded border border-stone-300 px-2 py-0.5 hover:bg-stone-50"
+              aria-label="Zoom in"
+            >
+              +
+            </button>
+            <button
+              type="button"
+              onClick={() => zoomBy(2)}
+              className="rounded border border-stone-300 px-2 py-0.5 hover:bg-stone-50"
+              aria-label="Zoom out"
+            >
+              −
+            </button>
+            <button type="button" onClick={resetZoom} className="rounded border border-stone-300 px-2 py-0.5 hover:bg-stone-50">
+              Whole range
+            </button>
           </>
         }
       />
@@ -203,7 +243,10 @@ export function SpectrumChart({
         hint="Point at the chart to read every curve · drag to zoom · wheel to zoom · Shift+drag to pan · double-click for the whole range"
       />
       <div ref={box} className="relative w-full select-none" data-testid="spectrum-chart" style={{ minHeight: HEIGHT }} />
-      <p className="sr-only" data-testid="axis-caption">Horizontal axis: {data.xLabel}{descending ? ", high to low" : ""}. Vertical axis: {data.yLabel}.</p>
+      <p className="sr-only" data-testid="axis-caption">
+        Horizontal axis: {data.xLabel}
+        {descending ? ", high to low" : ""}. Vertical axis: {data.yLabel}.
+      </p>
       {plot &&
         createPortal(
           <div className="pointer-events-none absolute inset-0">
@@ -239,7 +282,9 @@ export function SpectrumChart({
                   title={c.map((m) => m.label).join("\n")}
                   onMouseEnter={() => single && onHover(single.id)}
                   onMouseLeave={() => single && onHover(null)}
-                  onClick={() => (single ? onPick(single.id) : setChooser((o) => (o && o.ids[0] === c[0]!.id ? null : { left, ids: c.map((m) => m.id) })))}
+                  onClick={() =>
+                    single ? onPick(single.id) : setChooser((o) => (o && o.ids[0] === c[0]!.id ? null : { left, ids: c.map((m) => m.id) }))
+                  }
                   className="pointer-events-auto absolute top-0 z-10 h-full w-3 -translate-x-1/2 cursor-pointer"
                   style={{ left }}
                 />
@@ -258,9 +303,17 @@ export function SpectrumChart({
                   aria-pressed={on}
                   onMouseEnter={() => onHover(m.id)}
                   onMouseLeave={() => onHover(null)}
-                  onClick={() => { setChooser(null); onPick(m.id); }}
+                  onClick={() => {
+                    setChooser(null);
+                    onPick(m.id);
+                  }}
                   className="pointer-events-auto absolute z-20 -translate-x-1/2 cursor-pointer whitespace-nowrap rounded px-1 text-[10px] font-semibold leading-4 text-white shadow-sm"
-                  style={{ left: m.left, top: m.group === "flag" ? 2 + m.row * 18 : peakTop, background: colourOf(m), outline: on ? "2px solid #1d2430" : undefined }}
+                  style={{
+                    left: m.left,
+                    top: m.group === "flag" ? 2 + m.row * 18 : peakTop,
+                    background: colourOf(m),
+                    outline: on ? "2px solid #1d2430" : undefined,
+                  }}
                 >
                   {m.group === "flag" ? m.label.split(" at ")[0] : "▼"}
                 </button>
@@ -287,7 +340,10 @@ export function SpectrumChart({
                       className="flex w-full items-center gap-1.5 px-2 py-1 text-left hover:bg-stone-50"
                       onMouseEnter={() => onHover(id)}
                       onMouseLeave={() => onHover(null)}
-                      onClick={() => { setChooser(null); onPick(id); }}
+                      onClick={() => {
+                        setChooser(null);
+                        onPick(id);
+                      }}
                     >
                       <span className="inline-block h-2.5 w-2.5 rounded-sm" style={{ background: colourOf(m) }} aria-hidden />
                       {m.label}

@@ -23,9 +23,11 @@ async function fetchData(url: string): Promise<SpectrumDataPayload> {
   return payloadFromColumns(decodeColumns(await res.arrayBuffer()));
 }
 
-const num = (v: number | null | undefined, digits: number) => (v === null || v === undefined || !Number.isFinite(v) ? "—" : v.toFixed(digits));
+const num = (v: number | null | undefined, digits: number) =>
+  v === null || v === undefined || !Number.isFinite(v) ? "—" : v.toFixed(digits);
 /** A band's height to 4 significant digits: absorbance 0.1732, emission counts 3,126,000. */
-const heightText = (v: number | null) => (v === null || !Number.isFinite(v) ? "—" : Number(v.toPrecision(4)).toLocaleString("en-GB", { maximumSignificantDigits: 4 }));
+const heightText = (v: number | null) =>
+  v === null || !Number.isFinite(v) ? "—" : Number(v.toPrecision(4)).toLocaleString("en-GB", { maximumSignificantDigits: 4 });
 const bare = (text: string) => text.replace(/ (eV|nm|meV|cm⁻¹)$/, "");
 
 const magnitude = (f: FlagRow): string => formatFlagMagnitude(f);
@@ -33,7 +35,11 @@ const position = formatPosition;
 
 /** A width in meV written in the unit its technique lists bands in: cm⁻¹ for mid-IR, meV otherwise. */
 const widthText = (meV: number | null, spec: TechniqueSpec) =>
-  meV === null || !Number.isFinite(meV) ? "—" : spec.defaultAxis === "cm-1" ? bare(formatQuantity((meV / 1000) * CM1_PER_EV, "cm-1")) : bare(formatQuantity(meV, "meV"));
+  meV === null || !Number.isFinite(meV)
+    ? "—"
+    : spec.defaultAxis === "cm-1"
+      ? bare(formatQuantity((meV / 1000) * CM1_PER_EV, "cm-1"))
+      : bare(formatQuantity(meV, "meV"));
 
 const capitalise = (t: string) => t.charAt(0).toUpperCase() + t.slice(1);
 
@@ -45,7 +51,15 @@ export type AxisDirection = "ascending" | "descending";
  * ways: hovering or clicking a row lights its marker, hovering or clicking a marker lights its row.
  */
 export function SpectrumViewer({
-  spectrumId, technique, runId, initialAxis, initialDirection, peaks, flags, hasReference, analysisNote,
+  spectrumId,
+  technique,
+  runId,
+  initialAxis,
+  initialDirection,
+  peaks,
+  flags,
+  hasReference,
+  analysisNote,
 }: {
   spectrumId: string;
   technique: Technique;
@@ -88,12 +102,20 @@ export function SpectrumViewer({
 
   const markers = useMemo<Marker[]>(
     () => [
-      ...flags.filter((f) => f.energyEv !== null && f.energyEv > 0).map((f) => ({
-        id: f.id, group: "flag" as const, kind: f.kind, energyEv: f.energyEv!,
-        label: `${KIND_LABELS[f.kind]} at ${position(f.energyEv, axis)}, ${magnitude(f)}, ${num(f.significance, 1)}σ`,
-      })),
+      ...flags
+        .filter((f) => f.energyEv !== null && f.energyEv > 0)
+        .map((f) => ({
+          id: f.id,
+          group: "flag" as const,
+          kind: f.kind,
+          energyEv: f.energyEv!,
+          label: `${KIND_LABELS[f.kind]} at ${position(f.energyEv, axis)}, ${magnitude(f)}, ${num(f.significance, 1)}σ`,
+        })),
       ...peaks.map((p) => ({
-        id: p.id, group: "peak" as const, kind: p.isFirstExciton ? ("first-exciton" as const) : ("peak" as const), energyEv: p.energyEv,
+        id: p.id,
+        group: "peak" as const,
+        kind: p.isFirstExciton ? ("first-exciton" as const) : ("peak" as const),
+        energyEv: p.energyEv,
         label: `${p.isFirstExciton ? capitalise(spec.firstBandLabel) : BAND_ROLE_LABELS[p.bandRole]} at ${position(p.energyEv, axis)}`,
       })),
     ],
@@ -136,25 +158,55 @@ export function SpectrumViewer({
             {direction === "descending" ? "High → low" : "Low → high"}
           </button>
           {data?.emission && axis !== "nm" && (
-            <span className="text-xs text-ink-soft" title="I(E) = I(λ)·λ²/hc (Mooney & Kambhampati 2013)">emission converted per {AXIS_LABELS[axis].unit} (Jacobian)</span>
+            <span className="text-xs text-ink-soft" title="I(E) = I(λ)·λ²/hc (Mooney & Kambhampati 2013)">
+              emission converted per {AXIS_LABELS[axis].unit} (Jacobian)
+            </span>
           )}
           {runId && (
             <details className="relative ml-auto text-sm">
-              <summary className="cursor-pointer list-none rounded-md border border-stone-300 bg-white px-3 py-1 hover:bg-stone-50">Downloads ▾</summary>
+              <summary className="cursor-pointer list-none rounded-md border border-stone-300 bg-white px-3 py-1 hover:bg-stone-50">
+                Downloads ▾
+              </summary>
               <ul className="absolute right-0 z-20 mt-1 w-72 rounded-md border border-stone-200 bg-white py-1 shadow-lg">
-                <li><a className="block px-3 py-1.5 hover:bg-stone-50" href={`/api/v1/spectra/${spectrumId}/raw`}>Raw file, as uploaded</a></li>
-                <li><a className="block px-3 py-1.5 hover:bg-stone-50" href={exportHref(`format=csv&axis=${axis}`)}>Processed curves, CSV ({AXIS_LABELS[axis].short})</a></li>
-                <li><a className="block px-3 py-1.5 hover:bg-stone-50" href={exportHref(`format=jcamp&axis=${axis}&series=smoothed`)}>Smoothed curve, JCAMP-DX ({AXIS_LABELS[axis].short})</a></li>
-                {hasReference && <li><a className="block px-3 py-1.5 hover:bg-stone-50" href={exportHref(`format=jcamp&axis=${axis}&series=difference`)}>Difference, JCAMP-DX ({AXIS_LABELS[axis].short})</a></li>}
-                <li><a className="block px-3 py-1.5 hover:bg-stone-50" href={exportHref("format=json")}>Analysis report, JSON</a></li>
+                <li>
+                  <a className="block px-3 py-1.5 hover:bg-stone-50" href={`/api/v1/spectra/${spectrumId}/raw`}>
+                    Raw file, as uploaded
+                  </a>
+                </li>
+                <li>
+                  <a className="block px-3 py-1.5 hover:bg-stone-50" href={exportHref(`format=csv&axis=${axis}`)}>
+                    Processed curves, CSV ({AXIS_LABELS[axis].short})
+                  </a>
+                </li>
+                <li>
+                  <a className="block px-3 py-1.5 hover:bg-stone-50" href={exportHref(`format=jcamp&axis=${axis}&series=smoothed`)}>
+                    Smoothed curve, JCAMP-DX ({AXIS_LABELS[axis].short})
+                  </a>
+                </li>
+                {hasReference && (
+                  <li>
+                    <a className="block px-3 py-1.5 hover:bg-stone-50" href={exportHref(`format=jcamp&axis=${axis}&series=difference`)}>
+                      Difference, JCAMP-DX ({AXIS_LABELS[axis].short})
+                    </a>
+                  </li>
+                )}
+                <li>
+                  <a className="block px-3 py-1.5 hover:bg-stone-50" href={exportHref("format=json")}>
+                    Analysis report, JSON
+                  </a>
+                </li>
               </ul>
             </details>
           )}
         </div>
         {analysisNote ? (
-          <p className="rounded-md bg-stone-50 px-4 py-10 text-center text-sm text-ink-soft" data-testid="chart-empty">{analysisNote}</p>
+          <p className="rounded-md bg-stone-50 px-4 py-10 text-center text-sm text-ink-soft" data-testid="chart-empty">
+            {analysisNote}
+          </p>
         ) : error ? (
-          <p role="alert" className="rounded-md bg-red-50 px-4 py-10 text-center text-sm text-red-800">{error.message}</p>
+          <p role="alert" className="rounded-md bg-red-50 px-4 py-10 text-center text-sm text-red-800">
+            {error.message}
+          </p>
         ) : isLoading || !data ? (
           <div className="animate-pulse space-y-2" data-testid="chart-skeleton" aria-label="Loading the curves">
             <div className="h-4 w-1/3 rounded bg-stone-200" />
@@ -162,9 +214,21 @@ export function SpectrumViewer({
           </div>
         ) : (
           <>
-            <SpectrumChart data={data} axis={axis} descending={direction === "descending"} markers={markers} active={active} onHover={setHover} onPick={pick} />
-            {!hasReference && <p className="mt-2 text-xs text-ink-soft">No parent reference was set, so there is no reference curve or difference.</p>}
-            <p className="mt-1 text-xs text-ink-faint">{countOf(data.points, "point")} on the analysis grid; the difference is smoothed sample − smoothed reference.</p>
+            <SpectrumChart
+              data={data}
+              axis={axis}
+              descending={direction === "descending"}
+              markers={markers}
+              active={active}
+              onHover={setHover}
+              onPick={pick}
+            />
+            {!hasReference && (
+              <p className="mt-2 text-xs text-ink-soft">No parent reference was set, so there is no reference curve or difference.</p>
+            )}
+            <p className="mt-1 text-xs text-ink-faint">
+              {countOf(data.points, "point")} on the analysis grid; the difference is smoothed sample − smoothed reference.
+            </p>
           </>
         )}
       </section>
@@ -172,11 +236,23 @@ export function SpectrumViewer({
       <section className="rounded-lg border border-stone-200 bg-white">
         <h2 className="border-b border-stone-100 px-4 py-2 text-sm font-semibold text-ink-soft">Flagged changes against the parent</h2>
         {flags.length === 0 ? (
-          <p className="px-4 py-3 text-sm text-ink-soft">{runId ? (hasReference ? "Nothing differs from the parent beyond the noise." : "No parent reference was set, so nothing was compared.") : "The analysis has not finished."}</p>
+          <p className="px-4 py-3 text-sm text-ink-soft">
+            {runId
+              ? hasReference
+                ? "Nothing differs from the parent beyond the noise."
+                : "No parent reference was set, so nothing was compared."
+              : "The analysis has not finished."}
+          </p>
         ) : (
           <table className="w-full text-sm" data-testid="flags-table">
             <thead className="text-left text-xs text-ink-soft">
-              <tr><th className="px-4 py-2">Change</th><th className="px-4 py-2">Position</th><th className="px-4 py-2">Magnitude</th><th className="px-4 py-2">Significance</th>{showReview && <th className="px-4 py-2">Review</th>}</tr>
+              <tr>
+                <th className="px-4 py-2">Change</th>
+                <th className="px-4 py-2">Position</th>
+                <th className="px-4 py-2">Magnitude</th>
+                <th className="px-4 py-2">Significance</th>
+                {showReview && <th className="px-4 py-2">Review</th>}
+              </tr>
             </thead>
             <tbody className="tabular">
               {flags.map((f) => (
@@ -191,8 +267,13 @@ export function SpectrumViewer({
                   title={f.message ?? undefined}
                 >
                   <td className="px-4 py-1.5 font-medium">
-                    <span className="mr-1.5 inline-block h-2.5 w-2.5 rounded-sm align-middle" style={{ background: FLAG_COLOURS[f.kind] }} aria-hidden />
-                    {KIND_LABELS[f.kind]}{f.intraband ? " (intraband)" : ""}
+                    <span
+                      className="mr-1.5 inline-block h-2.5 w-2.5 rounded-sm align-middle"
+                      style={{ background: FLAG_COLOURS[f.kind] }}
+                      aria-hidden
+                    />
+                    {KIND_LABELS[f.kind]}
+                    {f.intraband ? " (intraband)" : ""}
                   </td>
                   <td className="px-4 py-1.5">{position(f.energyEv, axis)}</td>
                   <td className="px-4 py-1.5">{formatFlagMagnitude(f, { withUncertainty: true })}</td>
@@ -208,15 +289,28 @@ export function SpectrumViewer({
       <section className="rounded-lg border border-stone-200 bg-white" data-testid="bands-section">
         <h2 className="border-b border-stone-100 px-4 py-2 text-sm font-semibold text-ink-soft">{BAND_ROLE_PLURALS[spec.bandRole]}</h2>
         {peaks.length === 0 ? (
-          <p className="px-4 py-3 text-sm text-ink-soft">No {BAND_ROLE_PLURALS[spec.bandRole].toLowerCase()} found{runId ? "" : " yet"}.</p>
+          <p className="px-4 py-3 text-sm text-ink-soft">
+            No {BAND_ROLE_PLURALS[spec.bandRole].toLowerCase()} found{runId ? "" : " yet"}.
+          </p>
         ) : (
           <div className="overflow-x-auto">
             <table className="w-full text-sm" data-testid="peaks-table">
               <thead className="text-left text-xs text-ink-soft">
                 {wavenumberList ? (
-                  <tr><th className="px-4 py-2">Wavenumber (cm⁻¹)</th><th className="px-4 py-2">Height</th><th className="px-4 py-2">FWHM (cm⁻¹)</th><th className="px-4 py-2"></th></tr>
+                  <tr>
+                    <th className="px-4 py-2">Wavenumber (cm⁻¹)</th>
+                    <th className="px-4 py-2">Height</th>
+                    <th className="px-4 py-2">FWHM (cm⁻¹)</th>
+                    <th className="px-4 py-2"></th>
+                  </tr>
                 ) : (
-                  <tr><th className="px-4 py-2">Energy (eV)</th><th className="px-4 py-2">Wavelength (nm)</th><th className="px-4 py-2">Height</th><th className="px-4 py-2">FWHM (meV)</th><th className="px-4 py-2"></th></tr>
+                  <tr>
+                    <th className="px-4 py-2">Energy (eV)</th>
+                    <th className="px-4 py-2">Wavelength (nm)</th>
+                    <th className="px-4 py-2">Height</th>
+                    <th className="px-4 py-2">FWHM (meV)</th>
+                    <th className="px-4 py-2"></th>
+                  </tr>
                 )}
               </thead>
               <tbody className="tabular">
@@ -251,18 +345,35 @@ export function SpectrumViewer({
 
       {wavenumberList && (
         <section className="rounded-lg border border-stone-200 bg-white" data-testid="intraband-section">
-          <h2 className="border-b border-stone-100 px-4 py-2 text-sm font-semibold text-ink-soft">{BAND_ROLE_PLURALS["intraband-candidate"]}</h2>
+          <h2 className="border-b border-stone-100 px-4 py-2 text-sm font-semibold text-ink-soft">
+            {BAND_ROLE_PLURALS["intraband-candidate"]}
+          </h2>
           {intraband.length === 0 ? (
-            <p className="px-4 py-3 text-sm text-ink-soft">{hasReference ? "No broad new band in the mid-IR that could be an intraband transition." : "Found by comparison with a parent reference; none was set."}</p>
+            <p className="px-4 py-3 text-sm text-ink-soft">
+              {hasReference
+                ? "No broad new band in the mid-IR that could be an intraband transition."
+                : "Found by comparison with a parent reference; none was set."}
+            </p>
           ) : (
             <div className="overflow-x-auto">
               <table className="w-full text-sm" data-testid="intraband-table">
                 <thead className="text-left text-xs text-ink-soft">
-                  <tr><th className="px-4 py-2">Wavenumber (cm⁻¹)</th><th className="px-4 py-2">Energy (eV)</th><th className="px-4 py-2">FWHM (cm⁻¹)</th><th className="px-4 py-2">Height</th></tr>
+                  <tr>
+                    <th className="px-4 py-2">Wavenumber (cm⁻¹)</th>
+                    <th className="px-4 py-2">Energy (eV)</th>
+                    <th className="px-4 py-2">FWHM (cm⁻¹)</th>
+                    <th className="px-4 py-2">Height</th>
+                  </tr>
                 </thead>
                 <tbody className="tabular">
                   {intraband.map((f) => (
-                    <tr key={f.id} className={rowClass(f.id)} onMouseEnter={() => setHover(f.id)} onMouseLeave={() => setHover(null)} onClick={() => setPinned((q) => (q === f.id ? null : f.id))}>
+                    <tr
+                      key={f.id}
+                      className={rowClass(f.id)}
+                      onMouseEnter={() => setHover(f.id)}
+                      onMouseLeave={() => setHover(null)}
+                      onClick={() => setPinned((q) => (q === f.id ? null : f.id))}
+                    >
                       <td className="px-4 py-1.5">{bare(position(f.energyEv, "cm-1"))}</td>
                       <td className="px-4 py-1.5">{bare(position(f.energyEv, "ev"))}</td>
                       <td className="px-4 py-1.5">{widthText(f.widthMeV, spec)}</td>

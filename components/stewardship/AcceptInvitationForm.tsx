@@ -13,15 +13,36 @@ export function AcceptInvitationForm({ token, needsAccount }: { token: string; n
       {needsAccount && (
         <>
           <Field name="name" label="Your name" errors={state.fieldErrors?.name}>
-            <input id="name" name="name" defaultValue={state.values?.name} aria-invalid={!!state.fieldErrors?.name} className={inputClass} autoComplete="name" />
+            <input
+              id="name"
+              name="name"
+              defaultValue={state.values?.name}
+              aria-invalid={!!state.fieldErrors?.name}
+              className={inputClass}
+              autoComplete="name"
+            />
           </Field>
           <Field name="password" label="Choose a password" hint="At least 10 characters." errors={state.fieldErrors?.password}>
-            <input id="password" name="password" type="password" aria-invalid={!!state.fieldErrors?.password} className={inputClass} autoComplete="new-password" />
+            <input
+              id="password"
+              name="password"
+              type="password"
+              aria-invalid={!!state.fieldErrors?.password}
+              className={inputClass}
+              autoComplete="new-password"
+            />
           </Field>
         </>
       )}
-      {state.message && !state.fieldErrors && <p role="alert" className="text-sm text-red-700">{state.message}</p>}
-      <button disabled={pending} className="w-full rounded-md bg-glow px-3 py-2 text-sm font-medium text-white hover:bg-glow-deep disabled:opacity-60">
+      {state.message && !state.fieldErrors && (
+        <p role="alert" className="text-sm text-red-700">
+          {state.message}
+        </p>
+      )}
+      <button
+        disabled={pending}
+        className="w-full rounded-md bg-glow px-3 py-2 text-sm font-medium text-white hover:bg-glow-deep disabled:opacity-60"
+      >
         {pending ? "Accepting…" : needsAccount ? "Create account and accept" : "Accept invitation"}
       </button>
     </form>

@@ -7,7 +7,10 @@ export function EmptyState({ title, children, action }: { title: string; childre
       <h2 className="text-base font-semibold">{title}</h2>
       <div className="mx-auto mt-1 max-w-md text-sm text-ink-soft">{children}</div>
       {action && (
-        <Link href={action.href} className="mt-4 inline-block rounded-md bg-glow px-4 py-2 text-sm font-medium text-white hover:bg-glow-deep">
+        <Link
+          href={action.href}
+          className="mt-4 inline-block rounded-md bg-glow px-4 py-2 text-sm font-medium text-white hover:bg-glow-deep"
+        >
           {action.label}
         </Link>
       )}

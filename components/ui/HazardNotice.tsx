@@ -6,7 +6,11 @@ export function HazardNotice({ flags, compact = false }: { flags: HazardFlag[]; 
     return (
       <span className="inline-flex flex-wrap gap-1">
         {flags.map((f) => (
-          <span key={f.code} title={`${f.caution}\nSource: ${f.source}`} className="rounded bg-caution-soft px-1.5 py-0.5 text-xs font-medium text-caution">
+          <span
+            key={f.code}
+            title={`${f.caution}\nSource: ${f.source}`}
+            className="rounded bg-caution-soft px-1.5 py-0.5 text-xs font-medium text-caution"
+          >
             ⚠ {f.label}
           </span>
         ))}

@@ -12,19 +12,48 @@ import { X_UNITS, X_UNIT_NAMES, Y_KINDS, Y_KIND_NAMES } from "@/lib/engine/parse
 import type { ImportProfileView } from "@/lib/ingest/profiles/importProfiles";
 
 export type BatchValues = {
-  projectId: string; technique: string; sampleId: string; referenceSpectrumId: string; seriesId: string; seriesValue: string;
-  pathLengthCm: string; excitationNm: string; solvent: string; column: string; material: string;
-  xUnit: string; yKind: string; block: string; pair: string; sheet: string;
-  split: string; profile: string; onDuplicate: string;
+  projectId: string;
+  technique: string;
+  sampleId: string;
+  referenceSpectrumId: string;
+  seriesId: string;
+  seriesValue: string;
+  pathLengthCm: string;
+  excitationNm: string;
+  solvent: string;
+  column: string;
+  material: string;
+  xUnit: string;
+  yKind: string;
+  block: string;
+  pair: string;
+  sheet: string;
+  split: string;
+  profile: string;
+  onDuplicate: string;
 };
 
 export const EMPTY_VALUES: BatchValues = {
-  projectId: "", technique: "absorption", sampleId: "", referenceSpectrumId: "", seriesId: "", seriesValue: "",
-  pathLengthCm: "1", excitationNm: "", solvent: "", column: "", material: "",
-  xUnit: "", yKind: "", block: "", pair: "", sheet: "",
-  split: "", profile: "", onDuplicate: "",
+  projectId: "",
+  technique: "absorption",
+  sampleId: "",
+  referenceSpectrumId: "",
+  seriesId: "",
+  seriesValue: "",
+  pathLengthCm: "1",
+  excitationNm: "",
+  solvent: "",
+  column: "",
+  material: "",
+  xUnit: "",
+  yKind: "",
+  block: "",
+  pair: "",
+  sheet: "",
+  split: "",
+  profile: "",
+  onDuplicate: "",
 };
-
 
 type Props = {
   choices: UploadChoices;
@@ -54,8 +83,13 @@ export function BatchForm({ choices, values, errors, disabled, onChange, waiting
     onChange(next);
   };
   const attrs = (key: keyof BatchValues) => ({
-    id: key, name: key, value: values[key], onChange: set(key), disabled,
-    "aria-invalid": errors[key]?.length ? true : undefined, className: inputClass,
+    id: key,
+    name: key,
+    value: values[key],
+    onChange: set(key),
+    disabled,
+    "aria-invalid": errors[key]?.length ? true : undefined,
+    className: inputClass,
   });
 
   return (
@@ -65,39 +99,80 @@ export function BatchForm({ choices, values, errors, disabled, onChange, waiting
         <select {...attrs("projectId")}>
           <option value="">Choose a project…</option>
           {choices.projects.map((p) => (
-            <option key={p.id} value={p.id}>{p.name} ({p.groupName})</option>
+            <option key={p.id} value={p.id}>
+              {p.name} ({p.groupName})
+            </option>
           ))}
         </select>
       </Field>
       <Field name="technique" label="Technique" errors={errors.technique}>
         <select {...attrs("technique")}>
-          {INGEST_TECHNIQUES.map((t) => <option key={t} value={t}>{TECHNIQUE_LABELS[t]}</option>)}
+          {INGEST_TECHNIQUES.map((t) => (
+            <option key={t} value={t}>
+              {TECHNIQUE_LABELS[t]}
+            </option>
+          ))}
         </select>
       </Field>
       <Field name="sampleId" label="Sample" hint="Optional; material and solvent come from it" errors={errors.sampleId}>
         <select {...attrs("sampleId")}>
-          <option value="">{project ? (project.samples.length ? "No sample" : "No samples registered yet") : "Choose a project first"}</option>
-          {project?.samples.map((s) => <option key={s.id} value={s.id}>{s.name} · {s.material}</option>)}
+          <option value="">
+            {project ? (project.samples.length ? "No sample" : "No samples registered yet") : "Choose a project first"}
+          </option>
+          {project?.samples.map((s) => (
+            <option key={s.id} value={s.id}>
+              {s.name} · {s.material}
+            </option>
+          ))}
         </select>
       </Field>
-      <Field name="referenceSpectrumId" label="Parent reference spectrum" hint="Compared against to flag bleach, new bands, quench, shifts" errors={errors.referenceSpectrumId}>
-        <ParentPicker id="referenceSpectrumId" name="referenceSpectrumId" value={values.referenceSpectrumId} disabled={disabled}
-          onChange={(v) => set("referenceSpectrumId")({ target: { value: v } })} errors={errors.referenceSpectrumId}
-          candidates={project?.references ?? []} files={waitingFiles}
-          target={{ technique: values.technique as Technique, sample: sample ? { id: sample.id, name: sample.name, material: sample.material, parentIds: sample.parentIds } : null, side: null }} />
+      <Field
+        name="referenceSpectrumId"
+        label="Parent reference spectrum"
+        hint="Compared against to flag bleach, new bands, quench, shifts"
+        errors={errors.referenceSpectrumId}
+      >
+        <ParentPicker
+          id="referenceSpectrumId"
+          name="referenceSpectrumId"
+          value={values.referenceSpectrumId}
+          disabled={disabled}
+          onChange={(v) => set("referenceSpectrumId")({ target: { value: v } })}
+          errors={errors.referenceSpectrumId}
+          candidates={project?.references ?? []}
+          files={waitingFiles}
+          target={{
+            technique: values.technique as Technique,
+            sample: sample ? { id: sample.id, name: sample.name, material: sample.material, parentIds: sample.parentIds } : null,
+            side: null,
+          }}
+        />
       </Field>
       <Field name="seriesId" label="Series" errors={errors.seriesId}>
         <select {...attrs("seriesId")}>
           <option value="">Not part of a series</option>
-          {project?.series.map((s) => <option key={s.id} value={s.id}>{s.name}</option>)}
+          {project?.series.map((s) => (
+            <option key={s.id} value={s.id}>
+              {s.name}
+            </option>
+          ))}
         </select>
       </Field>
       <Field
         name="seriesValue"
-        label={series?.variableName ? `Series value: ${series.variableName}${series.variableUnit ? ` (${series.variableUnit})` : ""}` : "Series value"}
+        label={
+          series?.variableName
+            ? `Series value: ${series.variableName}${series.variableUnit ? ` (${series.variableUnit})` : ""}`
+            : "Series value"
+        }
         errors={errors.seriesValue}
       >
-        <input {...attrs("seriesValue")} inputMode="decimal" disabled={disabled || !values.seriesId} placeholder={values.seriesId ? "e.g. 0.5" : "choose a series first"} />
+        <input
+          {...attrs("seriesValue")}
+          inputMode="decimal"
+          disabled={disabled || !values.seriesId}
+          placeholder={values.seriesId ? "e.g. 0.5" : "choose a series first"}
+        />
       </Field>
       <Field name="pathLengthCm" label="Path length (cm)" errors={errors.pathLengthCm}>
         <input {...attrs("pathLengthCm")} inputMode="decimal" />
@@ -114,13 +189,21 @@ export function BatchForm({ choices, values, errors, disabled, onChange, waiting
       <Field name="xUnit" label="X unit" hint="Empty: as the header says, or inferred from the values" errors={errors.xUnit}>
         <select {...attrs("xUnit")}>
           <option value="">As the file says</option>
-          {X_UNIT_NAMES.map((u) => <option key={u} value={u}>{X_UNITS[u].label}</option>)}
+          {X_UNIT_NAMES.map((u) => (
+            <option key={u} value={u}>
+              {X_UNITS[u].label}
+            </option>
+          ))}
         </select>
       </Field>
       <Field name="yKind" label="Signal kind" hint="Empty: as the file or technique says" errors={errors.yKind}>
         <select {...attrs("yKind")}>
           <option value="">As the file says</option>
-          {Y_KIND_NAMES.map((k) => <option key={k} value={k}>{Y_KINDS[k].label}</option>)}
+          {Y_KIND_NAMES.map((k) => (
+            <option key={k} value={k}>
+              {Y_KINDS[k].label}
+            </option>
+          ))}
         </select>
       </Field>
       <Field name="block" label="Block" hint="For files with several blocks one after another; empty: the first" errors={errors.block}>
@@ -132,17 +215,31 @@ export function BatchForm({ choices, values, errors, disabled, onChange, waiting
       <Field name="sheet" label="Spreadsheet sheet" hint="Name or number; empty: the first sheet with numbers" errors={errors.sheet}>
         <input {...attrs("sheet")} maxLength={100} />
       </Field>
-      <Field name="split" label="Several columns in one file" hint="One spectrum per Y column, pair or block; a header such as “0.5 eq” gives its series value" errors={errors.split}>
+      <Field
+        name="split"
+        label="Several columns in one file"
+        hint="One spectrum per Y column, pair or block; a header such as “0.5 eq” gives its series value"
+        errors={errors.split}
+      >
         <select {...attrs("split")}>
           <option value="">One spectrum (the column chosen)</option>
           <option value="all">Split into one spectrum per column</option>
         </select>
       </Field>
-      <Field name="profile" label="Import profile" hint="Saved ways of reading files; empty: the profile whose header matches the file" errors={errors.profile}>
+      <Field
+        name="profile"
+        label="Import profile"
+        hint="Saved ways of reading files; empty: the profile whose header matches the file"
+        errors={errors.profile}
+      >
         <select {...attrs("profile")}>
           <option value="">{profiles.length ? "Matched by the file's header" : "No profiles saved yet"}</option>
           <option value="none">None (read as chosen here)</option>
-          {profiles.map((p) => <option key={p.id} value={p.name}>{p.name}</option>)}
+          {profiles.map((p) => (
+            <option key={p.id} value={p.name}>
+              {p.name}
+            </option>
+          ))}
         </select>
         {profiles.length > 0 && (
           <ul className="mt-1 space-y-0.5 text-xs text-ink-soft" data-testid="profile-list">
@@ -150,14 +247,27 @@ export function BatchForm({ choices, values, errors, disabled, onChange, waiting
               <li key={p.id} className="flex items-center gap-2">
                 <span className="truncate">{p.name}</span>
                 {onDeleteProfile && (
-                  <button type="button" disabled={disabled} onClick={() => onDeleteProfile(p.id)} className="text-red-800 hover:underline" aria-label={`Delete profile ${p.name}`}>delete</button>
+                  <button
+                    type="button"
+                    disabled={disabled}
+                    onClick={() => onDeleteProfile(p.id)}
+                    className="text-red-800 hover:underline"
+                    aria-label={`Delete profile ${p.name}`}
+                  >
+                    delete
+                  </button>
                 )}
               </li>
             ))}
           </ul>
         )}
       </Field>
-      <Field name="onDuplicate" label="A file stored before, with other details" hint="The same bytes again: the stored spectrum is linked, never stored twice" errors={errors.onDuplicate}>
+      <Field
+        name="onDuplicate"
+        label="A file stored before, with other details"
+        hint="The same bytes again: the stored spectrum is linked, never stored twice"
+        errors={errors.onDuplicate}
+      >
         <select {...attrs("onDuplicate")}>
           <option value="">Keep the stored details (tell me what differs)</option>
           <option value="update">Update the stored details (re-analysed if needed)</option>
@@ -166,12 +276,18 @@ export function BatchForm({ choices, values, errors, disabled, onChange, waiting
       <Field name="material" label="Core material for sizing" hint="Empty: taken from the sample" errors={errors.material}>
         <select {...attrs("material")}>
           <option value="">From the sample</option>
-          {INGEST_MATERIALS.map((m) => <option key={m} value={m}>{m}</option>)}
+          {INGEST_MATERIALS.map((m) => (
+            <option key={m} value={m}>
+              {m}
+            </option>
+          ))}
         </select>
       </Field>
       {sample && (
         <div className="md:col-span-2 xl:col-span-3">
-          <HazardNotice flags={hazardsOf({ material: sample.material, coreShell: sample.coreShell, solvent: values.solvent || sample.solvent })} />
+          <HazardNotice
+            flags={hazardsOf({ material: sample.material, coreShell: sample.coreShell, solvent: values.solvent || sample.solvent })}
+          />
         </div>
       )}
     </fieldset>

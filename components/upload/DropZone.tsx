@@ -34,7 +34,10 @@ export function DropZone({ onFiles, disabled }: { onFiles: (files: PickedFile[])
       data-testid="drop-zone"
     >
       <p className="text-sm font-medium">{reading ? "Reading the folder…" : "Drop exports, folders or zips here"}</p>
-      <p className="mt-1 text-xs text-ink-faint">CSV, TSV or text exports (any common encoding), JCAMP-DX and .xlsx spreadsheets; zips are unpacked on the server, spreadsheets are not.</p>
+      <p className="mt-1 text-xs text-ink-faint">
+        CSV, TSV or text exports (any common encoding), JCAMP-DX and .xlsx spreadsheets; zips are unpacked on the server, spreadsheets are
+        not.
+      </p>
       <div className="mt-4 flex justify-center gap-2">
         <button
           type="button"

@@ -10,8 +10,14 @@ export type FileOverrides = { column?: string; xUnit?: string; split?: boolean }
 const LAYOUT_WORDS = { "x-then-y": "X then Y columns", pairs: "X,Y pairs side by side", blocks: "blocks one after another" } as const;
 const SOURCE_WORDS = { file: "stated in the file", values: "inferred from the values", chosen: "chosen" } as const;
 const ENCODING_WORDS: Record<string, string> = {
-  "utf-8": "UTF-8", "utf-8-bom": "UTF-8 with byte-order mark", "utf-16le": "UTF-16 (little-endian)", "utf-16be": "UTF-16 (big-endian)",
-  "windows-1252": "Windows Western (1252)", "iso-8859-1": "Latin-1", "iso-8859-15": "Latin-9", xlsx: "spreadsheet (.xlsx)",
+  "utf-8": "UTF-8",
+  "utf-8-bom": "UTF-8 with byte-order mark",
+  "utf-16le": "UTF-16 (little-endian)",
+  "utf-16be": "UTF-16 (big-endian)",
+  "windows-1252": "Windows Western (1252)",
+  "iso-8859-1": "Latin-1",
+  "iso-8859-15": "Latin-9",
+  xlsx: "spreadsheet (.xlsx)",
 };
 
 function Sparkline({ x, y, label }: { x: number[]; y: number[]; label: string }) {
@@ -23,7 +29,14 @@ function Sparkline({ x, y, label }: { x: number[]; y: number[]; label: string })
   const sy = (v: number) => h - 2 - ((v - y0) / (y1 - y0 || 1)) * (h - 4);
   const points = x.map((v, i) => `${sx(v).toFixed(1)},${sy(y[i]!).toFixed(1)}`).join(" ");
   return (
-    <svg width={w} height={h} viewBox={`0 0 ${w} ${h}`} role="img" aria-label={label} className="shrink-0 rounded border border-stone-200 bg-stone-50">
+    <svg
+      width={w}
+      height={h}
+      viewBox={`0 0 ${w} ${h}`}
+      role="img"
+      aria-label={label}
+      className="shrink-0 rounded border border-stone-200 bg-stone-50"
+    >
       <polyline points={points} fill="none" stroke="currentColor" strokeWidth="1.2" className="text-glow-deep" />
     </svg>
   );
@@ -45,19 +58,41 @@ function SaveProfile({ idPrefix, disabled, onSave }: { idPrefix: string; disable
   const [note, setNote] = useState<{ ok: boolean; text: string } | null>(null);
   const save = async () => {
     const result = await onSave(name.trim());
-    setNote(result.ok ? { ok: true, text: `Saved as profile "${name.trim()}": files with the same header will be read this way.` } : { ok: false, text: result.message });
+    setNote(
+      result.ok
+        ? { ok: true, text: `Saved as profile "${name.trim()}": files with the same header will be read this way.` }
+        : { ok: false, text: result.message },
+    );
   };
   return (
     <div className="mt-2 flex flex-col gap-1 border-t border-stone-200 pt-2">
-      <label htmlFor={`${idPrefix}-profile`} className="text-ink-soft">Save these choices as a profile</label>
+      <label htmlFor={`${idPrefix}-profile`} className="text-ink-soft">
+        Save these choices as a profile
+      </label>
       <span className="flex gap-1">
-        <input id={`${idPrefix}-profile`} value={name} maxLength={80} disabled={disabled} onChange={(e) => setName(e.target.value)}
-          placeholder="e.g. Plate reader, three columns" className="w-44 rounded border border-stone-300 px-1 py-0.5" />
-        <button type="button" disabled={disabled || name.trim() === ""} onClick={save} className="rounded border border-stone-300 px-2 py-0.5 hover:bg-white disabled:opacity-50">
+        <input
+          id={`${idPrefix}-profile`}
+          value={name}
+          maxLength={80}
+          disabled={disabled}
+          onChange={(e) => setName(e.target.value)}
+          placeholder="e.g. Plate reader, three columns"
+          className="w-44 rounded border border-stone-300 px-1 py-0.5"
+        />
+        <button
+          type="button"
+          disabled={disabled || name.trim() === ""}
+          onClick={save}
+          className="rounded border border-stone-300 px-2 py-0.5 hover:bg-white disabled:opacity-50"
+        >
           Save profile
         </button>
       </span>
-      {note && <p role={note.ok ? "status" : "alert"} data-testid="profile-saved" className={note.ok ? "text-emerald-800" : "text-red-800"}>{note.text}</p>}
+      {note && (
+        <p role={note.ok ? "status" : "alert"} data-testid="profile-saved" className={note.ok ? "text-emerald-800" : "text-red-800"}>
+          {note.text}
+        </p>
+      )}
     </div>
   );
 }
@@ -72,21 +107,48 @@ export function FilePreviewPanel({ fileName, preview, overrides, disabled, onCha
         <>
           <Sparkline x={preview.plot.x} y={preview.plot.y} label={`Plot of ${preview.column}`} />
           <dl className="grid min-w-64 flex-1 grid-cols-[auto_1fr] gap-x-3 gap-y-0.5">
-            <dt className="text-ink-soft">Encoding</dt><dd>{ENCODING_WORDS[preview.encoding] ?? preview.encoding}{preview.sheet ? ` · sheet "${preview.sheet}"` : ""}</dd>
-            <dt className="text-ink-soft">Layout</dt><dd>{LAYOUT_WORDS[preview.layout]}</dd>
-            <dt className="text-ink-soft">X unit</dt><dd data-testid="preview-x-unit">{preview.xUnitLabel} ({SOURCE_WORDS[preview.xUnitSource]})</dd>
-            <dt className="text-ink-soft">Signal</dt><dd>{preview.yKindLabel}</dd>
-            <dt className="text-ink-soft">Column</dt><dd data-testid="preview-column">{preview.column}</dd>
-            {preview.profile && (<><dt className="text-ink-soft">Profile</dt><dd data-testid="preview-profile">&quot;{preview.profile.name}&quot; ({preview.profile.how === "matched" ? "matched by the file's header" : "chosen"})</dd></>)}
-            <dt className="text-ink-soft">Will create</dt><dd data-testid="preview-creates">{preview.creates}</dd>
-            {preview.warnings.length > 0 && (<><dt className="text-ink-soft">Notes</dt><dd>{preview.warnings.join("; ")}</dd></>)}
+            <dt className="text-ink-soft">Encoding</dt>
+            <dd>
+              {ENCODING_WORDS[preview.encoding] ?? preview.encoding}
+              {preview.sheet ? ` · sheet "${preview.sheet}"` : ""}
+            </dd>
+            <dt className="text-ink-soft">Layout</dt>
+            <dd>{LAYOUT_WORDS[preview.layout]}</dd>
+            <dt className="text-ink-soft">X unit</dt>
+            <dd data-testid="preview-x-unit">
+              {preview.xUnitLabel} ({SOURCE_WORDS[preview.xUnitSource]})
+            </dd>
+            <dt className="text-ink-soft">Signal</dt>
+            <dd>{preview.yKindLabel}</dd>
+            <dt className="text-ink-soft">Column</dt>
+            <dd data-testid="preview-column">{preview.column}</dd>
+            {preview.profile && (
+              <>
+                <dt className="text-ink-soft">Profile</dt>
+                <dd data-testid="preview-profile">
+                  &quot;{preview.profile.name}&quot; ({preview.profile.how === "matched" ? "matched by the file's header" : "chosen"})
+                </dd>
+              </>
+            )}
+            <dt className="text-ink-soft">Will create</dt>
+            <dd data-testid="preview-creates">{preview.creates}</dd>
+            {preview.warnings.length > 0 && (
+              <>
+                <dt className="text-ink-soft">Notes</dt>
+                <dd>{preview.warnings.join("; ")}</dd>
+              </>
+            )}
           </dl>
         </>
       ) : (
-        <p role="alert" className="flex-1 text-red-800" data-testid="preview-error">{preview.error}</p>
+        <p role="alert" className="flex-1 text-red-800" data-testid="preview-error">
+          {preview.error}
+        </p>
       )}
       <div className="flex flex-col gap-1">
-        <label htmlFor={id("column")} className="text-ink-soft">Column for this file</label>
+        <label htmlFor={id("column")} className="text-ink-soft">
+          Column for this file
+        </label>
         <select
           id={id("column")}
           value={overrides.column ?? ""}
@@ -95,9 +157,17 @@ export function FilePreviewPanel({ fileName, preview, overrides, disabled, onCha
           className="rounded border border-stone-300 px-1 py-0.5"
         >
           <option value="">As for the batch</option>
-          {preview.ok && preview.traces.map((t) => <option key={t.label} value={t.label}>{t.label}{t.seriesValue ? ` (${t.seriesValue.value} ${t.seriesValue.unit})` : ""}</option>)}
+          {preview.ok &&
+            preview.traces.map((t) => (
+              <option key={t.label} value={t.label}>
+                {t.label}
+                {t.seriesValue ? ` (${t.seriesValue.value} ${t.seriesValue.unit})` : ""}
+              </option>
+            ))}
         </select>
-        <label htmlFor={id("xUnit")} className="text-ink-soft">X unit for this file</label>
+        <label htmlFor={id("xUnit")} className="text-ink-soft">
+          X unit for this file
+        </label>
         <select
           id={id("xUnit")}
           value={overrides.xUnit ?? ""}
@@ -106,16 +176,30 @@ export function FilePreviewPanel({ fileName, preview, overrides, disabled, onCha
           className="rounded border border-stone-300 px-1 py-0.5"
         >
           <option value="">As for the batch</option>
-          {X_UNIT_NAMES.map((u) => <option key={u} value={u}>{X_UNITS[u].label}</option>)}
+          {X_UNIT_NAMES.map((u) => (
+            <option key={u} value={u}>
+              {X_UNITS[u].label}
+            </option>
+          ))}
         </select>
         {preview.ok && preview.traces.length > 1 && preview.format !== "jcamp-dx" && (
           <label className="mt-1 flex items-center gap-1.5">
-            <input type="checkbox" checked={preview.split !== null} disabled={disabled} data-testid="preview-split"
-              onChange={(e) => onChange({ ...overrides, split: e.target.checked })} />
+            <input
+              type="checkbox"
+              checked={preview.split !== null}
+              disabled={disabled}
+              data-testid="preview-split"
+              onChange={(e) => onChange({ ...overrides, split: e.target.checked })}
+            />
             Split into {preview.traces.length} spectra (one per column)
           </label>
         )}
-        <button type="button" disabled={disabled || (!overrides.column && !overrides.xUnit && overrides.split === undefined)} onClick={onApplyToBatch} className="mt-1 rounded border border-stone-300 px-2 py-0.5 text-left hover:bg-white disabled:opacity-50">
+        <button
+          type="button"
+          disabled={disabled || (!overrides.column && !overrides.xUnit && overrides.split === undefined)}
+          onClick={onApplyToBatch}
+          className="mt-1 rounded border border-stone-300 px-2 py-0.5 text-left hover:bg-white disabled:opacity-50"
+        >
           Use these choices for the whole batch
         </button>
         {preview.ok && preview.signature && <SaveProfile idPrefix={id("save")} disabled={disabled} onSave={onSaveProfile} />}

@@ -7,7 +7,13 @@ import { countOf } from "@/lib/format/quantity";
 
 type SpectrumStatus = {
   spectrum: { id: string; status: string; error: string | null };
-  analysis: { status: string; error: string | null; peaks: unknown[]; flags: { kind: string }[]; firstExciton: { wavelengthNm: number } | null } | null;
+  analysis: {
+    status: string;
+    error: string | null;
+    peaks: unknown[];
+    flags: { kind: string }[];
+    firstExciton: { wavelengthNm: number } | null;
+  } | null;
 };
 
 const FINAL = new Set(["analysed", "failed"]);
@@ -31,7 +37,10 @@ export function LiveStatus({ spectrumId, duplicate }: { spectrumId: string; dupl
   return (
     <span className="flex min-w-0 flex-wrap items-center gap-2">
       {duplicate && (
-        <span className="rounded-full bg-stone-200 px-2 py-0.5 text-xs font-medium text-ink-soft" title="The same bytes are already in this project; no second copy was stored.">
+        <span
+          className="rounded-full bg-stone-200 px-2 py-0.5 text-xs font-medium text-ink-soft"
+          title="The same bytes are already in this project; no second copy was stored."
+        >
           already stored — linked
         </span>
       )}
@@ -43,9 +52,13 @@ export function LiveStatus({ spectrumId, duplicate }: { spectrumId: string; dupl
         </span>
       )}
       {spectrum.status === "failed" && (
-        <span role="alert" className="text-xs text-red-800">{spectrum.error ?? analysis?.error ?? "could not be analysed"}</span>
+        <span role="alert" className="text-xs text-red-800">
+          {spectrum.error ?? analysis?.error ?? "could not be analysed"}
+        </span>
       )}
-      <Link href={`/spectra/${spectrum.id}`} className="text-xs text-glow-deep hover:underline">open</Link>
+      <Link href={`/spectra/${spectrum.id}`} className="text-xs text-glow-deep hover:underline">
+        open
+      </Link>
     </span>
   );
 }

@@ -31,7 +31,19 @@ type Item = {
 };
 
 /** The batch fields that change how a file is read (and so its preview). */
-const READ_KEYS = ["projectId", "technique", "excitationNm", "column", "xUnit", "yKind", "block", "pair", "sheet", "split", "profile"] as const;
+const READ_KEYS = [
+  "projectId",
+  "technique",
+  "excitationNm",
+  "column",
+  "xUnit",
+  "yKind",
+  "block",
+  "pair",
+  "sheet",
+  "split",
+  "profile",
+] as const;
 
 function readFieldsFor(values: BatchValues, overrides: FileOverrides): Record<string, string> {
   const fields: Record<string, string> = {};
@@ -59,10 +71,12 @@ function profileChoiceOf(fields: Record<string, string>, preview: FilePreviewOk)
 const PARALLEL = 3;
 let counter = 0;
 
-
 /** Drop files, describe the batch once, watch every file go through upload and analysis. */
 export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices; maxBytes: number }) {
-  const [values, setValues] = useState<BatchValues>({ ...EMPTY_VALUES, projectId: choices.projects.length === 1 ? choices.projects[0].id : "" });
+  const [values, setValues] = useState<BatchValues>({
+    ...EMPTY_VALUES,
+    projectId: choices.projects.length === 1 ? choices.projects[0].id : "",
+  });
   const [errors, setErrors] = useState<Partial<Record<keyof BatchValues, string[]>>>({});
   const [items, setItems] = useState<Item[]>([]);
   const [busy, setBusy] = useState(false);
@@ -73,8 +87,12 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
   useEffect(() => {
     if (!values.projectId) return;
     let live = true;
-    void fetchProfiles(values.projectId).then((p) => { if (live) setProfiles(p); });
-    return () => { live = false; };
+    void fetchProfiles(values.projectId).then((p) => {
+      if (live) setProfiles(p);
+    });
+    return () => {
+      live = false;
+    };
   }, [values.projectId, profileVersion]);
 
   // A saved or deleted profile changes how waiting files are read: ask their previews again
@@ -84,8 +102,14 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
     setItems((old) => old.map((i) => (i.key === exceptKey ? i : { ...i, previewKey: undefined })));
   };
   const saveProfileFrom = async (item: Item, name: string) => {
-    if (!item.preview || item.preview === "loading" || !item.preview.ok || !item.preview.signature) return { ok: false as const, message: "the file must be read first" };
-    const result = await saveProfile(values.projectId, name, profileChoiceOf(readFieldsFor(values, item.overrides), item.preview), item.preview.signature);
+    if (!item.preview || item.preview === "loading" || !item.preview.ok || !item.preview.signature)
+      return { ok: false as const, message: "the file must be read first" };
+    const result = await saveProfile(
+      values.projectId,
+      name,
+      profileChoiceOf(readFieldsFor(values, item.overrides), item.preview),
+      item.preview.signature,
+    );
     if (result.ok) profilesChanged(item.key);
     return result;
   };
@@ -105,7 +129,12 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
           progress: 0,
           outcomes: [],
           overrides: {},
-          localError: p.file.size === 0 ? `${p.name}: the file is empty` : p.file.size > maxBytes ? `${p.name}: ${formatBytes(p.file.size)} is over the ${formatBytes(maxBytes)} limit` : undefined,
+          localError:
+            p.file.size === 0
+              ? `${p.name}: the file is empty`
+              : p.file.size > maxBytes
+                ? `${p.name}: ${formatBytes(p.file.size)} is over the ${formatBytes(maxBytes)} limit`
+                : undefined,
         })),
       ]);
     },
@@ -115,7 +144,9 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
   const update = (key: string, change: Partial<Item>) => setItems((old) => old.map((i) => (i.key === key ? { ...i, ...change } : i)));
 
   const ready = items.filter((i) => i.phase === "ready" && !i.localError);
-  const waitingFiles = ready.flatMap((i) => (i.preview && i.preview !== "loading" && i.preview.ok && i.preview.bands ? [{ fileName: i.picked.name, bands: i.preview.bands }] : []));
+  const waitingFiles = ready.flatMap((i) =>
+    i.preview && i.preview !== "loading" && i.preview.ok && i.preview.bands ? [{ fileName: i.picked.name, bands: i.preview.bands }] : [],
+  );
 
   // Each waiting file is read once per set of reading fields (the batch's and its own).
   useEffect(() => {
@@ -133,7 +164,9 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
 
   const applyToBatch = (overrides: FileOverrides) => {
     setValues((v) => ({
-      ...v, ...(overrides.column ? { column: overrides.column } : {}), ...(overrides.xUnit ? { xUnit: overrides.xUnit } : {}),
+      ...v,
+      ...(overrides.column ? { column: overrides.column } : {}),
+      ...(overrides.xUnit ? { xUnit: overrides.xUnit } : {}),
       ...(overrides.split !== undefined ? { split: overrides.split ? "all" : "" } : {}),
     }));
     setItems((old) => old.map((i) => ({ ...i, overrides: {} })));
@@ -193,9 +226,19 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
   return (
     <div className="space-y-6">
       <section aria-labelledby="batch-heading" className="rounded-xl border border-stone-200 bg-white p-5">
-        <h2 id="batch-heading" className="mb-3 text-sm font-semibold text-ink-soft">Describe the batch</h2>
-        <BatchForm choices={choices} values={values} errors={errors} disabled={busy} onChange={setValues} waitingFiles={waitingFiles}
-          profiles={profiles} onDeleteProfile={(id) => void removeProfile(id)} />
+        <h2 id="batch-heading" className="mb-3 text-sm font-semibold text-ink-soft">
+          Describe the batch
+        </h2>
+        <BatchForm
+          choices={choices}
+          values={values}
+          errors={errors}
+          disabled={busy}
+          onChange={setValues}
+          waitingFiles={waitingFiles}
+          profiles={profiles}
+          onDeleteProfile={(id) => void removeProfile(id)}
+        />
         {usesUvOrLaserLight(values.technique) && <p className="mt-3 text-xs text-caution">{LIGHT_CAUTION}</p>}
       </section>
 
@@ -211,13 +254,21 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
             {counts.linked > 0 && <span>{counts.linked} linked</span>}
             {counts.refused > 0 && <span className="text-red-800">{counts.refused} refused</span>}
             {busy ? (
-              <button type="button" onClick={() => cancel.current?.abort()} className="rounded-md border border-stone-300 px-3 py-1.5 text-sm">
+              <button
+                type="button"
+                onClick={() => cancel.current?.abort()}
+                className="rounded-md border border-stone-300 px-3 py-1.5 text-sm"
+              >
                 Stop
               </button>
             ) : (
               <>
                 {items.length > 0 && (
-                  <button type="button" onClick={() => setItems((old) => old.filter((i) => i.phase === "ready" && !i.localError))} className="rounded-md px-2 py-1.5 text-sm text-ink-soft hover:text-ink">
+                  <button
+                    type="button"
+                    onClick={() => setItems((old) => old.filter((i) => i.phase === "ready" && !i.localError))}
+                    className="rounded-md px-2 py-1.5 text-sm text-ink-soft hover:text-ink"
+                  >
                     Clear finished
                   </button>
                 )}
@@ -260,8 +311,13 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
 }
 
 type FileRowProps = {
-  item: Item; busy: boolean; onRemove: () => void; onOverrides: (o: FileOverrides) => void; onApplyToBatch: () => void;
-  onSaveProfile: (name: string) => Promise<{ ok: true } | { ok: false; message: string }>; onUpdateStored: () => void;
+  item: Item;
+  busy: boolean;
+  onRemove: () => void;
+  onOverrides: (o: FileOverrides) => void;
+  onApplyToBatch: () => void;
+  onSaveProfile: (name: string) => Promise<{ ok: true } | { ok: false; message: string }>;
+  onUpdateStored: () => void;
 };
 
 function FileRow({ item, busy, onRemove, onOverrides, onApplyToBatch, onSaveProfile, onUpdateStored }: FileRowProps) {
@@ -270,15 +326,26 @@ function FileRow({ item, busy, onRemove, onOverrides, onApplyToBatch, onSaveProf
   return (
     <li className="px-4 py-2 text-sm">
       <div className="flex items-center gap-3">
-        <span className="min-w-0 flex-1 truncate font-medium" title={picked.name}>{picked.name}</span>
+        <span className="min-w-0 flex-1 truncate font-medium" title={picked.name}>
+          {picked.name}
+        </span>
         <span className="tabular w-20 shrink-0 text-right text-xs text-ink-faint">{formatBytes(picked.file.size)}</span>
         <span className="w-40 shrink-0">
           {phase === "ready" && !localError && (
-            <button type="button" onClick={onRemove} className="text-xs text-ink-soft hover:text-ink">remove</button>
+            <button type="button" onClick={onRemove} className="text-xs text-ink-soft hover:text-ink">
+              remove
+            </button>
           )}
           {(phase === "sending" || (phase === "done" && outcomes.length === 0)) && (
             <span className="flex items-center gap-2">
-              <span className="h-1.5 flex-1 overflow-hidden rounded-full bg-stone-200" role="progressbar" aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(progress * 100)} aria-label={`Upload of ${picked.name}`}>
+              <span
+                className="h-1.5 flex-1 overflow-hidden rounded-full bg-stone-200"
+                role="progressbar"
+                aria-valuemin={0}
+                aria-valuemax={100}
+                aria-valuenow={Math.round(progress * 100)}
+                aria-label={`Upload of ${picked.name}`}
+              >
                 <span className="block h-full bg-glow transition-[width]" style={{ width: `${Math.round(progress * 100)}%` }} />
               </span>
               <span className="tabular w-9 text-right text-xs text-ink-faint">{Math.round(progress * 100)}%</span>
@@ -286,9 +353,21 @@ function FileRow({ item, busy, onRemove, onOverrides, onApplyToBatch, onSaveProf
           )}
         </span>
       </div>
-      {localError && <p role="alert" className="mt-1 text-xs text-red-800">{localError}</p>}
+      {localError && (
+        <p role="alert" className="mt-1 text-xs text-red-800">
+          {localError}
+        </p>
+      )}
       {phase === "ready" && !localError && (
-        <FilePreviewPanel fileName={picked.name} preview={item.preview} overrides={item.overrides} disabled={busy} onChange={onOverrides} onApplyToBatch={onApplyToBatch} onSaveProfile={onSaveProfile} />
+        <FilePreviewPanel
+          fileName={picked.name}
+          preview={item.preview}
+          overrides={item.overrides}
+          disabled={busy}
+          onChange={onOverrides}
+          onApplyToBatch={onApplyToBatch}
+          onSaveProfile={onSaveProfile}
+        />
       )}
       {outcomes.length > 0 && (
         <ul className={isBatch ? "mt-1 space-y-1 border-l-2 border-stone-100 pl-3" : "mt-1"}>
@@ -296,7 +375,9 @@ function FileRow({ item, busy, onRemove, onOverrides, onApplyToBatch, onSaveProf
             <li key={`${o.fileName}-${i}`} className="flex min-w-0 items-start gap-2 text-xs">
               {isBatch && (
                 <span className="w-56 shrink-0 truncate text-ink-soft" title={o.fileName} data-testid="outcome-name">
-                  {o.ok && o.trace ? `${o.trace}${o.seriesValue !== undefined && o.seriesValue !== null ? ` → ${o.seriesValue}${o.seriesUnit ? ` ${o.seriesUnit}` : ""}` : ""}` : o.fileName}
+                  {o.ok && o.trace
+                    ? `${o.trace}${o.seriesValue !== undefined && o.seriesValue !== null ? ` → ${o.seriesValue}${o.seriesUnit ? ` ${o.seriesUnit}` : ""}` : ""}`
+                    : o.fileName}
                 </span>
               )}
               {o.ok ? (
@@ -305,17 +386,27 @@ function FileRow({ item, busy, onRemove, onOverrides, onApplyToBatch, onSaveProf
                   {o.profile && <span className="mt-0.5 block text-ink-soft">Read with profile &quot;{o.profile.name}&quot;</span>}
                   {o.updated ? (
                     <span role="status" className="mt-0.5 block text-emerald-800" data-testid="duplicate-updated">
-                      Stored details updated ({o.differences?.map((d) => `${d.label}: ${d.stored ?? "not set"} → ${d.sent}`).join("; ")}){o.updated.reanalysis ? "; a new analysis was requested" : ""}.
+                      Stored details updated ({o.differences?.map((d) => `${d.label}: ${d.stored ?? "not set"} → ${d.sent}`).join("; ")})
+                      {o.updated.reanalysis ? "; a new analysis was requested" : ""}.
                     </span>
-                  ) : o.differences && o.differences.length > 0 && (
-                    <span role="status" className="mt-0.5 block text-caution" data-testid="duplicate-differences">
-                      These bytes were already stored with other details ({o.differences.map((d) => `${d.label}: ${d.stored ?? "not set"} stored, ${d.sent} sent`).join("; ")}). The stored details were kept.{" "}
-                      <button type="button" onClick={onUpdateStored} className="underline hover:no-underline">Update the stored details</button>
-                    </span>
+                  ) : (
+                    o.differences &&
+                    o.differences.length > 0 && (
+                      <span role="status" className="mt-0.5 block text-caution" data-testid="duplicate-differences">
+                        These bytes were already stored with other details (
+                        {o.differences.map((d) => `${d.label}: ${d.stored ?? "not set"} stored, ${d.sent} sent`).join("; ")}). The stored
+                        details were kept.{" "}
+                        <button type="button" onClick={onUpdateStored} className="underline hover:no-underline">
+                          Update the stored details
+                        </button>
+                      </span>
+                    )
                   )}
                 </span>
               ) : (
-                <span role="alert" className="text-red-800">{o.error.message}</span>
+                <span role="alert" className="text-red-800">
+                  {o.error.message}
+                </span>
               )}
             </li>
           ))}

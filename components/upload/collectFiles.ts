@@ -40,7 +40,9 @@ export async function filesFromDrop(data: DataTransfer): Promise<PickedFile[]> {
     for (const e of entries) await walk(e as Entry, out);
     return out;
   }
-  return Array.from(data.files).filter((f) => !hidden(f.name)).map((file) => ({ file, name: file.name }));
+  return Array.from(data.files)
+    .filter((f) => !hidden(f.name))
+    .map((file) => ({ file, name: file.name }));
 }
 
 export function filesFromInput(list: FileList | null): PickedFile[] {

@@ -17,7 +17,9 @@ export async function fetchProfiles(projectId: string): Promise<ImportProfileVie
 
 export async function saveProfile(projectId: string, name: string, choice: ProfileChoice, signature: string): Promise<ProfileResult> {
   const response = await fetch(`/api/v1/projects/${projectId}/import-profiles`, {
-    method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ name, choice, signature }),
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify({ name, choice, signature }),
   });
   return response.ok ? { ok: true } : { ok: false, message: await errorOf(response) };
 }

@@ -3,7 +3,12 @@ import type { FilePreview } from "@/lib/ingest/previewFile";
 
 export type PreviewAnswer = FilePreview | { ok: false; fileName: string; error: string };
 
-export async function requestPreview(file: File, name: string, fields: Record<string, string>, signal?: AbortSignal): Promise<PreviewAnswer> {
+export async function requestPreview(
+  file: File,
+  name: string,
+  fields: Record<string, string>,
+  signal?: AbortSignal,
+): Promise<PreviewAnswer> {
   const form = new FormData();
   for (const [k, v] of Object.entries(fields)) if (v !== "") form.append(k, v);
   form.append("file", file, name);

@@ -3,10 +3,19 @@
 
 export type UploadOutcome =
   | {
-      ok: true; fileName: string; zip?: string; spectrumId: string; runId: string | null; status: string; duplicate: boolean; queued: boolean;
+      ok: true;
+      fileName: string;
+      zip?: string;
+      spectrumId: string;
+      runId: string | null;
+      status: string;
+      duplicate: boolean;
+      queued: boolean;
       differences?: Array<{ field: string; label: string; stored: string | null; sent: string }>;
       updated?: { fields: string[]; reanalysis: { runId: string; created: boolean } | null };
-      trace?: string; seriesValue?: number | null; seriesUnit?: string;
+      trace?: string;
+      seriesValue?: number | null;
+      seriesUnit?: string;
       profile?: { name: string; how: "named" | "matched" };
     }
   | { ok: false; fileName: string; zip?: string; error: { status: number; code: string; message: string; field?: string } };
@@ -39,7 +48,11 @@ export function sendFile(
       if (body && Array.isArray(body.files)) {
         resolve({ status: xhr.status, files: body.files, error: body.error });
       } else if (body?.error) {
-        resolve({ status: xhr.status, files: [{ ok: false, fileName: relativeName, error: { status: xhr.status, ...body.error } }], error: body.error });
+        resolve({
+          status: xhr.status,
+          files: [{ ok: false, fileName: relativeName, error: { status: xhr.status, ...body.error } }],
+          error: body.error,
+        });
       } else {
         resolve(failed(`${relativeName}: the server answered ${xhr.status} without a readable result`));
       }

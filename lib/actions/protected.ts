@@ -17,10 +17,7 @@ function formValues(formData: FormData): Record<string, string> {
  * parsed with zod, and refusals come back as messages beside the fields, never as
  * stack traces or database errors.
  */
-export function protectedAction<S extends z.ZodType>(
-  schema: S,
-  run: (input: z.infer<S>, actor: Actor) => Promise<ActionState | void>,
-) {
+export function protectedAction<S extends z.ZodType>(schema: S, run: (input: z.infer<S>, actor: Actor) => Promise<ActionState | void>) {
   return async (_previous: ActionState, formData: FormData): Promise<ActionState> => {
     // The caller first, before anything of the request is read: every export of a
     // "use server" module is an endpoint anyone can call with any arguments.
@@ -46,10 +43,12 @@ export function protectedAction<S extends z.ZodType>(
       return (await run(parsed.data, actor)) ?? { ok: true };
     } catch (error) {
       // Next's redirect() works by throwing; let it through.
-      if (error && typeof error === "object" && "digest" in error && String((error as { digest: unknown }).digest).startsWith("NEXT_")) throw error;
+      if (error && typeof error === "object" && "digest" in error && String((error as { digest: unknown }).digest).startsWith("NEXT_"))
+        throw error;
       if (error instanceof Refusal) {
         // Shown beside its field, a message does not need to start with the field's name.
-        const message = error.field && error.message.startsWith(`${error.field}: `) ? error.message.slice(error.field.length + 2) : error.message;
+        const message =
+          error.field && error.message.startsWith(`${error.field}: `) ? error.message.slice(error.field.length + 2) : error.message;
         return { ok: false, message, fieldErrors: error.field ? { [error.field]: [message] } : undefined, values };
       }
       console.error(error);

@@ -8,8 +8,7 @@ import { formatWhen } from "@/lib/format/dates";
 export type FoldableEvent = { id: string; at: string; action: string; actorKey: string };
 
 export type FoldedLine<E extends FoldableEvent> =
-  | { kind: "event"; event: E }
-  | { kind: "sign-ins"; actorKey: string; count: number; first: string; last: string; events: E[] };
+  { kind: "event"; event: E } | { kind: "sign-ins"; actorKey: string; count: number; first: string; last: string; events: E[] };
 
 const isSignIn = (e: FoldableEvent) => e.action === "sign-in";
 
@@ -29,9 +28,11 @@ export function foldSignIns<E extends FoldableEvent>(events: readonly E[]): Fold
     for (const e of events.slice(i, j)) byPerson.set(e.actorKey, [...(byPerson.get(e.actorKey) ?? []), e]);
     // Map keeps first-seen order, which is each person's newest sign-in of the run
     for (const [actorKey, mine] of byPerson) {
-      out.push(mine.length === 1
-        ? { kind: "event", event: mine[0]! }
-        : { kind: "sign-ins", actorKey, count: mine.length, first: mine[mine.length - 1]!.at, last: mine[0]!.at, events: mine });
+      out.push(
+        mine.length === 1
+          ? { kind: "event", event: mine[0]! }
+          : { kind: "sign-ins", actorKey, count: mine.length, first: mine[mine.length - 1]!.at, last: mine[0]!.at, events: mine },
+      );
     }
     i = j;
   }

@@ -19,7 +19,17 @@ export type Actor = {
   via: "session" | "token";
 };
 
-type ActorRow = { id: string; email: string; name: string; is_site_admin: boolean; session_version: number; group_id: string | null; group_name: string | null; group_slug: string | null; role: Role | null };
+type ActorRow = {
+  id: string;
+  email: string;
+  name: string;
+  is_site_admin: boolean;
+  session_version: number;
+  group_id: string | null;
+  group_name: string | null;
+  group_slug: string | null;
+  role: Role | null;
+};
 
 /** A person with their memberships, in one query. */
 export async function loadActor(userId: string, via: Actor["via"], sessionVersion?: number): Promise<Actor | null> {
@@ -85,7 +95,9 @@ async function actorFromToken(token: string): Promise<Actor | null> {
   if (TOKEN_CACHE_MS > 0) listenForRevocations();
   const epoch = TOKEN_CACHE_MS > 0 ? revocationEpoch() : null;
   models();
-  const row = await ApiToken.findOne({ where: { tokenHash, revokedAt: null, [Op.or]: [{ expiresAt: null }, { expiresAt: { [Op.gt]: new Date() } }] } });
+  const row = await ApiToken.findOne({
+    where: { tokenHash, revokedAt: null, [Op.or]: [{ expiresAt: null }, { expiresAt: { [Op.gt]: new Date() } }] },
+  });
   if (!row) {
     tokenCache.delete(tokenHash);
     return null;

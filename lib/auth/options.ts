@@ -8,7 +8,14 @@ import { config } from "@/lib/config";
 import { sendMail } from "@/lib/mail";
 import { CLIENT_ADDRESS_HEADER } from "@/lib/clientAddressHeader";
 import { SignInRefused } from "./signInRefusals";
-import { issueUnlockToken, recordFailedSignIn, recordSuccessfulSignIn, signInGate, UNLOCK_LINK_SECONDS, type FailureCount } from "./rate-limit";
+import {
+  issueUnlockToken,
+  recordFailedSignIn,
+  recordSuccessfulSignIn,
+  signInGate,
+  UNLOCK_LINK_SECONDS,
+  type FailureCount,
+} from "./rate-limit";
 import { currentSessionVersion, revokeSessions } from "./sessionVersion";
 import { safeReturnPath } from "@/lib/auth/returnPath";
 
@@ -48,10 +55,13 @@ async function auditFailure(email: string, userId: string | null, address: strin
 async function mailUnlockLink(email: string): Promise<void> {
   const token = await issueUnlockToken(email);
   const link = `${config().APP_URL.replace(/\/$/, "")}/signin/unlock?token=${token}`;
-  await sendMail(email, "Bandkeep: your account was locked after failed sign-ins",
+  await sendMail(
+    email,
+    "Bandkeep: your account was locked after failed sign-ins",
     `Someone failed to sign in to your Bandkeep account many times, so sign-ins from new addresses are paused for 15 minutes.\n\n` +
-    `If that was you, or you want the lock lifted now, open this link within ${UNLOCK_LINK_SECONDS / 60} minutes:\n${link}\n\n` +
-    `Addresses you signed in from before still work. If you did not try to sign in, consider changing your password.`);
+      `If that was you, or you want the lock lifted now, open this link within ${UNLOCK_LINK_SECONDS / 60} minutes:\n${link}\n\n` +
+      `Addresses you signed in from before still work. If you did not try to sign in, consider changing your password.`,
+  );
 }
 
 async function authorize(raw: unknown, headers: HeaderBag) {
@@ -117,7 +127,8 @@ export const authOptions: NextAuthOptions = {
       if (url.startsWith("/")) return `${baseUrl}${safeReturnPath(url)}`;
       try {
         const target = new URL(url);
-        if (target.origin === new URL(baseUrl).origin) return `${baseUrl}${safeReturnPath(`${target.pathname}${target.search}${target.hash}`)}`;
+        if (target.origin === new URL(baseUrl).origin)
+          return `${baseUrl}${safeReturnPath(`${target.pathname}${target.search}${target.hash}`)}`;
       } catch {
         // not a URL: fall through
       }

@@ -47,7 +47,12 @@ export type SignInGate = { allowed: true } | { allowed: false; code: "slowed" | 
 /** Asked before the password is checked; a refused attempt costs nothing and counts nothing. */
 export async function signInGate(email: string, address: string): Promise<SignInGate> {
   const limits = signInLimits();
-  const [perAddress, nextAt, locked, known] = await redis().mget(key.address(address), key.pairNext(email, address), key.lock(email), key.known(email, address));
+  const [perAddress, nextAt, locked, known] = await redis().mget(
+    key.address(address),
+    key.pairNext(email, address),
+    key.lock(email),
+    key.known(email, address),
+  );
   if (Number(perAddress ?? 0) >= limits.perAddress) {
     const ttl = await redis().ttl(key.address(address));
     return { allowed: false, code: "slowed", retryAfterSeconds: Math.max(ttl, 1) };
@@ -76,9 +81,12 @@ export async function recordFailedSignIn(email: string, address: string): Promis
   const limits = signInLimits();
   const result = await redis()
     .multi()
-    .incr(key.address(address)).expire(key.address(address), WINDOW_SECONDS, "NX")
-    .incr(key.pair(email, address)).expire(key.pair(email, address), WINDOW_SECONDS, "NX")
-    .incr(key.account(email)).expire(key.account(email), WINDOW_SECONDS, "NX")
+    .incr(key.address(address))
+    .expire(key.address(address), WINDOW_SECONDS, "NX")
+    .incr(key.pair(email, address))
+    .expire(key.pair(email, address), WINDOW_SECONDS, "NX")
+    .incr(key.account(email))
+    .expire(key.account(email), WINDOW_SECONDS, "NX")
     .exec();
   const count = (i: number) => Number(result?.[i]?.[1] ?? 0);
   const failures = { address: count(0), pair: count(2), account: count(4) };

@@ -25,8 +25,12 @@ function feed(): Feed {
   };
   const subscribe = () =>
     subscriber.subscribe(CHANNEL).then(
-      () => { state.live = true; },
-      () => { state.live = false; },
+      () => {
+        state.live = true;
+      },
+      () => {
+        state.live = false;
+      },
     );
   subscriber.on("ready", () => void subscribe());
   subscriber.on("close", () => {

@@ -51,7 +51,13 @@ export function cdseLikeAbsorbance(e: number, model: AbsorptionModel): number {
 export function absorptionCsv(model: AbsorptionModel, sampleLabel: string): string {
   const noise = gaussianNoise(model.seed ?? 1);
   const scale = model.scale ?? 1;
-  const lines = [`Sample,${sampleLabel}`, "Instrument,demo double-beam spectrophotometer", "Path length (cm),1", "", "Wavelength (nm),Absorbance"];
+  const lines = [
+    `Sample,${sampleLabel}`,
+    "Instrument,demo double-beam spectrophotometer",
+    "Path length (cm),1",
+    "",
+    "Wavelength (nm),Absorbance",
+  ];
   for (let nm = 400; nm <= 750; nm += 0.5) {
     const value = scale * cdseLikeAbsorbance(HC_EV_NM / nm, model) + (model.noise ?? 0.0015) * noise();
     lines.push(`${nm.toFixed(1)},${value.toFixed(5)}`);
@@ -69,11 +75,21 @@ export function leadChalcogenideLikeAbsorbance(e: number, firstExcitonEv: number
 }
 
 /** Absorbance of a PbS-like dispersion from 400 to 1400 nm in 1 nm steps. */
-export function leadChalcogenideCsv(model: { firstExcitonEv: number; scale?: number; noise?: number; seed?: number }, sampleLabel: string): string {
+export function leadChalcogenideCsv(
+  model: { firstExcitonEv: number; scale?: number; noise?: number; seed?: number },
+  sampleLabel: string,
+): string {
   const noise = gaussianNoise(model.seed ?? 4);
-  const lines = [`Sample,${sampleLabel}`, "Instrument,demo UV-vis-NIR spectrophotometer", "Path length (cm),1", "", "Wavelength (nm),Absorbance"];
+  const lines = [
+    `Sample,${sampleLabel}`,
+    "Instrument,demo UV-vis-NIR spectrophotometer",
+    "Path length (cm),1",
+    "",
+    "Wavelength (nm),Absorbance",
+  ];
   for (let nm = 400; nm <= 1400; nm += 1) {
-    const value = (model.scale ?? 1) * leadChalcogenideLikeAbsorbance(HC_EV_NM / nm, model.firstExcitonEv) + (model.noise ?? 0.0015) * noise();
+    const value =
+      (model.scale ?? 1) * leadChalcogenideLikeAbsorbance(HC_EV_NM / nm, model.firstExcitonEv) + (model.noise ?? 0.0015) * noise();
     lines.push(`${nm},${value.toFixed(5)}`);
   }
   return lines.join("\r\n") + "\r\n";
@@ -98,10 +114,19 @@ export function supernatantCsv(model: SupernatantModel, sampleLabel: string): st
   const cdse = { firstExcitonEv: model.cdse.firstExcitonEv };
   const scaleA = model.cdse.absorbance / cdseLikeAbsorbance(HC_EV_NM / model.cdse.atNm, cdse);
   const scaleX = model.pbs.absorbance / leadChalcogenideLikeAbsorbance(HC_EV_NM / model.pbs.atNm, model.pbs.firstExcitonEv);
-  const lines = [`Sample,${sampleLabel}`, "Instrument,demo double-beam spectrophotometer", "Path length (cm),1", "", "Wavelength (nm),Absorbance"];
+  const lines = [
+    `Sample,${sampleLabel}`,
+    "Instrument,demo double-beam spectrophotometer",
+    "Path length (cm),1",
+    "",
+    "Wavelength (nm),Absorbance",
+  ];
   for (let nm = 400; nm <= 750; nm += 0.5) {
     const e = HC_EV_NM / nm;
-    const value = scaleA * cdseLikeAbsorbance(e, cdse) + scaleX * leadChalcogenideLikeAbsorbance(e, model.pbs.firstExcitonEv) + (model.noise ?? 0.0015) * noise();
+    const value =
+      scaleA * cdseLikeAbsorbance(e, cdse) +
+      scaleX * leadChalcogenideLikeAbsorbance(e, model.pbs.firstExcitonEv) +
+      (model.noise ?? 0.0015) * noise();
     lines.push(`${nm.toFixed(1)},${value.toFixed(5)}`);
   }
   return lines.join("\r\n") + "\r\n";
@@ -112,7 +137,13 @@ export type EmissionModel = { peakEv: number; sigmaEv?: number; intensity: numbe
 /** PL emission counts from 450 to 750 nm, 1 nm steps. */
 export function emissionCsv(model: EmissionModel, sampleLabel: string): string {
   const noise = gaussianNoise(model.seed ?? 2);
-  const lines = [`Sample,${sampleLabel}`, `Excitation (nm),${model.excitationNm ?? 405}`, "Slit (nm),2", "", "Wavelength (nm),Intensity (counts)"];
+  const lines = [
+    `Sample,${sampleLabel}`,
+    `Excitation (nm),${model.excitationNm ?? 405}`,
+    "Slit (nm),2",
+    "",
+    "Wavelength (nm),Intensity (counts)",
+  ];
   for (let nm = 450; nm <= 750; nm += 1) {
     const e = HC_EV_NM / nm;
     const value = model.intensity * gauss(e, model.peakEv, model.sigmaEv ?? 0.05) + 40 + (model.noise ?? 15) * noise();

@@ -32,9 +32,16 @@ import type {
 export { DEFAULT_THRESHOLDS };
 
 function summary(s: ParsedSpectrum): SpectrumSummary {
-  return { fileName: s.fileName, columnName: s.columnName, points: s.x.length, xUnit: s.xUnit, yUnit: s.yUnit, xMin: s.x[0]!, xMax: s.x[s.x.length - 1]! };
+  return {
+    fileName: s.fileName,
+    columnName: s.columnName,
+    points: s.x.length,
+    xUnit: s.xUnit,
+    yUnit: s.yUnit,
+    xMin: s.x[0]!,
+    xMax: s.x[s.x.length - 1]!,
+  };
 }
-
 
 /**
  * Spans of the smoothing and derivative windows, eV. Defaults (common practice): 25 meV and
@@ -139,12 +146,16 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
   const windows = (fwhmMeV: number | null) => {
     const spans = followBandWidth(TECHNIQUE_SPECS[technique], fwhmMeV);
     const w = options.smoothingWindow ?? chooseSmoothingWindow(n, stepEv, { targetSpanEv: spans.smoothingEv, signalToNoise: snr });
-    const wd = options.derivativeWindow ?? Math.max(w, chooseSmoothingWindow(n, stepEv, { targetSpanEv: spans.derivativeEv, signalToNoise: snr }));
+    const wd =
+      options.derivativeWindow ?? Math.max(w, chooseSmoothingWindow(n, stepEv, { targetSpanEv: spans.derivativeEv, signalToNoise: snr }));
     return { w, wd };
   };
   let { w: windowSize, wd: derivativeWindowSize } = windows(null);
   const checkWindows = () => {
-    for (const [name, w] of [['smoothingWindow', windowSize], ['derivativeWindow', derivativeWindowSize]] as const) {
+    for (const [name, w] of [
+      ['smoothingWindow', windowSize],
+      ['derivativeWindow', derivativeWindowSize],
+    ] as const) {
       if (!Number.isInteger(w) || w < 5 || w % 2 === 0 || w > n) {
         throw new RangeError(`${name} must be an odd integer from 5 to the number of grid points`);
       }
@@ -194,7 +205,18 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
   // concentration and background, before any band is compared
   let factor = 1;
   let background: Float64Array | undefined;
-  let details: NormalizationReport = { requested: normalization.mode, applied: 'none', factor: 1, concentrationRatio: 1, concentrationRatioUncertainty: null, background: null, regionsEv: [], separation: null, scaleDetermined: true, reason: '' };
+  let details: NormalizationReport = {
+    requested: normalization.mode,
+    applied: 'none',
+    factor: 1,
+    concentrationRatio: 1,
+    concentrationRatioUncertainty: null,
+    background: null,
+    regionsEv: [],
+    separation: null,
+    scaleDetermined: true,
+    reason: '',
+  };
   let concentrationFlag: FlagReport | null = null;
   let s: ProcessedSpectrum;
   switch (normalization.mode) {
@@ -207,7 +229,13 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
         throw new RangeError('concentrations for normalisation must be positive');
       }
       factor = normalization.referenceConcentration / normalization.sampleConcentration;
-      details = { ...details, applied: 'concentration', factor, concentrationRatio: 1 / factor, reason: 'scaled by the concentrations the caller gave (× c_ref/c_sample)' };
+      details = {
+        ...details,
+        applied: 'concentration',
+        factor,
+        concentrationRatio: 1 / factor,
+        reason: 'scaled by the concentrations the caller gave (× c_ref/c_sample)',
+      };
       s = processSample(factor);
       break;
     }
@@ -224,7 +252,13 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
       const k = Math.round((e - from) / stepEv);
       if (!(Math.abs(unscaled.smoothed[k]!) > 0)) throw new RangeError('sample signal is zero at the normalisation wavelength');
       factor = r.smoothed[k]! / unscaled.smoothed[k]!;
-      details = { ...details, applied: 'wavelength', factor, concentrationRatio: 1 / factor, reason: `scaled to the reference at ${normalization.wavelengthNm} nm, chosen by the caller` };
+      details = {
+        ...details,
+        applied: 'wavelength',
+        factor,
+        concentrationRatio: 1 / factor,
+        reason: `scaled to the reference at ${normalization.wavelengthNm} nm, chosen by the caller`,
+      };
       s = processSample(factor);
       break;
     }
@@ -246,7 +280,8 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
   }
   warnings.push(...s.warnings.map((w) => `${sample.fileName}: ${w}`));
   if (r && ref) warnings.push(...r.warnings.map((w) => `${ref.fileName}: ${w}`));
-  if (technique === 'pl' && !excitationNm) warnings.push('excitation wavelength unknown: an excitation or scatter line may be reported as a peak');
+  if (technique === 'pl' && !excitationNm)
+    warnings.push('excitation wavelength unknown: an excitation or scatter line may be reported as a peak');
 
   // the sample's first exciton is the feature nearest the parent's (a new band below the gap is not it)
   const followParent = (p: ProcessedSpectrum): ProcessedSpectrum => {
@@ -270,7 +305,9 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
       fwhmMeV: p.firstExciton?.fwhmMeV ?? null,
     });
     const verdict = checkReferenceMatch(side(s, se.energy), side(r, re.energy));
-    referenceMatch = verdict.ok ? { ok: true, toleranceMeV: verdict.toleranceMeV, reason: null } : { ok: false, toleranceMeV: null, reason: verdict.reason };
+    referenceMatch = verdict.ok
+      ? { ok: true, toleranceMeV: verdict.toleranceMeV, reason: null }
+      : { ok: false, toleranceMeV: null, reason: verdict.reason };
     if (!verdict.ok) {
       warnings.push(`${verdict.reason}: no band flags raised`);
       if (factor !== 1 || background) {
@@ -278,7 +315,18 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
         factor = 1;
         background = undefined;
         concentrationFlag = null;
-        details = { requested: normalization.mode, applied: 'none', factor: 1, concentrationRatio: 1, concentrationRatioUncertainty: null, background: null, regionsEv: [], separation: null, scaleDetermined: true, reason: 'not scaled: the reference does not match this sample' };
+        details = {
+          requested: normalization.mode,
+          applied: 'none',
+          factor: 1,
+          concentrationRatio: 1,
+          concentrationRatioUncertainty: null,
+          background: null,
+          regionsEv: [],
+          separation: null,
+          scaleDetermined: true,
+          reason: 'not scaled: the reference does not match this sample',
+        };
         s = followParent(processSample(1));
       }
     }
@@ -291,7 +339,8 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
           technique,
           thresholds,
           excitationNm,
-          scaleRelativeUncertainty: details.concentrationRatioUncertainty !== null ? details.concentrationRatioUncertainty / details.concentrationRatio : 0,
+          scaleRelativeUncertainty:
+            details.concentrationRatioUncertainty !== null ? details.concentrationRatioUncertainty / details.concentrationRatio : 0,
           scaleUndetermined: !details.scaleDetermined,
         })
       : { flags: [], warnings: [], atmosphericBands: [] };
@@ -323,14 +372,19 @@ export function analyzeSpectrum(sample: ParsedSpectrum, options: AnalysisOptions
       smoothing: { method: 'savitzky-golay', windowSize, derivativeWindowSize, polynomial, edges: 'polynomial-fit' },
       baseline: { mode: baseline, applied: s.baselineApplied },
       normalization: { ...normalization, factor, details },
-      darkLevel: { mode: darkLevel, sample: technique === 'pl' ? s.darkLevel : null, reference: technique === 'pl' && r ? r.darkLevel : null },
+      darkLevel: {
+        mode: darkLevel,
+        sample: technique === 'pl' ? s.darkLevel : null,
+        reference: technique === 'pl' && r ? r.darkLevel : null,
+      },
       thresholds,
       pathLengthCm,
       excitationNm: excitationNm ?? null,
       material: options.material ?? null,
     },
     noise: {
-      method: 'white-noise-equivalent σ: 1.4826 × median |fourth differences| of B-point block means × √B / √70, B doubled while σ rises > 25 % (B ≤ smoothing window)',
+      method:
+        'white-noise-equivalent σ: 1.4826 × median |fourth differences| of B-point block means × √B / √70, B doubled while σ rises > 25 % (B ≤ smoothing window)',
       sigma: s.sigma,
       blockLength: s.noiseBlockLength,
       systematicRelative: SYSTEMATIC_RELATIVE,

@@ -41,7 +41,10 @@ export interface ProcessedSpectrum {
 }
 
 /** Energy-axis signal of a parsed spectrum (no grid yet): Jacobian for PL, %T → absorbance. */
-export function spectrumToEnergy(s: ParsedSpectrum, technique: Technique): { energy: Float64Array; signal: Float64Array; warnings: string[] } {
+export function spectrumToEnergy(
+  s: ParsedSpectrum,
+  technique: Technique,
+): { energy: Float64Array; signal: Float64Array; warnings: string[] } {
   const warnings: string[] = [];
   let y = s.y;
   if (s.yUnit === 'percent-transmittance') {
@@ -158,7 +161,15 @@ export function processSpectrum(
   const guard = (Math.max(w, wd) - 1) / 2;
   // local noise: the same estimator on ±max(64, 6w) points around each candidate
   const local = { raw, smoothingGain: savitzkyGolayNoiseGain(w, p, 0), halfWidth: 6 * w, maxBlockLength: w };
-  const peakOpts = { sigmaSmoothed, sigmaSecondDerivative, minSignificance: o.minSignificance, edgeGuard: guard, exclude, local, minRelativeAmplitude: TECHNIQUE_SPECS[o.technique].minRelativePeakAmplitude };
+  const peakOpts = {
+    sigmaSmoothed,
+    sigmaSecondDerivative,
+    minSignificance: o.minSignificance,
+    edgeGuard: guard,
+    exclude,
+    local,
+    minRelativeAmplitude: TECHNIQUE_SPECS[o.technique].minRelativePeakAmplitude,
+  };
   let peaks = findExcitonicPeaks(g.x, smoothed, secondDerivative, peakOpts);
   let first = pickFirstExciton(peaks, smoothed, o.technique);
   if (first && o.technique === 'absorption') ({ first, peaks } = withLowEnergyWidth(first, peaks, g.x, smoothed));
@@ -223,7 +234,12 @@ export function processSpectrum(
  * width Jasieniak et al. 2009 scale ε with). Maxima only: a shoulder keeps the width from its
  * second derivative's zero crossings. The peak is replaced in the list too.
  */
-function withLowEnergyWidth(first: ExcitonicPeak, peaks: ExcitonicPeak[], energy: Float64Array, smoothed: Float64Array): { first: ExcitonicPeak; peaks: ExcitonicPeak[] } {
+function withLowEnergyWidth(
+  first: ExcitonicPeak,
+  peaks: ExcitonicPeak[],
+  energy: Float64Array,
+  smoothed: Float64Array,
+): { first: ExcitonicPeak; peaks: ExcitonicPeak[] } {
   if (first.kind !== 'maximum') return { first, peaks };
   const hwhm = lowEnergyHalfWidth(energy, smoothed, first.index);
   if (hwhm === null) return { first, peaks };

@@ -71,7 +71,23 @@ export function processReference(
   // one fingerprint per call (it walks both arrays)
   const e = entryFor(ref);
   const re = energyOf(e, ref, technique);
-  const key = JSON.stringify([technique, grid.from, grid.to, grid.n, o.technique, o.windowSize, o.derivativeWindowSize, o.polynomial, o.baseline, o.minSignificance, o.excitationNm ?? null, o.excitationExclusionNm, o.scale ?? 1, o.darkLevel ?? 'none', o.xUnit ?? null]);
+  const key = JSON.stringify([
+    technique,
+    grid.from,
+    grid.to,
+    grid.n,
+    o.technique,
+    o.windowSize,
+    o.derivativeWindowSize,
+    o.polynomial,
+    o.baseline,
+    o.minSignificance,
+    o.excitationNm ?? null,
+    o.excitationExclusionNm,
+    o.scale ?? 1,
+    o.darkLevel ?? 'none',
+    o.xUnit ?? null,
+  ]);
   let p = e.processed.get(key);
   if (!p) {
     p = processSpectrum(re.energy, re.signal, grid, o);

@@ -97,7 +97,6 @@ export interface ParsedSpectrum {
   warnings: string[];
 }
 
-
 export type Normalization =
   | { mode: 'auto' }
   | { mode: 'none' }
@@ -204,7 +203,12 @@ export interface NormalizationReport {
    * `terms` the smooth terms kept besides the offset, `droppedTerms` those left out because the
    * data could not tell them from the scale and did not need them. Null when no fit ran.
    */
-  separation: { scaleInflation: number; maxScaleInflation: number; terms: Array<'slope' | 'scatter' | 'shift'>; droppedTerms: Array<'slope' | 'scatter' | 'shift'> } | null;
+  separation: {
+    scaleInflation: number;
+    maxScaleInflation: number;
+    terms: Array<'slope' | 'scatter' | 'shift'>;
+    droppedTerms: Array<'slope' | 'scatter' | 'shift'>;
+  } | null;
   /**
    * False when 'auto' was asked but the fitted ratio cannot be used (scale and background not
    * separable, or too uncertain): flags whose size depends on the scale (bleach, new band) are then

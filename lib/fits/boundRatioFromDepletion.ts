@@ -39,7 +39,10 @@ export interface DepletionOptions {
 }
 
 export interface DepletionRow {
-  leftA: number; leftX: number; boundA: number; boundX: number;
+  leftA: number;
+  leftX: number;
+  boundA: number;
+  boundX: number;
   feedRatio: number;
   /** boundX / boundA, or null when less than nothing of A is bound. */
   boundRatio: number | null;
@@ -58,7 +61,8 @@ export interface DepletionResult {
 }
 
 export function boundRatioFromDepletion(points: readonly DepletionPoint[], options: DepletionOptions): DepletionResult {
-  if (!Array.isArray(points) || points.length < 2) throw new RangeError(`need at least 2 points (got ${Array.isArray(points) ? points.length : 0})`);
+  if (!Array.isArray(points) || points.length < 2)
+    throw new RangeError(`need at least 2 points (got ${Array.isArray(points) ? points.length : 0})`);
   const tolerance = options.constantTolerance ?? 0.1;
   const minFold = options.minFeedFoldChange ?? 2;
   if (!(tolerance > 0)) throw new RangeError("constantTolerance must be positive");

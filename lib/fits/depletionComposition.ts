@@ -51,7 +51,10 @@ export function depletionComposition(rows: readonly DepletionRowInput[], setup: 
   });
   const result = boundRatioFromDepletion(
     rows.map((r, i) => ({
-      addedA: r.addedA, addedX: r.addedX, absorbanceA: separated[i]!.a, absorbanceX: separated[i]!.x,
+      addedA: r.addedA,
+      addedX: r.addedX,
+      absorbanceA: separated[i]!.a,
+      absorbanceX: separated[i]!.x,
       ...(r.pathLengthCm !== undefined ? { pathLengthCm: r.pathLengthCm } : {}),
     })),
     { epsilonA: extinctionA.epsilonPerMPerCm, epsilonX: extinctionX.epsilonPerMPerCm, pathLengthCm: setup.pathLengthCm },

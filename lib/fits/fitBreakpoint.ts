@@ -53,15 +53,28 @@ function checkArrays(x: ArrayLike<number>, y: ArrayLike<number>, minPoints: numb
 /** Least squares of y on [1, u]: returns a, b and the residual sum of squares. */
 function lineFit(u: ArrayLike<number>, y: ArrayLike<number>): { a: number; b: number; ssr: number } {
   const n = u.length;
-  let su = 0, sy = 0;
-  for (let i = 0; i < n; i++) { su += u[i]!; sy += y[i]!; }
-  const mu = su / n, my = sy / n;
-  let suu = 0, suy = 0;
-  for (let i = 0; i < n; i++) { const du = u[i]! - mu; suu += du * du; suy += du * (y[i]! - my); }
+  let su = 0,
+    sy = 0;
+  for (let i = 0; i < n; i++) {
+    su += u[i]!;
+    sy += y[i]!;
+  }
+  const mu = su / n,
+    my = sy / n;
+  let suu = 0,
+    suy = 0;
+  for (let i = 0; i < n; i++) {
+    const du = u[i]! - mu;
+    suu += du * du;
+    suy += du * (y[i]! - my);
+  }
   const b = suu > 0 ? suy / suu : 0;
   const a = my - b * mu;
   let ssr = 0;
-  for (let i = 0; i < n; i++) { const r = y[i]! - a - b * u[i]!; ssr += r * r; }
+  for (let i = 0; i < n; i++) {
+    const r = y[i]! - a - b * u[i]!;
+    ssr += r * r;
+  }
   return { a, b, ssr };
 }
 
@@ -72,7 +85,9 @@ function profile(x: Float64Array, y: Float64Array, xb: number) {
 
 function invert3(m: number[][]): number[][] {
   const [[a, b, c], [d, e, f], [g, h, i]] = m as [[number, number, number], [number, number, number], [number, number, number]];
-  const A = e * i - f * h, B = -(d * i - f * g), C = d * h - e * g;
+  const A = e * i - f * h,
+    B = -(d * i - f * g),
+    C = d * h - e * g;
   const det = a * A + b * B + c * C;
   if (!(Math.abs(det) > 0)) throw new RangeError("the fit is degenerate: the covariance matrix is singular");
   return [
@@ -94,17 +109,31 @@ export function fitBreakpoint(x: ArrayLike<number>, y: ArrayLike<number>, option
   const n = xs.length;
 
   let best: { xb: number; a: number; b: number; ssr: number } | null = null;
-  const golden = (2 - (1 + Math.sqrt(5)) / 2);
+  const golden = 2 - (1 + Math.sqrt(5)) / 2;
   // Interval k spans [xs[k], xs[k+1]]: points 0..k rise, k+1..n-1 form the plateau.
   for (let k = minRise - 1; k <= n - 1 - minPlateau; k++) {
-    let lo = xs[k]!, hi = xs[k + 1]!;
+    let lo = xs[k]!,
+      hi = xs[k + 1]!;
     if (!(hi > lo)) continue;
     const f = (t: number) => profile(xs, ys, t).ssr;
-    let c = lo + golden * (hi - lo), d = hi - golden * (hi - lo);
-    let fc = f(c), fd = f(d);
+    let c = lo + golden * (hi - lo),
+      d = hi - golden * (hi - lo);
+    let fc = f(c),
+      fd = f(d);
     for (let it = 0; it < 200 && hi - lo > 1e-13 * Math.max(1, Math.abs(hi)); it++) {
-      if (fc < fd) { hi = d; d = c; fd = fc; c = lo + golden * (hi - lo); fc = f(c); }
-      else { lo = c; c = d; fc = fd; d = hi - golden * (hi - lo); fd = f(d); }
+      if (fc < fd) {
+        hi = d;
+        d = c;
+        fd = fc;
+        c = lo + golden * (hi - lo);
+        fc = f(c);
+      } else {
+        lo = c;
+        c = d;
+        fc = fd;
+        d = hi - golden * (hi - lo);
+        fd = f(d);
+      }
     }
     const xb = 0.5 * (lo + hi);
     const fit = profile(xs, ys, xb);
@@ -116,7 +145,11 @@ export function fitBreakpoint(x: ArrayLike<number>, y: ArrayLike<number>, option
   const { xb, a, b, ssr } = best;
   const dof = n - 3;
   const s2 = ssr / dof;
-  const jtj = [[0, 0, 0], [0, 0, 0], [0, 0, 0]];
+  const jtj = [
+    [0, 0, 0],
+    [0, 0, 0],
+    [0, 0, 0],
+  ];
   for (let i = 0; i < n; i++) {
     const row = [1, Math.min(xs[i]!, xb), xs[i]! > xb ? b : 0];
     for (let p = 0; p < 3; p++) for (let q = 0; q < 3; q++) jtj[p]![q]! += row[p]! * row[q]!;

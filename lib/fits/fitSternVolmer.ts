@@ -19,22 +19,36 @@ export interface SternVolmerFit {
 
 export function fitSternVolmer(concentration: ArrayLike<number>, quenchFraction: ArrayLike<number>): SternVolmerFit {
   const n = concentration.length;
-  if (quenchFraction.length !== n) throw new RangeError(`concentration and quenchFraction must have the same length (got ${n} and ${quenchFraction.length})`);
+  if (quenchFraction.length !== n)
+    throw new RangeError(`concentration and quenchFraction must have the same length (got ${n} and ${quenchFraction.length})`);
   if (n < 3) throw new RangeError(`need at least 3 points (got ${n})`);
   const ratio: number[] = [];
   for (let i = 0; i < n; i++) {
-    const c = concentration[i]!, q = quenchFraction[i]!;
+    const c = concentration[i]!,
+      q = quenchFraction[i]!;
     if (!Number.isFinite(c) || c < 0) throw new RangeError(`concentration[${i}] must be a finite number ≥ 0`);
     if (!Number.isFinite(q) || q >= 1) throw new RangeError(`quenchFraction[${i}] must be a finite number below 1`);
     ratio.push(1 / (1 - q));
   }
-  let sx = 0, sy = 0;
-  for (let i = 0; i < n; i++) { sx += concentration[i]!; sy += ratio[i]!; }
-  const mx = sx / n, my = sy / n;
-  let sxx = 0, sxy = 0, syy = 0, sxx0 = 0;
+  let sx = 0,
+    sy = 0;
   for (let i = 0; i < n; i++) {
-    const dx = concentration[i]! - mx, dy = ratio[i]! - my;
-    sxx += dx * dx; sxy += dx * dy; syy += dy * dy; sxx0 += concentration[i]! ** 2;
+    sx += concentration[i]!;
+    sy += ratio[i]!;
+  }
+  const mx = sx / n,
+    my = sy / n;
+  let sxx = 0,
+    sxy = 0,
+    syy = 0,
+    sxx0 = 0;
+  for (let i = 0; i < n; i++) {
+    const dx = concentration[i]! - mx,
+      dy = ratio[i]! - my;
+    sxx += dx * dx;
+    sxy += dx * dy;
+    syy += dy * dy;
+    sxx0 += concentration[i]! ** 2;
   }
   if (!(sxx > 0)) throw new RangeError("concentration needs at least two distinct values");
   const ksv = sxy / sxx;

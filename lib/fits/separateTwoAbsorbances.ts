@@ -28,7 +28,9 @@ export function separateTwoAbsorbances(atA: number, atX: number, ratios: Overlap
   if (!(Number.isFinite(rX) && rX >= 0)) throw new RangeError("xAtAPerAtX must be a finite number ≥ 0");
   const det = 1 - rA * rX;
   if (det < MIN_SEPARABILITY) {
-    throw new RangeError(`the two dots absorb too alike at these wavelengths to be told apart (1 − rA·rX = ${det.toFixed(3)}, needs ≥ ${MIN_SEPARABILITY})`);
+    throw new RangeError(
+      `the two dots absorb too alike at these wavelengths to be told apart (1 − rA·rX = ${det.toFixed(3)}, needs ≥ ${MIN_SEPARABILITY})`,
+    );
   }
   return { a: (atA - rX * atX) / det, x: (atX - rA * atA) / det };
 }

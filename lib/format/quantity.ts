@@ -149,7 +149,7 @@ const isFlagUnit = (u: string | null): u is FlagUnit => u !== null && (FLAG_UNIT
 /** The unit a flag's magnitude is in: the stored one, else the kind's usual one. */
 export function flagUnitOf(f: Pick<FlagMagnitude, "kind" | "unit">): FlagUnit {
   const spec = isFlagKind(f.kind) ? FLAG_KIND_SPECS[f.kind] : undefined;
-  return isFlagUnit(f.unit) ? f.unit : spec?.unit ?? "signal";
+  return isFlagUnit(f.unit) ? f.unit : (spec?.unit ?? "signal");
 }
 
 /** A flag's magnitude as people read it, with the kind's sign rule and suffix ("—" when unknown). */

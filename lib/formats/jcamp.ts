@@ -39,7 +39,11 @@ const Y_SCALE = 2 ** 30;
 
 /** The escaping rule above: one line, no `##`, at most 200 characters. */
 export function jcampValue(text: string): string {
-  return text.replace(/[\r\n]+/g, " ").replace(/#{2,}/g, "#").trim().slice(0, 200);
+  return text
+    .replace(/[\r\n]+/g, " ")
+    .replace(/#{2,}/g, "#")
+    .trim()
+    .slice(0, 200);
 }
 
 /** A decimal without exponent, the shortest that reads back as the same double where String() has none. */
@@ -101,7 +105,8 @@ export function writeJcamp(input: JcampInput): string {
     `##ORIGIN=${jcampValue(input.origin ?? "Bandkeep")}`,
     `##OWNER=${jcampValue(input.owner ?? "")}`,
   ];
-  for (const [k, v] of Object.entries(input.labels ?? {})) lines.push(`##$${k.toUpperCase().replace(/[^A-Z0-9 ]/g, "")}=${jcampValue(String(v))}`);
+  for (const [k, v] of Object.entries(input.labels ?? {}))
+    lines.push(`##$${k.toUpperCase().replace(/[^A-Z0-9 ]/g, "")}=${jcampValue(String(v))}`);
   for (const c of input.comments ?? []) lines.push(`$$ ${jcampValue(c)}`);
   lines.push(
     `##XUNITS=${jcampValue(input.xUnits)}`,

@@ -1,6 +1,5 @@
 import { Refusal } from "@/lib/errors";
 
-
 const tooLarge = (limit: number, seen: string) =>
   new Refusal(413, "too-large", `the request is ${seen} bytes, over the limit of ${limit} bytes per request; send fewer files at a time`);
 

@@ -49,7 +49,12 @@ export function withActor<C>(handler: Handler<C>) {
       if (!actor) throw unauthenticated();
       if (actor.via === "session") {
         const refusal = crossSiteWrite(request);
-        if (refusal) throw new Refusal(403, "cross-site", `A signed-in write must come from Bandkeep's own pages (${refusal}); scripts send a Bearer API token.`);
+        if (refusal)
+          throw new Refusal(
+            403,
+            "cross-site",
+            `A signed-in write must come from Bandkeep's own pages (${refusal}); scripts send a Bearer API token.`,
+          );
       }
       return await handler(request, { ...context, actor });
     } catch (error) {

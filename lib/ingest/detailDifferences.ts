@@ -6,7 +6,17 @@ export type DetailDifference = { field: DetailField; label: string; stored: stri
 
 /** The details of a stored spectrum that a re-upload of its bytes may state differently (and update, when asked). */
 export const DETAIL_FIELDS = [
-  "technique", "sampleId", "seriesId", "seriesValue", "referenceSpectrumId", "pathLengthCm", "excitationNm", "solvent", "material", "xUnit", "yKind",
+  "technique",
+  "sampleId",
+  "seriesId",
+  "seriesValue",
+  "referenceSpectrumId",
+  "pathLengthCm",
+  "excitationNm",
+  "solvent",
+  "material",
+  "xUnit",
+  "yKind",
 ] as const;
 export type DetailField = (typeof DETAIL_FIELDS)[number];
 

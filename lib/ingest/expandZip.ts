@@ -50,7 +50,8 @@ export function expandZip(zipName: string, bytes: Uint8Array, limits: IngestLimi
         if (f.size > 0 && f.originalSize / f.size > limits.maxZipRatio) {
           throw refuse(`entry ${f.name} has a compression ratio over ${limits.maxZipRatio}:1 (refused as a possible zip bomb)`);
         }
-        if (declaredTotal > limits.maxZipTotalBytes) throw refuse(`expands to more than ${mib(limits.maxZipTotalBytes)} in total (the limit per zip)`);
+        if (declaredTotal > limits.maxZipTotalBytes)
+          throw refuse(`expands to more than ${mib(limits.maxZipTotalBytes)} in total (the limit per zip)`);
         return false;
       },
     });
@@ -81,7 +82,8 @@ export function expandZip(zipName: string, bytes: Uint8Array, limits: IngestLimi
       size += chunk.length;
       total += chunk.length;
       if (size > limits.maxFileBytes) failure = refuse(`entry ${file.name} expands past the ${mib(limits.maxFileBytes)} limit per file`);
-      else if (total > limits.maxZipTotalBytes) failure = refuse(`expands to more than ${mib(limits.maxZipTotalBytes)} in total (the limit per zip)`);
+      else if (total > limits.maxZipTotalBytes)
+        failure = refuse(`expands to more than ${mib(limits.maxZipTotalBytes)} in total (the limit per zip)`);
       else if (total > limits.maxZipRatio * bytes.length + 1024 * 1024) {
         failure = refuse(`has a compression ratio over ${limits.maxZipRatio}:1 (refused as a possible zip bomb)`);
       }

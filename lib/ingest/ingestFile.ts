@@ -29,9 +29,19 @@ function outcomeOfError(fileName: string, error: unknown, zip?: string): FileOut
   const known = unavailable(error);
   if (!known) {
     console.error("ingest failed", error);
-    return { ok: false, zip, fileName, error: { status: 500, code: "internal", message: `${fileName}: could not be stored because of an error on our side` } };
+    return {
+      ok: false,
+      zip,
+      fileName,
+      error: { status: 500, code: "internal", message: `${fileName}: could not be stored because of an error on our side` },
+    };
   }
-  return { ok: false, zip, fileName, error: { status: known.status, code: known.code, message: known.message, ...(known.field ? { field: known.field } : {}) } };
+  return {
+    ok: false,
+    zip,
+    fileName,
+    error: { status: known.status, code: known.code, message: known.message, ...(known.field ? { field: known.field } : {}) },
+  };
 }
 
 /**
@@ -46,7 +56,7 @@ export async function ingestFiles(
   files: IncomingFile[],
   limits: IngestLimits = ingestLimits(),
 ): Promise<FileOutcome[]> {
-  if (files.length === 0) throw new Refusal(400, "no-file", "no file was sent (use the form field \"file\")", "file");
+  if (files.length === 0) throw new Refusal(400, "no-file", 'no file was sent (use the form field "file")', "file");
   const context = await prepareIngest(actor, metadata);
   return ingestPrepared(context, files, limits, metadata);
 }
@@ -55,20 +65,41 @@ export async function ingestFiles(
  * Stores one file with the batch's details and the import profile that applies to it (named, or
  * matched by the file's header): one spectrum, or one per trace when split.
  */
-async function storeWithProfile(context: IngestContext, input: Record<string, unknown>, file: IncomingFile, maxBytes: number): Promise<StoredFile[]> {
+async function storeWithProfile(
+  context: IngestContext,
+  input: Record<string, unknown>,
+  file: IncomingFile,
+  maxBytes: number,
+): Promise<StoredFile[]> {
   const applied = await applyProfile(context.project.id, input, file, maxBytes);
   const fileContext = applied.profile ? await prepareIngest(context.actor, applied.fields) : context;
-  const stored = fileContext.metadata.split === "all" ? await storeSplit(fileContext, file, maxBytes) : [await storeFile(fileContext, file, maxBytes)];
+  const stored =
+    fileContext.metadata.split === "all" ? await storeSplit(fileContext, file, maxBytes) : [await storeFile(fileContext, file, maxBytes)];
   return applied.profile ? stored.map((s) => ({ ...s, profile: applied.profile! })) : stored;
 }
 
-export async function ingestPrepared(context: IngestContext, files: IncomingFile[], limits: IngestLimits, input: Record<string, unknown> = { ...context.metadata }): Promise<FileOutcome[]> {
+export async function ingestPrepared(
+  context: IngestContext,
+  files: IncomingFile[],
+  limits: IngestLimits,
+  input: Record<string, unknown> = { ...context.metadata },
+): Promise<FileOutcome[]> {
   const outcomes: FileOutcome[] = [];
   let budget = limits.maxFilesPerRequest;
   for (const file of files) {
     if (file.bytes.length > 0 && looksLikeZip(file.fileName, file.bytes)) {
       if (file.bytes.length > limits.maxFileBytes) {
-        outcomes.push(outcomeOfError(file.fileName, new Refusal(413, "too-large", `${file.fileName}: ${file.bytes.length} bytes is over the upload limit of ${limits.maxFileBytes} bytes`, "file")));
+        outcomes.push(
+          outcomeOfError(
+            file.fileName,
+            new Refusal(
+              413,
+              "too-large",
+              `${file.fileName}: ${file.bytes.length} bytes is over the upload limit of ${limits.maxFileBytes} bytes`,
+              "file",
+            ),
+          ),
+        );
         continue;
       }
       let entries;
@@ -80,15 +111,37 @@ export async function ingestPrepared(context: IngestContext, files: IncomingFile
       }
       for (const entry of entries) {
         if (budget-- <= 0) {
-          outcomes.push(outcomeOfError(entry.fileName, new Refusal(413, "too-many-files", `${entry.fileName}: more than ${limits.maxFilesPerRequest} files in one request`, "file"), file.fileName));
+          outcomes.push(
+            outcomeOfError(
+              entry.fileName,
+              new Refusal(413, "too-many-files", `${entry.fileName}: more than ${limits.maxFilesPerRequest} files in one request`, "file"),
+              file.fileName,
+            ),
+          );
           continue;
         }
         if (looksLikeZip(entry.fileName, entry.bytes)) {
-          outcomes.push(outcomeOfError(entry.fileName, new Refusal(400, "nested-zip", `${file.fileName}: entry ${entry.fileName} is itself a zip; zips inside zips are not expanded`, "file"), file.fileName));
+          outcomes.push(
+            outcomeOfError(
+              entry.fileName,
+              new Refusal(
+                400,
+                "nested-zip",
+                `${file.fileName}: entry ${entry.fileName} is itself a zip; zips inside zips are not expanded`,
+                "file",
+              ),
+              file.fileName,
+            ),
+          );
           continue;
         }
         try {
-          for (const stored of await storeWithProfile(context, input, { ...entry, contentType: "application/octet-stream" }, limits.maxFileBytes)) {
+          for (const stored of await storeWithProfile(
+            context,
+            input,
+            { ...entry, contentType: "application/octet-stream" },
+            limits.maxFileBytes,
+          )) {
             outcomes.push({ ok: true, zip: file.fileName, ...stored });
           }
         } catch (error) {
@@ -98,7 +151,12 @@ export async function ingestPrepared(context: IngestContext, files: IncomingFile
       continue;
     }
     if (budget-- <= 0) {
-      outcomes.push(outcomeOfError(file.fileName, new Refusal(413, "too-many-files", `${file.fileName}: more than ${limits.maxFilesPerRequest} files in one request`, "file")));
+      outcomes.push(
+        outcomeOfError(
+          file.fileName,
+          new Refusal(413, "too-many-files", `${file.fileName}: more than ${limits.maxFilesPerRequest} files in one request`, "file"),
+        ),
+      );
       continue;
     }
     try {
@@ -109,4 +167,3 @@ export async function ingestPrepared(context: IngestContext, files: IncomingFile
   }
   return outcomes;
 }
-

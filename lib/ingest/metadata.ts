@@ -21,12 +21,7 @@ const strictNumber = (v: unknown) => (typeof v === "string" ? parseDecimal(v) : 
 function optionalText(label: string, max: number) {
   return z.preprocess(
     blankToUndefined,
-    z
-      .string()
-      .trim()
-      .max(max, `${label} is longer than ${max} characters`)
-      .refine(isPlainText, plainTextMessage(label))
-      .optional(),
+    z.string().trim().max(max, `${label} is longer than ${max} characters`).refine(isPlainText, plainTextMessage(label)).optional(),
   );
 }
 
@@ -44,11 +39,15 @@ function optionalNumber(label: string, min: number, max: number, unit: string) {
 const optionalCount = (label: string) =>
   z.preprocess(
     blankToUndefined,
-    z.coerce.number({ error: `${label} must be a whole number` }).int(`${label} must be a whole number`).min(1, `${label} counts from 1`).max(1000).optional(),
+    z.coerce
+      .number({ error: `${label} must be a whole number` })
+      .int(`${label} must be a whole number`)
+      .min(1, `${label} counts from 1`)
+      .max(1000)
+      .optional(),
   );
 
-const optionalId = (label: string) =>
-  z.preprocess(blankToUndefined, z.string().trim().uuid(`${label} must be an id (UUID)`).optional());
+const optionalId = (label: string) => z.preprocess(blankToUndefined, z.string().trim().uuid(`${label} must be an id (UUID)`).optional());
 
 /** How to read a file (column, units, block, pair, sheet): shared by uploads and previews. */
 export const readFields = {
@@ -61,7 +60,10 @@ export const readFields = {
 };
 
 /** Whether to store every trace of the file (Y column, pair or block) as its own spectrum. */
-const splitField = z.preprocess(blankToUndefined, z.enum(["all"], { error: 'split must be "all" (one spectrum per Y column, pair or block) or empty' }).optional());
+const splitField = z.preprocess(
+  blankToUndefined,
+  z.enum(["all"], { error: 'split must be "all" (one spectrum per Y column, pair or block) or empty' }).optional(),
+);
 
 /** An import profile by name, or "none" for no profile; empty: the profile matching the file, if any (docs/ingest.md). */
 const profileField = z.preprocess(
@@ -74,7 +76,10 @@ const assignmentSchema = z
   .object({
     trace: z.string({ error: "assignments: each needs trace (a label from the preview's traces)" }).trim().min(1).max(300),
     sampleId: z.string().uuid("assignments: sampleId must be an id (UUID)").optional(),
-    seriesValue: z.number({ error: "assignments: seriesValue must be a number" }).refine(Number.isFinite, "assignments: seriesValue must be finite").optional(),
+    seriesValue: z
+      .number({ error: "assignments: seriesValue must be a number" })
+      .refine(Number.isFinite, "assignments: seriesValue must be finite")
+      .optional(),
     skip: z.boolean().optional(),
   })
   .strict();
@@ -105,24 +110,30 @@ export const previewFieldsSchema = z
     profile: profileField,
   })
   .strict();
-export const PREVIEW_FIELDS = ["projectId", "technique", "excitationNm", "column", "xUnit", "yKind", "block", "pair", "sheet", "split", "profile"] as const;
+export const PREVIEW_FIELDS = [
+  "projectId",
+  "technique",
+  "excitationNm",
+  "column",
+  "xUnit",
+  "yKind",
+  "block",
+  "pair",
+  "sheet",
+  "split",
+  "profile",
+] as const;
 
 export const ingestMetadataSchema = z
   .object({
     projectId: z.preprocess(blankToUndefined, z.string({ error: "choose a project" }).trim().uuid("projectId must be an id (UUID)")),
-    technique: z.preprocess(
-      blankToUndefined,
-      registryEnum("technique", INGEST_TECHNIQUES),
-    ),
+    technique: z.preprocess(blankToUndefined, registryEnum("technique", INGEST_TECHNIQUES)),
     sampleId: optionalId("sampleId"),
     referenceSpectrumId: optionalId("referenceSpectrumId"),
     seriesId: optionalId("seriesId"),
     seriesValue: z.preprocess(
       (v) => strictNumber(blankToUndefined(v)),
-      z
-        .number({ error: "seriesValue must be a number" })
-        .refine(Number.isFinite, "seriesValue must be a finite number")
-        .optional(),
+      z.number({ error: "seriesValue must be a number" }).refine(Number.isFinite, "seriesValue must be a finite number").optional(),
     ),
     pathLengthCm: optionalNumber("pathLengthCm", 0, 100, "cm"),
     excitationNm: optionalNumber("excitationNm", 100, 3000, "nm"),
@@ -142,7 +153,7 @@ export const ingestMetadataSchema = z
       ctx.addIssue({ code: "custom", path: ["seriesValue"], message: "seriesValue needs a seriesId" });
     }
     if (m.assignments !== undefined && m.split === undefined) {
-      ctx.addIssue({ code: "custom", path: ["assignments"], message: 'assignments need split=all' });
+      ctx.addIssue({ code: "custom", path: ["assignments"], message: "assignments need split=all" });
     }
     if (m.assignments?.some((a) => a.seriesValue !== undefined) && m.seriesId === undefined) {
       ctx.addIssue({ code: "custom", path: ["assignments"], message: "assignments: a seriesValue needs a seriesId" });
@@ -154,7 +165,24 @@ export type IngestMetadata = z.output<typeof ingestMetadataSchema>;
 
 /** Field names the HTTP API reads from a multipart form besides `file`. */
 export const INGEST_FIELDS = [
-  "projectId", "technique", "sampleId", "referenceSpectrumId", "seriesId", "seriesValue",
-  "pathLengthCm", "excitationNm", "solvent", "column", "material", "xUnit", "yKind", "block", "pair", "sheet",
-  "split", "assignments", "profile", "onDuplicate",
+  "projectId",
+  "technique",
+  "sampleId",
+  "referenceSpectrumId",
+  "seriesId",
+  "seriesValue",
+  "pathLengthCm",
+  "excitationNm",
+  "solvent",
+  "column",
+  "material",
+  "xUnit",
+  "yKind",
+  "block",
+  "pair",
+  "sheet",
+  "split",
+  "assignments",
+  "profile",
+  "onDuplicate",
 ] as const;

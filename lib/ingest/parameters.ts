@@ -63,7 +63,11 @@ export function readChoiceOf(parameters: Pick<AnalysisParameters, "column" | "bl
 /** Guesses the engine's material name from a sample's free-text material ("CdSe/ZnS" → CdSe). */
 export function materialFromText(text: string | null | undefined): AnalysisParameters["material"] {
   if (!text) return undefined;
-  const core = text.split(/[\/\s,;(]/)[0]?.trim().toLowerCase() ?? "";
+  const core =
+    text
+      .split(/[\/\s,;(]/)[0]
+      ?.trim()
+      .toLowerCase() ?? "";
   return INGEST_MATERIALS.find((m) => m.toLowerCase() === core);
 }
 
@@ -74,13 +78,22 @@ const positive = (label: string) => z.number({ error: `${label} must be a number
 /** Changes a person may ask for when re-running an analysis; absent members keep the earlier value, null clears. */
 export const reanalysisSchema = z
   .object({
-    column: z.union([columnNameSchema, z.number().int().min(1)]).nullable().optional(),
+    column: z
+      .union([columnNameSchema, z.number().int().min(1)])
+      .nullable()
+      .optional(),
     material: z.enum(INGEST_MATERIALS).nullable().optional(),
     block: z.number().int().min(1).max(1000).nullable().optional(),
     pair: z.number().int().min(1).max(1000).nullable().optional(),
     sheet: z.string().trim().min(1).max(100).nullable().optional(),
-    xUnit: z.enum(X_UNIT_NAMES, { error: `xUnit must be one of ${X_UNIT_NAMES.join(", ")}` }).nullable().optional(),
-    yKind: z.enum(Y_KIND_NAMES, { error: `yKind must be one of ${Y_KIND_NAMES.join(", ")}` }).nullable().optional(),
+    xUnit: z
+      .enum(X_UNIT_NAMES, { error: `xUnit must be one of ${X_UNIT_NAMES.join(", ")}` })
+      .nullable()
+      .optional(),
+    yKind: z
+      .enum(Y_KIND_NAMES, { error: `yKind must be one of ${Y_KIND_NAMES.join(", ")}` })
+      .nullable()
+      .optional(),
     pathLengthCm: positive("pathLengthCm").max(100).nullable().optional(),
     excitationNm: positive("excitationNm").min(100).max(3000).nullable().optional(),
     smoothingWindow: z

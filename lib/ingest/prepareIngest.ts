@@ -20,7 +20,11 @@ export type IngestContext = {
 function firstIssue(error: { issues: { path: PropertyKey[]; message: string }[] }): Refusal {
   const issue = error.issues[0];
   const field = issue?.path.map(String).join(".") || undefined;
-  const message = issue ? (issue.message.startsWith(field ?? "\u0000") ? issue.message : `${field ? `${field}: ` : ""}${issue.message}`) : "invalid metadata";
+  const message = issue
+    ? issue.message.startsWith(field ?? "\u0000")
+      ? issue.message
+      : `${field ? `${field}: ` : ""}${issue.message}`
+    : "invalid metadata";
   return new Refusal(400, "invalid", message, field);
 }
 
@@ -61,7 +65,10 @@ export async function prepareIngest(actor: Actor, input: IngestMetadataInput | R
     const refProject = reference ? await Project.findByPk(reference.projectId, { attributes: ["groupId"] }) : null;
     if (!reference || refProject?.groupId !== project.groupId) {
       throw new Refusal(
-        400, "invalid", `referenceSpectrumId: spectrum ${metadata.referenceSpectrumId} was not found in this project's group`, "referenceSpectrumId",
+        400,
+        "invalid",
+        `referenceSpectrumId: spectrum ${metadata.referenceSpectrumId} was not found in this project's group`,
+        "referenceSpectrumId",
       );
     }
   }

@@ -53,7 +53,12 @@ export async function requestReanalysis(
     const ref = await Spectrum.findByPk(referenceSpectrumId, { attributes: ["id", "projectId"] });
     const refProject = ref ? await Project.findByPk(ref.projectId, { attributes: ["groupId"] }) : null;
     if (!ref || refProject?.groupId !== project.groupId) {
-      throw new Refusal(400, "invalid", `referenceSpectrumId: spectrum ${referenceSpectrumId} was not found in this group`, "referenceSpectrumId");
+      throw new Refusal(
+        400,
+        "invalid",
+        `referenceSpectrumId: spectrum ${referenceSpectrumId} was not found in this group`,
+        "referenceSpectrumId",
+      );
     }
   }
   if (parameters.normalization && !referenceSpectrumId) {
@@ -74,7 +79,10 @@ export async function requestReanalysis(
     });
     if (existing) {
       if (existing.status === "failed") {
-        await existing.update({ status: "queued", errorMessage: null, startedAt: null, finishedAt: null, durationMs: null }, { transaction });
+        await existing.update(
+          { status: "queued", errorMessage: null, startedAt: null, finishedAt: null, durationMs: null },
+          { transaction },
+        );
         await spectrum.update({ status: "queued", errorMessage: null, ...readUpdate }, { transaction });
         return { run: existing, created: false, requeue: true };
       }
@@ -82,16 +90,32 @@ export async function requestReanalysis(
     }
     const r = await AnalysisRun.create(
       {
-        spectrumId, referenceSpectrumId, engineVersion: ENGINE_VERSION, parameterHash: hash, parameters, status: "queued",
-        errorMessage: null, noise: null, report: null, requestedBy: actor.id, startedAt: null, finishedAt: null, durationMs: null,
+        spectrumId,
+        referenceSpectrumId,
+        engineVersion: ENGINE_VERSION,
+        parameterHash: hash,
+        parameters,
+        status: "queued",
+        errorMessage: null,
+        noise: null,
+        report: null,
+        requestedBy: actor.id,
+        startedAt: null,
+        finishedAt: null,
+        durationMs: null,
       },
       { transaction },
     );
     await spectrum.update({ status: "queued", errorMessage: null, ...readUpdate }, { transaction });
     await recordAudit(
       {
-        actorId: actor.id, actorLabel: actor.email, groupId: project.groupId, action: "analysis.request",
-        targetType: "spectrum", targetId: spectrumId, details: { runId: r.id, parameters, referenceSpectrumId },
+        actorId: actor.id,
+        actorLabel: actor.email,
+        groupId: project.groupId,
+        action: "analysis.request",
+        targetType: "spectrum",
+        targetId: spectrumId,
+        details: { runId: r.id, parameters, referenceSpectrumId },
       },
       transaction,
     );

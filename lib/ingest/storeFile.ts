@@ -37,7 +37,11 @@ export type StoredFile = {
 
 /** File names as stored: no control characters, no leading slashes, at most 255 characters. */
 export function cleanFileName(name: string): string {
-  const cleaned = name.replace(/\\/g, "/").replace(/[\u0000-\u001f\u007f]/g, "").replace(/^\/+/, "").trim();
+  const cleaned = name
+    .replace(/\\/g, "/")
+    .replace(/[\u0000-\u001f\u007f]/g, "")
+    .replace(/^\/+/, "")
+    .trim();
   return (cleaned || "unnamed").slice(-255);
 }
 
@@ -50,7 +54,13 @@ function cleanContentType(type: string | undefined): string {
 export function checkedFile(file: { fileName: string; bytes: Uint8Array }, maxBytes: number): string {
   const fileName = cleanFileName(file.fileName);
   const nameProblem = fileNameProblem(file.fileName);
-  if (nameProblem) throw new Refusal(400, "invalid-file-name", `${fileName.replace(/[\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]/g, "?")}: ${nameProblem}`, "file");
+  if (nameProblem)
+    throw new Refusal(
+      400,
+      "invalid-file-name",
+      `${fileName.replace(/[\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]/g, "?")}: ${nameProblem}`,
+      "file",
+    );
   if (file.bytes.length === 0) throw new Refusal(400, "empty-file", `${fileName}: the file is empty (0 bytes)`, "file");
   if (file.bytes.length > maxBytes) {
     throw new Refusal(413, "too-large", `${fileName}: ${file.bytes.length} bytes is over the upload limit of ${maxBytes} bytes`, "file");
@@ -71,12 +81,23 @@ async function duplicateOf(context: IngestContext, existing: Spectrum, fileName:
     targetId: existing.id,
     details: { fileName, sha256: existing.sha256, ...(differences.length ? { differences } : {}) },
   });
-  const updated = differences.length && context.metadata.onDuplicate === "update" ? await updateStoredDetails(context, existing, differences, fileName) : undefined;
+  const updated =
+    differences.length && context.metadata.onDuplicate === "update"
+      ? await updateStoredDetails(context, existing, differences, fileName)
+      : undefined;
   const latest = await AnalysisRun.findOne({ where: { spectrumId: existing.id }, order: [["createdAt", "DESC"]], attributes: ["id"] });
   if (updated) await existing.reload();
   return {
-    fileName, spectrumId: existing.id, runId: latest?.id ?? null, status: existing.status, duplicate: true, queued: false,
-    sha256: existing.sha256, sizeBytes: existing.sizeBytes, ...(differences.length ? { differences } : {}), ...(updated ? { updated } : {}),
+    fileName,
+    spectrumId: existing.id,
+    runId: latest?.id ?? null,
+    status: existing.status,
+    duplicate: true,
+    queued: false,
+    sha256: existing.sha256,
+    sizeBytes: existing.sizeBytes,
+    ...(differences.length ? { differences } : {}),
+    ...(updated ? { updated } : {}),
   };
 }
 
@@ -96,7 +117,11 @@ export class RawObject {
 
   async objectKey(): Promise<string> {
     if (this.key) return this.key;
-    const same = await Spectrum.findOne({ where: { projectId: this.projectId, sha256: this.sha256 }, attributes: ["objectKey"], order: [["createdAt", "ASC"]] });
+    const same = await Spectrum.findOne({
+      where: { projectId: this.projectId, sha256: this.sha256 },
+      attributes: ["objectKey"],
+      order: [["createdAt", "ASC"]],
+    });
     if (same) {
       this.key = same.objectKey;
       return this.key;
@@ -139,7 +164,13 @@ export async function storeTrace(
   let runId: string;
   try {
     ({ spectrumId, runId } = await insertUpload({
-      context, fileName, objectKey, sha256, sizeBytes: file.sizeBytes, contentType: file.contentType, traceKey,
+      context,
+      fileName,
+      objectKey,
+      sha256,
+      sizeBytes: file.sizeBytes,
+      contentType: file.contentType,
+      traceKey,
       parameterHash: parameterHash(parameters, referenceSpectrumId),
     }));
   } catch (error) {
@@ -161,8 +192,14 @@ export async function storeTrace(
     await Spectrum.update({ status: "received" }, { where: { id: spectrumId, status: "queued" } }).catch(() => {});
   }
   return {
-    fileName, spectrumId, runId, status: queued ? "queued" : "received", duplicate: false, queued,
-    sha256, sizeBytes: file.sizeBytes,
+    fileName,
+    spectrumId,
+    runId,
+    status: queued ? "queued" : "received",
+    duplicate: false,
+    queued,
+    sha256,
+    sizeBytes: file.sizeBytes,
   };
 }
 

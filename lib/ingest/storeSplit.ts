@@ -21,10 +21,20 @@ const unitWord = (u: string) => normaliseSeriesUnit(u);
  * in its header ("0.5 eq", "10 µM", "t = 30 s"). Refuses (naming the trace) an assignment that
  * names no trace, and a header unit that is not the series' unit.
  */
-export function splitParts(fileName: string, traces: readonly TraceInfo[], context: IngestContext, assignments: readonly TraceAssignment[] = []): SplitPart[] {
+export function splitParts(
+  fileName: string,
+  traces: readonly TraceInfo[],
+  context: IngestContext,
+  assignments: readonly TraceAssignment[] = [],
+): SplitPart[] {
   for (const a of assignments) {
     if (!traces.some((t) => t.label === a.trace)) {
-      throw new Refusal(400, "invalid", `${fileName}: assignments: no trace "${a.trace}" in the file (traces: ${traces.map((t) => t.label).join(", ")})`, "assignments");
+      throw new Refusal(
+        400,
+        "invalid",
+        `${fileName}: assignments: no trace "${a.trace}" in the file (traces: ${traces.map((t) => t.label).join(", ")})`,
+        "assignments",
+      );
     }
   }
   const seriesUnit = context.series?.variableUnit?.trim() ?? "";
@@ -39,7 +49,8 @@ export function splitParts(fileName: string, traces: readonly TraceInfo[], conte
       else if (trace.seriesValue) {
         if (seriesUnit && unitWord(seriesUnit) !== unitWord(trace.seriesValue.unit)) {
           throw new Refusal(
-            400, "invalid",
+            400,
+            "invalid",
             `${fileName}: column "${trace.label}" states ${trace.seriesValue.value} ${trace.seriesValue.unit}, but series "${context.series.name}" is in ${seriesUnit}; give the value in assignments or choose another series`,
             "assignments",
           );
@@ -50,7 +61,8 @@ export function splitParts(fileName: string, traces: readonly TraceInfo[], conte
     }
     parts.push({ trace, sampleId: a?.sampleId ?? context.sample?.id ?? null, seriesValue, seriesUnit: unit });
   }
-  if (parts.length === 0) throw new Refusal(400, "invalid", `${fileName}: every trace was left out (skip); nothing to store`, "assignments");
+  if (parts.length === 0)
+    throw new Refusal(400, "invalid", `${fileName}: every trace was left out (skip); nothing to store`, "assignments");
   return parts;
 }
 
@@ -58,12 +70,19 @@ export function splitParts(fileName: string, traces: readonly TraceInfo[], conte
 async function partContext(context: IngestContext, part: SplitPart, samples: Map<string, Sample>): Promise<IngestContext> {
   const parameters: AnalysisParameters = { ...context.parameters, block: part.trace.block, column: part.trace.column };
   delete parameters.pair;
-  const sample = part.sampleId ? samples.get(part.sampleId) ?? null : null;
+  const sample = part.sampleId ? (samples.get(part.sampleId) ?? null) : null;
   return {
     ...context,
     sample,
     parameters,
-    metadata: { ...context.metadata, seriesValue: part.seriesValue ?? undefined, sampleId: sample?.id, column: String(part.trace.column), block: part.trace.block, pair: undefined },
+    metadata: {
+      ...context.metadata,
+      seriesValue: part.seriesValue ?? undefined,
+      sampleId: sample?.id,
+      column: String(part.trace.column),
+      block: part.trace.block,
+      pair: undefined,
+    },
   };
 }
 
@@ -105,14 +124,21 @@ export async function storeSplit(
   const samples = new Map<string, Sample>();
   for (const id of sampleIds) {
     const s = id === context.sample?.id ? context.sample : await Sample.findByPk(id);
-    if (!s || s.groupId !== context.project.groupId) throw new Refusal(400, "invalid", `assignments: sample ${id} was not found in this project's group`, "assignments");
+    if (!s || s.groupId !== context.project.groupId)
+      throw new Refusal(400, "invalid", `assignments: sample ${id} was not found in this project's group`, "assignments");
     samples.set(id, s);
   }
   const unitToFill = context.series && !context.series.variableUnit?.trim() ? parts.find((p) => p.seriesUnit)?.seriesUnit : undefined;
   if (context.series && unitToFill) {
     // The series had no unit yet: the headers' unit becomes its unit (every part was checked to agree with it below).
     const differing = parts.find((p) => p.seriesUnit && unitWord(p.seriesUnit) !== unitWord(unitToFill));
-    if (differing) throw new Refusal(400, "invalid", `${fileName}: the column headers state different units (${unitToFill}, ${differing.seriesUnit}); give the values in assignments`, "assignments");
+    if (differing)
+      throw new Refusal(
+        400,
+        "invalid",
+        `${fileName}: the column headers state different units (${unitToFill}, ${differing.seriesUnit}); give the values in assignments`,
+        "assignments",
+      );
     await Series.update({ variableUnit: unitToFill }, { where: { id: context.series.id, variableUnit: "" } });
   }
 
@@ -122,8 +148,18 @@ export async function storeSplit(
   const out: StoredFile[] = [];
   for (const part of parts) {
     const traceKey = traceKeyOf(traceIdOfInfo(part.trace, sheet), defaultId);
-    const stored = await storeTrace(await partContext(context, part, samples), { fileName, sizeBytes: file.bytes.length, contentType, sha256 }, raw, traceKey);
-    out.push({ ...stored, trace: part.trace.label, seriesValue: part.seriesValue, ...(part.seriesUnit ? { seriesUnit: part.seriesUnit } : {}) });
+    const stored = await storeTrace(
+      await partContext(context, part, samples),
+      { fileName, sizeBytes: file.bytes.length, contentType, sha256 },
+      raw,
+      traceKey,
+    );
+    out.push({
+      ...stored,
+      trace: part.trace.label,
+      seriesValue: part.seriesValue,
+      ...(part.seriesUnit ? { seriesUnit: part.seriesUnit } : {}),
+    });
   }
   return out;
 }

@@ -1,4 +1,12 @@
-import { parseSpectrumBytes, readChoiceOptions, SpectrumFileError, type ParsedSpectrum, type ReadChoice, type Technique, type TraceInfo } from "@/lib/engine";
+import {
+  parseSpectrumBytes,
+  readChoiceOptions,
+  SpectrumFileError,
+  type ParsedSpectrum,
+  type ReadChoice,
+  type Technique,
+  type TraceInfo,
+} from "@/lib/engine";
 import { canonicalJson } from "./canonicalJson";
 
 /** Which trace of a file a spectrum reads: the sheet (spreadsheets), the block and the Y column in it. */
@@ -23,14 +31,24 @@ export function traceKeyOf(trace: TraceId, defaultTrace: TraceId): string {
   return `${trace.sheet === null ? "" : `sheet=${trace.sheet.slice(0, 200)};`}block=${trace.block};column=${trace.column}`;
 }
 
-export const traceIdOf = (s: Pick<ParsedSpectrum, "sheet" | "block" | "columnIndex">): TraceId => ({ sheet: s.sheet ?? null, block: s.block ?? 1, column: s.columnIndex });
+export const traceIdOf = (s: Pick<ParsedSpectrum, "sheet" | "block" | "columnIndex">): TraceId => ({
+  sheet: s.sheet ?? null,
+  block: s.block ?? 1,
+  column: s.columnIndex,
+});
 export const traceIdOfInfo = (t: TraceInfo, sheet: string | null): TraceId => ({ sheet, block: t.block, column: t.column });
 
 /**
  * Parses only to find the traces: the X unit is forced when none is chosen (which trace a
  * column is does not depend on it, and a headerless file would be refused without one).
  */
-export function parseForTraces(fileName: string, bytes: Uint8Array, technique: Technique, choice: ReadChoice, maxBytes: number): Promise<ParsedSpectrum> {
+export function parseForTraces(
+  fileName: string,
+  bytes: Uint8Array,
+  technique: Technique,
+  choice: ReadChoice,
+  maxBytes: number,
+): Promise<ParsedSpectrum> {
   return parseSpectrumBytes(fileName, bytes, { technique, maxBytes, ...readChoiceOptions({ ...choice, xUnit: choice.xUnit ?? "nm" }) });
 }
 
@@ -41,7 +59,13 @@ export function parseForTraces(fileName: string, bytes: Uint8Array, technique: T
  * column. A file that cannot be read keys on the choice as stated (its analysis will fail with
  * the reader's message; the raw file is kept).
  */
-export async function resolveTraceKey(fileName: string, bytes: Uint8Array, technique: Technique, choice: ReadChoice, maxBytes: number): Promise<string> {
+export async function resolveTraceKey(
+  fileName: string,
+  bytes: Uint8Array,
+  technique: Technique,
+  choice: ReadChoice,
+  maxBytes: number,
+): Promise<string> {
   if (!selectsTrace(choice)) return "";
   try {
     const chosen = await parseForTraces(fileName, bytes, technique, choice, maxBytes);

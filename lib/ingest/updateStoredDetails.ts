@@ -8,7 +8,15 @@ import { requestReanalysis } from "./requestReanalysis";
 import type { ReanalysisInput } from "./parameters";
 
 /** Details that enter the analysis: changing one asks for a new run (earlier runs are kept). */
-const ANALYSIS_INPUTS = new Set<DetailField>(["technique", "referenceSpectrumId", "pathLengthCm", "excitationNm", "material", "xUnit", "yKind"]);
+const ANALYSIS_INPUTS = new Set<DetailField>([
+  "technique",
+  "referenceSpectrumId",
+  "pathLengthCm",
+  "excitationNm",
+  "material",
+  "xUnit",
+  "yKind",
+]);
 
 export type DetailsUpdate = { fields: DetailField[]; reanalysis: { runId: string; created: boolean } | null };
 
@@ -18,7 +26,12 @@ export type DetailsUpdate = { fields: DetailField[]; reanalysis: { runId: string
  * event naming each old and new value; when one of them enters the analysis, a new run is
  * requested (earlier runs and their reviews are kept).
  */
-export async function updateStoredDetails(context: IngestContext, spectrum: Spectrum, differences: DetailDifference[], fileName: string): Promise<DetailsUpdate> {
+export async function updateStoredDetails(
+  context: IngestContext,
+  spectrum: Spectrum,
+  differences: DetailDifference[],
+  fileName: string,
+): Promise<DetailsUpdate> {
   const m = context.metadata;
   const fields = differences.map((d) => d.field);
   const has = (f: DetailField) => fields.includes(f);
@@ -32,14 +45,20 @@ export async function updateStoredDetails(context: IngestContext, spectrum: Spec
   if (has("excitationNm")) change.excitationNm = m.excitationNm ?? null;
   if (has("solvent")) change.solvent = context.solvent;
   if (has("material")) change.material = m.material ?? null;
-  if (change.referenceSpectrumId === spectrum.id) throw new Refusal(400, "invalid", `${fileName}: a spectrum cannot be its own reference`, "referenceSpectrumId");
+  if (change.referenceSpectrumId === spectrum.id)
+    throw new Refusal(400, "invalid", `${fileName}: a spectrum cannot be its own reference`, "referenceSpectrumId");
   try {
     await models().transaction(async (transaction) => {
       await spectrum.update(change, { transaction });
       await recordAudit(
         {
-          actorId: context.actor.id, actorLabel: context.actor.email, groupId: context.project.groupId, action: "spectrum.details-update",
-          targetType: "spectrum", targetId: spectrum.id, details: { fileName, sha256: spectrum.sha256, differences },
+          actorId: context.actor.id,
+          actorLabel: context.actor.email,
+          groupId: context.project.groupId,
+          action: "spectrum.details-update",
+          targetType: "spectrum",
+          targetId: spectrum.id,
+          details: { fileName, sha256: spectrum.sha256, differences },
         },
         transaction,
       );
@@ -47,7 +66,11 @@ export async function updateStoredDetails(context: IngestContext, spectrum: Spec
   } catch (error) {
     if (error instanceof DatabaseError) {
       // e.g. a supernatant given a series (migrations/0004): the database's rules refuse it; nothing was changed.
-      throw new Refusal(409, "conflict", `${fileName}: the stored record cannot take these details (${fields.join(", ")}); nothing was changed`);
+      throw new Refusal(
+        409,
+        "conflict",
+        `${fileName}: the stored record cannot take these details (${fields.join(", ")}); nothing was changed`,
+      );
     }
     throw error;
   }

@@ -42,13 +42,24 @@ export type ParentChoiceGroups = {
  * file is analysed only the technique can be checked; the candidate's range and first exciton
  * are compared once the sample's are known.
  */
-export function parentVerdict(target: ParentTarget, candidate: Pick<ParentCandidate, "technique" | "rangeEv" | "firstExcitonEv" | "fwhmMeV">): MatchVerdict {
+export function parentVerdict(
+  target: ParentTarget,
+  candidate: Pick<ParentCandidate, "technique" | "rangeEv" | "firstExcitonEv" | "fwhmMeV">,
+): MatchVerdict {
   if (candidate.technique !== target.technique) {
-    return { ok: false, reason: `the reference does not match this sample: the sample is ${target.technique}, the reference ${candidate.technique}` };
+    return {
+      ok: false,
+      reason: `the reference does not match this sample: the sample is ${target.technique}, the reference ${candidate.technique}`,
+    };
   }
   const side = target.bands ? sampleSideAgainst(target.bands, candidate.firstExcitonEv) : target.side;
   if (!side || !candidate.rangeEv) return { ok: true, toleranceMeV: null };
-  return checkReferenceMatch(side, { technique: candidate.technique, rangeEv: candidate.rangeEv, bandEv: candidate.firstExcitonEv, fwhmMeV: candidate.fwhmMeV });
+  return checkReferenceMatch(side, {
+    technique: candidate.technique,
+    rangeEv: candidate.rangeEv,
+    bandEv: candidate.firstExcitonEv,
+    fwhmMeV: candidate.fwhmMeV,
+  });
 }
 
 /**
@@ -64,6 +75,8 @@ export function orderParentChoices(candidates: readonly ParentCandidate[], targe
     .map((c) => ({ ...c, verdict: parentVerdict(target, c) }));
   const registered = usable.filter((c) => c.sampleId !== null && parentIds.has(c.sampleId));
   const material = target.sample?.material.trim().toLowerCase() ?? null;
-  const related = usable.filter((c) => !registered.includes(c) && (material === null || (c.material ?? "").trim().toLowerCase() === material));
+  const related = usable.filter(
+    (c) => !registered.includes(c) && (material === null || (c.material ?? "").trim().toLowerCase() === material),
+  );
   return { registered, related };
 }

@@ -3,9 +3,24 @@ import { csvLine } from "@/lib/formats/csv";
 import type { Actor } from "@/lib/auth/actor";
 import { memberGroupIds, readableScope, stewardGroupIds } from "@/lib/auth/access";
 import { selectRows } from "@/lib/db";
-import { AUDIT_CATEGORIES, AUDIT_CATEGORY_LABELS, actionsOf, categoryOf, describeEvent, flagKindWord, type AuditCategory } from "@/lib/auditTrail/eventKinds";
+import {
+  AUDIT_CATEGORIES,
+  AUDIT_CATEGORY_LABELS,
+  actionsOf,
+  categoryOf,
+  describeEvent,
+  flagKindWord,
+  type AuditCategory,
+} from "@/lib/auditTrail/eventKinds";
 import { foldSignIns, foldedSentence } from "@/lib/auditTrail/foldSignIns";
-import { plainText, recordingLookup, type AuditEventInput, type AuditRefType, type KnownRecord, type SentencePart } from "@/lib/auditTrail/sentenceParts";
+import {
+  plainText,
+  recordingLookup,
+  type AuditEventInput,
+  type AuditRefType,
+  type KnownRecord,
+  type SentencePart,
+} from "@/lib/auditTrail/sentenceParts";
 import { countParams, fastCount, type CountSql, type FastCount } from "@/lib/search/fastCount";
 import { cursorAtSql, decodeCursor, encodeCursor } from "@/lib/search/keysetCursor";
 
@@ -13,21 +28,34 @@ import { cursorAtSql, decodeCursor, encodeCursor } from "@/lib/search/keysetCurs
 // time and id), with a count that stays fast (fastCount). Each event reads as a sentence
 // (lib/auditTrail) whose named records link to their pages when the reader may open them.
 
-const day = z.string().trim().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date as YYYY-MM-DD.").refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), "Not a real date.");
+const day = z
+  .string()
+  .trim()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date as YYYY-MM-DD.")
+  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), "Not a real date.");
 const blank = (v: unknown) => (v === "" || v === null ? undefined : v);
 
 export const AUDIT_PAGE_SIZE = 50;
 export const AUDIT_API_MAX_PAGE = 1000;
 
 /** The filter of the audit page, its JSON pages and its CSV export; every field optional, each error names its field. */
-export const auditFilterSchema = z.object({
-  category: z.preprocess(blank, z.enum(AUDIT_CATEGORIES, { error: `category: one of ${AUDIT_CATEGORIES.join(", ")}.` }).optional()),
-  person: z.preprocess(blank, z.string().trim().uuid("person: not a valid person id.").optional()),
-  action: z.preprocess(blank, z.string().trim().max(60, "action: at most 60 characters.").optional()),
-  from: z.preprocess(blank, day.optional()),
-  to: z.preprocess(blank, day.optional()),
-  after: z.preprocess(blank, z.string().max(200).refine((c) => decodeCursor(c) !== null, "after: not a cursor from an earlier page.").optional()),
-}).refine((f) => !f.from || !f.to || f.from <= f.to, { message: "to: the end date comes before the start date.", path: ["to"] });
+export const auditFilterSchema = z
+  .object({
+    category: z.preprocess(blank, z.enum(AUDIT_CATEGORIES, { error: `category: one of ${AUDIT_CATEGORIES.join(", ")}.` }).optional()),
+    person: z.preprocess(blank, z.string().trim().uuid("person: not a valid person id.").optional()),
+    action: z.preprocess(blank, z.string().trim().max(60, "action: at most 60 characters.").optional()),
+    from: z.preprocess(blank, day.optional()),
+    to: z.preprocess(blank, day.optional()),
+    after: z.preprocess(
+      blank,
+      z
+        .string()
+        .max(200)
+        .refine((c) => decodeCursor(c) !== null, "after: not a cursor from an earlier page.")
+        .optional(),
+    ),
+  })
+  .refine((f) => !f.from || !f.to || f.from <= f.to, { message: "to: the end date comes before the start date.", path: ["to"] });
 
 export type AuditFilter = z.infer<typeof auditFilterSchema>;
 
@@ -40,8 +68,17 @@ export function auditScopeOf(actor: Actor): AuditScope | null {
 }
 
 type EventRow = {
-  id: string; at: Date; cursor_at: string; actor_id: string | null; actor_label: string; actor_name: string | null;
-  group_id: string | null; action: string; target_type: string | null; target_id: string | null; details: Record<string, unknown>;
+  id: string;
+  at: Date;
+  cursor_at: string;
+  actor_id: string | null;
+  actor_label: string;
+  actor_name: string | null;
+  group_id: string | null;
+  action: string;
+  target_type: string | null;
+  target_id: string | null;
+  details: Record<string, unknown>;
 };
 
 /**
@@ -55,8 +92,14 @@ export function auditPageSql(scope: AuditScope, filter: AuditFilter, limit: numb
   const params: Record<string, unknown> = { limit: limit + 1, groupIds: scope.groupIds };
   const actions = filter.action ? [filter.action] : filter.category ? actionsOf(filter.category) : null;
   const where: string[] = [];
-  if (filter.from) { where.push("e.at >= CAST(:from AS timestamptz)"); params.from = `${filter.from}T00:00:00Z`; }
-  if (filter.to) { where.push("e.at < CAST(:to AS timestamptz) + interval '1 day'"); params.to = `${filter.to}T00:00:00Z`; }
+  if (filter.from) {
+    where.push("e.at >= CAST(:from AS timestamptz)");
+    params.from = `${filter.from}T00:00:00Z`;
+  }
+  if (filter.to) {
+    where.push("e.at < CAST(:to AS timestamptz) + interval '1 day'");
+    params.to = `${filter.to}T00:00:00Z`;
+  }
   const position = filter.after ? decodeCursor(filter.after) : null;
   const pageWhere = [...where];
   if (position && /^\d+$/.test(position.id)) {
@@ -75,13 +118,16 @@ export function auditPageSql(scope: AuditScope, filter: AuditFilter, limit: numb
     const seesPersonal = scope.personalOf === "everyone" || scope.personalOf === filter.person;
     const inScope = `(e.group_id IN (:groupIds)${seesPersonal ? " OR e.group_id IS NULL" : ""})`;
     const actionIn = actions ? " AND e.action IN (:actions)" : "";
-    piecesOf = (cs, tail) => [`SELECT e.id, e.at FROM audit_events e WHERE e.actor_id = CAST(:person AS uuid) AND ${inScope}${actionIn}${and(cs)} ${tail}`];
+    piecesOf = (cs, tail) => [
+      `SELECT e.id, e.at FROM audit_events e WHERE e.actor_id = CAST(:person AS uuid) AND ${inScope}${actionIn}${and(cs)} ${tail}`,
+    ];
     estimateWhere = `e.actor_id = CAST(:person AS uuid) AND ${inScope}${actionIn}`;
   } else {
-    const rangeOf = (groupSql: string, cs: string[], tail: string) => actions
-      ? `SELECT h.id, h.at FROM unnest(ARRAY[:actions]::text[]) AS code(action) CROSS JOIN LATERAL (
+    const rangeOf = (groupSql: string, cs: string[], tail: string) =>
+      actions
+        ? `SELECT h.id, h.at FROM unnest(ARRAY[:actions]::text[]) AS code(action) CROSS JOIN LATERAL (
            SELECT e.id, e.at FROM audit_events e WHERE ${groupSql} AND e.action = code.action${and(cs)} ${tail}) h`
-      : `SELECT e.id, e.at FROM audit_events e WHERE ${groupSql}${and(cs)} ${tail}`;
+        : `SELECT e.id, e.at FROM audit_events e WHERE ${groupSql}${and(cs)} ${tail}`;
     piecesOf = (cs, tail) => [
       `SELECT g.id, g.at FROM unnest(ARRAY[:groupIds]::uuid[]) AS scope(id) CROSS JOIN LATERAL (${rangeOf("e.group_id = scope.id", cs, tail)}) g`,
       rangeOf(personal, cs, tail),
@@ -90,7 +136,9 @@ export function auditPageSql(scope: AuditScope, filter: AuditFilter, limit: numb
   }
   const pieces = piecesOf(pageWhere, "ORDER BY e.at DESC, e.id DESC LIMIT :limit");
   const count: CountSql = {
-    rowsSql: `SELECT id FROM (${piecesOf(where, "LIMIT :countLimit").map((p) => `(${p})`).join(" UNION ALL ")}) counted`,
+    rowsSql: `SELECT id FROM (${piecesOf(where, "LIMIT :countLimit")
+      .map((p) => `(${p})`)
+      .join(" UNION ALL ")}) counted`,
     estimateSql: `SELECT 1 FROM audit_events e WHERE ${estimateWhere}${and(where)}`,
   };
   const listSql = `WITH page AS (
@@ -120,23 +168,41 @@ async function lookUpRecords(actor: Actor, refs: Map<AuditRefType, Set<string>>)
   const known = new Map<string, KnownRecord>();
   const idsOf = (type: AuditRefType) => [...(refs.get(type) ?? [])].filter((id) => UUID.test(id));
   const scope = await readableScope(actor);
-  const can: Readable = { member: new Set(memberGroupIds(actor)), projects: new Set(scope.sharedProjectIds), series: new Set(scope.sharedSeriesIds) };
-  const opens = (r: OwnedRow) => (r.group_id !== null && can.member.has(r.group_id)) || (!!r.project_id && can.projects.has(r.project_id)) || (!!r.series_id && can.series.has(r.series_id));
+  const can: Readable = {
+    member: new Set(memberGroupIds(actor)),
+    projects: new Set(scope.sharedProjectIds),
+    series: new Set(scope.sharedSeriesIds),
+  };
+  const opens = (r: OwnedRow) =>
+    (r.group_id !== null && can.member.has(r.group_id)) ||
+    (!!r.project_id && can.projects.has(r.project_id)) ||
+    (!!r.series_id && can.series.has(r.series_id));
   const load = async (type: AuditRefType, sql: string, href: (r: OwnedRow) => string | null) => {
     const ids = idsOf(type);
     if (!ids.length) return;
     for (const r of await selectRows<OwnedRow>(sql, { ids })) known.set(`${type}:${r.id}`, { name: r.name, href: href(r) });
   };
   await Promise.all([
-    load("spectrum", "SELECT s.id, s.file_name AS name, p.group_id, s.project_id, s.series_id FROM spectra s JOIN projects p ON p.id = s.project_id WHERE s.id IN (:ids)",
-      (r) => (opens(r) ? `/spectra/${r.id}` : null)),
+    load(
+      "spectrum",
+      "SELECT s.id, s.file_name AS name, p.group_id, s.project_id, s.series_id FROM spectra s JOIN projects p ON p.id = s.project_id WHERE s.id IN (:ids)",
+      (r) => (opens(r) ? `/spectra/${r.id}` : null),
+    ),
     load("sample", "SELECT id, name, group_id FROM samples WHERE id IN (:ids)", (r) => (opens(r) ? `/samples/${r.id}` : null)),
-    load("series", "SELECT s.id, s.name, p.group_id, s.project_id, s.id AS series_id FROM series s JOIN projects p ON p.id = s.project_id WHERE s.id IN (:ids)",
-      (r) => (opens(r) ? `/series/${r.id}` : null)),
-    load("project", "SELECT id, name, group_id, id AS project_id FROM projects WHERE id IN (:ids)", (r) => (opens(r) ? `/spectra?project=${r.id}` : null)),
+    load(
+      "series",
+      "SELECT s.id, s.name, p.group_id, s.project_id, s.id AS series_id FROM series s JOIN projects p ON p.id = s.project_id WHERE s.id IN (:ids)",
+      (r) => (opens(r) ? `/series/${r.id}` : null),
+    ),
+    load("project", "SELECT id, name, group_id, id AS project_id FROM projects WHERE id IN (:ids)", (r) =>
+      opens(r) ? `/spectra?project=${r.id}` : null,
+    ),
     // the review page is for members only (collaborators never see review state)
-    load("signature", "SELECT g.id, g.kind AS name, p.group_id FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id WHERE g.id IN (:ids)",
-      (r) => (r.group_id && can.member.has(r.group_id) ? `/review/${r.id}` : null)),
+    load(
+      "signature",
+      "SELECT g.id, g.kind AS name, p.group_id FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id WHERE g.id IN (:ids)",
+      (r) => (r.group_id && can.member.has(r.group_id) ? `/review/${r.id}` : null),
+    ),
     load("user", "SELECT id, name, NULL AS group_id FROM users WHERE id IN (:ids)", () => null),
   ]);
   for (const [key, value] of known) {
@@ -146,7 +212,12 @@ async function lookUpRecords(actor: Actor, refs: Map<AuditRefType, Set<string>>)
 }
 
 const toInput = (r: EventRow): AuditEventInput => ({
-  action: r.action, actorId: r.actor_id, actorLabel: r.actor_label, targetType: r.target_type, targetId: r.target_id, details: r.details ?? {},
+  action: r.action,
+  actorId: r.actor_id,
+  actorLabel: r.actor_label,
+  targetType: r.target_type,
+  targetId: r.target_id,
+  details: r.details ?? {},
 });
 
 /** The events of a page as sentences, with their records looked up once for all of them. */
@@ -171,7 +242,9 @@ export async function listAuditPage(actor: Actor, filter: AuditFilter, limit = A
   const [{ rows, next }, total] = await Promise.all([auditRows(scope, filter, limit), fastCount(count, { ...countParams, ...params })]);
   const sentences = await describeRows(actor, rows);
   const byId = new Map(rows.map((r, i) => [r.id, { row: r, parts: sentences[i]! }]));
-  const folded = foldSignIns(rows.map((r) => ({ id: r.id, at: r.at.toISOString(), action: r.action, actorKey: r.actor_id ?? r.actor_label })));
+  const folded = foldSignIns(
+    rows.map((r) => ({ id: r.id, at: r.at.toISOString(), action: r.action, actorKey: r.actor_id ?? r.actor_label })),
+  );
   const lines = folded.map((line): AuditLine => {
     if (line.kind === "event") {
       const { row, parts } = byId.get(line.event.id)!;
@@ -179,7 +252,13 @@ export async function listAuditPage(actor: Actor, filter: AuditFilter, limit = A
     }
     const first = byId.get(line.events[0]!.id)!;
     const name = first.row.actor_name || first.row.actor_label || "someone";
-    return { kind: "sign-ins", id: `${line.events[0]!.id}-${line.count}`, at: line.last, count: line.count, text: foldedSentence(name, line.count, line.first, line.last) };
+    return {
+      kind: "sign-ins",
+      id: `${line.events[0]!.id}-${line.count}`,
+      at: line.last,
+      count: line.count,
+      text: foldedSentence(name, line.count, line.first, line.last),
+    };
   });
   return { lines, next, count: total };
 }
@@ -189,27 +268,51 @@ export async function auditPeople(actor: Actor): Promise<{ id: string; name: str
   const groupIds = stewardGroupIds(actor);
   if (!groupIds.length) return [];
   return selectRows<{ id: string; name: string }>(
-    `SELECT DISTINCT u.id, u.name FROM users u JOIN memberships m ON m.user_id = u.id WHERE m.group_id IN (:groupIds) ORDER BY u.name, u.id`, { groupIds },
+    `SELECT DISTINCT u.id, u.name FROM users u JOIN memberships m ON m.user_id = u.id WHERE m.group_id IN (:groupIds) ORDER BY u.name, u.id`,
+    { groupIds },
   );
 }
 
 export const auditCategoryOptions = AUDIT_CATEGORIES.map((c) => ({ value: c, label: AUDIT_CATEGORY_LABELS[c] }));
 
 export type AuditJsonEvent = {
-  id: string; at: string; actor: string; actorId: string | null; action: string; category: AuditCategory | null;
-  targetType: string | null; targetId: string | null; details: Record<string, unknown>; sentence: string;
+  id: string;
+  at: string;
+  actor: string;
+  actorId: string | null;
+  action: string;
+  category: AuditCategory | null;
+  targetType: string | null;
+  targetId: string | null;
+  details: Record<string, unknown>;
+  sentence: string;
 };
 
 /** One page for the API: raw codes and full details, with the sentence beside them. */
-export async function listAuditJson(actor: Actor, filter: AuditFilter, limit: number): Promise<{ events: AuditJsonEvent[]; next: string | null } | null> {
+export async function listAuditJson(
+  actor: Actor,
+  filter: AuditFilter,
+  limit: number,
+): Promise<{ events: AuditJsonEvent[]; next: string | null } | null> {
   const scope = auditScopeOf(actor);
   if (!scope) return null;
   const { rows, next } = await auditRows(scope, filter, limit);
   const sentences = await describeRows(actor, rows);
-  return { next, events: rows.map((r, i) => ({
-    id: r.id, at: r.at.toISOString(), actor: r.actor_label || r.actor_id || "system", actorId: r.actor_id, action: r.action, category: categoryOf(r.action),
-    targetType: r.target_type, targetId: r.target_id, details: r.details ?? {}, sentence: plainText(sentences[i]!),
-  })) };
+  return {
+    next,
+    events: rows.map((r, i) => ({
+      id: r.id,
+      at: r.at.toISOString(),
+      actor: r.actor_label || r.actor_id || "system",
+      actorId: r.actor_id,
+      action: r.action,
+      category: categoryOf(r.action),
+      targetType: r.target_type,
+      targetId: r.target_id,
+      details: r.details ?? {},
+      sentence: plainText(sentences[i]!),
+    })),
+  };
 }
 
 const CSV_HEADER = "id,at,actor,action,target,details,category,sentence";
@@ -234,10 +337,21 @@ export function auditCsvStream(actor: Actor, filter: AuditFilter): ReadableStrea
       }
       const { rows, next } = await auditRows(scope, { ...filter, after }, CSV_BATCH);
       const sentences = await describeRows(actor, rows);
-      const text = rows.map((r, i) => csvLine([
-        r.id, r.at.toISOString(), r.actor_label || r.actor_id || "system", r.action, r.target_type ? `${r.target_type} ${r.target_id ?? ""}`.trim() : "",
-        JSON.stringify(r.details ?? {}), categoryOf(r.action) ?? "", plainText(sentences[i]!),
-      ]) + "\r\n").join("");
+      const text = rows
+        .map(
+          (r, i) =>
+            csvLine([
+              r.id,
+              r.at.toISOString(),
+              r.actor_label || r.actor_id || "system",
+              r.action,
+              r.target_type ? `${r.target_type} ${r.target_id ?? ""}`.trim() : "",
+              JSON.stringify(r.details ?? {}),
+              categoryOf(r.action) ?? "",
+              plainText(sentences[i]!),
+            ]) + "\r\n",
+        )
+        .join("");
       if (text) controller.enqueue(encoder.encode(text));
       if (!next) controller.close();
       else after = next;

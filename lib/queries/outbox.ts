@@ -16,8 +16,10 @@ export async function listOutbox(): Promise<OutboxMessage[] | null> {
   const res = await fetch(`${base}/messages`, { cache: "no-store", signal: AbortSignal.timeout(2000) });
   if (!res.ok) throw new Error(`the mail capture answered ${res.status}`);
   const list = (await res.json()) as (Omit<OutboxMessage, "body"> & { raw: string })[];
-  return Promise.all(list.slice(0, 100).map(async ({ raw, ...m }) => {
-    const { subject, text } = await bodyOf(raw);
-    return { ...m, subject: subject ?? m.subject, body: text };
-  }));
+  return Promise.all(
+    list.slice(0, 100).map(async ({ raw, ...m }) => {
+      const { subject, text } = await bodyOf(raw);
+      return { ...m, subject: subject ?? m.subject, body: text };
+    }),
+  );
 }

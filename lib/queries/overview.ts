@@ -21,17 +21,20 @@ export async function getOverview(actor: Actor): Promise<Overview | null> {
   const [statusRows, counts, recent, awaiting] = await Promise.all([
     selectRows<{ status: string; n: string }>(
       `SELECT s.status, count(*) AS n FROM spectra s JOIN projects p ON p.id = s.project_id
-       WHERE p.group_id IN (:groupIds) GROUP BY s.status`, replacements,
+       WHERE p.group_id IN (:groupIds) GROUP BY s.status`,
+      replacements,
     ),
     selectRows<{ samples: string; series: string }>(
       `SELECT
          (SELECT count(*) FROM samples WHERE group_id IN (:groupIds)) AS samples,
-         (SELECT count(*) FROM series r JOIN projects p ON p.id = r.project_id WHERE p.group_id IN (:groupIds)) AS series`, replacements,
+         (SELECT count(*) FROM series r JOIN projects p ON p.id = r.project_id WHERE p.group_id IN (:groupIds)) AS series`,
+      replacements,
     ),
     selectRows<{ id: string; kind: FlagKind; significance: number; spectrum_id: string; file_name: string; created_at: Date }>(
       `SELECT g.id, g.kind, g.significance, g.spectrum_id, s.file_name, g.created_at
        FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
-       WHERE p.group_id IN (:groupIds) AND ${CURRENT_SIGNATURE} ORDER BY g.created_at DESC LIMIT 8`, replacements,
+       WHERE p.group_id IN (:groupIds) AND ${CURRENT_SIGNATURE} ORDER BY g.created_at DESC LIMIT 8`,
+      replacements,
     ),
     awaitingReviewCounts(groupIds),
   ]);
@@ -41,9 +44,12 @@ export async function getOverview(actor: Actor): Promise<Overview | null> {
     samples: Number(counts[0]?.samples ?? 0),
     series: Number(counts[0]?.series ?? 0),
     recentSignatures: recent.map((r) => ({
-      id: r.id, kind: r.kind, significance: r.significance, spectrumId: r.spectrum_id, fileName: r.file_name,
+      id: r.id,
+      kind: r.kind,
+      significance: r.significance,
+      spectrumId: r.spectrum_id,
+      fileName: r.file_name,
       createdAt: new Date(r.created_at).toISOString(),
     })),
   };
 }
-

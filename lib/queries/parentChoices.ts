@@ -3,8 +3,18 @@ import type { Technique } from "@/lib/engine";
 import type { ParentCandidate, ParentTarget } from "@/lib/parents/orderParentChoices";
 
 type Row = {
-  id: string; project_id: string; file_name: string; technique: Technique; sample_id: string | null; sample_name: string | null; material: string | null;
-  created_at: Date; first_exciton_ev: number | null; fwhm_mev: number | null; min_ev: number | null; max_ev: number | null;
+  id: string;
+  project_id: string;
+  file_name: string;
+  technique: Technique;
+  sample_id: string | null;
+  sample_name: string | null;
+  material: string | null;
+  created_at: Date;
+  first_exciton_ev: number | null;
+  fwhm_mev: number | null;
+  min_ev: number | null;
+  max_ev: number | null;
 };
 
 /**
@@ -35,8 +45,15 @@ export async function listParentCandidates(projectIds: readonly string[], limitP
   for (const r of rows) {
     const list = out.get(r.project_id) ?? [];
     list.push({
-      id: r.id, fileName: r.file_name, technique: r.technique, sampleId: r.sample_id, sampleName: r.sample_name, material: r.material,
-      createdAt: new Date(r.created_at).toISOString(), firstExcitonEv: r.first_exciton_ev, fwhmMeV: r.fwhm_mev,
+      id: r.id,
+      fileName: r.file_name,
+      technique: r.technique,
+      sampleId: r.sample_id,
+      sampleName: r.sample_name,
+      material: r.material,
+      createdAt: new Date(r.created_at).toISOString(),
+      firstExcitonEv: r.first_exciton_ev,
+      fwhmMeV: r.fwhm_mev,
       rangeEv: r.min_ev !== null && r.max_ev !== null ? [r.min_ev, r.max_ev] : null,
     });
     out.set(r.project_id, list);
@@ -48,7 +65,10 @@ export async function listParentCandidates(projectIds: readonly string[], limitP
 export async function parentSampleIds(sampleIds: readonly string[]): Promise<Map<string, string[]>> {
   const out = new Map<string, string[]>();
   if (sampleIds.length === 0) return out;
-  const rows = await selectRows<{ sample_id: string; parent_id: string }>(`SELECT sample_id, parent_id FROM sample_parents WHERE sample_id IN (:ids)`, { ids: [...sampleIds] });
+  const rows = await selectRows<{ sample_id: string; parent_id: string }>(
+    `SELECT sample_id, parent_id FROM sample_parents WHERE sample_id IN (:ids)`,
+    { ids: [...sampleIds] },
+  );
   for (const r of rows) out.set(r.sample_id, [...(out.get(r.sample_id) ?? []), r.parent_id]);
   return out;
 }
@@ -60,8 +80,16 @@ export async function parentSampleIds(sampleIds: readonly string[]): Promise<Map
  */
 export async function getRerunParents(spectrumId: string): Promise<{ candidates: ParentCandidate[]; target: ParentTarget } | null> {
   const [s] = await selectRows<{
-    id: string; project_id: string; technique: Technique; sample_id: string | null; sample_name: string | null; material: string | null;
-    first_exciton_ev: number | null; fwhm_mev: number | null; min_ev: number | null; max_ev: number | null;
+    id: string;
+    project_id: string;
+    technique: Technique;
+    sample_id: string | null;
+    sample_name: string | null;
+    material: string | null;
+    first_exciton_ev: number | null;
+    fwhm_mev: number | null;
+    min_ev: number | null;
+    max_ev: number | null;
   }>(
     `SELECT s.id, s.project_id, s.technique, s.sample_id, sm.name AS sample_name, sm.material,
             fx.energy_ev AS first_exciton_ev, fx.fwhm_mev, run.min_ev, run.max_ev
@@ -75,14 +103,22 @@ export async function getRerunParents(spectrumId: string): Promise<{ candidates:
     { spectrumId },
   );
   if (!s) return null;
-  const [candidates, parents] = await Promise.all([listParentCandidates([s.project_id]), s.sample_id ? parentSampleIds([s.sample_id]) : new Map<string, string[]>()]);
+  const [candidates, parents] = await Promise.all([
+    listParentCandidates([s.project_id]),
+    s.sample_id ? parentSampleIds([s.sample_id]) : new Map<string, string[]>(),
+  ]);
   return {
     candidates: candidates.get(s.project_id) ?? [],
     target: {
       technique: s.technique,
       spectrumId: s.id,
-      sample: s.sample_id ? { id: s.sample_id, name: s.sample_name ?? "", material: s.material ?? "", parentIds: parents.get(s.sample_id) ?? [] } : null,
-      side: s.min_ev !== null && s.max_ev !== null ? { technique: s.technique, rangeEv: [s.min_ev, s.max_ev], bandEv: s.first_exciton_ev, fwhmMeV: s.fwhm_mev } : null,
+      sample: s.sample_id
+        ? { id: s.sample_id, name: s.sample_name ?? "", material: s.material ?? "", parentIds: parents.get(s.sample_id) ?? [] }
+        : null,
+      side:
+        s.min_ev !== null && s.max_ev !== null
+          ? { technique: s.technique, rangeEv: [s.min_ev, s.max_ev], bandEv: s.first_exciton_ev, fwhmMeV: s.fwhm_mev }
+          : null,
     },
   };
 }

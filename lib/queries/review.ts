@@ -10,11 +10,25 @@ import { CURRENT_SIGNATURE } from "@/lib/review/counts";
 import { models } from "@/models";
 
 export type ReviewItem = {
-  id: string; kind: FlagKind; energyEv: number | null; fraction: number | null; shiftMeV: number | null; significance: number;
+  id: string;
+  kind: FlagKind;
+  energyEv: number | null;
+  fraction: number | null;
+  shiftMeV: number | null;
+  significance: number;
   /** The magnitude in its own unit, whatever the kind (migrations/0005). */
-  magnitude: number | null; unit: string | null; uncertainty: number | null;
-  reviewState: string; spectrumId: string; fileName: string; sampleId: string | null; sampleName: string | null;
-  projectId: string; projectName: string; createdAt: string; lastDecisionAt: string | null;
+  magnitude: number | null;
+  unit: string | null;
+  uncertainty: number | null;
+  reviewState: string;
+  spectrumId: string;
+  fileName: string;
+  sampleId: string | null;
+  sampleName: string | null;
+  projectId: string;
+  projectName: string;
+  createdAt: string;
+  lastDecisionAt: string | null;
   technique: Technique;
 };
 
@@ -32,11 +46,27 @@ export type ReviewQueue = {
 };
 
 type Row = {
-  sort_value?: string; cursor_at?: string;
-  id: string; kind: FlagKind; energy_ev: number | null; fraction: number | null; shift_mev: number | null; significance: number;
-  magnitude: number | null; unit: string | null; uncertainty: number | null;
-  review_state: string; spectrum_id: string; file_name: string; sample_id: string | null; sample_name: string | null;
-  project_id: string; project_name: string; created_at: Date; last_decision_at: Date | null; technique: Technique;
+  sort_value?: string;
+  cursor_at?: string;
+  id: string;
+  kind: FlagKind;
+  energy_ev: number | null;
+  fraction: number | null;
+  shift_mev: number | null;
+  significance: number;
+  magnitude: number | null;
+  unit: string | null;
+  uncertainty: number | null;
+  review_state: string;
+  spectrum_id: string;
+  file_name: string;
+  sample_id: string | null;
+  sample_name: string | null;
+  project_id: string;
+  project_name: string;
+  created_at: Date;
+  last_decision_at: Date | null;
+  technique: Technique;
 };
 
 /**
@@ -56,14 +86,27 @@ const SORT_KEY: Record<QueueQuery["sort"], { sql: string; cast: string }> = {
 /** Samples offered in the queue's filter: the groups' most recent (a group may have thousands). */
 const SAMPLE_CHOICES = 200;
 
-
 function toItem(r: Row): ReviewItem {
   return {
-    id: r.id, kind: r.kind, energyEv: r.energy_ev, fraction: r.fraction, shiftMeV: r.shift_mev, significance: r.significance,
-    magnitude: r.magnitude, unit: r.unit, uncertainty: r.uncertainty,
-    reviewState: r.review_state, spectrumId: r.spectrum_id, fileName: r.file_name, sampleId: r.sample_id, sampleName: r.sample_name,
-    projectId: r.project_id, projectName: r.project_name, createdAt: new Date(r.created_at).toISOString(),
-    lastDecisionAt: r.last_decision_at ? new Date(r.last_decision_at).toISOString() : null, technique: r.technique,
+    id: r.id,
+    kind: r.kind,
+    energyEv: r.energy_ev,
+    fraction: r.fraction,
+    shiftMeV: r.shift_mev,
+    significance: r.significance,
+    magnitude: r.magnitude,
+    unit: r.unit,
+    uncertainty: r.uncertainty,
+    reviewState: r.review_state,
+    spectrumId: r.spectrum_id,
+    fileName: r.file_name,
+    sampleId: r.sample_id,
+    sampleName: r.sample_name,
+    projectId: r.project_id,
+    projectName: r.project_name,
+    createdAt: new Date(r.created_at).toISOString(),
+    lastDecisionAt: r.last_decision_at ? new Date(r.last_decision_at).toISOString() : null,
+    technique: r.technique,
   };
 }
 
@@ -85,15 +128,20 @@ export async function listReviewQueue(actor: Actor, q: QueueQuery): Promise<Revi
       `SELECT id, name FROM (
          (SELECT id, name FROM samples WHERE group_id IN (:groupIds) ORDER BY created_at DESC, id DESC LIMIT ${SAMPLE_CHOICES})
          UNION SELECT id, name FROM samples WHERE id = CAST(:chosen AS uuid) AND group_id IN (:groupIds)
-       ) offered ORDER BY name`, { groupIds, chosen: q.sample ?? null },
+       ) offered ORDER BY name`,
+      { groupIds, chosen: q.sample ?? null },
     ),
   ]);
   const shown = rows.slice(0, q.pageSize);
   const last = shown[shown.length - 1];
   return {
-    items: shown.map(toItem), total: count.value, totalExact: count.exact, pageSize: q.pageSize,
+    items: shown.map(toItem),
+    total: count.value,
+    totalExact: count.exact,
+    pageSize: q.pageSize,
     next: rows.length > q.pageSize && last ? encodeSortedCursor({ value: last.sort_value!, at: last.cursor_at!, id: last.id }) : null,
-    projects, samples,
+    projects,
+    samples,
   };
 }
 
@@ -130,8 +178,13 @@ export function reviewQueueSql(groupIds: string[], q: QueueQuery) {
     estimateSql: `SELECT 1 ${from}`,
   };
   return {
-    listSql, count,
-    params: { ...params, limit: q.pageSize + 1, ...(position ? { afterValue: position.value, afterAt: position.at, afterId: position.id } : {}) },
+    listSql,
+    count,
+    params: {
+      ...params,
+      limit: q.pageSize + 1,
+      ...(position ? { afterValue: position.value, afterAt: position.at, afterId: position.id } : {}),
+    },
   };
 }
 
@@ -139,20 +192,45 @@ export function reviewQueueSql(groupIds: string[], q: QueueQuery) {
 function queueFilterSql(groupIds: string[], q: QueueQuery): { where: string[]; params: Record<string, unknown> } {
   const where = ["p.group_id IN (:groupIds)"];
   const params: Record<string, unknown> = { groupIds };
-  if (q.state !== "all") { where.push("g.review_state = :state"); params.state = q.state; }
-  if (q.project) { where.push("p.id = :project"); params.project = q.project; }
-  if (q.sample) { where.push("s.sample_id = :sample"); params.sample = q.sample; }
-  if (q.kind) { where.push("g.kind = :kind"); params.kind = q.kind; }
-  if (q.minSignificance !== undefined) { where.push("g.significance >= :minSig"); params.minSig = q.minSignificance; }
-  if (q.from) { where.push("g.created_at >= CAST(:from AS date)"); params.from = q.from; }
-  if (q.to) { where.push("g.created_at < CAST(:to AS date) + 1"); params.to = q.to; }
+  if (q.state !== "all") {
+    where.push("g.review_state = :state");
+    params.state = q.state;
+  }
+  if (q.project) {
+    where.push("p.id = :project");
+    params.project = q.project;
+  }
+  if (q.sample) {
+    where.push("s.sample_id = :sample");
+    params.sample = q.sample;
+  }
+  if (q.kind) {
+    where.push("g.kind = :kind");
+    params.kind = q.kind;
+  }
+  if (q.minSignificance !== undefined) {
+    where.push("g.significance >= :minSig");
+    params.minSig = q.minSignificance;
+  }
+  if (q.from) {
+    where.push("g.created_at >= CAST(:from AS date)");
+    params.from = q.from;
+  }
+  if (q.to) {
+    where.push("g.created_at < CAST(:to AS date) + 1");
+    params.to = q.to;
+  }
   // Only flags of each spectrum's newest finished run: a re-analysis supersedes the earlier ones.
   where.push(CURRENT_SIGNATURE);
   return { where, params };
 }
 
 export type ReviewHistoryEntry = {
-  id: string; decision: string; comment: string; reviewerName: string | null; createdAt: string;
+  id: string;
+  decision: string;
+  comment: string;
+  reviewerName: string | null;
+  createdAt: string;
   /** decision: a lead's; carried / not-carried: from the matched signature of an earlier run; undo: a decision taken back. */
   origin: "decision" | "carried" | "not-carried" | "undo";
   previousState: string | null;
@@ -181,11 +259,21 @@ export type SignatureReview = ReviewItem & {
 /** One signature with its decision history, for members of the owning group; null otherwise. */
 export async function getSignatureReview(actor: Actor, id: string): Promise<SignatureReview | null> {
   models();
-  const [r] = await selectRows<Row & {
-    group_id: string; reference_spectrum_id: string | null; reference_file_name: string | null; technique: Technique; details: Record<string, unknown>;
-    run_id: string; matched_signature_id: string | null; superseded_by_run_id: string | null; superseded_at: Date | null;
-    successor_id: string | null; successor_state: string | null;
-  }>(
+  const [r] = await selectRows<
+    Row & {
+      group_id: string;
+      reference_spectrum_id: string | null;
+      reference_file_name: string | null;
+      technique: Technique;
+      details: Record<string, unknown>;
+      run_id: string;
+      matched_signature_id: string | null;
+      superseded_by_run_id: string | null;
+      superseded_at: Date | null;
+      successor_id: string | null;
+      successor_state: string | null;
+    }
+  >(
     `SELECT g.id, g.kind, g.energy_ev, g.fraction, g.shift_mev, g.magnitude, g.unit, g.uncertainty, g.significance, g.review_state, g.spectrum_id, s.file_name,
             s.sample_id, sm.name AS sample_name, p.id AS project_id, p.name AS project_name, g.created_at, p.group_id,
             run.reference_spectrum_id, rs.file_name AS reference_file_name, s.technique, g.details,
@@ -196,19 +284,29 @@ export async function getSignatureReview(actor: Actor, id: string): Promise<Sign
      JOIN analysis_runs run ON run.id = g.run_id
      LEFT JOIN spectra rs ON rs.id = run.reference_spectrum_id
      LEFT JOIN signatures nx ON nx.matched_signature_id = g.id AND nx.run_id = g.superseded_by_run_id
-     LEFT JOIN samples sm ON sm.id = s.sample_id WHERE g.id = :id`, { id },
+     LEFT JOIN samples sm ON sm.id = s.sample_id WHERE g.id = :id`,
+    { id },
   );
   if (!r) return null;
   const role = roleIn(actor, r.group_id);
   if (role === null || role === "collaborator") return null;
   const history = await selectRows<{
-    id: string; decision: string; comment: string; reviewer_name: string | null; created_at: Date; origin: ReviewHistoryEntry["origin"];
-    previous_state: string | null; carried_from_signature_id: string | null; carried_from_run_id: string | null; undoes_review_id: string | null;
+    id: string;
+    decision: string;
+    comment: string;
+    reviewer_name: string | null;
+    created_at: Date;
+    origin: ReviewHistoryEntry["origin"];
+    previous_state: string | null;
+    carried_from_signature_id: string | null;
+    carried_from_run_id: string | null;
+    undoes_review_id: string | null;
   }>(
     `SELECT v.id, v.decision, v.comment, u.name AS reviewer_name, v.created_at, v.origin, v.previous_state,
             v.carried_from_signature_id, v.carried_from_run_id, v.undoes_review_id
        FROM reviews v LEFT JOIN users u ON u.id = v.reviewer_id
-      WHERE v.signature_id = :id ORDER BY v.created_at DESC, v.id DESC`, { id },
+      WHERE v.signature_id = :id ORDER BY v.created_at DESC, v.id DESC`,
+    { id },
   );
   const details = r.details ?? {};
   return {
@@ -221,13 +319,26 @@ export async function getSignatureReview(actor: Actor, id: string): Promise<Sign
     message: typeof details.message === "string" ? details.message : null,
     runId: r.run_id,
     matchedSignatureId: r.matched_signature_id,
-    supersededBy: r.superseded_by_run_id && r.superseded_at
-      ? { runId: r.superseded_by_run_id, at: new Date(r.superseded_at).toISOString(), matchId: r.successor_id, matchState: r.successor_state }
-      : null,
+    supersededBy:
+      r.superseded_by_run_id && r.superseded_at
+        ? {
+            runId: r.superseded_by_run_id,
+            at: new Date(r.superseded_at).toISOString(),
+            matchId: r.successor_id,
+            matchState: r.successor_state,
+          }
+        : null,
     history: history.map((h) => ({
-      id: h.id, decision: h.decision, comment: h.comment, reviewerName: h.reviewer_name, createdAt: new Date(h.created_at).toISOString(),
-      origin: h.origin, previousState: h.previous_state, carriedFromSignatureId: h.carried_from_signature_id,
-      carriedFromRunId: h.carried_from_run_id, undoesReviewId: h.undoes_review_id,
+      id: h.id,
+      decision: h.decision,
+      comment: h.comment,
+      reviewerName: h.reviewer_name,
+      createdAt: new Date(h.created_at).toISOString(),
+      origin: h.origin,
+      previousState: h.previous_state,
+      carriedFromSignatureId: h.carried_from_signature_id,
+      carriedFromRunId: h.carried_from_run_id,
+      undoesReviewId: h.undoes_review_id,
     })),
   };
 }

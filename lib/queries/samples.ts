@@ -25,8 +25,18 @@ export type SampleRow = {
 
 function toRow(s: Sample, groupName: string, projectName: string | null, parentNames: string[], spectrumCount: number): SampleRow {
   return {
-    id: s.id, name: s.name, material: s.material, coreShell: s.coreShell, ligand: s.ligand, solvent: s.solvent,
-    groupName, projectName, hazards: hazardsOf(s), parentNames, spectrumCount, createdAt: s.createdAt.toISOString(),
+    id: s.id,
+    name: s.name,
+    material: s.material,
+    coreShell: s.coreShell,
+    ligand: s.ligand,
+    solvent: s.solvent,
+    groupName,
+    projectName,
+    hazards: hazardsOf(s),
+    parentNames,
+    spectrumCount,
+    createdAt: s.createdAt.toISOString(),
   };
 }
 
@@ -84,12 +94,17 @@ export async function listSamples(actor: Actor, options: { q?: string; after?: s
   const [samples, groups, projects, parents, counts] = await Promise.all([
     Sample.findAll({ where: { id: { [Op.in]: ids } } }),
     Group.findAll({ where: { id: { [Op.in]: groupIds } } }),
-    selectRows<{ id: string; name: string }>(`SELECT p.id, p.name FROM projects p WHERE p.id IN (SELECT project_id FROM samples WHERE id IN (:ids))`, { ids }),
+    selectRows<{ id: string; name: string }>(
+      `SELECT p.id, p.name FROM projects p WHERE p.id IN (SELECT project_id FROM samples WHERE id IN (:ids))`,
+      { ids },
+    ),
     selectRows<{ sample_id: string; name: string }>(
-      `SELECT sp.sample_id, p.name FROM sample_parents sp JOIN samples p ON p.id = sp.parent_id WHERE sp.sample_id IN (:ids)`, { ids },
+      `SELECT sp.sample_id, p.name FROM sample_parents sp JOIN samples p ON p.id = sp.parent_id WHERE sp.sample_id IN (:ids)`,
+      { ids },
     ),
     selectRows<{ sample_id: string; n: string }>(
-      `SELECT sample_id, count(*) AS n FROM spectra WHERE sample_id IN (:ids) GROUP BY sample_id`, { ids },
+      `SELECT sample_id, count(*) AS n FROM spectra WHERE sample_id IN (:ids) GROUP BY sample_id`,
+      { ids },
     ),
   ]);
   const byId = new Map(samples.map((x) => [x.id, x]));
@@ -100,7 +115,15 @@ export async function listSamples(actor: Actor, options: { q?: string; after?: s
     const x = byId.get(id);
     if (!x) return [];
     const parentNames = parents.filter((p) => p.sample_id === id).map((p) => p.name);
-    return [toRow(x, groupName.get(x.groupId) ?? "", x.projectId ? projectName.get(x.projectId) ?? null : null, parentNames, spectrumCount.get(id) ?? 0)];
+    return [
+      toRow(
+        x,
+        groupName.get(x.groupId) ?? "",
+        x.projectId ? (projectName.get(x.projectId) ?? null) : null,
+        parentNames,
+        spectrumCount.get(id) ?? 0,
+      ),
+    ];
   });
   return { rows, next, count };
 }
@@ -111,9 +134,18 @@ export type SampleDetail = SampleRow & {
   parents: { id: string; name: string }[];
   children: { id: string; name: string }[];
   spectra: {
-    id: string; fileName: string; technique: string; status: string; createdAt: string;
+    id: string;
+    fileName: string;
+    technique: string;
+    status: string;
+    createdAt: string;
     /** From the latest finished analysis report's `derived` field. */
-    derived: { diameterNm: number | null; concentrationMolPerL: number | null; extinctionPerMPerCm: number | null; sizingSource: string | null } | null;
+    derived: {
+      diameterNm: number | null;
+      concentrationMolPerL: number | null;
+      extinctionPerMPerCm: number | null;
+      sizingSource: string | null;
+    } | null;
   }[];
 };
 
@@ -137,22 +169,45 @@ export async function getSample(actor: Actor, id: string): Promise<SampleDetail 
   const derivedRows = spectra.length
     ? await selectRows<{ spectrum_id: string; derived: Record<string, unknown> | null }>(
         `SELECT DISTINCT ON (r.spectrum_id) r.spectrum_id, r.report->'derived' AS derived FROM analysis_runs r
-         WHERE r.spectrum_id IN (:ids) AND r.status = 'done' ORDER BY r.spectrum_id, r.created_at DESC`, { ids: spectra.map((s) => s.id) },
+         WHERE r.spectrum_id IN (:ids) AND r.status = 'done' ORDER BY r.spectrum_id, r.created_at DESC`,
+        { ids: spectra.map((s) => s.id) },
       )
     : [];
   const num = (v: unknown) => (typeof v === "number" && Number.isFinite(v) ? v : null);
-  const derivedOf = new Map(derivedRows.map((r) => [r.spectrum_id, r.derived ? {
-    diameterNm: num(r.derived.diameterNm), concentrationMolPerL: num(r.derived.concentrationMolPerL),
-    extinctionPerMPerCm: num(r.derived.extinctionPerMPerCm), sizingSource: typeof r.derived.sizingSource === "string" ? r.derived.sizingSource : null,
-  } : null]));
+  const derivedOf = new Map(
+    derivedRows.map((r) => [
+      r.spectrum_id,
+      r.derived
+        ? {
+            diameterNm: num(r.derived.diameterNm),
+            concentrationMolPerL: num(r.derived.concentrationMolPerL),
+            extinctionPerMPerCm: num(r.derived.extinctionPerMPerCm),
+            sizingSource: typeof r.derived.sizingSource === "string" ? r.derived.sizingSource : null,
+          }
+        : null,
+    ]),
+  );
   const parents = parentLinks.map((l) => ({ id: l.parentId, name: nameOf.get(l.parentId) ?? "" }));
   return {
-    ...toRow(sample, group?.name ?? "", project?.name ?? null, parents.map((p) => p.name), spectra.length),
+    ...toRow(
+      sample,
+      group?.name ?? "",
+      project?.name ?? null,
+      parents.map((p) => p.name),
+      spectra.length,
+    ),
     groupId: sample.groupId,
     notes: sample.notes,
     parents,
     children: childLinks.map((l) => ({ id: l.sampleId, name: nameOf.get(l.sampleId) ?? "" })),
-    spectra: spectra.map((s) => ({ id: s.id, fileName: s.fileName, technique: s.technique, status: s.status, createdAt: s.createdAt.toISOString(), derived: derivedOf.get(s.id) ?? null })),
+    spectra: spectra.map((s) => ({
+      id: s.id,
+      fileName: s.fileName,
+      technique: s.technique,
+      status: s.status,
+      createdAt: s.createdAt.toISOString(),
+      derived: derivedOf.get(s.id) ?? null,
+    })),
   };
 }
 
@@ -161,6 +216,10 @@ export async function listSampleChoices(actor: Actor): Promise<{ id: string; nam
   models();
   const groupIds = memberGroupIds(actor);
   if (groupIds.length === 0) return [];
-  const rows = await Sample.findAll({ where: { groupId: { [Op.in]: groupIds } }, attributes: ["id", "name", "groupId"], order: [["name", "ASC"]] });
+  const rows = await Sample.findAll({
+    where: { groupId: { [Op.in]: groupIds } },
+    attributes: ["id", "name", "groupId"],
+    order: [["name", "ASC"]],
+  });
   return rows.map((r) => ({ id: r.id, name: r.name, groupId: r.groupId }));
 }

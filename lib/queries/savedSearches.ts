@@ -21,10 +21,10 @@ export async function saveSearch(actor: Actor, name: string, query: string): Pro
 }
 
 export async function deleteSavedSearch(actor: Actor, id: string): Promise<boolean> {
-  const rows = await sequelize().query<{ id: string }>(
-    "DELETE FROM saved_searches WHERE id = :id AND user_id = :userId RETURNING id",
-    { replacements: { id, userId: actor.id }, type: QueryTypes.SELECT },
-  );
+  const rows = await sequelize().query<{ id: string }>("DELETE FROM saved_searches WHERE id = :id AND user_id = :userId RETURNING id", {
+    replacements: { id, userId: actor.id },
+    type: QueryTypes.SELECT,
+  });
   return rows.length > 0;
 }
 
@@ -34,12 +34,15 @@ export async function deleteSavedSearch(actor: Actor, id: string): Promise<boole
  */
 export async function listSavedSearches(actor: Actor): Promise<SavedSearch[]> {
   const saved = await selectRows<{ id: string; name: string; query: string }>(
-    "SELECT id, name, query FROM saved_searches WHERE user_id = :userId ORDER BY name LIMIT 50", { userId: actor.id },
+    "SELECT id, name, query FROM saved_searches WHERE user_id = :userId ORDER BY name LIMIT 50",
+    { userId: actor.id },
   );
-  return Promise.all(saved.map(async (s) => {
-    const parsed = spectrumSearchSchema.safeParse(Object.fromEntries(new URLSearchParams(s.query)));
-    if (!parsed.success) return { ...s, count: null };
-    const page = await listSpectra(actor, { ...parsed.data, after: undefined, limit: 1 });
-    return { ...s, count: page?.count ?? { value: 0, exact: true } };
-  }));
+  return Promise.all(
+    saved.map(async (s) => {
+      const parsed = spectrumSearchSchema.safeParse(Object.fromEntries(new URLSearchParams(s.query)));
+      if (!parsed.success) return { ...s, count: null };
+      const page = await listSpectra(actor, { ...parsed.data, after: undefined, limit: 1 });
+      return { ...s, count: page?.count ?? { value: 0, exact: true } };
+    }),
+  );
 }

@@ -8,7 +8,9 @@ import { Project, models } from "@/models";
 import type { SeriesDetail } from "./series-detail";
 
 export type PureCandidate = {
-  spectrumId: string; fileName: string; sampleName: string | null;
+  spectrumId: string;
+  fileName: string;
+  sampleName: string | null;
   /** The engine material of the upload, else guessed from the sample's material text; null when neither names one. */
   material: MaterialName | null;
   /** First exciton of the latest finished analysis, nm. */
@@ -17,7 +19,12 @@ export type PureCandidate = {
 
 export type DepletionSetupView = {
   /** The series' points with the supernatant linked to each, if any. */
-  links: { pointSpectrumId: string; pointFileName: string; value: number | null; supernatant: { spectrumId: string; fileName: string } | null }[];
+  links: {
+    pointSpectrumId: string;
+    pointFileName: string;
+    value: number | null;
+    supernatant: { spectrumId: string; fileName: string } | null;
+  }[];
   /** Absorption spectra of the project that could be linked as supernatants (empty unless the actor may add data). */
   linkable: { spectrumId: string; fileName: string; createdAt: string }[];
   /** Absorption spectra the actor may read, to serve as spectra of the pure dots. */
@@ -43,7 +50,14 @@ export async function getDepletionSetup(actor: Actor, series: SeriesDetail, proj
       `SELECT p.id AS point_id, s.id, s.file_name FROM spectra p JOIN spectra s ON s.supernatant_of_spectrum_id = p.id WHERE p.series_id = :id`,
       { id: series.id },
     ),
-    selectRows<{ id: string; file_name: string; sample_name: string | null; sample_material: string | null; material: string | null; first_exciton_nm: number | null }>(
+    selectRows<{
+      id: string;
+      file_name: string;
+      sample_name: string | null;
+      sample_material: string | null;
+      material: string | null;
+      first_exciton_nm: number | null;
+    }>(
       `SELECT s.id, s.file_name, sa.name AS sample_name, sa.material AS sample_material, s.material,
          (SELECT (r.report->'firstExciton'->>'wavelengthNm')::double precision FROM analysis_runs r
           WHERE r.spectrum_id = s.id AND r.status = 'done' ORDER BY r.created_at DESC LIMIT 1) AS first_exciton_nm
@@ -61,7 +75,9 @@ export async function getDepletionSetup(actor: Actor, series: SeriesDetail, proj
           { projectId },
         )
       : Promise.resolve([]),
-    selectRows<{ reference_spectrum_id: string | null }>(`SELECT DISTINCT reference_spectrum_id FROM spectra WHERE series_id = :id`, { id: series.id }),
+    selectRows<{ reference_spectrum_id: string | null }>(`SELECT DISTINCT reference_spectrum_id FROM spectra WHERE series_id = :id`, {
+      id: series.id,
+    }),
   ]);
   const supernatantOf = new Map(linked.map((l) => [l.point_id, { spectrumId: l.id, fileName: l.file_name }]));
   const pureCandidates: PureCandidate[] = candidates.map((c) => {
@@ -74,7 +90,12 @@ export async function getDepletionSetup(actor: Actor, series: SeriesDetail, proj
   const materialA = pureCandidates.find((c) => c.spectrumId === pureA)?.material ?? null;
   const others = materialA ? pureCandidates.filter((c) => c.material !== null && c.material !== materialA) : [];
   return {
-    links: series.points.map((p) => ({ pointSpectrumId: p.spectrumId, pointFileName: p.fileName, value: p.value, supernatant: supernatantOf.get(p.spectrumId) ?? null })),
+    links: series.points.map((p) => ({
+      pointSpectrumId: p.spectrumId,
+      pointFileName: p.fileName,
+      value: p.value,
+      supernatant: supernatantOf.get(p.spectrumId) ?? null,
+    })),
     linkable: linkable.map((l) => ({ spectrumId: l.id, fileName: l.file_name, createdAt: new Date(l.created_at).toISOString() })),
     pureCandidates,
     defaults: { pureA, pureX: others.length === 1 ? others[0]!.spectrumId : null },

@@ -26,11 +26,14 @@ export async function listSeries(actor: Actor): Promise<SeriesRow[]> {
   const rows = await Series.findAll({ where: { [Op.or]: or }, order: [["createdAt", "DESC"]], limit: 500 });
   const shownProjectIds = [...new Set(rows.map((r) => r.projectId))];
   const projects = new Map(
-    (shownProjectIds.length ? await Project.findAll({ where: { id: { [Op.in]: shownProjectIds } }, attributes: ["id", "name"] }) : []).map((p) => [p.id, p]),
+    (shownProjectIds.length ? await Project.findAll({ where: { id: { [Op.in]: shownProjectIds } }, attributes: ["id", "name"] }) : []).map(
+      (p) => [p.id, p],
+    ),
   );
   const counts = rows.length
     ? await selectRows<{ series_id: string; n: string }>(
-        `SELECT series_id, count(*) AS n FROM spectra WHERE series_id IN (:ids) GROUP BY series_id`, { ids: rows.map((r) => r.id) },
+        `SELECT series_id, count(*) AS n FROM spectra WHERE series_id IN (:ids) GROUP BY series_id`,
+        { ids: rows.map((r) => r.id) },
       )
     : [];
   const count = new Map(counts.map((c) => [c.series_id, Number(c.n)]));

@@ -35,9 +35,20 @@ export type SpectrumPage = {
 };
 
 type Row = {
-  id: string; file_name: string; technique: Technique; status: string; error_message: string | null; sample_id: string | null;
-  sample_name: string | null; project_id: string; project_name: string; uploader_name: string | null;
-  first_exciton_nm: number | null; diameter_nm: number | null; created_at: Date; cursor_at: string;
+  id: string;
+  file_name: string;
+  technique: Technique;
+  status: string;
+  error_message: string | null;
+  sample_id: string | null;
+  sample_name: string | null;
+  project_id: string;
+  project_name: string;
+  uploader_name: string | null;
+  first_exciton_nm: number | null;
+  diameter_nm: number | null;
+  created_at: Date;
+  cursor_at: string;
 };
 
 /**
@@ -133,9 +144,18 @@ export async function listSpectra(actor: Actor, search: SpectrumSearch): Promise
 
 function toRow(r: Row): SpectrumRow {
   return {
-    id: r.id, fileName: r.file_name, technique: r.technique, status: r.status, errorMessage: r.error_message,
-    sampleId: r.sample_id, sampleName: r.sample_name, projectId: r.project_id, projectName: r.project_name,
-    uploaderName: r.uploader_name, firstExcitonNm: r.first_exciton_nm, diameterNm: r.diameter_nm,
+    id: r.id,
+    fileName: r.file_name,
+    technique: r.technique,
+    status: r.status,
+    errorMessage: r.error_message,
+    sampleId: r.sample_id,
+    sampleName: r.sample_name,
+    projectId: r.project_id,
+    projectName: r.project_name,
+    uploaderName: r.uploader_name,
+    firstExcitonNm: r.first_exciton_nm,
+    diameterNm: r.diameter_nm,
     createdAt: new Date(r.created_at).toISOString(),
   };
 }

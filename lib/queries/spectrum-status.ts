@@ -10,12 +10,27 @@ import { isUuid } from "@/lib/ids";
 
 // Reads behind the scripts' API and the upload page, reshaped into the JSON they serve.
 
-export type PeakView = { energyEv: number; wavelengthNm: number; height: number; fwhmMeV: number | null; area: number | null; firstExciton: boolean };
+export type PeakView = {
+  energyEv: number;
+  wavelengthNm: number;
+  height: number;
+  fwhmMeV: number | null;
+  area: number | null;
+  firstExciton: boolean;
+};
 export type FlagView = {
-  id: string; kind: string; energyEv: number | null; fraction: number | null; shiftMeV: number | null;
-  magnitude: number | null; unit: string | null; uncertainty: number | null; significance: number;
+  id: string;
+  kind: string;
+  energyEv: number | null;
+  fraction: number | null;
+  shiftMeV: number | null;
+  magnitude: number | null;
+  unit: string | null;
+  uncertainty: number | null;
+  significance: number;
   /** Members of the owning group only; null for a collaborator (review state is the group's own business). */
-  reviewState: string | null; message: string | null;
+  reviewState: string | null;
+  message: string | null;
 };
 export type AnalysisView = {
   runId: string;
@@ -37,21 +52,54 @@ export type AnalysisView = {
   warnings: string[];
 };
 export type SpectrumView = {
-  id: string; projectId: string; sampleId: string | null; seriesId: string | null; seriesValue: number | null;
-  referenceSpectrumId: string | null; technique: string; fileName: string; sha256: string; sizeBytes: number; contentType: string;
-  solvent: string; pathLengthCm: number | null; excitationNm: number | null; axisUnit: string | null; valueUnit: string | null;
-  status: Spectrum["status"]; error: string | null; createdAt: string; updatedAt: string; rawUrl: string;
+  id: string;
+  projectId: string;
+  sampleId: string | null;
+  seriesId: string | null;
+  seriesValue: number | null;
+  referenceSpectrumId: string | null;
+  technique: string;
+  fileName: string;
+  sha256: string;
+  sizeBytes: number;
+  contentType: string;
+  solvent: string;
+  pathLengthCm: number | null;
+  excitationNm: number | null;
+  axisUnit: string | null;
+  valueUnit: string | null;
+  status: Spectrum["status"];
+  error: string | null;
+  createdAt: string;
+  updatedAt: string;
+  rawUrl: string;
 };
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
 
 export function spectrumView(s: Spectrum): SpectrumView {
   return {
-    id: s.id, projectId: s.projectId, sampleId: s.sampleId, seriesId: s.seriesId, seriesValue: s.seriesValue,
-    referenceSpectrumId: s.referenceSpectrumId, technique: s.technique, fileName: s.fileName, sha256: s.sha256,
-    sizeBytes: s.sizeBytes, contentType: s.contentType, solvent: s.solvent, pathLengthCm: s.pathLengthCm,
-    excitationNm: s.excitationNm, axisUnit: s.axisUnit, valueUnit: s.valueUnit, status: s.status, error: s.errorMessage,
-    createdAt: s.createdAt.toISOString(), updatedAt: s.updatedAt.toISOString(), rawUrl: `/api/v1/spectra/${s.id}/raw`,
+    id: s.id,
+    projectId: s.projectId,
+    sampleId: s.sampleId,
+    seriesId: s.seriesId,
+    seriesValue: s.seriesValue,
+    referenceSpectrumId: s.referenceSpectrumId,
+    technique: s.technique,
+    fileName: s.fileName,
+    sha256: s.sha256,
+    sizeBytes: s.sizeBytes,
+    contentType: s.contentType,
+    solvent: s.solvent,
+    pathLengthCm: s.pathLengthCm,
+    excitationNm: s.excitationNm,
+    axisUnit: s.axisUnit,
+    valueUnit: s.valueUnit,
+    status: s.status,
+    error: s.errorMessage,
+    createdAt: s.createdAt.toISOString(),
+    updatedAt: s.updatedAt.toISOString(),
+    rawUrl: `/api/v1/spectra/${s.id}/raw`,
   };
 }
 
@@ -63,17 +111,39 @@ async function analysisView(run: AnalysisRun, showReview: boolean): Promise<Anal
   const report = run.report as AnalysisReport | null;
   const fe = report?.firstExciton ?? null;
   return {
-    runId: run.id, status: run.status, engineVersion: run.engineVersion, parameterHash: run.parameterHash,
-    parameters: run.parameters, referenceSpectrumId: run.referenceSpectrumId, error: run.errorMessage, noise: run.noise,
-    createdAt: run.createdAt.toISOString(), startedAt: iso(run.startedAt), finishedAt: iso(run.finishedAt), durationMs: run.durationMs,
+    runId: run.id,
+    status: run.status,
+    engineVersion: run.engineVersion,
+    parameterHash: run.parameterHash,
+    parameters: run.parameters,
+    referenceSpectrumId: run.referenceSpectrumId,
+    error: run.errorMessage,
+    noise: run.noise,
+    createdAt: run.createdAt.toISOString(),
+    startedAt: iso(run.startedAt),
+    finishedAt: iso(run.finishedAt),
+    durationMs: run.durationMs,
     peaks: peaks.map((p) => ({
-      energyEv: p.energyEv, wavelengthNm: p.wavelengthNm, height: p.height, fwhmMeV: p.fwhmMeV, area: p.area, firstExciton: p.isFirstExciton,
+      energyEv: p.energyEv,
+      wavelengthNm: p.wavelengthNm,
+      height: p.height,
+      fwhmMeV: p.fwhmMeV,
+      area: p.area,
+      firstExciton: p.isFirstExciton,
     })),
     firstExciton: fe ? { energyEv: fe.energyEv, wavelengthNm: fe.wavelengthNm, fwhmMeV: fe.fwhmMeV } : null,
     flags: signatures.map((f) => ({
-      id: f.id, kind: f.kind, energyEv: f.energyEv, fraction: f.fraction, shiftMeV: f.shiftMeV,
-      magnitude: f.magnitude, unit: f.unit, uncertainty: f.uncertainty, significance: f.significance,
-      reviewState: showReview ? f.reviewState : null, message: typeof f.details?.message === "string" ? f.details.message : null,
+      id: f.id,
+      kind: f.kind,
+      energyEv: f.energyEv,
+      fraction: f.fraction,
+      shiftMeV: f.shiftMeV,
+      magnitude: f.magnitude,
+      unit: f.unit,
+      uncertainty: f.uncertainty,
+      significance: f.significance,
+      reviewState: showReview ? f.reviewState : null,
+      message: typeof f.details?.message === "string" ? f.details.message : null,
     })),
     derived: report?.derived ?? null,
     warnings: report?.warnings ?? [],
@@ -90,7 +160,13 @@ export async function getSpectrumStatus(actor: Actor, id: string) {
   return {
     spectrum: spectrumView(spectrum),
     analysis: runs[0] ? await analysisView(runs[0], memberGroupIds(actor).includes((await groupOfSpectrum(spectrum)) ?? "")) : null,
-    runs: runs.map((r) => ({ id: r.id, status: r.status, engineVersion: r.engineVersion, parameterHash: r.parameterHash, createdAt: r.createdAt.toISOString() })),
+    runs: runs.map((r) => ({
+      id: r.id,
+      status: r.status,
+      engineVersion: r.engineVersion,
+      parameterHash: r.parameterHash,
+      createdAt: r.createdAt.toISOString(),
+    })),
   };
 }
 
@@ -114,7 +190,13 @@ export async function getSeriesStatus(actor: Actor, id: string) {
   models();
   const series = await Series.findByPk(id);
   if (!series || !(await canReadSeries(actor, series))) return null;
-  const spectra = await Spectrum.findAll({ where: { seriesId: id }, order: [["seriesValue", "ASC"], ["createdAt", "ASC"]] });
+  const spectra = await Spectrum.findAll({
+    where: { seriesId: id },
+    order: [
+      ["seriesValue", "ASC"],
+      ["createdAt", "ASC"],
+    ],
+  });
   const runs = spectra.length
     ? await AnalysisRun.findAll({ where: { spectrumId: { [Op.in]: spectra.map((s) => s.id) } }, order: [["createdAt", "DESC"]] })
     : [];
@@ -122,15 +204,24 @@ export async function getSeriesStatus(actor: Actor, id: string) {
   for (const r of runs) if (!latest.has(r.spectrumId)) latest.set(r.spectrumId, r);
   return {
     series: {
-      id: series.id, projectId: series.projectId, name: series.name, kind: series.kind,
-      variableName: series.variableName, variableUnit: series.variableUnit,
+      id: series.id,
+      projectId: series.projectId,
+      name: series.name,
+      kind: series.kind,
+      variableName: series.variableName,
+      variableUnit: series.variableUnit,
     },
     spectra: spectra.map((s) => {
       const run = latest.get(s.id);
       const report = run?.status === "done" ? (run.report as AnalysisReport | null) : null;
       const fe = report?.firstExciton ?? null;
       return {
-        id: s.id, fileName: s.fileName, technique: s.technique, seriesValue: s.seriesValue, status: s.status, error: s.errorMessage,
+        id: s.id,
+        fileName: s.fileName,
+        technique: s.technique,
+        seriesValue: s.seriesValue,
+        status: s.status,
+        error: s.errorMessage,
         runId: run?.id ?? null,
         firstExciton: fe ? { energyEv: fe.energyEv, wavelengthNm: fe.wavelengthNm, fwhmMeV: fe.fwhmMeV } : null,
         bleachFraction: strongest(report, "bleach")?.fraction ?? null,
@@ -169,8 +260,17 @@ export async function getUploadChoices(actor: Actor): Promise<UploadChoices> {
       ...p,
       samples: samples
         .filter((s) => s.groupId === p.groupId && (s.projectId === null || s.projectId === p.id))
-        .map((s) => ({ id: s.id, name: s.name, material: s.material, coreShell: s.coreShell, solvent: s.solvent, parentIds: parents.get(s.id) ?? [] })),
-      series: series.filter((s) => s.projectId === p.id).map((s) => ({ id: s.id, name: s.name, variableName: s.variableName, variableUnit: s.variableUnit })),
+        .map((s) => ({
+          id: s.id,
+          name: s.name,
+          material: s.material,
+          coreShell: s.coreShell,
+          solvent: s.solvent,
+          parentIds: parents.get(s.id) ?? [],
+        })),
+      series: series
+        .filter((s) => s.projectId === p.id)
+        .map((s) => ({ id: s.id, name: s.name, variableName: s.variableName, variableUnit: s.variableUnit })),
       references: references.get(p.id) ?? [],
     })),
   };

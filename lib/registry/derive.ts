@@ -6,8 +6,7 @@ import type { KindSpec, ThresholdSpec } from "./flagKinds";
 
 export type KeyOf<S> = Extract<keyof S, string>;
 export type ThresholdNameOf<G extends Record<string, ThresholdSpec>, S extends Record<string, KindSpec>> =
-  | KeyOf<G>
-  | S[KeyOf<S>]["threshold"]["name"];
+  KeyOf<G> | S[KeyOf<S>]["threshold"]["name"];
 
 /** The registry's keys in its order, as a non-empty tuple (zod's enum wants one). */
 export function keysOf<S extends object>(specs: S): [KeyOf<S>, ...KeyOf<S>[]] {

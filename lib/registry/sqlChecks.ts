@@ -60,12 +60,27 @@ export async function liveCheckValues(query: Query, c: RegistryColumn): Promise<
  * Adds values to (or removes them from) a registry column's live check: a new kind's migration is
  * `up: addCheckValues(..., ["my-kind"])`, `down: removeCheckValues(..., ["my-kind"])`.
  */
-export async function addCheckValues(query: Query, exec: (sql: string) => Promise<unknown>, c: RegistryColumn, added: readonly string[]): Promise<void> {
+export async function addCheckValues(
+  query: Query,
+  exec: (sql: string) => Promise<unknown>,
+  c: RegistryColumn,
+  added: readonly string[],
+): Promise<void> {
   const current = await liveCheckValues(query, c);
   await exec(replaceCheckSql(c, [...current, ...added.filter((v) => !current.includes(v))]));
 }
 
-export async function removeCheckValues(query: Query, exec: (sql: string) => Promise<unknown>, c: RegistryColumn, removed: readonly string[]): Promise<void> {
+export async function removeCheckValues(
+  query: Query,
+  exec: (sql: string) => Promise<unknown>,
+  c: RegistryColumn,
+  removed: readonly string[],
+): Promise<void> {
   const current = await liveCheckValues(query, c);
-  await exec(replaceCheckSql(c, current.filter((v) => !removed.includes(v))));
+  await exec(
+    replaceCheckSql(
+      c,
+      current.filter((v) => !removed.includes(v)),
+    ),
+  );
 }

@@ -18,14 +18,26 @@ export type CarryPlan = {
   /** Signatures of the run before, now replaced. */
   previousIds: string[];
   reviews: {
-    signature_id: string; decision: ReviewState; origin: "carried" | "not-carried"; previous_state: ReviewState;
-    carried_from_signature_id: string; carried_from_run_id: string; comment: string;
+    signature_id: string;
+    decision: ReviewState;
+    origin: "carried" | "not-carried";
+    previous_state: ReviewState;
+    carried_from_signature_id: string;
+    carried_from_run_id: string;
+    comment: string;
   }[];
 };
 
 type PreviousRow = {
-  id: string; run_id: string; kind: FlagKind; energy_ev: number | null; review_state: ReviewState; digested_at: Date | null;
-  details: Record<string, unknown> | null; step_mev: number | null; width_source: WidthSource | null;
+  id: string;
+  run_id: string;
+  kind: FlagKind;
+  energy_ev: number | null;
+  review_state: ReviewState;
+  digested_at: Date | null;
+  details: Record<string, unknown> | null;
+  step_mev: number | null;
+  width_source: WidthSource | null;
 };
 
 const num = (v: unknown): number | null => (typeof v === "number" && Number.isFinite(v) ? v : null);
@@ -45,8 +57,13 @@ export async function planCarry(
   const db = sequelize();
   const ids = report.flags.map(() => randomUUID());
   const fresh: CarryPlan = {
-    ids, states: report.flags.map(() => "awaiting"), matched: report.flags.map(() => null), digestedAt: report.flags.map(() => null),
-    supersededByRunId: null, previousIds: [], reviews: [],
+    ids,
+    states: report.flags.map(() => "awaiting"),
+    matched: report.flags.map(() => null),
+    digestedAt: report.flags.map(() => null),
+    supersededByRunId: null,
+    previousIds: [],
+    reviews: [],
   };
   const [newer] = await db.query<{ id: string }>(
     `SELECT id FROM analysis_runs WHERE spectrum_id = :spectrumId AND id <> :runId AND status = 'done' AND created_at > :createdAt
@@ -66,16 +83,28 @@ export async function planCarry(
   );
   if (previousRows.length === 0) return fresh;
   const previous: (PreviousSignature & { runId: string; digestedAt: Date | null })[] = previousRows.map((r) => ({
-    id: r.id, runId: r.run_id, kind: r.kind, energyEv: r.energy_ev, reviewState: r.review_state, digestedAt: r.digested_at,
-    magnitude: num(r.details?.magnitude), uncertainty: num(r.details?.uncertainty),
+    id: r.id,
+    runId: r.run_id,
+    kind: r.kind,
+    energyEv: r.energy_ev,
+    reviewState: r.review_state,
+    digestedAt: r.digested_at,
+    magnitude: num(r.details?.magnitude),
+    uncertainty: num(r.details?.uncertainty),
     widthMeV: num(r.details?.widthMeV) ?? bandWidthAt(r.width_source, r.energy_ev),
   }));
   const next = report.flags.map((f) => ({
-    kind: f.kind, energyEv: num(f.energyEv), magnitude: num(f.magnitude), uncertainty: num(f.uncertainty),
+    kind: f.kind,
+    energyEv: num(f.energyEv),
+    magnitude: num(f.magnitude),
+    uncertainty: num(f.uncertainty),
     widthMeV: bandWidthAt(report, num(f.energyEv)),
   }));
   const previousStep = Math.max(0, ...previousRows.map((r) => num(r.step_mev) ?? 0));
-  const outcomes = matchSignatures(previous, next, { previous: { stepMeV: previousStep || null }, next: { stepMeV: num(report.parameters?.grid?.stepMeV) } });
+  const outcomes = matchSignatures(previous, next, {
+    previous: { stepMeV: previousStep || null },
+    next: { stepMeV: num(report.parameters?.grid?.stepMeV) },
+  });
   const plan: CarryPlan = { ...fresh, previousIds: previous.map((p) => p.id) };
   outcomes.forEach((o, i) => {
     if (o.match === null) return;
@@ -87,13 +116,22 @@ export async function planCarry(
       if (match.reviewState === "awaiting") return;
       plan.states[i] = match.reviewState;
       plan.reviews.push({
-        signature_id: ids[i]!, decision: match.reviewState, origin: "carried", previous_state: "awaiting",
-        carried_from_signature_id: match.id, carried_from_run_id: match.runId, comment: `Carried from run ${run8}.`,
+        signature_id: ids[i]!,
+        decision: match.reviewState,
+        origin: "carried",
+        previous_state: "awaiting",
+        carried_from_signature_id: match.id,
+        carried_from_run_id: match.runId,
+        comment: `Carried from run ${run8}.`,
       });
     } else if (match.reviewState !== "awaiting") {
       plan.reviews.push({
-        signature_id: ids[i]!, decision: "awaiting", origin: "not-carried", previous_state: match.reviewState,
-        carried_from_signature_id: match.id, carried_from_run_id: match.runId,
+        signature_id: ids[i]!,
+        decision: "awaiting",
+        origin: "not-carried",
+        previous_state: match.reviewState,
+        carried_from_signature_id: match.id,
+        carried_from_run_id: match.runId,
         comment: `The ${match.reviewState} decision on run ${run8} was not carried: ${o.reason}. Decide again.`,
       });
     }
@@ -106,7 +144,8 @@ export async function applyCarry(transaction: Transaction, run: { id: string; sp
   const db = sequelize();
   if (plan.previousIds.length > 0) {
     await db.query(`UPDATE signatures SET superseded_by_run_id = :runId, superseded_at = now(), updated_at = now() WHERE id IN (:ids)`, {
-      replacements: { runId: run.id, ids: plan.previousIds }, transaction,
+      replacements: { runId: run.id, ids: plan.previousIds },
+      transaction,
     });
   }
   if (plan.reviews.length > 0) {
@@ -124,13 +163,23 @@ export async function applyCarry(transaction: Transaction, run: { id: string; sp
       `SELECT p.group_id FROM spectra s JOIN projects p ON p.id = s.project_id WHERE s.id = :id`,
       { replacements: { id: run.spectrumId }, type: QueryTypes.SELECT, transaction },
     );
-    await recordAudit({
-      actorId: null, actorLabel: "analysis", groupId: owner?.group_id ?? null, action: "signatures-superseded",
-      targetType: "spectrum", targetId: run.spectrumId,
-      details: {
-        runId: run.id, superseded: plan.previousIds.length, matched: plan.matched.filter(Boolean).length,
-        carried: plan.reviews.filter((r) => r.origin === "carried").length, notCarried: plan.reviews.filter((r) => r.origin === "not-carried").length,
+    await recordAudit(
+      {
+        actorId: null,
+        actorLabel: "analysis",
+        groupId: owner?.group_id ?? null,
+        action: "signatures-superseded",
+        targetType: "spectrum",
+        targetId: run.spectrumId,
+        details: {
+          runId: run.id,
+          superseded: plan.previousIds.length,
+          matched: plan.matched.filter(Boolean).length,
+          carried: plan.reviews.filter((r) => r.origin === "carried").length,
+          notCarried: plan.reviews.filter((r) => r.origin === "not-carried").length,
+        },
       },
-    }, transaction);
+      transaction,
+    );
   }
 }

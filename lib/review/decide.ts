@@ -23,15 +23,22 @@ export type DecisionOutcome = {
 };
 
 type Target = {
-  id: string; kind: FlagKind; review_state: string; group_id: string; spectrum_id: string; file_name: string;
-  energy_ev: number | null; uploaded_by: string | null;
+  id: string;
+  kind: FlagKind;
+  review_state: string;
+  group_id: string;
+  spectrum_id: string;
+  file_name: string;
+  energy_ev: number | null;
+  uploaded_by: string | null;
 };
 
 async function loadTargets(actor: Actor, ids: string[]): Promise<Map<string, Target>> {
   const targets = await selectRows<Target>(
     `SELECT g.id, g.kind, g.review_state, p.group_id, s.id AS spectrum_id, s.file_name, g.energy_ev, s.uploaded_by
      FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
-     WHERE g.id IN (:ids)`, { ids },
+     WHERE g.id IN (:ids)`,
+    { ids },
   );
   const byId = new Map(targets.map((t) => [t.id, t]));
   for (const id of ids) {
@@ -40,7 +47,8 @@ async function loadTargets(actor: Actor, ids: string[]): Promise<Map<string, Tar
     if (!t || roleIn(actor, t.group_id) === null || roleIn(actor, t.group_id) === "collaborator") {
       throw refuse(404, `signature ${id} was not found`, "signatureIds");
     }
-    if (!canReview(actor, t.group_id)) throw refuse(403, "Only a lead of the group that owns the spectrum can confirm or dismiss its signatures.", "signatureIds");
+    if (!canReview(actor, t.group_id))
+      throw refuse(403, "Only a lead of the group that owns the spectrum can confirm or dismiss its signatures.", "signatureIds");
   }
   return byId;
 }
@@ -50,16 +58,20 @@ async function lockCurrent(ids: string[], transaction: Transaction): Promise<Map
   const locked = await Signature.findAll({ where: { id: { [Op.in]: ids } }, lock: transaction.LOCK.UPDATE, transaction });
   for (const s of locked) {
     if (s.supersededAt !== null) {
-      throw refuse(409,
+      throw refuse(
+        409,
         `This flag was replaced by a newer analysis (run ${shortRunId(s.supersededByRunId ?? "")}); open the signature to find the same band in that run and decide there.`,
-        "signatureIds");
+        "signatureIds",
+      );
     }
   }
   return new Map(locked.map((s) => [s.id, s]));
 }
 
 function noticeFor(actor: Actor, t: Target, signatureId: string, reviewId: string): Notice[] {
-  return t.uploaded_by && t.uploaded_by !== actor.id ? [{ recipientId: t.uploaded_by, signatureId, reviewId, reviewerName: actor.name }] : [];
+  return t.uploaded_by && t.uploaded_by !== actor.id
+    ? [{ recipientId: t.uploaded_by, signatureId, reviewId, reviewerName: actor.name }]
+    : [];
 }
 
 /** After the transaction: the uploaders' mail is scheduled; a Redis outage must not undo the decision (the digest's safety net sends it later). */
@@ -68,7 +80,13 @@ async function scheduleAfterCommit(notices: Notice[]): Promise<number> {
   try {
     await scheduleNotices(recipients);
   } catch (error) {
-    console.error(JSON.stringify({ level: "warn", msg: "decision mail not scheduled yet", error: error instanceof Error ? error.message : String(error) }));
+    console.error(
+      JSON.stringify({
+        level: "warn",
+        msg: "decision mail not scheduled yet",
+        error: error instanceof Error ? error.message : String(error),
+      }),
+    );
   }
   return recipients.length;
 }
@@ -105,17 +123,33 @@ export async function decideSignatures(
         out.push({ signatureId: id, reviewId: null, decision, previousState, unchanged: true, decidedAt: null });
         continue;
       }
-      const review = await Review.create({ signatureId: id, reviewerId: actor.id, decision, comment, origin: "decision", previousState }, { transaction });
+      const review = await Review.create(
+        { signatureId: id, reviewerId: actor.id, decision, comment, origin: "decision", previousState },
+        { transaction },
+      );
       await Signature.update({ reviewState: decision }, { where: { id }, transaction });
       const t = byId.get(id)!;
-      await recordAudit({
-        actorId: actor.id, actorLabel: actor.email, groupId: t.group_id,
-        action: previousState === "awaiting" ? "signature-decided" : "signature-decision-revised",
-        targetType: "signature", targetId: id,
-        details: { decision, previousState, comment, reviewId: review.id, kind: t.kind, spectrumId: t.spectrum_id },
-      }, transaction);
+      await recordAudit(
+        {
+          actorId: actor.id,
+          actorLabel: actor.email,
+          groupId: t.group_id,
+          action: previousState === "awaiting" ? "signature-decided" : "signature-decision-revised",
+          targetType: "signature",
+          targetId: id,
+          details: { decision, previousState, comment, reviewId: review.id, kind: t.kind, spectrumId: t.spectrum_id },
+        },
+        transaction,
+      );
       notices.push(...noticeFor(actor, t, id, review.id));
-      out.push({ signatureId: id, reviewId: review.id, decision, previousState, unchanged: false, decidedAt: review.createdAt.toISOString() });
+      out.push({
+        signatureId: id,
+        reviewId: review.id,
+        decision,
+        previousState,
+        unchanged: false,
+        decidedAt: review.createdAt.toISOString(),
+      });
     }
     await addNotices(notices, transaction);
     return out;
@@ -143,25 +177,62 @@ export async function undoDecisions(actor: Actor, reviewIds: string[]): Promise<
     const out: DecisionOutcome[] = [];
     for (const review of reviews) {
       const id = review.signatureId;
-      const latest = await Review.findOne({ where: { signatureId: id }, order: [["createdAt", "DESC"], ["id", "DESC"]], transaction });
+      const latest = await Review.findOne({
+        where: { signatureId: id },
+        order: [
+          ["createdAt", "DESC"],
+          ["id", "DESC"],
+        ],
+        transaction,
+      });
       if (review.origin !== "decision" || review.previousState === null) {
         throw refuse(409, "Only a lead's own decision, recorded with the state it replaced, can be undone.", "reviewIds");
       }
-      if (latest?.id !== review.id) throw refuse(409, "A later decision followed this one; decide again instead of undoing it.", "reviewIds");
+      if (latest?.id !== review.id)
+        throw refuse(409, "A later decision followed this one; decide again instead of undoing it.", "reviewIds");
       const restored = review.previousState;
       const current = locked.get(id)?.reviewState ?? review.decision;
       const undo = await Review.create(
-        { signatureId: id, reviewerId: actor.id, decision: restored, comment: `Undid the ${review.decision} decision; back to ${restored === "awaiting" ? "awaiting review" : restored}.`, origin: "undo", previousState: current, undoesReviewId: review.id },
+        {
+          signatureId: id,
+          reviewerId: actor.id,
+          decision: restored,
+          comment: `Undid the ${review.decision} decision; back to ${restored === "awaiting" ? "awaiting review" : restored}.`,
+          origin: "undo",
+          previousState: current,
+          undoesReviewId: review.id,
+        },
         { transaction },
       );
       await Signature.update({ reviewState: restored }, { where: { id }, transaction });
       const t = byId.get(id)!;
-      await recordAudit({
-        actorId: actor.id, actorLabel: actor.email, groupId: t.group_id, action: "signature-decision-undone", targetType: "signature", targetId: id,
-        details: { undoesReviewId: review.id, restoredState: restored, previousState: current, reviewId: undo.id, spectrumId: t.spectrum_id },
-      }, transaction);
+      await recordAudit(
+        {
+          actorId: actor.id,
+          actorLabel: actor.email,
+          groupId: t.group_id,
+          action: "signature-decision-undone",
+          targetType: "signature",
+          targetId: id,
+          details: {
+            undoesReviewId: review.id,
+            restoredState: restored,
+            previousState: current,
+            reviewId: undo.id,
+            spectrumId: t.spectrum_id,
+          },
+        },
+        transaction,
+      );
       notices.push(...noticeFor(actor, t, id, undo.id));
-      out.push({ signatureId: id, reviewId: undo.id, decision: restored, previousState: current, unchanged: false, decidedAt: undo.createdAt.toISOString() });
+      out.push({
+        signatureId: id,
+        reviewId: undo.id,
+        decision: restored,
+        previousState: current,
+        unchanged: false,
+        decidedAt: undo.createdAt.toISOString(),
+      });
     }
     await addNotices(notices, transaction);
     return out;

@@ -9,7 +9,14 @@ import { models } from "@/models";
 export type DigestSummary = { groups: number; signatures: number; mailed: number };
 
 type Pending = {
-  id: string; kind: FlagKind; significance: number; energy_ev: number | null; review_state: string; superseded: boolean; file_name: string; project_name: string;
+  id: string;
+  kind: FlagKind;
+  significance: number;
+  energy_ev: number | null;
+  review_state: string;
+  superseded: boolean;
+  file_name: string;
+  project_name: string;
 };
 
 /**
@@ -46,8 +53,9 @@ export async function runReviewDigest(): Promise<DigestSummary> {
            WHERE m.group_id = :groupId AND m.role = 'lead' AND u.notify_digest`,
           { replacements: { groupId: group.group_id }, type: QueryTypes.SELECT, transaction },
         );
-        const lines = awaiting.map((r) =>
-          `- ${KIND_LABELS[r.kind]}${r.energy_ev !== null ? ` at ${r.energy_ev.toFixed(3)} eV` : ""}, ${r.significance.toFixed(1)}σ, in ${r.file_name} (${r.project_name})\n  ${base}/review/${r.id}`,
+        const lines = awaiting.map(
+          (r) =>
+            `- ${KIND_LABELS[r.kind]}${r.energy_ev !== null ? ` at ${r.energy_ev.toFixed(3)} eV` : ""}, ${r.significance.toFixed(1)}σ, in ${r.file_name} (${r.project_name})\n  ${base}/review/${r.id}`,
         );
         const { total } = await awaitingReviewCounts([group.group_id]);
         for (const lead of leads) {
@@ -55,9 +63,12 @@ export async function runReviewDigest(): Promise<DigestSummary> {
             lead.email,
             `Bandkeep: ${awaiting.length} new signature${awaiting.length === 1 ? "" : "s"} to review in ${group.group_name}`,
             [
-              `Hello ${lead.name},`, "",
-              `The analysis flagged these band changes in ${group.group_name} since the last digest:`, "",
-              ...lines, "",
+              `Hello ${lead.name},`,
+              "",
+              `The analysis flagged these band changes in ${group.group_name} since the last digest:`,
+              "",
+              ...lines,
+              "",
               `${total} signature${total === 1 ? "" : "s"} in ${group.group_name} await review in all: ${base}/review`,
               `You receive this because the review digest is on in your settings: ${base}/settings`,
             ].join("\n"),
@@ -65,7 +76,10 @@ export async function runReviewDigest(): Promise<DigestSummary> {
           summary.mailed++;
         }
       }
-      await sequelize().query(`UPDATE signatures SET digested_at = now() WHERE id IN (:ids)`, { replacements: { ids: rows.map((r) => r.id) }, transaction });
+      await sequelize().query(`UPDATE signatures SET digested_at = now() WHERE id IN (:ids)`, {
+        replacements: { ids: rows.map((r) => r.id) },
+        transaction,
+      });
       summary.groups++;
       summary.signatures += awaiting.length;
     });

@@ -30,8 +30,13 @@ async function energyArrays(spectrum: Spectrum) {
 
 function interpolate(xs: number[], ys: number[], x: number): number | null {
   if (xs.length === 0 || x < xs[0]! || x > xs[xs.length - 1]!) return null;
-  let lo = 0, hi = xs.length - 1;
-  while (hi - lo > 1) { const mid = (lo + hi) >> 1; if (xs[mid]! <= x) lo = mid; else hi = mid; }
+  let lo = 0,
+    hi = xs.length - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (xs[mid]! <= x) lo = mid;
+    else hi = mid;
+  }
   const span = xs[hi]! - xs[lo]!;
   return span > 0 ? ys[lo]! + ((ys[hi]! - ys[lo]!) * (x - xs[lo]!)) / span : ys[lo]!;
 }
@@ -41,7 +46,12 @@ function interpolate(xs: number[], ys: number[], x: number): number | null {
  * energy ± halfWidthEv (the whole range when the flag has no energy), thinned for drawing.
  * Read access must have been checked by the caller.
  */
-export async function loadEvidence(spectrumId: string, referenceSpectrumId: string | null, centreEv: number | null, halfWidthEv = 0.3): Promise<Evidence> {
+export async function loadEvidence(
+  spectrumId: string,
+  referenceSpectrumId: string | null,
+  centreEv: number | null,
+  halfWidthEv = 0.3,
+): Promise<Evidence> {
   models();
   const spectrum = await Spectrum.findByPk(spectrumId);
   const reference = referenceSpectrumId ? await Spectrum.findByPk(referenceSpectrumId) : null;
@@ -66,7 +76,21 @@ export async function loadEvidence(spectrumId: string, referenceSpectrumId: stri
       problem: energy.length < 2 ? "The spectrum has no points within 0.3 eV of the flag." : null,
     };
   } catch (error) {
-    console.error(JSON.stringify({ level: "warn", msg: "evidence not loaded", spectrumId, error: error instanceof Error ? error.message : String(error) }));
-    return { ...base, energy: [], sample: [], reference: null, unit: "", problem: "The raw files could not be read back from storage just now; try again." };
+    console.error(
+      JSON.stringify({
+        level: "warn",
+        msg: "evidence not loaded",
+        spectrumId,
+        error: error instanceof Error ? error.message : String(error),
+      }),
+    );
+    return {
+      ...base,
+      energy: [],
+      sample: [],
+      reference: null,
+      unit: "",
+      problem: "The raw files could not be read back from storage just now; try again.",
+    };
   }
 }

@@ -47,7 +47,11 @@ export const CARRY_SIGMAS = 3;
  * resolution criterion, common practice), and never less than GRID_STEPS_OF_TOLERANCE steps of
  * the coarser run's grid (the run's own position uncertainty) or MIN_MATCH_TOLERANCE_MEV.
  */
-export function matchToleranceMeV(a: MatchableSignature, b: MatchableSignature, runs: { previous: RunResolution; next: RunResolution }): number {
+export function matchToleranceMeV(
+  a: MatchableSignature,
+  b: MatchableSignature,
+  runs: { previous: RunResolution; next: RunResolution },
+): number {
   const halfWidth = Math.max(a.widthMeV ?? 0, b.widthMeV ?? 0) / 2;
   const step = Math.max(runs.previous.stepMeV ?? 0, runs.next.stepMeV ?? 0) * GRID_STEPS_OF_TOLERANCE;
   return Math.max(halfWidth, step, MIN_MATCH_TOLERANCE_MEV);
@@ -62,7 +66,10 @@ function magnitudeText(s: MatchableSignature): string {
  * rule of MAX_CARRY_RATIO and CARRY_SIGMAS. A sign change (a shift that turned from red to blue)
  * never carries. Returns the reason when it does not.
  */
-export function decisionCarries(previous: MatchableSignature, next: MatchableSignature): { carries: true } | { carries: false; reason: string } {
+export function decisionCarries(
+  previous: MatchableSignature,
+  next: MatchableSignature,
+): { carries: true } | { carries: false; reason: string } {
   const a = previous.magnitude;
   const b = next.magnitude;
   if (a === null || b === null || !Number.isFinite(a) || !Number.isFinite(b)) return { carries: true };
@@ -73,7 +80,10 @@ export function decisionCarries(previous: MatchableSignature, next: MatchableSig
   }
   const ratio = Math.abs(b) / Math.abs(a);
   if (ratio > MAX_CARRY_RATIO || ratio < 1 / MAX_CARRY_RATIO) {
-    return { carries: false, reason: `its size changed from ${magnitudeText(previous)} to ${magnitudeText(next)} (more than a factor of ${MAX_CARRY_RATIO})` };
+    return {
+      carries: false,
+      reason: `its size changed from ${magnitudeText(previous)} to ${magnitudeText(next)} (more than a factor of ${MAX_CARRY_RATIO})`,
+    };
   }
   return { carries: true };
 }

@@ -44,13 +44,26 @@ export async function scheduleNotices(recipientIds: readonly string[], delayMs =
 /** Schedules every person with unsent notices (a safety net run with the digest, for jobs lost to a Redis outage). */
 export async function scheduleAllPendingNotices(): Promise<number> {
   const rows = await selectRows<{ recipient_id: string }>(`SELECT DISTINCT recipient_id FROM decision_notices WHERE sent_at IS NULL`);
-  await scheduleNotices(rows.map((r) => r.recipient_id), 0);
+  await scheduleNotices(
+    rows.map((r) => r.recipient_id),
+    0,
+  );
   return rows.length;
 }
 
 type PendingRow = {
-  id: string; signature_id: string; reviewer_name: string; decision: string; previous_state: string | null; comment: string; origin: string;
-  current_state: string; kind: FlagKind; energy_ev: number | null; significance: number; file_name: string;
+  id: string;
+  signature_id: string;
+  reviewer_name: string;
+  decision: string;
+  previous_state: string | null;
+  comment: string;
+  origin: string;
+  current_state: string;
+  kind: FlagKind;
+  energy_ev: number | null;
+  significance: number;
+  file_name: string;
 };
 
 const STATE_TEXT: Record<string, string> = { awaiting: "awaiting review", confirmed: "confirmed", dismissed: "dismissed" };
@@ -64,9 +77,13 @@ export function composeNotice(name: string, rows: readonly PendingRow[], base: s
   const label = (r: PendingRow) => KIND_LABELS[r.kind];
   const lines = changed.flatMap((list) => {
     const first = list[0]!;
-    const head = `- ${label(first)}${first.energy_ev !== null ? ` at ${first.energy_ev.toFixed(3)} eV` : ""} (${first.significance.toFixed(1)}σ) in ${first.file_name}: ` +
+    const head =
+      `- ${label(first)}${first.energy_ev !== null ? ` at ${first.energy_ev.toFixed(3)} eV` : ""} (${first.significance.toFixed(1)}σ) in ${first.file_name}: ` +
       `${STATE_TEXT[first.current_state] ?? first.current_state} (was ${STATE_TEXT[first.previous_state ?? "awaiting"] ?? first.previous_state})`;
-    const steps = list.map((r) => `  ${r.origin === "undo" ? "undone" : STATE_TEXT[r.decision] ?? r.decision} by ${r.reviewer_name}${r.comment ? `: ${r.comment}` : ""}`);
+    const steps = list.map(
+      (r) =>
+        `  ${r.origin === "undo" ? "undone" : (STATE_TEXT[r.decision] ?? r.decision)} by ${r.reviewer_name}${r.comment ? `: ${r.comment}` : ""}`,
+    );
     return [head, ...steps, `  ${base}/review/${first.signature_id}`];
   });
   const one = changed.length === 1 ? changed[0]![0]! : null;
@@ -74,9 +91,12 @@ export function composeNotice(name: string, rows: readonly PendingRow[], base: s
     ? `Bandkeep: ${label(one)} in ${one.file_name} ${STATE_TEXT[one.current_state] ?? one.current_state}`
     : `Bandkeep: ${changed.length === 1 ? "a decision" : "decisions"} on ${countOf(changed.length, "signature")} in your uploads`;
   const text = [
-    `Hello ${name},`, "",
-    `Band changes flagged in your uploads were reviewed:`, "",
-    ...lines, "",
+    `Hello ${name},`,
+    "",
+    `Band changes flagged in your uploads were reviewed:`,
+    "",
+    ...lines,
+    "",
     `You receive this because decision e-mails are on in your settings: ${base}/settings`,
   ].join("\n");
   return { subject, text };
@@ -104,10 +124,16 @@ export async function sendPendingNotices(recipientId: string): Promise<number> {
     const person = await User.findByPk(recipientId, { transaction });
     const message = person?.notifyDecisions ? composeNotice(person.name, rows, base) : null;
     if (person && message) await sendMail(person.email, message.subject, message.text);
-    await sequelize().query(`UPDATE decision_notices SET sent_at = now() WHERE id IN (:ids)`, { replacements: { ids: rows.map((r) => r.id) }, transaction });
+    await sequelize().query(`UPDATE decision_notices SET sent_at = now() WHERE id IN (:ids)`, {
+      replacements: { ids: rows.map((r) => r.id) },
+      transaction,
+    });
     return message ? 1 : 0;
   });
-  const [left] = await selectRows<{ n: string }>(`SELECT count(*) AS n FROM decision_notices WHERE recipient_id = :recipientId AND sent_at IS NULL`, { recipientId });
+  const [left] = await selectRows<{ n: string }>(
+    `SELECT count(*) AS n FROM decision_notices WHERE recipient_id = :recipientId AND sent_at IS NULL`,
+    { recipientId },
+  );
   if (Number(left?.n ?? 0) > 0) await scheduleNotices([recipientId]);
   return sent;
 }

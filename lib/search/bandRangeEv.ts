@@ -20,7 +20,10 @@ const TO_EV: Record<BandUnit, (v: number) => number> = {
  * Throws RangeError for a bound that is not a positive finite number.
  */
 export function bandRangeEv(min: number, max: number, unit: BandUnit): { minEv: number; maxEv: number } {
-  for (const [name, v] of [["min", min], ["max", max]] as const) {
+  for (const [name, v] of [
+    ["min", min],
+    ["max", max],
+  ] as const) {
     if (!Number.isFinite(v) || v <= 0) throw new RangeError(`band ${name} must be a positive number, got ${v}`);
   }
   const a = TO_EV[unit](min);

@@ -29,7 +29,10 @@ export const cappedCountSql = (rowsSql: string) => `SELECT count(*) AS n FROM ($
 export async function fastCount(sql: CountSql, params: Record<string, unknown>): Promise<FastCount> {
   const exact = await cappedCount(sql.rowsSql, { ...countParams, ...params });
   if (exact !== null && exact <= EXACT_COUNT_LIMIT) return { value: exact, exact: true };
-  const [plan] = await selectRows<{ "QUERY PLAN": [{ Plan: { "Plan Rows": number } }] }>(`EXPLAIN (FORMAT JSON) ${sql.estimateSql}`, params);
+  const [plan] = await selectRows<{ "QUERY PLAN": [{ Plan: { "Plan Rows": number } }] }>(
+    `EXPLAIN (FORMAT JSON) ${sql.estimateSql}`,
+    params,
+  );
   const estimate = Math.round(plan?.["QUERY PLAN"]?.[0]?.Plan?.["Plan Rows"] ?? 0);
   // beyond the cap the estimate is at least the cap; a count cut short by the budget says only "about"
   return { value: exact === null ? estimate : Math.max(estimate, EXACT_COUNT_LIMIT + 1), exact: false };
@@ -40,10 +43,11 @@ async function cappedCount(rowsSql: string, params: Record<string, unknown>): Pr
   try {
     return await sequelize().transaction(async (transaction) => {
       await sequelize().query(`SET LOCAL statement_timeout = ${EXACT_COUNT_BUDGET_MS}`, { transaction });
-      const rows = await sequelize().query<{ n: string }>(
-        cappedCountSql(rowsSql),
-        { replacements: params, type: QueryTypes.SELECT, transaction },
-      );
+      const rows = await sequelize().query<{ n: string }>(cappedCountSql(rowsSql), {
+        replacements: params,
+        type: QueryTypes.SELECT,
+        transaction,
+      });
       return Number(rows[0]?.n ?? 0);
     });
   } catch (error) {

@@ -15,12 +15,14 @@ export async function searchChoices(actor: Actor, sampleId: string | undefined):
   const projectIds = [...new Set([...scope.memberProjectIds, ...scope.sharedProjectIds])];
   const groupIds = memberGroupIds(actor);
   const [projects, uploaders, sample] = await Promise.all([
-    projectIds.length ? selectRows<{ id: string; name: string }>("SELECT id, name FROM projects WHERE id IN (:projectIds) ORDER BY name", { projectIds }) : [],
+    projectIds.length
+      ? selectRows<{ id: string; name: string }>("SELECT id, name FROM projects WHERE id IN (:projectIds) ORDER BY name", { projectIds })
+      : [],
     groupIds.length
       ? selectRows<{ id: string; name: string }>(
-        "SELECT DISTINCT u.id, u.name FROM users u JOIN memberships m ON m.user_id = u.id WHERE m.group_id IN (:groupIds) AND m.role <> 'collaborator' ORDER BY u.name",
-        { groupIds },
-      )
+          "SELECT DISTINCT u.id, u.name FROM users u JOIN memberships m ON m.user_id = u.id WHERE m.group_id IN (:groupIds) AND m.role <> 'collaborator' ORDER BY u.name",
+          { groupIds },
+        )
       : [],
     sampleId ? selectRows<{ name: string }>("SELECT name FROM samples WHERE id = :sampleId", { sampleId }) : [],
   ]);

@@ -42,24 +42,57 @@ export function spectrumFilterSql(s: SpectrumSearch): FilterSql {
     conditions.push(`((s.file_name || ' ' || s.metadata::text) ILIKE :pattern
       OR s.sample_id = ANY (ARRAY(SELECT x.id FROM samples x WHERE (x.name || ' ' || x.notes) ILIKE :pattern)))`);
   }
-  if (s.project) { conditions.push("s.project_id = :project"); params.project = s.project; }
-  if (s.sample) { conditions.push("s.sample_id = :sample"); params.sample = s.sample; }
+  if (s.project) {
+    conditions.push("s.project_id = :project");
+    params.project = s.project;
+  }
+  if (s.sample) {
+    conditions.push("s.sample_id = :sample");
+    params.sample = s.sample;
+  }
   if (s.material) {
     needsSample = true;
     conditions.push("(lower(s.material) = lower(:material) OR (s.material IS NULL AND lower(sm.material) = lower(:material)))");
     params.material = s.material;
   }
-  if (s.technique) { conditions.push("s.technique = :technique"); params.technique = s.technique; }
-  if (s.uploader) { conditions.push("s.uploaded_by = :uploader"); params.uploader = s.uploader; }
-  if (s.from) { conditions.push("s.created_at >= CAST(:from AS date)"); params.from = s.from; }
-  if (s.to) { conditions.push("s.created_at < CAST(:to AS date) + 1"); params.to = s.to; }
-  if (s.status) { conditions.push("s.status = :status"); params.status = s.status; }
+  if (s.technique) {
+    conditions.push("s.technique = :technique");
+    params.technique = s.technique;
+  }
+  if (s.uploader) {
+    conditions.push("s.uploaded_by = :uploader");
+    params.uploader = s.uploader;
+  }
+  if (s.from) {
+    conditions.push("s.created_at >= CAST(:from AS date)");
+    params.from = s.from;
+  }
+  if (s.to) {
+    conditions.push("s.created_at < CAST(:to AS date) + 1");
+    params.to = s.to;
+  }
+  if (s.status) {
+    conditions.push("s.status = :status");
+    params.status = s.status;
+  }
   if (s.flag || s.review) {
     const flag: string[] = ["g.run_id = s.latest_run_id"];
-    if (s.flag) { flag.push("g.kind = :flag"); params.flag = s.flag; }
-    if (s.flagMin !== undefined) { flag.push(`${SIGNATURE_MAGNITUDE_SQL} >= :flagMin`); params.flagMin = s.flagMin; }
-    if (s.flagSig !== undefined) { flag.push("g.significance >= :flagSig"); params.flagSig = s.flagSig; }
-    if (s.review) { flag.push("g.review_state = :review"); params.review = s.review; }
+    if (s.flag) {
+      flag.push("g.kind = :flag");
+      params.flag = s.flag;
+    }
+    if (s.flagMin !== undefined) {
+      flag.push(`${SIGNATURE_MAGNITUDE_SQL} >= :flagMin`);
+      params.flagMin = s.flagMin;
+    }
+    if (s.flagSig !== undefined) {
+      flag.push("g.significance >= :flagSig");
+      params.flagSig = s.flagSig;
+    }
+    if (s.review) {
+      flag.push("g.review_state = :review");
+      params.review = s.review;
+    }
     conditions.push(someRow(`FROM signatures g WHERE ${flag.join(" AND ")}`));
   }
   if (s.band && s.bandMin !== undefined && s.bandMax !== undefined) {
@@ -67,7 +100,13 @@ export function spectrumFilterSql(s: SpectrumSearch): FilterSql {
     Object.assign(params, { bandMinEv: minEv, bandMaxEv: maxEv });
     conditions.push(BAND_CONDITION[s.band]);
   }
-  if (s.sizeMin !== undefined) { conditions.push("s.diameter_nm >= :sizeMin"); params.sizeMin = s.sizeMin; }
-  if (s.sizeMax !== undefined) { conditions.push("s.diameter_nm <= :sizeMax"); params.sizeMax = s.sizeMax; }
+  if (s.sizeMin !== undefined) {
+    conditions.push("s.diameter_nm >= :sizeMin");
+    params.sizeMin = s.sizeMin;
+  }
+  if (s.sizeMax !== undefined) {
+    conditions.push("s.diameter_nm <= :sizeMax");
+    params.sizeMax = s.sizeMax;
+  }
   return { conditions, params, needsSample };
 }

@@ -15,7 +15,14 @@ const uuid = (field: string) => z.preprocess(blank, z.string().trim().uuid(`${fi
 const oneOf = <T extends readonly [string, ...string[]]>(field: string, values: T) =>
   z.preprocess(blank, z.enum(values, { error: `${field} must be one of ${values.join(", ")}` }).optional());
 const number = (field: string, min: number, minText: string) =>
-  z.preprocess(blank, z.coerce.number({ error: `${field} must be a number` }).refine(Number.isFinite, `${field} must be a number`).min(min, `${field} must be ${minText}`).optional());
+  z.preprocess(
+    blank,
+    z.coerce
+      .number({ error: `${field} must be a number` })
+      .refine(Number.isFinite, `${field} must be a number`)
+      .min(min, `${field} must be ${minText}`)
+      .optional(),
+  );
 const date = (field: string) => z.preprocess(blank, z.iso.date({ error: `${field} must be a date, YYYY-MM-DD` }).optional());
 
 /**
@@ -43,12 +50,31 @@ export const spectrumSearchSchema = z
     bandUnit: z.preprocess(blank, z.enum(BAND_UNITS, { error: `bandUnit must be one of ${BAND_UNITS.join(", ")}` }).default("nm")),
     sizeMin: number("sizeMin", 0, "≥ 0"),
     sizeMax: number("sizeMax", 0, "≥ 0"),
-    after: z.preprocess(blank, z.string().max(200).refine((c) => decodeCursor(c) !== null, "after must be a cursor from an earlier page").optional()),
-    limit: z.preprocess(blank, z.coerce.number({ error: "limit must be a number" }).int("limit must be a whole number").min(1, "limit must be at least 1").max(200, "limit must be at most 200").default(SEARCH_PAGE_SIZE)),
+    after: z.preprocess(
+      blank,
+      z
+        .string()
+        .max(200)
+        .refine((c) => decodeCursor(c) !== null, "after must be a cursor from an earlier page")
+        .optional(),
+    ),
+    limit: z.preprocess(
+      blank,
+      z.coerce
+        .number({ error: "limit must be a number" })
+        .int("limit must be a whole number")
+        .min(1, "limit must be at least 1")
+        .max(200, "limit must be at most 200")
+        .default(SEARCH_PAGE_SIZE),
+    ),
   })
   .superRefine((s, ctx) => {
     if ((s.bandMin !== undefined || s.bandMax !== undefined) && !s.band) {
-      ctx.addIssue({ code: "custom", path: ["band"], message: "band must say which band (first-exciton, emission or band) when a band range is given" });
+      ctx.addIssue({
+        code: "custom",
+        path: ["band"],
+        message: "band must say which band (first-exciton, emission or band) when a band range is given",
+      });
     }
     if (s.band && (s.bandMin === undefined || s.bandMax === undefined)) {
       ctx.addIssue({ code: "custom", path: ["bandMin"], message: "a band search needs both bandMin and bandMax" });
@@ -65,8 +91,25 @@ export type SpectrumSearch = z.output<typeof spectrumSearchSchema>;
 
 /** The fields that narrow the rows (everything but the page position and size). */
 export const FILTER_KEYS = [
-  "q", "project", "sample", "material", "technique", "uploader", "from", "to", "status",
-  "flag", "flagMin", "flagSig", "review", "band", "bandMin", "bandMax", "bandUnit", "sizeMin", "sizeMax",
+  "q",
+  "project",
+  "sample",
+  "material",
+  "technique",
+  "uploader",
+  "from",
+  "to",
+  "status",
+  "flag",
+  "flagMin",
+  "flagSig",
+  "review",
+  "band",
+  "bandMin",
+  "bandMax",
+  "bandUnit",
+  "sizeMin",
+  "sizeMax",
 ] as const satisfies readonly (keyof SpectrumSearch)[];
 
 export function hasFilters(s: SpectrumSearch): boolean {

@@ -24,11 +24,17 @@ export function parseTypedRows(text: string): RowsOutcome {
     const cells = line.split(/[,;\t ]+/);
     const values = cells.map(Number);
     if ((cells.length !== 4 && cells.length !== 5) || values.some((v) => !Number.isFinite(v))) {
-      errors.push(`Points, line ${i + 1}: give four numbers (added A µM, added X µM, absorbance at A's wavelength, at X's) and optionally a path length in cm; found "${line.slice(0, 60)}"`);
+      errors.push(
+        `Points, line ${i + 1}: give four numbers (added A µM, added X µM, absorbance at A's wavelength, at X's) and optionally a path length in cm; found "${line.slice(0, 60)}"`,
+      );
       return;
     }
     rows.push({
-      label: `Points, line ${i + 1}`, addedA: values[0]!, addedX: values[1]!, atA: values[2]!, atX: values[3]!,
+      label: `Points, line ${i + 1}`,
+      addedA: values[0]!,
+      addedX: values[1]!,
+      atA: values[2]!,
+      atX: values[3]!,
       ...(values.length === 5 ? { pathLengthCm: values[4]! } : {}),
     });
   });
@@ -38,7 +44,9 @@ export function parseTypedRows(text: string): RowsOutcome {
 /** The typed form of rows (the inverse of parseTypedRows), so linked values can be corrected by hand. */
 export function formatTypedRows(rows: readonly DepletionRowInput[]): string {
   const n = (v: number) => Number(v.toPrecision(6)).toString();
-  return rows.map((r) => [r.addedA, r.addedX, r.atA, r.atX, ...(r.pathLengthCm !== undefined ? [r.pathLengthCm] : [])].map(n).join(", ")).join("\n");
+  return rows
+    .map((r) => [r.addedA, r.addedX, r.atA, r.atX, ...(r.pathLengthCm !== undefined ? [r.pathLengthCm] : [])].map(n).join(", "))
+    .join("\n");
 }
 
 /**
@@ -67,7 +75,14 @@ export function rowsFromReadings(readings: SupernatantReadings, addedFrom: Added
       notes.push(`${s.fileName} left out: nothing of dot X was added at ${variableName || "value"} ${point.seriesValue}`);
       continue;
     }
-    rows.push({ label: s.fileName, addedA, addedX, atA: s.atA, atX: s.atX, ...(s.pathLengthCm !== null ? { pathLengthCm: s.pathLengthCm } : {}) });
+    rows.push({
+      label: s.fileName,
+      addedA,
+      addedX,
+      atA: s.atA,
+      atX: s.atX,
+      ...(s.pathLengthCm !== null ? { pathLengthCm: s.pathLengthCm } : {}),
+    });
   }
   return { rows, notes, errors };
 }
@@ -76,7 +91,10 @@ export function rowsFromReadings(readings: SupernatantReadings, addedFrom: Added
  * Overlap ratios from spectra of the pure dots: rA = A(λX)/A(λA), rX = X(λA)/X(λX); an absent
  * spectrum gives no ratio (0), and a slightly negative one (noise on a flat baseline) counts as 0.
  */
-export function overlapFromPure(pureA: AbsorbanceReading | null, pureX: AbsorbanceReading | null): { ratios: OverlapRatios; errors: string[] } {
+export function overlapFromPure(
+  pureA: AbsorbanceReading | null,
+  pureX: AbsorbanceReading | null,
+): { ratios: OverlapRatios; errors: string[] } {
   const errors: string[] = [];
   const ratios: OverlapRatios = {};
   const ratio = (r: AbsorbanceReading, over: "atA" | "atX", label: string) => {
@@ -86,7 +104,9 @@ export function overlapFromPure(pureA: AbsorbanceReading | null, pureX: Absorban
     }
     const denominator = r[over]!;
     if (!(denominator > 0)) {
-      errors.push(`${label}: ${r.fileName} has no positive absorbance at its own dot's wavelength (${denominator.toPrecision(3)}), so it cannot scale the overlap`);
+      errors.push(
+        `${label}: ${r.fileName} has no positive absorbance at its own dot's wavelength (${denominator.toPrecision(3)}), so it cannot scale the overlap`,
+      );
       return undefined;
     }
     const value = (over === "atA" ? r.atX! : r.atA!) / denominator;

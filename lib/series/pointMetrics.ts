@@ -26,7 +26,8 @@ export function pointMetrics(report: ReportPart | null, isReference: boolean, te
   let area: number | null = null;
   for (const band of bands) {
     if (band.energyEv === null) continue;
-    const peak = (report.peaks ?? []).filter((p) => p.area !== null && Math.abs(p.energyEv - band.energyEv!) <= 0.03)
+    const peak = (report.peaks ?? [])
+      .filter((p) => p.area !== null && Math.abs(p.energyEv - band.energyEv!) <= 0.03)
       .sort((a, b) => Math.abs(a.energyEv - band.energyEv!) - Math.abs(b.energyEv - band.energyEv!))[0];
     if (peak?.area != null) area = (area ?? 0) + peak.area;
   }

@@ -7,7 +7,14 @@ import type { SternVolmerFit } from "@/lib/fits/fitSternVolmer";
 import { TECHNIQUE_SPECS, isTechnique, type SeriesPanel, type Technique, type TechniqueSpec } from "@/lib/registry/techniques";
 import type { SeriesFits } from "./analyseSeries";
 
-export type PanelPoint = { value: number | null; technique: string; bleachFraction: number | null; quenchFraction: number | null; shiftMeV: number | null; newBandArea: number | null };
+export type PanelPoint = {
+  value: number | null;
+  technique: string;
+  bleachFraction: number | null;
+  quenchFraction: number | null;
+  shiftMeV: number | null;
+  newBandArea: number | null;
+};
 
 export type PanelData = {
   key: SeriesPanel;
@@ -59,21 +66,42 @@ export function seriesPanels(technique: Technique, rows: PanelPoint[], fits: Ser
   const pts = rows.filter((p): p is PanelPoint & { value: number } => p.value !== null);
   if (pts.length === 0) return [];
   const x = pts.map((p) => p.value);
-  const lo = Math.min(...x), hi = Math.max(...x);
+  const lo = Math.min(...x),
+    hi = Math.max(...x);
   const spec: TechniqueSpec = TECHNIQUE_SPECS[technique];
   const build: Record<SeriesPanel, () => PanelData> = {
     bleach: () => ({
-      key: "bleach", title: `Bleach of the ${spec.firstBandLabel}`, yLabel: "bleach (%)", x,
+      key: "bleach",
+      title: `Bleach of the ${spec.firstBandLabel}`,
+      yLabel: "bleach (%)",
+      x,
       y: pts.map((p) => (p.bleachFraction === null ? null : p.bleachFraction * 100)),
       fit: fits.saturation.fit ? { ...saturationLine(fits.saturation.fit, lo, hi), label: "two-line fit" } : null,
     }),
     "stern-volmer": () => ({
-      key: "stern-volmer", title: "Stern–Volmer: F₀/F against [Q]", yLabel: "F₀/F", x,
+      key: "stern-volmer",
+      title: "Stern–Volmer: F₀/F against [Q]",
+      yLabel: "F₀/F",
+      x,
       y: sternVolmerRatios(pts.map((p) => p.quenchFraction)),
       fit: fits.sternVolmer.fit ? { ...sternVolmerLine(fits.sternVolmer.fit, lo, hi), label: "fitted line" } : null,
     }),
-    "new-band": () => ({ key: "new-band", title: "New-band area", yLabel: "area (signal · eV)", x, y: pts.map((p) => p.newBandArea), fit: null }),
-    shift: () => ({ key: "shift", title: `Shift of the ${spec.firstBandLabel}`, yLabel: "shift (meV)", x, y: pts.map((p) => p.shiftMeV), fit: null }),
+    "new-band": () => ({
+      key: "new-band",
+      title: "New-band area",
+      yLabel: "area (signal · eV)",
+      x,
+      y: pts.map((p) => p.newBandArea),
+      fit: null,
+    }),
+    shift: () => ({
+      key: "shift",
+      title: `Shift of the ${spec.firstBandLabel}`,
+      yLabel: "shift (meV)",
+      x,
+      y: pts.map((p) => p.shiftMeV),
+      fit: null,
+    }),
   };
   return spec.seriesPlot
     .map((k) => build[k]())

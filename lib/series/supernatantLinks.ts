@@ -39,22 +39,38 @@ export async function setSupernatantLink(actor: Actor, seriesId: string, input: 
   const { series, groupId } = await seriesForLinking(actor, seriesId);
   const supernatant = await Spectrum.findByPk(input.supernatantSpectrumId);
   if (!supernatant || supernatant.projectId !== series.projectId) {
-    throw refuse(404, `supernatantSpectrumId: spectrum ${input.supernatantSpectrumId} was not found in this series' project`, "supernatantSpectrumId");
+    throw refuse(
+      404,
+      `supernatantSpectrumId: spectrum ${input.supernatantSpectrumId} was not found in this series' project`,
+      "supernatantSpectrumId",
+    );
   }
   const previous = supernatant.supernatantOfSpectrumId
     ? await Spectrum.findByPk(supernatant.supernatantOfSpectrumId, { attributes: ["id", "seriesId", "fileName"] })
     : null;
   if (previous && previous.seriesId !== series.id) {
-    throw refuse(409, `supernatantSpectrumId: ${supernatant.fileName} is the supernatant of a point of another series; unlink it there first`, "supernatantSpectrumId");
+    throw refuse(
+      409,
+      `supernatantSpectrumId: ${supernatant.fileName} is the supernatant of a point of another series; unlink it there first`,
+      "supernatantSpectrumId",
+    );
   }
 
   let point: Spectrum | null = null;
   if (input.pointSpectrumId !== null) {
     if (supernatant.technique !== "absorption") {
-      throw refuse(400, `supernatantSpectrumId: ${supernatant.fileName} is a ${supernatant.technique} spectrum; a supernatant must be an absorption spectrum`, "supernatantSpectrumId");
+      throw refuse(
+        400,
+        `supernatantSpectrumId: ${supernatant.fileName} is a ${supernatant.technique} spectrum; a supernatant must be an absorption spectrum`,
+        "supernatantSpectrumId",
+      );
     }
     if (supernatant.seriesId !== null) {
-      throw refuse(400, `supernatantSpectrumId: ${supernatant.fileName} is itself a point of a series; upload the supernatant without a series and link it here`, "supernatantSpectrumId");
+      throw refuse(
+        400,
+        `supernatantSpectrumId: ${supernatant.fileName} is itself a point of a series; upload the supernatant without a series and link it here`,
+        "supernatantSpectrumId",
+      );
     }
     point = await Spectrum.findByPk(input.pointSpectrumId, { attributes: ["id", "seriesId", "fileName"] });
     if (!point || point.seriesId !== series.id) {
@@ -62,7 +78,11 @@ export async function setSupernatantLink(actor: Actor, seriesId: string, input: 
     }
     const taken = await Spectrum.findOne({ where: { supernatantOfSpectrumId: point.id }, attributes: ["id", "fileName"] });
     if (taken && taken.id !== supernatant.id) {
-      throw refuse(409, `pointSpectrumId: ${point.fileName} already has ${taken.fileName} as its supernatant; unlink that one first`, "pointSpectrumId");
+      throw refuse(
+        409,
+        `pointSpectrumId: ${point.fileName} already has ${taken.fileName} as its supernatant; unlink that one first`,
+        "pointSpectrumId",
+      );
     }
   }
 
@@ -76,11 +96,23 @@ export async function setSupernatantLink(actor: Actor, seriesId: string, input: 
   try {
     await db.transaction(async (transaction) => {
       await Spectrum.update({ supernatantOfSpectrumId: outcome.pointSpectrumId }, { where: { id: supernatant.id }, transaction });
-      await recordAudit({
-        actorId: actor.id, actorLabel: actor.email, groupId,
-        action: point ? "supernatant-linked" : "supernatant-unlinked", targetType: "spectrum", targetId: supernatant.id,
-        details: { seriesId: series.id, pointSpectrumId: outcome.pointSpectrumId, previousPointSpectrumId: outcome.previousPointSpectrumId, fileName: supernatant.fileName },
-      }, transaction);
+      await recordAudit(
+        {
+          actorId: actor.id,
+          actorLabel: actor.email,
+          groupId,
+          action: point ? "supernatant-linked" : "supernatant-unlinked",
+          targetType: "spectrum",
+          targetId: supernatant.id,
+          details: {
+            seriesId: series.id,
+            pointSpectrumId: outcome.pointSpectrumId,
+            previousPointSpectrumId: outcome.previousPointSpectrumId,
+            fileName: supernatant.fileName,
+          },
+        },
+        transaction,
+      );
     });
   } catch (error) {
     if (error instanceof UniqueConstraintError || (error instanceof DatabaseError && /supernatant/.test(error.message))) {

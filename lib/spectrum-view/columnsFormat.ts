@@ -23,7 +23,8 @@ const bytesPer = (type: ColumnType) => (type === "f64" ? 8 : 4);
 
 export function encodeColumns(head: ColumnsHead, columns: Column[]): Uint8Array {
   for (const c of columns) {
-    if (c.values.length !== head.points) throw new RangeError(`column ${c.name} has ${c.values.length} values, the head says ${head.points}`);
+    if (c.values.length !== head.points)
+      throw new RangeError(`column ${c.name} has ${c.values.length} values, the head says ${head.points}`);
   }
   const headBytes = new TextEncoder().encode(JSON.stringify({ ...head, columns: columns.map(({ name, type }) => ({ name, type })) }));
   const dataStart = Math.ceil((8 + headBytes.length) / 8) * 8;
@@ -45,7 +46,10 @@ export function encodeColumns(head: ColumnsHead, columns: Column[]): Uint8Array 
   return out;
 }
 
-export type DecodedColumns = { head: ColumnsHead & { columns: { name: string; type: ColumnType }[] }; columns: Record<string, Float64Array | Float32Array> };
+export type DecodedColumns = {
+  head: ColumnsHead & { columns: { name: string; type: ColumnType }[] };
+  columns: Record<string, Float64Array | Float32Array>;
+};
 
 export function decodeColumns(bytes: ArrayBuffer | Uint8Array): DecodedColumns {
   const u8 = bytes instanceof Uint8Array ? bytes : new Uint8Array(bytes);

@@ -29,7 +29,8 @@ export function deriveViewArrays(report: AnalysisReport, sample: ParsedSpectrum,
   if (!p?.grid || !p.smoothing) throw new RangeError("report.parameters must hold grid and smoothing (an analysis report)");
   const technique = report.technique;
   const grid = { from: p.grid.minEv, to: p.grid.maxEv, n: p.grid.points };
-  if (!(grid.to > grid.from) || !Number.isInteger(grid.n) || grid.n < 2) throw new RangeError("report.parameters.grid is not a usable grid");
+  if (!(grid.to > grid.from) || !Number.isInteger(grid.n) || grid.n < 2)
+    throw new RangeError("report.parameters.grid is not a usable grid");
   const o: ProcessOptions = {
     technique,
     windowSize: p.smoothing.windowSize,

@@ -1,4 +1,3 @@
-
 import { TECHNIQUE_SPECS, type Technique } from "@/lib/registry/techniques";
 import type { AnalysisReport } from "@/lib/engine/types";
 import { toDisplayAxis, type DisplayAxis } from "./axis";
@@ -14,11 +13,24 @@ type View = { arrays: ViewArrays; technique: Technique; yUnit: string };
 
 export type ExportRequest =
   | { format: "json"; spectrum: SpectrumRef; runId: string; report: AnalysisReport }
-  | { format: "csv" | "jcamp"; spectrum: SpectrumRef; runId: string; report: AnalysisReport; axis: DisplayAxis; series: SeriesKey; view: View };
+  | {
+      format: "csv" | "jcamp";
+      spectrum: SpectrumRef;
+      runId: string;
+      report: AnalysisReport;
+      axis: DisplayAxis;
+      series: SeriesKey;
+      view: View;
+    };
 
 export type ExportedFile = { body: string; contentType: string; disposition: string; fileName: string };
 
-const SERIES_TITLES: Record<SeriesKey, string> = { raw: "measured", smoothed: "smoothed", reference: "reference", difference: "difference" };
+const SERIES_TITLES: Record<SeriesKey, string> = {
+  raw: "measured",
+  smoothed: "smoothed",
+  reference: "reference",
+  difference: "difference",
+};
 const JCAMP_X_UNITS: Record<DisplayAxis, string> = { nm: "NANOMETERS", ev: "EV", "cm-1": "1/CM" };
 
 function disposition(fileName: string): string {
@@ -33,14 +45,24 @@ export function exportFile(req: ExportRequest): ExportedFile {
   const base = baseName(req.spectrum.fileName);
   if (req.format === "json") {
     const fileName = `${base}.analysis-${req.runId.slice(0, 8)}.json`;
-    return { body: JSON.stringify(req.report, null, 2), contentType: "application/json; charset=utf-8", disposition: disposition(fileName), fileName };
+    return {
+      body: JSON.stringify(req.report, null, 2),
+      contentType: "application/json; charset=utf-8",
+      disposition: disposition(fileName),
+      fileName,
+    };
   }
   const { arrays, technique, yUnit } = req.view;
   const yLabel = yLabelFor(technique, yUnit, arrays.emission, req.axis);
   const valueWord = arrays.emission ? "counts" : TECHNIQUE_SPECS[technique].valueWord;
-  const d = toDisplayAxis(arrays.energyEv, { raw: arrays.raw, smoothed: arrays.smoothed, reference: arrays.reference, difference: arrays.difference }, req.axis, {
-    emission: arrays.emission,
-  });
+  const d = toDisplayAxis(
+    arrays.energyEv,
+    { raw: arrays.raw, smoothed: arrays.smoothed, reference: arrays.reference, difference: arrays.difference },
+    req.axis,
+    {
+      emission: arrays.emission,
+    },
+  );
   if (req.format === "csv") {
     const fileName = `${base}.processed-${req.axis}.csv`;
     const body = writeCsv(d, {
@@ -71,7 +93,9 @@ export function exportFile(req: ExportRequest): ExportedFile {
     labels: { "BANDKEEP RUN": req.runId, "BANDKEEP ENGINE": req.report.engineVersion, "BANDKEEP TECHNIQUE": technique },
     comments: [
       `${SERIES_TITLES[req.series]} curve of analysis run ${req.runId}; values: ${yLabel}`,
-      ...(req.axis === "nm" ? ["the analysis grid is uniform in energy: values were interpolated linearly onto equal wavelength steps"] : []),
+      ...(req.axis === "nm"
+        ? ["the analysis grid is uniform in energy: values were interpolated linearly onto equal wavelength steps"]
+        : []),
     ],
   });
   return { body, contentType: "chemical/x-jcamp-dx; charset=utf-8", disposition: disposition(fileName), fileName };

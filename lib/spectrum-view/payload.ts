@@ -41,9 +41,14 @@ type PayloadMeta = { spectrumId: string; runId: string; technique: Technique; yU
 
 /** The head and curves of the data endpoint on one display axis, before encoding. */
 function displayColumns(arrays: ViewArrays, axis: DisplayAxis, meta: PayloadMeta) {
-  const d = toDisplayAxis(arrays.energyEv, { raw: arrays.raw, smoothed: arrays.smoothed, reference: arrays.reference, difference: arrays.difference }, axis, {
-    emission: arrays.emission,
-  });
+  const d = toDisplayAxis(
+    arrays.energyEv,
+    { raw: arrays.raw, smoothed: arrays.smoothed, reference: arrays.reference, difference: arrays.difference },
+    axis,
+    {
+      emission: arrays.emission,
+    },
+  );
   const head = {
     spectrumId: meta.spectrumId,
     runId: meta.runId,

@@ -3,7 +3,12 @@ import { THRESHOLD_SPECS } from "@/lib/registry/flagKinds";
 import { thresholdFieldsOf } from "@/lib/registry/derive";
 import { thresholdSchema } from "@/lib/registry/schemas";
 import { parseDecimal } from "@/lib/text/parseDecimal";
-import { MAX_CONCENTRATION_RATIO, NORMALIZATION_MODES, NORMALIZATION_WAVELENGTH_NM, concentrationRatioInRange } from "@/lib/ingest/normalization";
+import {
+  MAX_CONCENTRATION_RATIO,
+  NORMALIZATION_MODES,
+  NORMALIZATION_WAVELENGTH_NM,
+  concentrationRatioInRange,
+} from "@/lib/ingest/normalization";
 
 // The re-run form, parsed with the same schema in the browser (before sending) and in the server
 // action. Empty fields keep the earlier run's value. Field names are the form's input names.
@@ -15,7 +20,10 @@ const numberField = (label: string) =>
       const b = blank(v);
       return typeof b === "string" ? parseDecimal(b) : b;
     },
-    z.number({ error: `${label} must be a number` }).refine(Number.isFinite, `${label} must be a number`).optional(),
+    z
+      .number({ error: `${label} must be a number` })
+      .refine(Number.isFinite, `${label} must be a number`)
+      .optional(),
   );
 
 /** One field per threshold of the flag-kind registry (name, label, default hint, bounds). */
@@ -34,18 +42,34 @@ export const rerunFormSchema = z
         .optional(),
     ),
     smoothingPolynomial: numberField("Polynomial order").pipe(
-      z.number().int("Polynomial order must be a whole number").min(2, "Polynomial order must be at least 2").max(6, "Polynomial order must be at most 6").optional(),
+      z
+        .number()
+        .int("Polynomial order must be a whole number")
+        .min(2, "Polynomial order must be at least 2")
+        .max(6, "Polynomial order must be at most 6")
+        .optional(),
     ),
     baseline: z.preprocess(blank, z.enum(["none", "offset", "scatter"], { error: "Baseline must be none, offset or scatter" }).optional()),
     /** Sent only when the parent picker changed: a spectrum id, or "none" for no parent. */
-    referenceSpectrumId: z.preprocess(blank, z.union([z.literal("none"), z.string().uuid("Parent reference must be one of the listed spectra")]).optional()),
+    referenceSpectrumId: z.preprocess(
+      blank,
+      z.union([z.literal("none"), z.string().uuid("Parent reference must be one of the listed spectra")]).optional(),
+    ),
     ...Object.fromEntries(
       THRESHOLD_FIELDS.map((f) => [
         f.name,
-        numberField(f.label).pipe(thresholdSchema(THRESHOLD_SPECS.find((t) => t.name === f.name)!, f.label).optional()),
+        numberField(f.label).pipe(
+          thresholdSchema(
+            THRESHOLD_SPECS.find((t) => t.name === f.name)!,
+            f.label,
+          ).optional(),
+        ),
       ]),
     ),
-    normalizationMode: z.preprocess(blank, z.enum(NORMALIZATION_MODES, { error: "Normalisation must be automatic, none, at a wavelength or by concentration" }).optional()),
+    normalizationMode: z.preprocess(
+      blank,
+      z.enum(NORMALIZATION_MODES, { error: "Normalisation must be automatic, none, at a wavelength or by concentration" }).optional(),
+    ),
     normalizationWavelengthNm: numberField("Wavelength"),
     sampleConcentration: numberField("Sample concentration"),
     referenceConcentration: numberField("Reference concentration"),
@@ -54,21 +78,30 @@ export const rerunFormSchema = z
     const w = v.smoothingWindow as number | undefined;
     const p = v.smoothingPolynomial as number | undefined;
     if (w !== undefined && p !== undefined && p >= w) {
-      ctx.addIssue({ code: "custom", path: ["smoothingPolynomial"], message: "Polynomial order must be smaller than the smoothing window" });
+      ctx.addIssue({
+        code: "custom",
+        path: ["smoothingPolynomial"],
+        message: "Polynomial order must be smaller than the smoothing window",
+      });
     }
     for (const issue of normalizationIssues(v)) ctx.addIssue({ code: "custom", ...issue });
   });
 
 /** The normalisation fields that the chosen mode needs, checked against the API's bounds (lib/ingest/normalization.ts). */
 function normalizationIssues(v: {
-  normalizationMode?: string; normalizationWavelengthNm?: number; sampleConcentration?: number; referenceConcentration?: number;
+  normalizationMode?: string;
+  normalizationWavelengthNm?: number;
+  sampleConcentration?: number;
+  referenceConcentration?: number;
 }): { path: string[]; message: string }[] {
   const issues: { path: string[]; message: string }[] = [];
   if (v.normalizationMode === "wavelength") {
     const { min, max } = NORMALIZATION_WAVELENGTH_NM;
     const nm = v.normalizationWavelengthNm;
-    if (nm === undefined) issues.push({ path: ["normalizationWavelengthNm"], message: "Enter the wavelength to scale the sample to its reference at" });
-    else if (nm < min || nm > max) issues.push({ path: ["normalizationWavelengthNm"], message: `Wavelength must lie between ${min} and ${max} nm` });
+    if (nm === undefined)
+      issues.push({ path: ["normalizationWavelengthNm"], message: "Enter the wavelength to scale the sample to its reference at" });
+    else if (nm < min || nm > max)
+      issues.push({ path: ["normalizationWavelengthNm"], message: `Wavelength must lie between ${min} and ${max} nm` });
   }
   if (v.normalizationMode === "concentration") {
     const fields = [
@@ -81,7 +114,10 @@ function normalizationIssues(v: {
     }
     const [s, r] = [v.sampleConcentration, v.referenceConcentration];
     if (issues.length === 0 && s !== undefined && r !== undefined && !concentrationRatioInRange(s, r)) {
-      issues.push({ path: ["referenceConcentration"], message: `The two concentrations must lie within a factor of ${MAX_CONCENTRATION_RATIO} of each other` });
+      issues.push({
+        path: ["referenceConcentration"],
+        message: `The two concentrations must lie within a factor of ${MAX_CONCENTRATION_RATIO} of each other`,
+      });
     }
   }
   return issues;
@@ -129,7 +165,8 @@ export function formFieldOf(apiField: string | undefined, message: string): { fi
   if (apiField.startsWith("thresholds.")) return { field: apiField.slice("thresholds.".length), message };
   if (apiField === "normalization.wavelengthNm") return { field: "normalizationWavelengthNm", message: `Wavelength ${bare}` };
   if (apiField === "normalization.sampleConcentration") return { field: "sampleConcentration", message: `Sample concentration ${bare}` };
-  if (apiField === "normalization.referenceConcentration") return { field: "referenceConcentration", message: `Reference concentration ${bare}` };
+  if (apiField === "normalization.referenceConcentration")
+    return { field: "referenceConcentration", message: `Reference concentration ${bare}` };
   if (apiField.startsWith("normalization")) return { field: "normalizationMode", message: `Normalisation ${bare}` };
   return { field: apiField, message };
 }

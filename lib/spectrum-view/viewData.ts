@@ -76,7 +76,7 @@ async function lookupRun(spectrumId: string, runId?: string): Promise<ViewRun | 
   return runId
     ? await AnalysisRun.findOne({ where: { id: runId, spectrumId }, attributes })
     : ((await AnalysisRun.findOne({ where: { spectrumId, status: "done" }, order: [["createdAt", "DESC"]], attributes })) ??
-      (await AnalysisRun.findOne({ where: { spectrumId, status: { [Op.ne]: "done" } }, order: [["createdAt", "DESC"]], attributes })));
+        (await AnalysisRun.findOne({ where: { spectrumId, status: { [Op.ne]: "done" } }, order: [["createdAt", "DESC"]], attributes })));
 }
 
 function checkedRun(spectrum: Spectrum, run: ViewRun | null, runId?: string): { spectrum: Spectrum; run: ViewRun } {
@@ -85,7 +85,8 @@ function checkedRun(spectrum: Spectrum, run: ViewRun | null, runId?: string): { 
     if (spectrum.status === "failed") throw new Refusal(422, "analysis-failed", spectrum.errorMessage ?? "the file could not be read");
     throw new Refusal(409, "not-ready", "this spectrum has not been analysed yet; try again when its analysis has finished.");
   }
-  if (run.status === "failed") throw new Refusal(422, "analysis-failed", run.errorMessage ?? spectrum.errorMessage ?? "the analysis failed");
+  if (run.status === "failed")
+    throw new Refusal(422, "analysis-failed", run.errorMessage ?? spectrum.errorMessage ?? "the analysis failed");
   if (run.status !== "done") throw new Refusal(409, "not-ready", `the analysis is ${run.status}; try again when it has finished.`);
   return { spectrum, run };
 }
@@ -111,14 +112,19 @@ function parsedStored(spectrum: Spectrum, choice: ReadChoice): Promise<ParsedSpe
 
 type ViewEntry = { arrays: ViewArrays; technique: Technique; yUnit: string };
 const MB = 1024 * 1024;
-const arraysCache = processSingleton("bandkeepViewArrays", () => new SizedLru<ViewEntry>(64 * MB, (v) => v.arrays.energyEv.length * 8 * 5 + 256));
+const arraysCache = processSingleton(
+  "bandkeepViewArrays",
+  () => new SizedLru<ViewEntry>(64 * MB, (v) => v.arrays.energyEv.length * 8 * 5 + 256),
+);
 const payloadCache = processSingleton("bandkeepViewPayloads", () => new SizedLru<Buffer>(96 * MB, (b) => b.length));
 const inflight = processSingleton("bandkeepViewInflight", () => new Map<string, Promise<ViewEntry>>());
 const REDIS_TTL_S = 7 * 24 * 3600;
 
 const arraysKey = (runId: string) => `${ENGINE_VERSION}:${runId}`;
 const payloadKey = (runId: string, axis: DisplayAxis, format: DataFormat) =>
-  format === "json" ? `bandkeep:view:v1:${ENGINE_VERSION}:${runId}:${axis}` : `bandkeep:view:v1:${ENGINE_VERSION}:${runId}:${axis}:${format}`;
+  format === "json"
+    ? `bandkeep:view:v1:${ENGINE_VERSION}:${runId}:${axis}`
+    : `bandkeep:view:v1:${ENGINE_VERSION}:${runId}:${axis}:${format}`;
 
 /** Re-derives (or takes from the in-process cache) the arrays of a finished run. Concurrent callers share one derivation. */
 export async function viewArraysOf(spectrum: Spectrum, run: ViewRun): Promise<{ arrays: ViewArrays; technique: Technique; yUnit: string }> {
@@ -131,7 +137,8 @@ export async function viewArraysOf(spectrum: Spectrum, run: ViewRun): Promise<{ 
       const report = await getRunReport(run.id);
       const params = (run.parameters ?? {}) as AnalysisParameters;
       const reference = run.referenceSpectrumId ? await Spectrum.findByPk(run.referenceSpectrumId) : null;
-      if (run.referenceSpectrumId && !reference) throw new Refusal(409, "reference-missing", "the parent reference of this analysis was deleted.");
+      if (run.referenceSpectrumId && !reference)
+        throw new Refusal(409, "reference-missing", "the parent reference of this analysis was deleted.");
       const [sample, parsedRef] = await Promise.all([
         parsedStored(spectrum, readChoiceOf(params)),
         reference ? parsedStored(reference, storedReadChoice(reference)) : Promise.resolve(null),
@@ -175,7 +182,8 @@ export async function dataPayload(
   }
   const { arrays, technique, yUnit } = await viewArraysOf(spectrum, run);
   const meta = { spectrumId: spectrum.id, runId: run.id, technique, yUnit };
-  const body = format === "binary" ? Buffer.from(buildBinaryPayload(arrays, axis, meta)) : Buffer.from(buildDataPayload(arrays, axis, meta), "utf8");
+  const body =
+    format === "binary" ? Buffer.from(buildBinaryPayload(arrays, axis, meta)) : Buffer.from(buildDataPayload(arrays, axis, meta), "utf8");
   payloadCache.set(key, body);
   redis()
     .set(key, body, "EX", REDIS_TTL_S)

@@ -33,8 +33,16 @@ export type DeleteRequest = {
 };
 
 type SpectrumRow = {
-  id: string; project_id: string; group_id: string; series_id: string | null; sample_id: string | null; file_name: string;
-  object_key: string; sha256: string; size_bytes: string; status: string;
+  id: string;
+  project_id: string;
+  group_id: string;
+  series_id: string | null;
+  sample_id: string | null;
+  file_name: string;
+  object_key: string;
+  sha256: string;
+  size_bytes: string;
+  status: string;
 };
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
@@ -43,7 +51,10 @@ const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
  * The first active legal hold covering a spectrum (through project, series, sample or itself;
  * a supernatant through its point's series).
  */
-export async function holdCoveringSpectrum(spectrumId: string, transaction?: Transaction): Promise<{ reason: string; targetType: string } | null> {
+export async function holdCoveringSpectrum(
+  spectrumId: string,
+  transaction?: Transaction,
+): Promise<{ reason: string; targetType: string } | null> {
   const db = models();
   const rows = await db.query<{ reason: string; target_type: string }>(
     `SELECT h.reason, h.target_type FROM spectra s JOIN legal_holds h ON h.lifted_at IS NULL AND (
@@ -61,10 +72,11 @@ export function holdMessage(hold: { reason: string; targetType: string }): strin
 }
 
 async function dependentOf(spectrumId: string, transaction: Transaction): Promise<string | null> {
-  const rows = await models().query<{ file_name: string }>(
-    "SELECT file_name FROM spectra WHERE reference_spectrum_id = :id LIMIT 1",
-    { replacements: { id: spectrumId }, type: QueryTypes.SELECT, transaction },
-  );
+  const rows = await models().query<{ file_name: string }>("SELECT file_name FROM spectra WHERE reference_spectrum_id = :id LIMIT 1", {
+    replacements: { id: spectrumId },
+    type: QueryTypes.SELECT,
+    transaction,
+  });
   return rows[0]?.file_name ?? null;
 }
 
@@ -92,16 +104,31 @@ export async function beginSpectrumDeletion(spectrumId: string, request: DeleteR
     const hold = await holdCoveringSpectrum(spectrumId, transaction);
     if (hold) throw deletionRefused(holdMessage(hold), "held");
     const dependent = await dependentOf(spectrumId, transaction);
-    if (dependent) throw deletionRefused(`This spectrum is the reference of "${dependent}", which is kept; delete or re-reference that one first.`, "referenced");
-    if (row.status === "queued" || row.status === "analysing") throw deletionRefused("An analysis of this spectrum is queued or running; try again when it has finished.", "busy");
+    if (dependent)
+      throw deletionRefused(
+        `This spectrum is the reference of "${dependent}", which is kept; delete or re-reference that one first.`,
+        "referenced",
+      );
+    if (row.status === "queued" || row.status === "analysing")
+      throw deletionRefused("An analysis of this spectrum is queued or running; try again when it has finished.", "busy");
     const pending = await Tombstone.findOne({ where: { targetType: "spectrum", targetId: spectrumId, state: "pending" }, transaction });
     if (pending) return pending;
     return Tombstone.create(
       {
-        groupId: row.group_id, projectId: row.project_id, policyId: request.policyId ?? null,
-        dataClass: row.status === "failed" ? "drafts" : "raw", targetType: "spectrum", targetId: row.id, label: row.file_name,
-        objectKey: row.object_key, sha256: row.sha256, sizeBytes: Number(row.size_bytes), cause: request.cause, actorId: request.actorId,
-        completedAt: null, details: { actorLabel: request.actorLabel, seriesId: row.series_id, sampleId: row.sample_id },
+        groupId: row.group_id,
+        projectId: row.project_id,
+        policyId: request.policyId ?? null,
+        dataClass: row.status === "failed" ? "drafts" : "raw",
+        targetType: "spectrum",
+        targetId: row.id,
+        label: row.file_name,
+        objectKey: row.object_key,
+        sha256: row.sha256,
+        sizeBytes: Number(row.size_bytes),
+        cause: request.cause,
+        actorId: request.actorId,
+        completedAt: null,
+        details: { actorLabel: request.actorLabel, seriesId: row.series_id, sampleId: row.sample_id },
       },
       { transaction },
     );
@@ -112,14 +139,24 @@ export async function beginSpectrumDeletion(spectrumId: string, request: DeleteR
  * Step 2 (also the recovery step): deletes the row and its object and closes the
  * tombstone. Returns the final state. Safe to call again after any interruption.
  */
-export async function completeTombstone(tombstoneId: string, request: Pick<DeleteRequest, "pauseMs"> = {}): Promise<"done" | "cancelled" | "skipped"> {
+export async function completeTombstone(
+  tombstoneId: string,
+  request: Pick<DeleteRequest, "pauseMs"> = {},
+): Promise<"done" | "cancelled" | "skipped"> {
   const db = models();
   return db.transaction(async (transaction) => {
-    const t = await Tombstone.findOne({ where: { id: tombstoneId, state: "pending" }, transaction, lock: transaction.LOCK.UPDATE, skipLocked: true });
+    const t = await Tombstone.findOne({
+      where: { id: tombstoneId, state: "pending" },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+      skipLocked: true,
+    });
     if (!t) return "skipped";
     const actorLabel = String((t.details as { actorLabel?: string }).actorLabel ?? "retention sweep");
     const [exists] = await db.query<{ id: string }>("SELECT id FROM spectra WHERE id = :id FOR UPDATE", {
-      replacements: { id: t.targetId }, type: QueryTypes.SELECT, transaction,
+      replacements: { id: t.targetId },
+      type: QueryTypes.SELECT,
+      transaction,
     });
     if (exists) {
       const hold = await holdCoveringSpectrum(t.targetId, transaction);
@@ -127,22 +164,46 @@ export async function completeTombstone(tombstoneId: string, request: Pick<Delet
       if (hold || dependent) {
         // Placed between the two steps. If the object is still there nothing was lost: cancel.
         const stillStored = t.objectKey ? await objectExists(t.objectKey) : true;
-        await t.update({ state: "cancelled", completedAt: new Date(), details: { ...t.details, cancelledBecause: hold ? "hold" : "referenced", objectLost: !stillStored } }, { transaction });
+        await t.update(
+          {
+            state: "cancelled",
+            completedAt: new Date(),
+            details: { ...t.details, cancelledBecause: hold ? "hold" : "referenced", objectLost: !stillStored },
+          },
+          { transaction },
+        );
         return "cancelled";
       }
       await db.query("DELETE FROM spectra WHERE id = :id", { replacements: { id: t.targetId }, transaction });
     }
     // The traces of one file share its object (migrations/0010): it goes with the last spectrum that reads it.
     const [shared] = t.objectKey
-      ? await db.query<{ id: string }>("SELECT id FROM spectra WHERE object_key = :key LIMIT 1", { replacements: { key: t.objectKey }, type: QueryTypes.SELECT, transaction })
+      ? await db.query<{ id: string }>("SELECT id FROM spectra WHERE object_key = :key LIMIT 1", {
+          replacements: { key: t.objectKey },
+          type: QueryTypes.SELECT,
+          transaction,
+        })
       : [];
     if (t.objectKey && !shared) await deleteObject(t.objectKey); // idempotent: deleting a missing key succeeds
     if (request.pauseMs) await sleep(request.pauseMs);
     await t.update({ state: "done", completedAt: new Date() }, { transaction });
     await recordAudit(
       {
-        actorId: t.actorId, actorLabel, groupId: t.groupId, action: "deleted", targetType: "spectrum", targetId: t.targetId,
-        details: { fileName: t.label, sha256: t.sha256, sizeBytes: t.sizeBytes, cause: t.cause, policyId: t.policyId, dataClass: t.dataClass, tombstoneId: t.id },
+        actorId: t.actorId,
+        actorLabel,
+        groupId: t.groupId,
+        action: "deleted",
+        targetType: "spectrum",
+        targetId: t.targetId,
+        details: {
+          fileName: t.label,
+          sha256: t.sha256,
+          sizeBytes: t.sizeBytes,
+          cause: t.cause,
+          policyId: t.policyId,
+          dataClass: t.dataClass,
+          tombstoneId: t.id,
+        },
       },
       transaction,
     );
@@ -154,7 +215,8 @@ export async function completeTombstone(tombstoneId: string, request: Pick<Delet
 export async function deleteSpectrum(spectrumId: string, request: DeleteRequest): Promise<Tombstone> {
   const t = await beginSpectrumDeletion(spectrumId, request);
   const state = await completeTombstone(t.id, request);
-  if (state === "cancelled") throw deletionRefused("A legal hold or a dependent spectrum appeared while deleting; nothing was deleted.", "held");
+  if (state === "cancelled")
+    throw deletionRefused("A legal hold or a dependent spectrum appeared while deleting; nothing was deleted.", "held");
   await t.reload();
   return t;
 }
@@ -163,7 +225,15 @@ export async function deleteSpectrum(spectrumId: string, request: DeleteRequest)
 export async function deleteAnalysisRun(runId: string, request: DeleteRequest & { dataClass?: DataClass }): Promise<void> {
   const db = models();
   await db.transaction(async (transaction) => {
-    const [run] = await db.query<{ id: string; spectrum_id: string; project_id: string; group_id: string; file_name: string; report: string | null; status: string }>(
+    const [run] = await db.query<{
+      id: string;
+      spectrum_id: string;
+      project_id: string;
+      group_id: string;
+      file_name: string;
+      report: string | null;
+      status: string;
+    }>(
       `SELECT r.id, r.spectrum_id, s.project_id, p.group_id, s.file_name, r.report::text AS report, r.status
          FROM analysis_runs r JOIN spectra s ON s.id = r.spectrum_id JOIN projects p ON p.id = s.project_id WHERE r.id = :id FOR UPDATE OF r`,
       { replacements: { id: runId }, type: QueryTypes.SELECT, transaction },
@@ -175,9 +245,21 @@ export async function deleteAnalysisRun(runId: string, request: DeleteRequest & 
     const sha256 = run.report ? sha256Hex(run.report) : null;
     const t = await Tombstone.create(
       {
-        groupId: run.group_id, projectId: run.project_id, policyId: request.policyId ?? null, dataClass: "processed", targetType: "analysis-run",
-        targetId: run.id, label: `analysis of ${run.file_name}`, objectKey: null, sha256, sizeBytes: run.report ? Buffer.byteLength(run.report) : 0,
-        cause: request.cause, actorId: request.actorId, state: "done", completedAt: new Date(), details: { actorLabel: request.actorLabel, spectrumId: run.spectrum_id },
+        groupId: run.group_id,
+        projectId: run.project_id,
+        policyId: request.policyId ?? null,
+        dataClass: "processed",
+        targetType: "analysis-run",
+        targetId: run.id,
+        label: `analysis of ${run.file_name}`,
+        objectKey: null,
+        sha256,
+        sizeBytes: run.report ? Buffer.byteLength(run.report) : 0,
+        cause: request.cause,
+        actorId: request.actorId,
+        state: "done",
+        completedAt: new Date(),
+        details: { actorLabel: request.actorLabel, spectrumId: run.spectrum_id },
       },
       { transaction },
     );
@@ -191,8 +273,20 @@ export async function deleteAnalysisRun(runId: string, request: DeleteRequest & 
     );
     await recordAudit(
       {
-        actorId: request.actorId, actorLabel: request.actorLabel, groupId: run.group_id, action: "deleted", targetType: "analysis-run", targetId: run.id,
-        details: { spectrumId: run.spectrum_id, sha256, cause: request.cause, policyId: request.policyId ?? null, dataClass: "processed", tombstoneId: t.id },
+        actorId: request.actorId,
+        actorLabel: request.actorLabel,
+        groupId: run.group_id,
+        action: "deleted",
+        targetType: "analysis-run",
+        targetId: run.id,
+        details: {
+          spectrumId: run.spectrum_id,
+          sha256,
+          cause: request.cause,
+          policyId: request.policyId ?? null,
+          dataClass: "processed",
+          tombstoneId: t.id,
+        },
       },
       transaction,
     );

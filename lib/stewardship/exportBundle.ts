@@ -16,7 +16,12 @@ import { countOf } from "@/lib/format/quantity";
 
 export const BUNDLE_FORMAT = "bandkeep-bundle/1";
 
-export type ManifestFile = { path: string; sha256: string; bytes: number; kind: "raw" | "processed-csv" | "processed-jcamp" | "analysis" | "readme" };
+export type ManifestFile = {
+  path: string;
+  sha256: string;
+  bytes: number;
+  kind: "raw" | "processed-csv" | "processed-jcamp" | "analysis" | "readme";
+};
 export type Manifest = {
   format: typeof BUNDLE_FORMAT;
   createdAt: string;
@@ -26,11 +31,34 @@ export type Manifest = {
   group: string;
   project: { id: string; name: string; description: string };
   series: { id: string; name: string; kind: string; variableName: string; variableUnit: string }[];
-  samples: { id: string; name: string; material: string; coreShell: string; ligand: string; solvent: string; hazardClass: string; cautions: string[] }[];
+  samples: {
+    id: string;
+    name: string;
+    material: string;
+    coreShell: string;
+    ligand: string;
+    solvent: string;
+    hazardClass: string;
+    cautions: string[];
+  }[];
   spectra: {
-    id: string; fileName: string; sha256: string; sizeBytes: number; technique: string; status: string; sampleId: string | null; seriesId: string | null;
-    seriesValue: number | null; supernatantOfSpectrumId: string | null; referenceSpectrumId: string | null; pathLengthCm: number | null; excitationNm: number | null; solvent: string;
-    uploadedAt: string; files: string[]; note?: string;
+    id: string;
+    fileName: string;
+    sha256: string;
+    sizeBytes: number;
+    technique: string;
+    status: string;
+    sampleId: string | null;
+    seriesId: string | null;
+    seriesValue: number | null;
+    supernatantOfSpectrumId: string | null;
+    referenceSpectrumId: string | null;
+    pathLengthCm: number | null;
+    excitationNm: number | null;
+    solvent: string;
+    uploadedAt: string;
+    files: string[];
+    note?: string;
   }[];
   files: ManifestFile[];
 };
@@ -44,9 +72,15 @@ function processedCsv(p: ParsedSpectrum): string {
 function processedJcamp(s: Spectrum, p: ParsedSpectrum, groupName: string | undefined): string {
   const units = jcampUnits(p.xUnit, p.yUnit);
   return writeJcamp({
-    title: s.fileName, dataType: TECHNIQUE_SPECS[s.technique].jcampDataType, xUnits: units.xUnits, yUnits: units.yUnits,
-    x: p.x, y: units.yScale === 1 ? p.y : Float64Array.from(p.y, (v) => v * units.yScale),
-    origin: groupName ?? "Bandkeep", owner: groupName ?? "", labels: { "BANDKEEP SPECTRUM": s.id, "SOURCE SHA256": s.sha256 },
+    title: s.fileName,
+    dataType: TECHNIQUE_SPECS[s.technique].jcampDataType,
+    xUnits: units.xUnits,
+    yUnits: units.yUnits,
+    x: p.x,
+    y: units.yScale === 1 ? p.y : Float64Array.from(p.y, (v) => v * units.yScale),
+    origin: groupName ?? "Bandkeep",
+    owner: groupName ?? "",
+    labels: { "BANDKEEP SPECTRUM": s.id, "SOURCE SHA256": s.sha256 },
   });
 }
 
@@ -65,11 +99,17 @@ function readme(m: Omit<Manifest, "files">, hazardLines: string[]): string {
     "  manifest.json  the project, series, samples and spectra metadata, and the sha256 and size of",
     "               every file in this bundle except manifest.json itself",
     "",
-    "Checking the bundle: compute the sha256 of each file and compare it with manifest.json \"files\".",
+    'Checking the bundle: compute the sha256 of each file and compare it with manifest.json "files".',
     "A spectrum whose file could not be read has its raw file only; its manifest entry says why.",
     "",
-    ...(hazardLines.length ? ["Safety", ...hazardLines.map((l) => `  ${l}`),
-      "  Follow your institution's chemical hygiene plan, local regulations and licensed practice.", ""] : []),
+    ...(hazardLines.length
+      ? [
+          "Safety",
+          ...hazardLines.map((l) => `  ${l}`),
+          "  Follow your institution's chemical hygiene plan, local regulations and licensed practice.",
+          "",
+        ]
+      : []),
     "The numbers support, and do not replace, a scientist's judgement.",
     "",
   ].join("\n");
@@ -106,25 +146,39 @@ export async function streamBundle(target: { type: "project" | "series"; id: str
     seriesList = [series];
     targetName = series.name;
     // the points by their variable, then the supernatant spectra of the points, which travel with the series
-    spectrumIds = (await selectRows<{ id: string }>(
-      `(SELECT id, 0 AS part, series_value, created_at FROM spectra WHERE series_id = :id)
+    spectrumIds = (
+      await selectRows<{ id: string }>(
+        `(SELECT id, 0 AS part, series_value, created_at FROM spectra WHERE series_id = :id)
        UNION ALL
        (SELECT x.id, 1, NULL, x.created_at FROM spectra x JOIN spectra pt ON pt.id = x.supernatant_of_spectrum_id WHERE pt.series_id = :id)
-       ORDER BY part, series_value ASC NULLS LAST, created_at ASC, id`, { id: series.id })).map((r) => r.id);
+       ORDER BY part, series_value ASC NULLS LAST, created_at ASC, id`,
+        { id: series.id },
+      )
+    ).map((r) => r.id);
   } else {
     project = await Project.findByPk(target.id);
     seriesList = project ? await Series.findAll({ where: { projectId: project.id }, order: [["name", "ASC"]] }) : [];
     targetName = project?.name ?? "";
     spectrumIds = project
-      ? (await selectRows<{ id: string }>("SELECT id FROM spectra WHERE project_id = :id ORDER BY created_at ASC, id", { id: project.id })).map((r) => r.id)
+      ? (
+          await selectRows<{ id: string }>("SELECT id FROM spectra WHERE project_id = :id ORDER BY created_at ASC, id", { id: project.id })
+        ).map((r) => r.id)
       : [];
   }
   if (!project) throw new Error("project not found");
   const group = await Group.findByPk(project.groupId);
   const samples = spectrumIds.length
     ? await Sample.findAll({
-        where: { id: { [Op.in]: (await selectRows<{ id: string }>(
-          "SELECT DISTINCT sample_id AS id FROM spectra WHERE id IN (:ids) AND sample_id IS NOT NULL", { ids: spectrumIds })).map((r) => r.id) } },
+        where: {
+          id: {
+            [Op.in]: (
+              await selectRows<{ id: string }>(
+                "SELECT DISTINCT sample_id AS id FROM spectra WHERE id IN (:ids) AND sample_id IS NOT NULL",
+                { ids: spectrumIds },
+              )
+            ).map((r) => r.id),
+          },
+        },
         order: [["name", "ASC"]],
       })
     : [];
@@ -133,7 +187,10 @@ export async function streamBundle(target: { type: "project" | "series"; id: str
 
   let finish: (value: { manifest: Manifest; bytes: number }) => void = () => {};
   let fail: (error: unknown) => void = () => {};
-  const done = new Promise<{ manifest: Manifest; bytes: number }>((resolve, reject) => { finish = resolve; fail = reject; });
+  const done = new Promise<{ manifest: Manifest; bytes: number }>((resolve, reject) => {
+    finish = resolve;
+    fail = reject;
+  });
   done.catch(() => {}); // a caller that only reads the chunks sees the error there
 
   async function* chunks(): AsyncGenerator<Uint8Array> {
@@ -142,7 +199,10 @@ export async function streamBundle(target: { type: "project" | "series"; id: str
     let zipError: unknown = null;
     const zip = new Zip((error, data) => {
       if (error) zipError = error;
-      else { out.push(data); written += data.length; }
+      else {
+        out.push(data);
+        written += data.length;
+      }
     });
     const mtime = new Date();
     const listed: ManifestFile[] = [];
@@ -157,7 +217,9 @@ export async function streamBundle(target: { type: "project" | "series"; id: str
       put(path, bytes);
       listed.push({ path, sha256: sha256Hex(bytes), bytes: bytes.length, kind });
     };
-    const drain = function* () { while (out.length) yield out.shift()!; };
+    const drain = function* () {
+      while (out.length) yield out.shift()!;
+    };
     try {
       const spectraOut: Manifest["spectra"] = [];
       for (let i = 0; i < spectrumIds.length; i += BATCH) {
@@ -168,7 +230,14 @@ export async function streamBundle(target: { type: "project" | "series"; id: str
         for (const id of ids) {
           const s = byId.get(id);
           if (!s) continue; // deleted since the ids were read
-          spectraOut.push(await addSpectrum(s, runs.filter((r) => r.spectrumId === id), add, group?.name ?? ""));
+          spectraOut.push(
+            await addSpectrum(
+              s,
+              runs.filter((r) => r.spectrumId === id),
+              add,
+              group?.name ?? "",
+            ),
+          );
           yield* drain();
         }
       }
@@ -176,14 +245,34 @@ export async function streamBundle(target: { type: "project" | "series"; id: str
       const samplesOut = samples.map((x) => {
         const flags = hazardsOf({ material: x.material, coreShell: x.coreShell, ligand: x.ligand, solvent: x.solvent });
         flags.forEach((f) => hazardLines.add(`${x.name}: ${f.caution} Source: ${f.source}.`));
-        return { id: x.id, name: x.name, material: x.material, coreShell: x.coreShell, ligand: x.ligand, solvent: x.solvent, hazardClass: x.hazardClass, cautions: flags.map((f) => f.caution) };
+        return {
+          id: x.id,
+          name: x.name,
+          material: x.material,
+          coreShell: x.coreShell,
+          ligand: x.ligand,
+          solvent: x.solvent,
+          hazardClass: x.hazardClass,
+          cautions: flags.map((f) => f.caution),
+        };
       });
       const head: Omit<Manifest, "files"> = {
-        format: BUNDLE_FORMAT, createdAt: new Date().toISOString(), createdBy, engineVersion: ENGINE_VERSION,
-        target: { type: target.type, id: target.id, name: targetName }, group: group?.name ?? "",
+        format: BUNDLE_FORMAT,
+        createdAt: new Date().toISOString(),
+        createdBy,
+        engineVersion: ENGINE_VERSION,
+        target: { type: target.type, id: target.id, name: targetName },
+        group: group?.name ?? "",
         project: { id: theProject.id, name: theProject.name, description: theProject.description },
-        series: seriesList.map((x) => ({ id: x.id, name: x.name, kind: x.kind, variableName: x.variableName, variableUnit: x.variableUnit })),
-        samples: samplesOut, spectra: spectraOut,
+        series: seriesList.map((x) => ({
+          id: x.id,
+          name: x.name,
+          kind: x.kind,
+          variableName: x.variableName,
+          variableUnit: x.variableUnit,
+        })),
+        samples: samplesOut,
+        spectra: spectraOut,
       };
       add("README.txt", strToU8(readme(head, [...hazardLines])), "readme");
       const manifest: Manifest = { ...head, files: listed };
@@ -203,7 +292,10 @@ export async function streamBundle(target: { type: "project" | "series"; id: str
 
 /** One spectrum's raw file, processed forms and analyses, added to the zip; its manifest entry. */
 async function addSpectrum(
-  s: Spectrum, runs: AnalysisRun[], add: (path: string, bytes: Uint8Array, kind: ManifestFile["kind"]) => void, groupName: string,
+  s: Spectrum,
+  runs: AnalysisRun[],
+  add: (path: string, bytes: Uint8Array, kind: ManifestFile["kind"]) => void,
+  groupName: string,
 ): Promise<Manifest["spectra"][number]> {
   const base = `${s.id.slice(0, 8)}-${safeName(s.fileName.replace(/\.[^.]+$/, ""))}`;
   const own: string[] = [];
@@ -222,28 +314,59 @@ async function addSpectrum(
   }
   for (const r of runs) {
     const path = `analyses/${base}/${r.id.slice(0, 8)}.json`;
-    const json = JSON.stringify({
-      runId: r.id, spectrumId: s.id, engineVersion: r.engineVersion, parameterHash: r.parameterHash, parameters: r.parameters,
-      referenceSpectrumId: r.referenceSpectrumId, startedAt: r.startedAt, finishedAt: r.finishedAt, report: r.report,
-    }, null, 2);
+    const json = JSON.stringify(
+      {
+        runId: r.id,
+        spectrumId: s.id,
+        engineVersion: r.engineVersion,
+        parameterHash: r.parameterHash,
+        parameters: r.parameters,
+        referenceSpectrumId: r.referenceSpectrumId,
+        startedAt: r.startedAt,
+        finishedAt: r.finishedAt,
+        report: r.report,
+      },
+      null,
+      2,
+    );
     add(path, strToU8(json), "analysis");
     own.push(path);
   }
   return {
-    id: s.id, fileName: s.fileName, sha256: s.sha256, sizeBytes: s.sizeBytes, technique: s.technique, status: s.status, sampleId: s.sampleId,
-    seriesId: s.seriesId, seriesValue: s.seriesValue, supernatantOfSpectrumId: s.supernatantOfSpectrumId, referenceSpectrumId: s.referenceSpectrumId, pathLengthCm: s.pathLengthCm,
-    excitationNm: s.excitationNm, solvent: s.solvent, uploadedAt: s.createdAt.toISOString(), files: own, ...(note ? { note } : {}),
+    id: s.id,
+    fileName: s.fileName,
+    sha256: s.sha256,
+    sizeBytes: s.sizeBytes,
+    technique: s.technique,
+    status: s.status,
+    sampleId: s.sampleId,
+    seriesId: s.seriesId,
+    seriesValue: s.seriesValue,
+    supernatantOfSpectrumId: s.supernatantOfSpectrumId,
+    referenceSpectrumId: s.referenceSpectrumId,
+    pathLengthCm: s.pathLengthCm,
+    excitationNm: s.excitationNm,
+    solvent: s.solvent,
+    uploadedAt: s.createdAt.toISOString(),
+    files: own,
+    ...(note ? { note } : {}),
   };
 }
 
 /** The whole bundle in memory (tests and small series); the download streams with streamBundle. */
-export async function buildBundle(target: { type: "project" | "series"; id: string }, createdBy: string): Promise<{ fileName: string; bytes: Uint8Array; manifest: Manifest }> {
+export async function buildBundle(
+  target: { type: "project" | "series"; id: string },
+  createdBy: string,
+): Promise<{ fileName: string; bytes: Uint8Array; manifest: Manifest }> {
   const bundle = await streamBundle(target, createdBy);
   const parts: Uint8Array[] = [];
   for await (const chunk of bundle.chunks) parts.push(chunk);
   const { manifest, bytes } = await bundle.done;
   const all = new Uint8Array(bytes);
   let at = 0;
-  for (const part of parts) { all.set(part, at); at += part.length; }
+  for (const part of parts) {
+    all.set(part, at);
+    at += part.length;
+  }
   return { fileName: bundle.fileName, bytes: all, manifest };
 }

@@ -88,7 +88,12 @@ export function planSweep(
   };
   const spectraActions = [...candidates.values()]
     .filter((a) => a.item.kind === "spectrum")
-    .sort((a, b) => depthOf(a.item.id) - depthOf(b.item.id) || a.item.createdAt.getTime() - b.item.createdAt.getTime() || a.item.id.localeCompare(b.item.id));
+    .sort(
+      (a, b) =>
+        depthOf(a.item.id) - depthOf(b.item.id) ||
+        a.item.createdAt.getTime() - b.item.createdAt.getTime() ||
+        a.item.id.localeCompare(b.item.id),
+    );
 
   return { toDelete: [...runs, ...spectraActions], toFlag, protectedItems };
 }

@@ -17,14 +17,30 @@ export const DATA_CLASS_LABELS: Record<DataClass, string> = {
   drafts: "Drafts and failed uploads",
 };
 
-export type PolicyRow = { id: string; projectId: string; projectName: string; dataClass: DataClass; keepDays: number; onExpiry: "delete" | "flag"; updatedAt: string };
+export type PolicyRow = {
+  id: string;
+  projectId: string;
+  projectName: string;
+  dataClass: DataClass;
+  keepDays: number;
+  onExpiry: "delete" | "flag";
+  updatedAt: string;
+};
 
 export async function listPolicies(actor: Actor): Promise<PolicyRow[]> {
   const projects = await listProjectChoices(actor, "steward");
   if (!projects.length) return [];
   const byId = new Map(projects.map((p) => [p.id, p]));
   const rows = await RetentionPolicy.findAll({ where: { projectId: { [Op.in]: [...byId.keys()] } }, order: [["createdAt", "ASC"]] });
-  return rows.map((r) => ({ id: r.id, projectId: r.projectId, projectName: byId.get(r.projectId)?.name ?? "", dataClass: r.dataClass, keepDays: r.keepDays, onExpiry: r.onExpiry, updatedAt: r.updatedAt.toISOString() }));
+  return rows.map((r) => ({
+    id: r.id,
+    projectId: r.projectId,
+    projectName: byId.get(r.projectId)?.name ?? "",
+    dataClass: r.dataClass,
+    keepDays: r.keepDays,
+    onExpiry: r.onExpiry,
+    updatedAt: r.updatedAt.toISOString(),
+  }));
 }
 
 export type PreviewRow = { id: string; kind: string; label: string; createdAt: string; expiredAt: string; sizeBytes: number; why?: string };
@@ -33,11 +49,20 @@ export type PolicyPreview = { toDelete: PreviewRow[]; toFlag: PreviewRow[]; prot
 /** The dry run: what this policy, if saved now, would delete, flag and keep in its project. */
 export async function previewPolicy(rule: Omit<PolicyRule, "id">, now = new Date()): Promise<PolicyPreview> {
   const snapshot = await loadSnapshot([rule.projectId]);
-  const policies = [...snapshot.policies.filter((p) => !(p.projectId === rule.projectId && p.dataClass === rule.dataClass)), { ...rule, id: "preview" }];
+  const policies = [
+    ...snapshot.policies.filter((p) => !(p.projectId === rule.projectId && p.dataClass === rule.dataClass)),
+    { ...rule, id: "preview" },
+  ];
   const plan: SweepPlan = planSweep(snapshot.items, policies, snapshot.holds, now);
   const mine = (a: { policy: PolicyRule }) => a.policy.id === "preview";
   const row = (a: SweepPlan["toDelete"][number], why?: string): PreviewRow => ({
-    id: a.item.id, kind: a.item.kind, label: a.item.label, createdAt: a.item.createdAt.toISOString(), expiredAt: a.expiredAt.toISOString(), sizeBytes: a.item.sizeBytes, why,
+    id: a.item.id,
+    kind: a.item.kind,
+    label: a.item.label,
+    createdAt: a.item.createdAt.toISOString(),
+    expiredAt: a.expiredAt.toISOString(),
+    sizeBytes: a.item.sizeBytes,
+    why,
   });
   const toDelete = plan.toDelete.filter(mine).map((a) => row(a));
   return {
@@ -48,7 +73,17 @@ export async function previewPolicy(rule: Omit<PolicyRule, "id">, now = new Date
   };
 }
 
-export type HoldRow = { id: string; targetType: string; targetId: string; targetLabel: string; reason: string; placedBy: string; placedAt: string; liftedAt: string | null; liftedBy: string | null };
+export type HoldRow = {
+  id: string;
+  targetType: string;
+  targetId: string;
+  targetLabel: string;
+  reason: string;
+  placedBy: string;
+  placedAt: string;
+  liftedAt: string | null;
+  liftedBy: string | null;
+};
 
 async function userLabels(ids: (string | null)[]): Promise<Map<string, string>> {
   const list = [...new Set(ids.filter((x): x is string => !!x))];
@@ -59,7 +94,12 @@ async function userLabels(ids: (string | null)[]): Promise<Map<string, string>> 
 export async function targetLabels(pairs: { targetType: string; targetId: string }[]): Promise<Map<string, string>> {
   const out = new Map<string, string>();
   const ids = (t: string) => [...new Set(pairs.filter((p) => p.targetType === t).map((p) => p.targetId))];
-  const lookups: [string, string][] = [["project", "projects"], ["series", "series"], ["sample", "samples"], ["spectrum", "spectra"]];
+  const lookups: [string, string][] = [
+    ["project", "projects"],
+    ["series", "series"],
+    ["sample", "samples"],
+    ["spectrum", "spectra"],
+  ];
   for (const [type, table] of lookups) {
     const list = ids(type);
     if (!list.length) continue;
@@ -78,8 +118,15 @@ export async function listHolds(actor: Actor): Promise<HoldRow[]> {
   const users = await userLabels(rows.flatMap((r) => [r.placedBy, r.liftedBy]));
   const labels = await targetLabels(rows);
   return rows.map((r) => ({
-    id: r.id, targetType: r.targetType, targetId: r.targetId, targetLabel: labels.get(`${r.targetType}:${r.targetId}`) ?? "(deleted)", reason: r.reason,
-    placedBy: users.get(r.placedBy ?? "") ?? "—", placedAt: r.placedAt.toISOString(), liftedAt: r.liftedAt?.toISOString() ?? null, liftedBy: r.liftedBy ? users.get(r.liftedBy) ?? "—" : null,
+    id: r.id,
+    targetType: r.targetType,
+    targetId: r.targetId,
+    targetLabel: labels.get(`${r.targetType}:${r.targetId}`) ?? "(deleted)",
+    reason: r.reason,
+    placedBy: users.get(r.placedBy ?? "") ?? "—",
+    placedAt: r.placedAt.toISOString(),
+    liftedAt: r.liftedAt?.toISOString() ?? null,
+    liftedBy: r.liftedBy ? (users.get(r.liftedBy) ?? "—") : null,
   }));
 }
 
@@ -119,9 +166,20 @@ export async function listCleanupDue(actor: Actor): Promise<CleanupItem[]> {
   const groups = stewardGroupIds(actor);
   if (!groups.length) return [];
   const rows = await selectRows<{
-    id: string; target_type: string; label: string; project_name: string; data_class: DataClass; flagged_at: Date; stored_at: Date | null;
-    spectrum_id: string | null; sample_id: string | null; sample_name: string | null; series_id: string | null; series_name: string | null;
-    keep_days: number | null; policy_class: DataClass | null;
+    id: string;
+    target_type: string;
+    label: string;
+    project_name: string;
+    data_class: DataClass;
+    flagged_at: Date;
+    stored_at: Date | null;
+    spectrum_id: string | null;
+    sample_id: string | null;
+    sample_name: string | null;
+    series_id: string | null;
+    series_name: string | null;
+    keep_days: number | null;
+    policy_class: DataClass | null;
   }>(
     `SELECT f.id, f.target_type, f.label, p.name AS project_name, f.data_class, f.flagged_at, s.created_at AS stored_at,
             s.id AS spectrum_id, sa.id AS sample_id, sa.name AS sample_name, se.id AS series_id, se.name AS series_name,
@@ -155,9 +213,36 @@ export async function listCleanupDue(actor: Actor): Promise<CleanupItem[]> {
 
 // --- members, invitations and shares ---
 
-export type MemberRow = { id: string; userId: string; email: string; name: string; role: string; groupId: string; groupName: string; isSelf: boolean };
-export type InvitationRow = { id: string; email: string; role: string; groupName: string; expiresAt: string; state: "open" | "accepted" | "expired" | "revoked"; share: string | null };
-export type ShareRow = { id: string; targetType: string; targetId: string; targetLabel: string; grantee: string; expiresAt: string | null; revokedAt: string | null; live: boolean; createdAt: string };
+export type MemberRow = {
+  id: string;
+  userId: string;
+  email: string;
+  name: string;
+  role: string;
+  groupId: string;
+  groupName: string;
+  isSelf: boolean;
+};
+export type InvitationRow = {
+  id: string;
+  email: string;
+  role: string;
+  groupName: string;
+  expiresAt: string;
+  state: "open" | "accepted" | "expired" | "revoked";
+  share: string | null;
+};
+export type ShareRow = {
+  id: string;
+  targetType: string;
+  targetId: string;
+  targetLabel: string;
+  grantee: string;
+  expiresAt: string | null;
+  revokedAt: string | null;
+  live: boolean;
+  createdAt: string;
+};
 
 export function managedGroups(actor: Actor) {
   return actor.memberships.filter((m) => canManageMembers(actor, m.groupId));
@@ -168,10 +253,26 @@ export async function listMembers(actor: Actor): Promise<MemberRow[]> {
   const groups = managedGroups(actor);
   if (!groups.length) return [];
   const names = new Map(groups.map((g) => [g.groupId, g.groupName]));
-  const rows = await Membership.findAll({ where: { groupId: { [Op.in]: [...names.keys()] } }, include: [User], order: [["role", "ASC"], ["createdAt", "ASC"]] });
+  const rows = await Membership.findAll({
+    where: { groupId: { [Op.in]: [...names.keys()] } },
+    include: [User],
+    order: [
+      ["role", "ASC"],
+      ["createdAt", "ASC"],
+    ],
+  });
   return rows.map((m) => {
     const u = (m as unknown as { User: User }).User;
-    return { id: m.id, userId: m.userId, email: u.email, name: u.name, role: m.role, groupId: m.groupId, groupName: names.get(m.groupId) ?? "", isSelf: m.userId === actor.id };
+    return {
+      id: m.id,
+      userId: m.userId,
+      email: u.email,
+      name: u.name,
+      role: m.role,
+      groupId: m.groupId,
+      groupName: names.get(m.groupId) ?? "",
+      isSelf: m.userId === actor.id,
+    };
   });
 }
 
@@ -181,10 +282,16 @@ export async function listInvitations(actor: Actor): Promise<InvitationRow[]> {
   if (!groups.length) return [];
   const names = new Map(groups.map((g) => [g.groupId, g.groupName]));
   const rows = await Invitation.findAll({ where: { groupId: { [Op.in]: [...names.keys()] } }, order: [["createdAt", "DESC"]], limit: 100 });
-  const labels = await targetLabels(rows.filter((r) => r.shareTargetType).map((r) => ({ targetType: r.shareTargetType!, targetId: r.shareTargetId! })));
+  const labels = await targetLabels(
+    rows.filter((r) => r.shareTargetType).map((r) => ({ targetType: r.shareTargetType!, targetId: r.shareTargetId! })),
+  );
   const now = Date.now();
   return rows.map((r) => ({
-    id: r.id, email: r.email, role: r.role, groupName: names.get(r.groupId) ?? "", expiresAt: r.expiresAt.toISOString(),
+    id: r.id,
+    email: r.email,
+    role: r.role,
+    groupName: names.get(r.groupId) ?? "",
+    expiresAt: r.expiresAt.toISOString(),
     state: r.acceptedAt ? "accepted" : r.revokedAt ? "revoked" : r.expiresAt.getTime() <= now ? "expired" : "open",
     share: r.shareTargetType ? `${r.shareTargetType} ${labels.get(`${r.shareTargetType}:${r.shareTargetId}`) ?? ""}` : null,
   }));
@@ -194,14 +301,24 @@ export async function listShares(actor: Actor): Promise<ShareRow[]> {
   models();
   const groups = stewardGroupIds(actor);
   if (!groups.length) return [];
-  const rows = await Share.findAll({ where: { groupId: { [Op.in]: groups }, granteeUserId: { [Op.ne]: null } }, order: [["createdAt", "DESC"]], limit: 300 });
+  const rows = await Share.findAll({
+    where: { groupId: { [Op.in]: groups }, granteeUserId: { [Op.ne]: null } },
+    order: [["createdAt", "DESC"]],
+    limit: 300,
+  });
   const users = await userLabels(rows.map((r) => r.granteeUserId));
   const labels = await targetLabels(rows);
   const now = Date.now();
   return rows.map((r) => ({
-    id: r.id, targetType: r.targetType, targetId: r.targetId, targetLabel: labels.get(`${r.targetType}:${r.targetId}`) ?? "(deleted)",
-    grantee: users.get(r.granteeUserId ?? "") ?? "—", expiresAt: r.expiresAt?.toISOString() ?? null, revokedAt: r.revokedAt?.toISOString() ?? null,
-    live: !r.revokedAt && (!r.expiresAt || r.expiresAt.getTime() > now), createdAt: r.createdAt.toISOString(),
+    id: r.id,
+    targetType: r.targetType,
+    targetId: r.targetId,
+    targetLabel: labels.get(`${r.targetType}:${r.targetId}`) ?? "(deleted)",
+    grantee: users.get(r.granteeUserId ?? "") ?? "—",
+    expiresAt: r.expiresAt?.toISOString() ?? null,
+    revokedAt: r.revokedAt?.toISOString() ?? null,
+    live: !r.revokedAt && (!r.expiresAt || r.expiresAt.getTime() > now),
+    createdAt: r.createdAt.toISOString(),
   }));
 }
 
@@ -218,7 +335,18 @@ export async function shareTargetOptions(actor: Actor): Promise<{ type: "project
 
 // --- storage ---
 
-export type StorageRow = { projectId: string; projectName: string; dataClass: DataClass; items: number; bytes: number; policy: string | null; freeNow: number; free30: number; free365: number; nextExpiry: string | null };
+export type StorageRow = {
+  projectId: string;
+  projectName: string;
+  dataClass: DataClass;
+  items: number;
+  bytes: number;
+  policy: string | null;
+  freeNow: number;
+  free30: number;
+  free365: number;
+  nextExpiry: string | null;
+};
 
 /** Use by project and data class, and what the current policies will free and when (holds and dependencies as of now). */
 export async function storageOverview(actor: Actor, now = new Date()): Promise<StorageRow[]> {
@@ -232,12 +360,24 @@ export async function storageOverview(actor: Actor, now = new Date()): Promise<S
     for (const dataClass of ["raw", "processed", "drafts"] as const) {
       const items = snapshot.items.filter((i) => i.projectId === p.id && i.dataClass === dataClass);
       const policy = snapshot.policies.find((x) => x.projectId === p.id && x.dataClass === dataClass);
-      const freed = (plan: SweepPlan) => plan.toDelete.filter((a) => a.item.projectId === p.id && a.item.dataClass === dataClass).reduce((s, a) => s + a.item.sizeBytes, 0);
-      const upcoming = policy ? items.map((i) => i.createdAt.getTime() + policy.keepDays * DAY_MS).filter((t) => t > now.getTime()).sort((a, b) => a - b)[0] : undefined;
+      const freed = (plan: SweepPlan) =>
+        plan.toDelete.filter((a) => a.item.projectId === p.id && a.item.dataClass === dataClass).reduce((s, a) => s + a.item.sizeBytes, 0);
+      const upcoming = policy
+        ? items
+            .map((i) => i.createdAt.getTime() + policy.keepDays * DAY_MS)
+            .filter((t) => t > now.getTime())
+            .sort((a, b) => a - b)[0]
+        : undefined;
       rows.push({
-        projectId: p.id, projectName: p.name, dataClass, items: items.length, bytes: items.reduce((s, i) => s + i.sizeBytes, 0),
+        projectId: p.id,
+        projectName: p.name,
+        dataClass,
+        items: items.length,
+        bytes: items.reduce((s, i) => s + i.sizeBytes, 0),
         policy: policy ? `${policy.onExpiry === "delete" ? "delete" : "flag"} after ${policy.keepDays} days` : null,
-        freeNow: freed(horizons.freeNow), free30: freed(horizons.free30), free365: freed(horizons.free365),
+        freeNow: freed(horizons.freeNow),
+        free30: freed(horizons.free30),
+        free365: freed(horizons.free365),
         nextExpiry: upcoming ? new Date(upcoming).toISOString() : null,
       });
     }

@@ -63,7 +63,15 @@ async function targetName(type: LinkTargetType, id: string): Promise<string> {
   return `${project?.name ?? ""} / ${series.name}`;
 }
 
-export type CreatedLink = { shareId: string; token: string; prefix: string; expiresAt: Date | null; targetType: LinkTargetType; targetId: string; label: string };
+export type CreatedLink = {
+  shareId: string;
+  token: string;
+  prefix: string;
+  expiresAt: Date | null;
+  targetType: LinkTargetType;
+  targetId: string;
+  label: string;
+};
 
 /** A data steward of the owning group creates a link; the token is returned once and never stored. */
 export async function createShareLink(
@@ -72,7 +80,8 @@ export async function createShareLink(
   now = new Date(),
 ): Promise<CreatedLink> {
   models();
-  if (input.targetType !== "project" && input.targetType !== "series") throw refuse(400, "shareTarget: choose a project or series.", "shareTarget");
+  if (input.targetType !== "project" && input.targetType !== "series")
+    throw refuse(400, "shareTarget: choose a project or series.", "shareTarget");
   if (!isUuid(input.targetId)) throw refuse(404, NOT_FOUND, "shareTarget");
   const groupId = await groupOfTarget(input.targetType, input.targetId);
   // Another group's ids and a non-steward's request get the same answer.
@@ -83,13 +92,30 @@ export async function createShareLink(
   const label = await targetName(input.targetType, input.targetId);
   const share = await models().transaction(async (transaction) => {
     const row = await Share.create(
-      { groupId, targetType: input.targetType, targetId: input.targetId, granteeUserId: null, linkTokenHash: hashToken(token), expiresAt, revokedAt: null, createdBy: actor.id },
+      {
+        groupId,
+        targetType: input.targetType,
+        targetId: input.targetId,
+        granteeUserId: null,
+        linkTokenHash: hashToken(token),
+        expiresAt,
+        revokedAt: null,
+        createdBy: actor.id,
+      },
       { transaction },
     );
-    await recordAudit({
-      actorId: actor.id, actorLabel: actor.email, groupId, action: "share-link-created", targetType: input.targetType, targetId: input.targetId,
-      details: { shareId: row.id, prefix, target: label, expiresAt: expiresAt?.toISOString() ?? null },
-    }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        actorLabel: actor.email,
+        groupId,
+        action: "share-link-created",
+        targetType: input.targetType,
+        targetId: input.targetId,
+        details: { shareId: row.id, prefix, target: label, expiresAt: expiresAt?.toISOString() ?? null },
+      },
+      transaction,
+    );
     return row;
   });
   return { shareId: share.id, token, prefix, expiresAt, targetType: input.targetType, targetId: input.targetId, label };
@@ -101,18 +127,32 @@ export async function revokeShareLink(actor: Actor, shareId: string): Promise<vo
   if (!isUuid(shareId)) throw refuse(400, "id: not a valid id.", "id");
   await models().transaction(async (transaction) => {
     const share = await Share.findByPk(shareId, { transaction, lock: transaction.LOCK.UPDATE });
-    if (!share || share.linkTokenHash === null || !canSteward(actor, share.groupId)) throw refuse(404, "Not found, or not a link of a group you steward.");
+    if (!share || share.linkTokenHash === null || !canSteward(actor, share.groupId))
+      throw refuse(404, "Not found, or not a link of a group you steward.");
     if (share.revokedAt) throw refuse(400, "This link was already revoked.");
     await share.update({ revokedAt: new Date() }, { transaction });
-    await recordAudit({
-      actorId: actor.id, actorLabel: actor.email, groupId: share.groupId, action: "share-link-revoked", targetType: share.targetType, targetId: share.targetId,
-      details: { shareId: share.id },
-    }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        actorLabel: actor.email,
+        groupId: share.groupId,
+        action: "share-link-revoked",
+        targetType: share.targetType,
+        targetId: share.targetId,
+        details: { shareId: share.id },
+      },
+      transaction,
+    );
   });
 }
 
 export type ResolvedLink = {
-  shareId: string; groupId: string; groupName: string; targetType: LinkTargetType; targetId: string; expiresAt: Date | null;
+  shareId: string;
+  groupId: string;
+  groupName: string;
+  targetType: LinkTargetType;
+  targetId: string;
+  expiresAt: Date | null;
 };
 
 /** The target of a link in force at `now`, or null when the token is unknown, revoked or expired. */
@@ -122,7 +162,14 @@ export async function resolveShareLink(token: string, now = new Date()): Promise
   const share = await Share.findOne({ where: { linkTokenHash: hashToken(token), granteeUserId: null } });
   if (!share || linkStateAt(share, now) !== "in force") return null;
   const group = await Group.findByPk(share.groupId, { attributes: ["name"] });
-  return { shareId: share.id, groupId: share.groupId, groupName: group?.name ?? "", targetType: share.targetType, targetId: share.targetId, expiresAt: share.expiresAt };
+  return {
+    shareId: share.id,
+    groupId: share.groupId,
+    groupName: group?.name ?? "",
+    targetType: share.targetType,
+    targetId: share.targetId,
+    expiresAt: share.expiresAt,
+  };
 }
 
 /**
@@ -144,7 +191,11 @@ export async function spectrumThroughLink(link: ResolvedLink, spectrumId: string
 // --- what the public page shows ---
 
 export type LinkedSpectrum = { id: string; fileName: string; status: string; technique: string };
-export type LinkedProject = { name: string; series: { id: string; name: string; kind: string; spectra: number }[]; spectra: (LinkedSpectrum & { seriesName: string | null })[] };
+export type LinkedProject = {
+  name: string;
+  series: { id: string; name: string; kind: string; spectra: number }[];
+  spectra: (LinkedSpectrum & { seriesName: string | null })[];
+};
 
 /** Series names and spectra (names and states only) of a shared project. */
 export async function linkedProject(projectId: string): Promise<LinkedProject | null> {
@@ -153,11 +204,13 @@ export async function linkedProject(projectId: string): Promise<LinkedProject | 
   if (!project) return null;
   const series = await selectRows<{ id: string; name: string; kind: string; spectra: string }>(
     `SELECT se.id, se.name, se.kind, (SELECT count(*) FROM spectra s WHERE s.series_id = se.id) AS spectra
-     FROM series se WHERE se.project_id = :projectId ORDER BY se.name`, { projectId },
+     FROM series se WHERE se.project_id = :projectId ORDER BY se.name`,
+    { projectId },
   );
   const spectra = await selectRows<{ id: string; file_name: string; status: string; technique: string; series_name: string | null }>(
     `SELECT s.id, s.file_name, s.status, s.technique, se.name AS series_name
-     FROM spectra s LEFT JOIN series se ON se.id = s.series_id WHERE s.project_id = :projectId ORDER BY s.created_at LIMIT 2000`, { projectId },
+     FROM spectra s LEFT JOIN series se ON se.id = s.series_id WHERE s.project_id = :projectId ORDER BY s.created_at LIMIT 2000`,
+    { projectId },
   );
   return {
     name: project.name,
@@ -169,13 +222,26 @@ export async function linkedProject(projectId: string): Promise<LinkedProject | 
 /** Safety cautions for the samples (and the materials recorded on spectra) under a shared target, one per hazard. */
 export async function linkedHazards(type: LinkTargetType, id: string): Promise<{ flags: HazardFlag[]; photoluminescence: boolean }> {
   const column = type === "series" ? "series_id" : "project_id";
-  const rows = await selectRows<{ material: string | null; core_shell: string | null; ligand: string | null; solvent: string | null; technique: string }>(
+  const rows = await selectRows<{
+    material: string | null;
+    core_shell: string | null;
+    ligand: string | null;
+    solvent: string | null;
+    technique: string;
+  }>(
     `SELECT DISTINCT coalesce(sa.material, s.material) AS material, sa.core_shell, sa.ligand, coalesce(nullif(s.solvent, ''), sa.solvent) AS solvent, s.technique
-     FROM spectra s LEFT JOIN samples sa ON sa.id = s.sample_id WHERE s.${column} = :id`, { id },
+     FROM spectra s LEFT JOIN samples sa ON sa.id = s.sample_id WHERE s.${column} = :id`,
+    { id },
   );
   const flags = new Map<string, HazardFlag>();
   for (const r of rows) {
-    for (const f of hazardsOf({ material: r.material ?? "", coreShell: r.core_shell ?? "", ligand: r.ligand ?? "", solvent: r.solvent ?? "" })) if (!flags.has(f.code)) flags.set(f.code, f);
+    for (const f of hazardsOf({
+      material: r.material ?? "",
+      coreShell: r.core_shell ?? "",
+      ligand: r.ligand ?? "",
+      solvent: r.solvent ?? "",
+    }))
+      if (!flags.has(f.code)) flags.set(f.code, f);
   }
   return { flags: [...flags.values()], photoluminescence: rows.some((r) => usesUvOrLaserLight(r.technique)) };
 }
@@ -183,8 +249,15 @@ export async function linkedHazards(type: LinkTargetType, id: string): Promise<{
 // --- the steward's list ---
 
 export type ShareLinkRow = {
-  id: string; prefix: string; targetType: LinkTargetType; targetLabel: string; createdAt: string; createdBy: string;
-  expiresAt: string | null; revokedAt: string | null; state: LinkState;
+  id: string;
+  prefix: string;
+  targetType: LinkTargetType;
+  targetLabel: string;
+  createdAt: string;
+  createdBy: string;
+  expiresAt: string | null;
+  revokedAt: string | null;
+  state: LinkState;
 };
 
 /** Links of the groups the actor stewards, newest first. The prefix comes from the creation's audit event. */
@@ -192,12 +265,17 @@ export async function listShareLinks(actor: Actor, now = new Date()): Promise<Sh
   models();
   const groups = stewardGroupIds(actor);
   if (!groups.length) return [];
-  const rows = await Share.findAll({ where: { groupId: { [Op.in]: groups }, linkTokenHash: { [Op.ne]: null } }, order: [["createdAt", "DESC"]], limit: 300 });
+  const rows = await Share.findAll({
+    where: { groupId: { [Op.in]: groups }, linkTokenHash: { [Op.ne]: null } },
+    order: [["createdAt", "DESC"]],
+    limit: 300,
+  });
   if (!rows.length) return [];
   const ids = rows.map((r) => r.id);
   const events = await selectRows<{ share_id: string; prefix: string | null; actor_label: string }>(
     `SELECT details->>'shareId' AS share_id, details->>'prefix' AS prefix, actor_label FROM audit_events
-     WHERE action = 'share-link-created' AND details->>'shareId' IN (:ids)`, { ids },
+     WHERE action = 'share-link-created' AND details->>'shareId' IN (:ids)`,
+    { ids },
   );
   const byShare = new Map(events.map((e) => [e.share_id, e]));
   const labels = new Map<string, string>();
@@ -206,8 +284,14 @@ export async function listShareLinks(actor: Actor, now = new Date()): Promise<Sh
     if (!labels.has(key)) labels.set(key, (await targetName(r.targetType, r.targetId)) || "(deleted)");
   }
   return rows.map((r) => ({
-    id: r.id, prefix: byShare.get(r.id)?.prefix ?? "", targetType: r.targetType, targetLabel: labels.get(`${r.targetType}:${r.targetId}`) ?? "(deleted)",
-    createdAt: r.createdAt.toISOString(), createdBy: byShare.get(r.id)?.actor_label ?? "", expiresAt: r.expiresAt?.toISOString() ?? null,
-    revokedAt: r.revokedAt?.toISOString() ?? null, state: linkStateAt(r, now),
+    id: r.id,
+    prefix: byShare.get(r.id)?.prefix ?? "",
+    targetType: r.targetType,
+    targetLabel: labels.get(`${r.targetType}:${r.targetId}`) ?? "(deleted)",
+    createdAt: r.createdAt.toISOString(),
+    createdBy: byShare.get(r.id)?.actor_label ?? "",
+    expiresAt: r.expiresAt?.toISOString() ?? null,
+    revokedAt: r.revokedAt?.toISOString() ?? null,
+    state: linkStateAt(r, now),
   }));
 }

@@ -6,12 +6,31 @@ import type { ActiveHold, DataClass, PolicyRule, RetainedItem } from "./types";
 export type Snapshot = { items: RetainedItem[]; policies: PolicyRule[]; holds: ActiveHold[] };
 
 type SpectrumRow = {
-  id: string; project_id: string; series_id: string | null; sample_id: string | null; reference_spectrum_id: string | null;
-  created_at: Date; size_bytes: string; file_name: string; status: string; busy: boolean; decision: string | null; flagged: boolean;
+  id: string;
+  project_id: string;
+  series_id: string | null;
+  sample_id: string | null;
+  reference_spectrum_id: string | null;
+  created_at: Date;
+  size_bytes: string;
+  file_name: string;
+  status: string;
+  busy: boolean;
+  decision: string | null;
+  flagged: boolean;
 };
 type RunRow = {
-  id: string; spectrum_id: string; project_id: string; series_id: string | null; sample_id: string | null; created_at: Date;
-  size_bytes: string | null; file_name: string; busy: boolean; decision: string | null; flagged: boolean;
+  id: string;
+  spectrum_id: string;
+  project_id: string;
+  series_id: string | null;
+  sample_id: string | null;
+  created_at: Date;
+  size_bytes: string | null;
+  file_name: string;
+  busy: boolean;
+  decision: string | null;
+  flagged: boolean;
 };
 
 /** Spectra, analyses, policies and active holds of the given projects (all projects when omitted). */
@@ -42,24 +61,49 @@ export async function loadSnapshot(projectIds?: readonly string[]): Promise<Snap
       WHERE ${scope("s.project_id")}`,
     { ids },
   );
-  const policies = await selectRows<{ id: string; project_id: string; data_class: DataClass; keep_days: number; on_expiry: "delete" | "flag" }>(
-    `SELECT id, project_id, data_class, keep_days, on_expiry FROM retention_policies WHERE ${scope("project_id")}`,
-    { ids },
-  );
+  const policies = await selectRows<{
+    id: string;
+    project_id: string;
+    data_class: DataClass;
+    keep_days: number;
+    on_expiry: "delete" | "flag";
+  }>(`SELECT id, project_id, data_class, keep_days, on_expiry FROM retention_policies WHERE ${scope("project_id")}`, { ids });
   const holds = await selectRows<{ id: string; target_type: ActiveHold["targetType"]; target_id: string; reason: string }>(
     "SELECT id, target_type, target_id, reason FROM legal_holds WHERE lifted_at IS NULL ORDER BY placed_at",
   );
   const inScope = new Set(scoped ? ids : []);
   const items: RetainedItem[] = [
     ...spectra.map((s): RetainedItem => ({
-      kind: "spectrum", id: s.id, dataClass: s.status === "failed" ? "drafts" : "raw", projectId: s.project_id, spectrumId: s.id,
-      seriesId: s.series_id, sampleId: s.sample_id, referenceSpectrumId: s.reference_spectrum_id, createdAt: new Date(s.created_at),
-      sizeBytes: Number(s.size_bytes), label: s.file_name, busy: s.busy, keptByDecision: s.decision === "keep", flagged: s.flagged,
+      kind: "spectrum",
+      id: s.id,
+      dataClass: s.status === "failed" ? "drafts" : "raw",
+      projectId: s.project_id,
+      spectrumId: s.id,
+      seriesId: s.series_id,
+      sampleId: s.sample_id,
+      referenceSpectrumId: s.reference_spectrum_id,
+      createdAt: new Date(s.created_at),
+      sizeBytes: Number(s.size_bytes),
+      label: s.file_name,
+      busy: s.busy,
+      keptByDecision: s.decision === "keep",
+      flagged: s.flagged,
     })),
     ...runs.map((r): RetainedItem => ({
-      kind: "analysis-run", id: r.id, dataClass: "processed", projectId: r.project_id, spectrumId: r.spectrum_id,
-      seriesId: r.series_id, sampleId: r.sample_id, referenceSpectrumId: null, createdAt: new Date(r.created_at),
-      sizeBytes: Number(r.size_bytes ?? 0), label: `analysis of ${r.file_name}`, busy: r.busy, keptByDecision: r.decision === "keep", flagged: r.flagged,
+      kind: "analysis-run",
+      id: r.id,
+      dataClass: "processed",
+      projectId: r.project_id,
+      spectrumId: r.spectrum_id,
+      seriesId: r.series_id,
+      sampleId: r.sample_id,
+      referenceSpectrumId: null,
+      createdAt: new Date(r.created_at),
+      sizeBytes: Number(r.size_bytes ?? 0),
+      label: `analysis of ${r.file_name}`,
+      busy: r.busy,
+      keptByDecision: r.decision === "keep",
+      flagged: r.flagged,
     })),
   ];
   return {

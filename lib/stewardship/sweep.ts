@@ -15,7 +15,13 @@ export type SweepOptions = {
   onItem?: (kind: string, id: string) => void;
 };
 
-export type SweepSummary = { recovered: number; deleted: number; flagged: number; protectedCount: number; refused: { id: string; message: string }[] };
+export type SweepSummary = {
+  recovered: number;
+  deleted: number;
+  flagged: number;
+  protectedCount: number;
+  refused: { id: string; message: string }[];
+};
 
 const SWEEP_ACTOR = "retention sweep";
 
@@ -37,11 +43,30 @@ export async function runSweep(options: SweepOptions = {}): Promise<SweepSummary
     if (!groupId) continue;
     const [, created] = await RetentionFlag.findOrCreate({
       where: { targetType: item.kind, targetId: item.id },
-      defaults: { groupId, projectId: item.projectId, policyId: policy.id, dataClass: item.dataClass, targetType: item.kind, targetId: item.id, label: item.label, decision: null, decidedBy: null, decidedAt: null },
+      defaults: {
+        groupId,
+        projectId: item.projectId,
+        policyId: policy.id,
+        dataClass: item.dataClass,
+        targetType: item.kind,
+        targetId: item.id,
+        label: item.label,
+        decision: null,
+        decidedBy: null,
+        decidedAt: null,
+      },
     });
     if (created) {
       flagged++;
-      await recordAudit({ actorId: null, actorLabel: SWEEP_ACTOR, groupId, action: "retention-flagged", targetType: item.kind, targetId: item.id, details: { label: item.label, policyId: policy.id, dataClass: item.dataClass } });
+      await recordAudit({
+        actorId: null,
+        actorLabel: SWEEP_ACTOR,
+        groupId,
+        action: "retention-flagged",
+        targetType: item.kind,
+        targetId: item.id,
+        details: { label: item.label, policyId: policy.id, dataClass: item.dataClass },
+      });
     }
   }
   let deleted = 0;

@@ -15,7 +15,9 @@ export const plainTextMessage = (label: string) => `${label} must be plain text 
 
 /** A file name's problem, or null: control and text-direction characters are refused, not silently dropped. */
 export function fileNameProblem(name: string): string | null {
-  return CONTROLS.test(name) || BIDI_CONTROLS.test(name) ? "the file name holds control or text-direction characters; rename the file" : null;
+  return CONTROLS.test(name) || BIDI_CONTROLS.test(name)
+    ? "the file name holds control or text-direction characters; rename the file"
+    : null;
 }
 
 /** The column of a multi-column export, by name: the same rule for upload and re-run. */

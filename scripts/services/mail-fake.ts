@@ -27,7 +27,10 @@ function decodeSubject(value: string): string {
   return value.replace(/=\?utf-8\?([bq])\?([^?]*)\?=/gi, (_, enc: string, text: string) =>
     enc.toLowerCase() === "b"
       ? Buffer.from(text, "base64").toString("utf8")
-      : Buffer.from(text.replace(/_/g, " ").replace(/=([0-9a-f]{2})/gi, (_m, h: string) => String.fromCharCode(parseInt(h, 16))), "latin1").toString("utf8"),
+      : Buffer.from(
+          text.replace(/_/g, " ").replace(/=([0-9a-f]{2})/gi, (_m, h: string) => String.fromCharCode(parseInt(h, 16))),
+          "latin1",
+        ).toString("utf8"),
   );
 }
 

@@ -20,9 +20,13 @@ beforeAll(async () => {
   ids = await demoIds();
   browser = await launchBrowser();
 });
-afterAll(async () => { await browser?.close(); await closeDb(); });
+afterAll(async () => {
+  await browser?.close();
+  await closeDb();
+});
 
-const noSideScroll = (page: import("playwright-core").Page) => page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth + 1);
+const noSideScroll = (page: import("playwright-core").Page) =>
+  page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth + 1);
 
 describe("audit trail", () => {
   it("reads as sentences, filters by category and person, folds sign-ins, links to what it names", { timeout: 240_000 }, async () => {
@@ -77,30 +81,38 @@ describe("audit trail", () => {
 });
 
 describe("share page", () => {
-  it("shows a signed-out visitor a plot, peaks, flags and processed downloads of the shared series, supernatants included", { timeout: 240_000 }, async () => {
-    const steward = await User.findOne({ where: { email: DEMO.steward } });
-    const { token } = await createShareLink((await loadActor(steward!.id, "session"))!, { targetType: "series", targetId: ids.sharedSeries.id, expiresAt: null });
-    for (const width of [1440, 390]) {
-      const context = await browser.newContext({ viewport: { width, height: 900 } });
-      const page = await context.newPage();
-      await page.goto(url(`/shared/${token}`));
-      const panel = page.getByTestId("shared-spectrum");
-      await panel.locator("canvas").first().waitFor({ timeout: 30_000 });
-      await page.getByTestId("shared-peaks").waitFor();
-      expect(await page.getByTestId("shared-csv").getAttribute("href")).toMatch(/\/curves\/[0-9a-f-]{36}\?format=csv&axis=nm$/);
-      expect((await page.content()).toLowerCase()).not.toContain("awaiting review");
-      await screenshot(page, `share-page-${width}`);
-      if (width === 390) expect(await noSideScroll(page)).toBe(true);
-      if (width === 1440) {
-        await page.getByTestId("shared-supernatants").getByRole("link", { name: "Plot" }).first().click();
-        await page.waitForURL(/spectrum=/);
+  it(
+    "shows a signed-out visitor a plot, peaks, flags and processed downloads of the shared series, supernatants included",
+    { timeout: 240_000 },
+    async () => {
+      const steward = await User.findOne({ where: { email: DEMO.steward } });
+      const { token } = await createShareLink((await loadActor(steward!.id, "session"))!, {
+        targetType: "series",
+        targetId: ids.sharedSeries.id,
+        expiresAt: null,
+      });
+      for (const width of [1440, 390]) {
+        const context = await browser.newContext({ viewport: { width, height: 900 } });
+        const page = await context.newPage();
+        await page.goto(url(`/shared/${token}`));
+        const panel = page.getByTestId("shared-spectrum");
         await panel.locator("canvas").first().waitFor({ timeout: 30_000 });
-        expect(await panel.locator("h2").textContent()).not.toBe("");
-        await screenshot(page, "share-page-supernatant");
+        await page.getByTestId("shared-peaks").waitFor();
+        expect(await page.getByTestId("shared-csv").getAttribute("href")).toMatch(/\/curves\/[0-9a-f-]{36}\?format=csv&axis=nm$/);
+        expect((await page.content()).toLowerCase()).not.toContain("awaiting review");
+        await screenshot(page, `share-page-${width}`);
+        if (width === 390) expect(await noSideScroll(page)).toBe(true);
+        if (width === 1440) {
+          await page.getByTestId("shared-supernatants").getByRole("link", { name: "Plot" }).first().click();
+          await page.waitForURL(/spectrum=/);
+          await panel.locator("canvas").first().waitFor({ timeout: 30_000 });
+          expect(await panel.locator("h2").textContent()).not.toBe("");
+          await screenshot(page, "share-page-supernatant");
+        }
+        await context.close();
       }
-      await context.close();
-    }
-  });
+    },
+  );
 });
 
 describe("deletion", () => {

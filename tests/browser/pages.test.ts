@@ -63,10 +63,14 @@ describe("pages as the people who use them see them", () => {
     await page.getByLabel("Batch name").fill(name);
     await page.getByLabel("Material").fill("PbSe");
     await page.getByLabel("Solvent").fill("toluene");
-    expect(await page.getByRole("note", { name: "Safety cautions" }).textContent()).toContain("Lead compound: may damage fertility or the unborn child");
+    expect(await page.getByRole("note", { name: "Safety cautions" }).textContent()).toContain(
+      "Lead compound: may damage fertility or the unborn child",
+    );
     await page.getByRole("button", { name: "Register sample" }).click();
     await expect.poll(() => page.getByRole("heading", { level: 1 }).textContent()).toBe(name);
-    expect(await page.getByRole("note", { name: "Safety cautions" }).textContent()).toContain("Toluene: highly flammable liquid and vapour");
+    expect(await page.getByRole("note", { name: "Safety cautions" }).textContent()).toContain(
+      "Toluene: highly flammable liquid and vapour",
+    );
     await screenshot(page, "spectroscopist-new-sample");
     // The same name again is refused beside the field, and the form keeps its values.
     await page.goto(url("/samples/new"));

@@ -10,7 +10,9 @@ import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser
 // rule refuses (lib/engine/compare/checkReferenceMatch.ts) is named beside the field.
 
 let browser: Browser;
-beforeAll(async () => { browser = await launchBrowser(); });
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
 afterAll(async () => {
   await browser?.close();
   await closeDb();
@@ -25,9 +27,12 @@ describe("parent picker on the upload form", () => {
     await page.getByLabel("Technique").selectOption("absorption");
     await page.getByLabel("Sample").selectOption({ label: "AUR-CdSe-0412-n · CdSe" });
     const picker = page.getByLabel("Parent reference spectrum");
-    const groups = await picker.locator("optgroup").evaluateAll((els) => els.map((g) => ({
-      label: g.getAttribute("label"), files: [...g.querySelectorAll("option")].map((o) => (o.textContent ?? "").split(" · ")[0]),
-    })));
+    const groups = await picker.locator("optgroup").evaluateAll((els) =>
+      els.map((g) => ({
+        label: g.getAttribute("label"),
+        files: [...g.querySelectorAll("option")].map((o) => (o.textContent ?? "").split(" · ")[0]),
+      })),
+    );
     expect(groups[0]!.label).toBe("Registered parents of AUR-CdSe-0412-n");
     expect(groups[0]!.files).toContain("cdse-0412-abs.csv");
     const offered = groups.flatMap((g) => g.files);

@@ -26,7 +26,10 @@ describe("pages on a phone", () => {
     await signInThroughForm(page, DEMO.lead);
     expect(await page.getByRole("navigation", { name: "Main" }).count()).toBe(0); // folded away
     await page.getByRole("button", { name: "Menu" }).click();
-    await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: /Spectra/ }).click();
+    await page
+      .getByRole("navigation", { name: "Main" })
+      .getByRole("link", { name: /Spectra/ })
+      .click();
     await page.waitForURL(/\/spectra$/);
     await expect.poll(() => page.getByRole("navigation", { name: "Main" }).count()).toBe(0); // closed again after navigating
     await screenshot(page, "phone-lead-spectra");
@@ -47,7 +50,14 @@ describe("pages on a phone", () => {
   it("the steward's data-care pages fit 390 px", async () => {
     const page = await demo.browser.newPage({ viewport: { width: 390, height: 844 } });
     await signInThroughForm(page, DEMO.steward);
-    for (const path of ["/stewardship", "/stewardship/policies", "/stewardship/holds", "/stewardship/sharing", "/stewardship/audit", "/stewardship/storage"]) {
+    for (const path of [
+      "/stewardship",
+      "/stewardship/policies",
+      "/stewardship/holds",
+      "/stewardship/sharing",
+      "/stewardship/audit",
+      "/stewardship/storage",
+    ]) {
       await expectFits(page, path, `phone-steward-${path.split("/").pop()}`);
     }
     await page.close();

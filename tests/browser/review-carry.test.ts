@@ -19,10 +19,13 @@ let browser: Browser;
 let lab: Lab;
 let sampleId: string;
 
-const currentBleach = async () => (await selectRows<{ id: string; run_id: string; review_state: string }>(
-  `SELECT id, run_id, review_state FROM signatures WHERE spectrum_id = :id AND superseded_at IS NULL AND kind = 'bleach' ORDER BY abs(energy_ev - 2.1) LIMIT 1`,
-  { id: sampleId },
-))[0];
+const currentBleach = async () =>
+  (
+    await selectRows<{ id: string; run_id: string; review_state: string }>(
+      `SELECT id, run_id, review_state FROM signatures WHERE spectrum_id = :id AND superseded_at IS NULL AND kind = 'bleach' ORDER BY abs(energy_ev - 2.1) LIMIT 1`,
+      { id: sampleId },
+    )
+  )[0];
 
 beforeAll(async () => {
   models();
@@ -32,15 +35,23 @@ beforeAll(async () => {
   const sample = await createSample(lab, "CdSe");
   const seed = Date.now() % 100000;
   const send = async (fileName: string, csv: string, fields: Record<string, string>) => {
-    const { body } = await upload(spectroscopist.token, [{ fileName, bytes: enc(csv) }], { projectId: lab.project.id, technique: "absorption", ...fields });
+    const { body } = await upload(spectroscopist.token, [{ fileName, bytes: enc(csv) }], {
+      projectId: lab.project.id,
+      technique: "absorption",
+      ...fields,
+    });
     const out = body.files![0]!;
     if (!out.ok) throw new Error(out.error.message);
     await settled(spectroscopist.token, out.spectrumId);
     return out.spectrumId;
   };
-  const parentId = await send(`lot-B${seed} parent.csv`, absorptionCsv({ firstExcitonEv: 2.1, seed }, "lot B parent"), { sampleId: sample.id });
-  sampleId = await send(`lot-B${seed} charged.csv`, absorptionCsv({ firstExcitonEv: 2.1, bleach: 0.3, seed: seed + 1 }, "lot B charged"),
-    { sampleId: sample.id, referenceSpectrumId: parentId });
+  const parentId = await send(`lot-B${seed} parent.csv`, absorptionCsv({ firstExcitonEv: 2.1, seed }, "lot B parent"), {
+    sampleId: sample.id,
+  });
+  sampleId = await send(`lot-B${seed} charged.csv`, absorptionCsv({ firstExcitonEv: 2.1, bleach: 0.3, seed: seed + 1 }, "lot B charged"), {
+    sampleId: sample.id,
+    referenceSpectrumId: parentId,
+  });
 });
 afterAll(async () => {
   await browser?.close();
@@ -64,11 +75,15 @@ describe("a decision survives re-analysis, in the browser", () => {
     await rerun.getByLabel("Smoothing window (points, odd)").fill("31");
     await rerun.getByRole("button", { name: "Re-run analysis" }).click();
     await rerun.getByText("A new analysis run was queued").waitFor();
-    const second = await waitFor("the re-run's bleach", async () => {
-      const now = await currentBleach();
-      if (!now || now.run_id === first.run_id) return undefined;
-      return (await AnalysisRun.findByPk(now.run_id))?.status === "done" ? now : undefined;
-    }, 60_000);
+    const second = await waitFor(
+      "the re-run's bleach",
+      async () => {
+        const now = await currentBleach();
+        if (!now || now.run_id === first.run_id) return undefined;
+        return (await AnalysisRun.findByPk(now.run_id))?.status === "done" ? now : undefined;
+      },
+      60_000,
+    );
     expect(second.review_state).toBe("confirmed");
 
     await page.goto(url(`/review/${first.id}`));

@@ -56,19 +56,32 @@ describe("review in the browser", () => {
       `SELECT g.id, g.review_state, v.comment FROM signatures g JOIN reviews v ON v.signature_id = g.id WHERE g.id IN (:ids) ORDER BY v.created_at DESC`,
       { ids: [first, second] },
     );
-    expect(states.find((s) => s.id === first)).toMatchObject({ review_state: "confirmed", comment: "Bleach with the expected band; confirmed." });
-    expect(states.find((s) => s.id === second)).toMatchObject({ review_state: "dismissed", comment: "Baseline drift during this run; dismissed." });
+    expect(states.find((s) => s.id === first)).toMatchObject({
+      review_state: "confirmed",
+      comment: "Bleach with the expected band; confirmed.",
+    });
+    expect(states.find((s) => s.id === second)).toMatchObject({
+      review_state: "dismissed",
+      comment: "Baseline drift during this run; dismissed.",
+    });
 
     // Decisions within NOTICE_WINDOW_MS reach the uploader in one message; each names its outcome.
-    for (const [id, word] of [[first, "confirmed"], [second, "dismissed"]] as const) {
-      const text = await waitFor(`the uploader's mail about ${id}`, async () => {
-        const list = (await (await fetch(`${MAIL_VIEW}/messages?to=${encodeURIComponent(DEMO.spectroscopist)}`)).json()) as Mail[];
-        for (const m of list.filter((x) => x.receivedAt >= startedAt)) {
-          const t = await body(m);
-          if (t.includes(`/review/${id}`)) return t;
-        }
-        return undefined;
-      }, 20_000);
+    for (const [id, word] of [
+      [first, "confirmed"],
+      [second, "dismissed"],
+    ] as const) {
+      const text = await waitFor(
+        `the uploader's mail about ${id}`,
+        async () => {
+          const list = (await (await fetch(`${MAIL_VIEW}/messages?to=${encodeURIComponent(DEMO.spectroscopist)}`)).json()) as Mail[];
+          for (const m of list.filter((x) => x.receivedAt >= startedAt)) {
+            const t = await body(m);
+            if (t.includes(`/review/${id}`)) return t;
+          }
+          return undefined;
+        },
+        20_000,
+      );
       const block = text.slice(0, text.indexOf(`/review/${id}`));
       expect(block.slice(block.lastIndexOf("\n- "))).toContain(`: ${word} (was awaiting review)`);
     }

@@ -13,8 +13,12 @@ const EXPECTED_NAV: Record<keyof typeof DEMO, string[]> = {
 };
 
 let browser: Browser;
-beforeAll(async () => { browser = await launchBrowser(); });
-afterAll(async () => { await browser?.close(); });
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+});
 
 describe("signing in as each demo role", () => {
   for (const [role, email] of Object.entries(DEMO) as [keyof typeof DEMO, string][]) {

@@ -23,7 +23,9 @@ describe("composition from supernatant depletion", () => {
     const panel = page.getByTestId("depletion-panel");
     const readings = panel.getByTestId("depletion-readings");
     await readings.waitFor({ timeout: 60_000 });
-    const cells = await readings.locator("tbody tr").evaluateAll((rows) => rows.map((r) => [...r.querySelectorAll("td")].map((td) => td.textContent ?? "")));
+    const cells = await readings
+      .locator("tbody tr")
+      .evaluateAll((rows) => rows.map((r) => [...r.querySelectorAll("td")].map((td) => td.textContent ?? "")));
     expect(cells.length).toBe(6); // one supernatant per point
     // At 0.25 equivalents 0.375 µM CdSe is left and no PbS: Beer–Lambert A = ε·c·l with Yu 2003 ε
     // (the seed's own noise is 0.0005 and the panel reads at the analysed first exciton).

@@ -11,8 +11,14 @@ import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser
 // missing field as "off". Every combination is saved, read back from the database, and
 // shown again after a reload.
 let browser: Browser;
-beforeAll(async () => { browser = await launchBrowser(); models(); });
-afterAll(async () => { await browser?.close(); await closeDb(); });
+beforeAll(async () => {
+  browser = await launchBrowser();
+  models();
+});
+afterAll(async () => {
+  await browser?.close();
+  await closeDb();
+});
 
 const COMBINATIONS = [
   { notifyDigest: false, notifyDecisions: false },

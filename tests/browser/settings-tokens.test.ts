@@ -9,8 +9,12 @@ import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser
 // A lab script's token: made in the app, shown once, usable with a Bearer header,
 // refused from the moment it is revoked.
 let browser: Browser;
-beforeAll(async () => { browser = await launchBrowser(); });
-afterAll(async () => { await browser?.close(); });
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+});
 
 const projects = (token: string) => fetch(url("/api/v1/projects"), { headers: { authorization: `Bearer ${token}` } });
 

@@ -81,8 +81,13 @@ describe("spectra search in the browser", () => {
     await again.getByRole("button", { name: `Remove saved search ${searchName}` }).click();
     await again.getByText(`Remove “${searchName}”?`).waitFor();
     await screenshot(page, "overview-saved-search-remove-asks");
-    await again.getByRole("group", { name: `Confirm removing ${searchName}` }).getByRole("button", { name: "Remove", exact: true }).click();
-    await expect.poll(async () => (await selectRows("SELECT id FROM saved_searches WHERE name = :name", { name: searchName })).length).toBe(0);
+    await again
+      .getByRole("group", { name: `Confirm removing ${searchName}` })
+      .getByRole("button", { name: "Remove", exact: true })
+      .click();
+    await expect
+      .poll(async () => (await selectRows("SELECT id FROM saved_searches WHERE name = :name", { name: searchName })).length)
+      .toBe(0);
     await page.reload();
     await page.getByRole("heading", { level: 1 }).waitFor();
     expect(await page.getByText(searchName).count()).toBe(0);

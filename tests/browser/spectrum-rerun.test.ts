@@ -47,7 +47,7 @@ describe("re-running an analysis from the spectrum page", () => {
     await windowField.fill(String(window));
     await rerun.getByRole("button", { name: "Re-run analysis" }).click();
     await expect.poll(() => page.getByTestId("run-progress").textContent(), { timeout: 60_000 }).toMatch(/finished/);
-    await expect.poll(async () => (await page.getByTestId("runs").locator("li").count()), { timeout: 30_000 }).toBeGreaterThanOrEqual(2);
+    await expect.poll(async () => await page.getByTestId("runs").locator("li").count(), { timeout: 30_000 }).toBeGreaterThanOrEqual(2);
     expect(await AnalysisRun.count({ where: { spectrumId } })).toBe(runsBefore + 1);
     const latest = await AnalysisRun.findOne({ where: { spectrumId }, order: [["createdAt", "DESC"]] });
     expect(latest?.status).toBe("done");
@@ -66,7 +66,9 @@ describe("re-running an analysis from the spectrum page", () => {
     await mode.selectOption({ label: "at a wavelength" });
     await rerun.getByLabel("Wavelength (nm)").fill("40");
     await rerun.getByRole("button", { name: "Re-run analysis" }).click();
-    await expect.poll(() => rerun.locator("#rerun-normalizationWavelengthNm-error").textContent()).toBe("Wavelength must lie between 100 and 25000 nm");
+    await expect
+      .poll(() => rerun.locator("#rerun-normalizationWavelengthNm-error").textContent())
+      .toBe("Wavelength must lie between 100 and 25000 nm");
     await screenshot(page, "spectrum-rerun-normalisation-refused");
 
     // Within 3 % of the parent's concentration (a repeat of it), so the new run raises no flag;
@@ -86,7 +88,11 @@ describe("re-running an analysis from the spectrum page", () => {
     expect(await AnalysisRun.count({ where: { spectrumId: repeatId } })).toBe(runsBefore + 1);
     const latest = await AnalysisRun.findOne({ where: { spectrumId: repeatId }, order: [["createdAt", "DESC"]] });
     expect(latest?.status).toBe("done");
-    expect((latest?.parameters as { normalization?: unknown }).normalization).toEqual({ mode: "concentration", sampleConcentration: Number(sampleConcentration), referenceConcentration: 1 });
+    expect((latest?.parameters as { normalization?: unknown }).normalization).toEqual({
+      mode: "concentration",
+      sampleConcentration: Number(sampleConcentration),
+      referenceConcentration: 1,
+    });
     await expect.poll(async () => page.getByTestId("runs").locator("li").count(), { timeout: 30_000 }).toBe(runsBefore + 1);
     await screenshot(page, "spectrum-rerun-normalised");
 
@@ -98,7 +104,9 @@ describe("re-running an analysis from the spectrum page", () => {
     await rerun.getByRole("button", { name: "Re-run analysis" }).click();
     await expect
       .poll(() => page.getByTestId("run-progress").textContent(), { timeout: 30_000 })
-      .toMatch(/The new run failed: cdse-0412-repeat\.csv: normalisation wavelength 900 nm lies outside the range shared by the sample and its reference \(400\.0–750\.0 nm\)/);
+      .toMatch(
+        /The new run failed: cdse-0412-repeat\.csv: normalisation wavelength 900 nm lies outside the range shared by the sample and its reference \(400\.0–750\.0 nm\)/,
+      );
     expect(await page.getByTestId("provenance-normalization").textContent()).toContain("by concentration");
     await expect.poll(() => page.getByTestId("runs").textContent(), { timeout: 30_000 }).toContain("900 nm lies outside");
     expect(await page.getByRole("button", { name: "Re-run analysis" }).isVisible()).toBe(true);

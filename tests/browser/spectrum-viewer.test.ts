@@ -38,9 +38,12 @@ describe("the spectrum viewer", () => {
 
     // the four curves, the parent among them; the cadmium caution stays on the page
     const toggles = page.getByTestId("series-toggles");
-    for (const name of ["measured", "smoothed", "parent reference", "difference (right axis)"]) await expect(toggles.getByLabel(name).isChecked()).resolves.toBe(true);
+    for (const name of ["measured", "smoothed", "parent reference", "difference (right axis)"])
+      await expect(toggles.getByLabel(name).isChecked()).resolves.toBe(true);
     await expect(page.getByRole("note", { name: "Safety cautions" }).textContent()).resolves.toMatch(/Cadmium/);
-    await expect(page.getByTestId("axis-caption").textContent()).resolves.toMatch(/Horizontal axis: Wavelength \(nm\)\. Vertical axis: Absorbance/);
+    await expect(page.getByTestId("axis-caption").textContent()).resolves.toMatch(
+      /Horizontal axis: Wavelength \(nm\)\. Vertical axis: Absorbance/,
+    );
 
     // flags: bleach and new band, in the table and as markers
     const flagsTable = page.getByTestId("flags-table");
@@ -86,7 +89,12 @@ describe("the spectrum viewer", () => {
     // provenance and downloads are there
     await expect(page.getByTestId("provenance").textContent()).resolves.toMatch(/Savitzky–Golay/);
     await page.getByText("Downloads ▾").click();
-    await expect(page.getByRole("link", { name: /JCAMP-DX/ }).first().getAttribute("href")).resolves.toMatch(/format=jcamp&axis=ev/);
+    await expect(
+      page
+        .getByRole("link", { name: /JCAMP-DX/ })
+        .first()
+        .getAttribute("href"),
+    ).resolves.toMatch(/format=jcamp&axis=ev/);
     expect(errors).toEqual([]);
     await page.close();
   });

@@ -25,9 +25,15 @@ beforeAll(async () => {
   lab = await createLab("steward");
   const sample = await createSample(lab, "CdSe/ZnS");
   series = await createSeries(lab);
-  spectra = [await storedSpectrum(lab, { seriesId: series.id, seriesValue: 0, sampleId: sample.id }), await storedSpectrum(lab, { seriesId: series.id, seriesValue: 0.25, sampleId: sample.id })];
+  spectra = [
+    await storedSpectrum(lab, { seriesId: series.id, seriesValue: 0, sampleId: sample.id }),
+    await storedSpectrum(lab, { seriesId: series.id, seriesValue: 0.25, sampleId: sample.id }),
+  ];
 });
-afterAll(async () => { await browser?.close(); await closeDb(); });
+afterAll(async () => {
+  await browser?.close();
+  await closeDb();
+});
 
 it("steward creates a link, an anonymous visitor reads the series, revocation ends it at the next load", async () => {
   const steward = await browser.newContext({ viewport: { width: 1280, height: 900 } });

@@ -23,7 +23,10 @@ beforeAll(async () => {
   old = [await storedSpectrum(lab, { ageDays: 400 }), await storedSpectrum(lab, { ageDays: 200 })];
   await storedSpectrum(lab, { ageDays: 3 });
 });
-afterAll(async () => { await browser?.close(); await closeDb(); });
+afterAll(async () => {
+  await browser?.close();
+  await closeDb();
+});
 
 it("steward: policy with dry run, then a legal hold", async () => {
   const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
@@ -47,7 +50,11 @@ it("steward: policy with dry run, then a legal hold", async () => {
   await page.getByRole("button", { name: "Save this policy" }).click();
   await page.getByText("Policy saved.").waitFor();
   await page.getByTestId("policies-table").getByText("Delete", { exact: true }).waitFor();
-  expect(await RetentionPolicy.findOne({ where: { projectId: lab.project.id } })).toMatchObject({ keepDays: 180, onExpiry: "delete", dataClass: "raw" });
+  expect(await RetentionPolicy.findOne({ where: { projectId: lab.project.id } })).toMatchObject({
+    keepDays: 180,
+    onExpiry: "delete",
+    dataClass: "raw",
+  });
   await screenshot(page, "stewardship-policy-saved");
 
   await page.goto(url("/stewardship/holds"));

@@ -16,7 +16,11 @@ const ids: Record<string, string> = {};
 
 beforeAll(async () => {
   models();
-  for (const [key, fileName] of [["pl", "pl-quench-10uM.csv"], ["ir", "cdse-0412-n-midir.csv"], ["abs", "cdse-0412-n-abs.csv"]] as const) {
+  for (const [key, fileName] of [
+    ["pl", "pl-quench-10uM.csv"],
+    ["ir", "cdse-0412-n-midir.csv"],
+    ["abs", "cdse-0412-n-abs.csv"],
+  ] as const) {
     ids[key] = (await Spectrum.findOne({ where: { fileName } }))!.id;
   }
   // a flag on its band's peak: the bleach of titration-1.00eq.csv sits on the first exciton, so the
@@ -35,7 +39,10 @@ async function transformedUnits(page: Page): Promise<string[]> {
     const unit = new RegExp(source);
     const out: string[] = [];
     for (const el of Array.from(document.querySelectorAll("body *"))) {
-      const own = Array.from(el.childNodes).filter((n) => n.nodeType === Node.TEXT_NODE).map((n) => n.textContent ?? "").join("");
+      const own = Array.from(el.childNodes)
+        .filter((n) => n.nodeType === Node.TEXT_NODE)
+        .map((n) => n.textContent ?? "")
+        .join("");
       if (!unit.test(own)) continue;
       const t = getComputedStyle(el).textTransform;
       if (t !== "none") out.push(`${el.tagName.toLowerCase()} "${own.trim().slice(0, 40)}" (${t})`);
@@ -61,28 +68,50 @@ async function checkPage(page: Page, path: string, shot: string, phone: boolean)
   expect(text, path).not.toMatch(/(^|\D)1 (peaks|flags|spectra|points|signatures|samples)\b/); // plurals agree
   expect(text, path).not.toMatch(/per equivalents/);
   if (phone) {
-    const { scroll, client } = await page.evaluate(() => ({ scroll: document.documentElement.scrollWidth, client: document.documentElement.clientWidth }));
+    const { scroll, client } = await page.evaluate(() => ({
+      scroll: document.documentElement.scrollWidth,
+      client: document.documentElement.clientWidth,
+    }));
     expect(scroll, `${path}: ${scroll} px wide in a ${client} px window`).toBeLessThanOrEqual(client);
   }
   await screenshot(page, shot);
 }
 
 describe("units and words on every main page", () => {
-  for (const [width, height, tag] of [[1440, 900, "wide"], [390, 844, "phone"]] as const) {
+  for (const [width, height, tag] of [
+    [1440, 900, "wide"],
+    [390, 844, "phone"],
+  ] as const) {
     it(`reads right at ${width} px`, async () => {
       const page = await demo.browser.newPage({ viewport: { width, height } });
       await signInThroughForm(page, DEMO.lead);
       const paths: [string, string][] = [
-        ["/", "overview"], ["/samples", "samples"], ["/spectra", "spectra"],
-        [`/spectra/${ids.abs}`, "spectrum-absorption"], [`/spectra/${ids.pl}`, "spectrum-pl"], [`/spectra/${ids.ir}`, "spectrum-ir"],
-        ["/series", "series"], [`/series/${demo.ids.sharedSeries.id}`, "series-titration"], [`/series/${demo.ids.privateSeries.id}`, "series-pl"],
-        ["/review", "review"], [`/review/${ids.signature}`, "review-signature"], ["/upload", "upload"], ["/settings", "settings"],
+        ["/", "overview"],
+        ["/samples", "samples"],
+        ["/spectra", "spectra"],
+        [`/spectra/${ids.abs}`, "spectrum-absorption"],
+        [`/spectra/${ids.pl}`, "spectrum-pl"],
+        [`/spectra/${ids.ir}`, "spectrum-ir"],
+        ["/series", "series"],
+        [`/series/${demo.ids.sharedSeries.id}`, "series-titration"],
+        [`/series/${demo.ids.privateSeries.id}`, "series-pl"],
+        ["/review", "review"],
+        [`/review/${ids.signature}`, "review-signature"],
+        ["/upload", "upload"],
+        ["/settings", "settings"],
       ];
       for (const [path, name] of paths) await checkPage(page, path, `units-${tag}-${name}`, tag === "phone");
       await page.close();
       const steward = await demo.browser.newPage({ viewport: { width, height } });
       await signInThroughForm(steward, DEMO.steward);
-      for (const path of ["/stewardship", "/stewardship/policies", "/stewardship/holds", "/stewardship/sharing", "/stewardship/audit", "/stewardship/storage"]) {
+      for (const path of [
+        "/stewardship",
+        "/stewardship/policies",
+        "/stewardship/holds",
+        "/stewardship/sharing",
+        "/stewardship/audit",
+        "/stewardship/storage",
+      ]) {
         await checkPage(steward, path, `units-${tag}-steward-${path.split("/").pop()}`, tag === "phone");
       }
       await steward.close();
@@ -186,7 +215,9 @@ describe("words by technique", () => {
     expect(await page.locator(".u-legend").count()).toBe(0); // not the library's legend with "--" placeholders
     expect(await chart.textContent()).toMatch(/sample .*reference/);
     expect(await chart.getByTestId("plot-marker").count()).toBe(1);
-    expect(await page.locator("dl").first().textContent()).toMatch(/standard uncertainty [\d.]+ (%|meV|eV|cm⁻¹|absorbance|counts|\(ratio\))/);
+    expect(await page.locator("dl").first().textContent()).toMatch(
+      /standard uncertainty [\d.]+ (%|meV|eV|cm⁻¹|absorbance|counts|\(ratio\))/,
+    );
     await screenshot(page, "review-evidence");
     await page.close();
   });

@@ -8,13 +8,19 @@ import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser
 // The preview on the upload page, with a headerless three-column file made from a real CdSe
 // export (real-spectra/cdse-absorbance-growth-series.csv, PROVENANCE.md: 251 rows, 600 → 350 nm).
 const realDir = path.resolve(process.cwd(), "..", "shared", "real-spectra");
-const lines = readFileSync(path.join(realDir, "cdse-absorbance-growth-series.csv"), "utf8").split(/\r?\n/).filter((l) => l.trim());
+const lines = readFileSync(path.join(realDir, "cdse-absorbance-growth-series.csv"), "utf8")
+  .split(/\r?\n/)
+  .filter((l) => l.trim());
 const head = lines[0]!.split(",");
 const [k30, k240] = [head.indexOf("30 s"), head.indexOf("240 s")];
 
 let browser: Browser;
-beforeAll(async () => { browser = await launchBrowser(); });
-afterAll(async () => { await browser?.close(); });
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+});
 
 describe("previewing a file before storing it", () => {
   it("shows the inferred unit and columns, follows a change of column and unit, applies it to the batch, and stores the file", async () => {
@@ -33,9 +39,13 @@ describe("previewing a file before storing it", () => {
     await page.getByLabel("Choose files").setInputFiles([{ name, mimeType: "text/csv", buffer: Buffer.from(body.join("\n")) }]);
 
     const preview = page.getByTestId("file-preview");
-    await expect.poll(() => preview.getByTestId("preview-x-unit").textContent(), { timeout: 30_000 }).toBe("nm (wavelength) (inferred from the values)");
+    await expect
+      .poll(() => preview.getByTestId("preview-x-unit").textContent(), { timeout: 30_000 })
+      .toBe("nm (wavelength) (inferred from the values)");
     expect(await preview.getByTestId("preview-column").textContent()).toBe("column 2");
-    expect(await preview.getByTestId("preview-creates").textContent()).toBe('one absorption spectrum from column "column 2" (251 points, 350.01–599.99 nm)');
+    expect(await preview.getByTestId("preview-creates").textContent()).toBe(
+      'one absorption spectrum from column "column 2" (251 points, 350.01–599.99 nm)',
+    );
     await expect.poll(() => preview.getByRole("img").count()).toBe(1);
     await screenshot(page, "upload-preview-inferred");
 
@@ -66,7 +76,9 @@ describe("previewing a file before storing it", () => {
     const text = Array.from({ length: 100 }, (_, i) => `${2000 - 8 * i}\t0.${100 + i}`).join("\n");
     await page.getByLabel("Choose files").setInputFiles([{ name: "ambiguous.txt", mimeType: "text/plain", buffer: Buffer.from(text) }]);
     const error = page.getByTestId("preview-error");
-    await expect.poll(() => error.textContent(), { timeout: 30_000 }).toMatch(/^ambiguous\.txt, column "column 1": X unit unknown.*could be nm or cm⁻¹; choose the X unit/);
+    await expect
+      .poll(() => error.textContent(), { timeout: 30_000 })
+      .toMatch(/^ambiguous\.txt, column "column 1": X unit unknown.*could be nm or cm⁻¹; choose the X unit/);
     await page.getByTestId("file-preview").getByLabel("X unit for this file").selectOption("nm");
     await expect.poll(() => page.getByTestId("preview-x-unit").textContent(), { timeout: 30_000 }).toBe("nm (wavelength) (chosen)");
     await screenshot(page, "upload-preview-ambiguous-chosen");

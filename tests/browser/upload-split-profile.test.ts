@@ -12,7 +12,13 @@ import { syntheticAbsorptionCsv } from "../helpers/spectra";
 const suite = demoBrowser();
 
 function threeColumnFile(seed: number): Buffer {
-  const cols = [500, 505, 512].map((nm, i) => syntheticAbsorptionCsv({ excitonNm: nm, seed: seed + i, points: 300, startNm: 400, endNm: 700 }).trim().split("\n").slice(1).map((l) => l.split(",")));
+  const cols = [500, 505, 512].map((nm, i) =>
+    syntheticAbsorptionCsv({ excitonNm: nm, seed: seed + i, points: 300, startNm: 400, endNm: 700 })
+      .trim()
+      .split("\n")
+      .slice(1)
+      .map((l) => l.split(",")),
+  );
   const rows = cols[0]!.map((_, r) => [cols[0]![r]![0], ...cols.map((c) => c[r]![1])].join(","));
   return Buffer.from(`Channel,0.5 eq,1 eq,2 eq\n${rows.join("\n")}\n`);
 }
@@ -22,7 +28,12 @@ describe("splitting a file and saving an import profile on the upload page", () 
     models();
     const seed = Date.now() % 1e6;
     const series = await Series.create({
-      projectId: suite.ids.project.id, name: `Browser split ${seed}`, kind: "titration", variableName: "PbS per CdSe", variableUnit: "eq", createdBy: null,
+      projectId: suite.ids.project.id,
+      name: `Browser split ${seed}`,
+      kind: "titration",
+      variableName: "PbS per CdSe",
+      variableUnit: "eq",
+      createdBy: null,
     });
     const page = await suite.browser.newPage({ viewport: { width: 1360, height: 1500 } });
     await signInThroughForm(page, DEMO.spectroscopist);
@@ -34,7 +45,9 @@ describe("splitting a file and saving an import profile on the upload page", () 
     const first = `plate-${seed}-a.csv`;
     await page.getByLabel("Choose files").setInputFiles([{ name: first, mimeType: "text/csv", buffer: threeColumnFile(seed) }]);
     const preview = page.getByTestId("file-preview");
-    await expect.poll(() => preview.getByTestId("preview-x-unit").textContent(), { timeout: 30_000 }).toBe("nm (wavelength) (inferred from the values)");
+    await expect
+      .poll(() => preview.getByTestId("preview-x-unit").textContent(), { timeout: 30_000 })
+      .toBe("nm (wavelength) (inferred from the values)");
     expect(await preview.getByTestId("preview-column").textContent()).toBe("0.5 eq");
 
     await preview.getByLabel("X unit for this file").selectOption("nm");
@@ -47,26 +60,35 @@ describe("splitting a file and saving an import profile on the upload page", () 
     const parent = await picker.locator("option", { hasText: "cdse-0412-abs.csv" }).first().getAttribute("value");
     await picker.selectOption(parent!);
     const mismatch = page.getByTestId("parent-mismatch");
-    await expect.poll(() => mismatch.textContent(), { timeout: 10_000 }).toMatch(
-      new RegExp(`^The analysis will refuse this parent for ${first.replace(/\./g, "\\.")}: first excitons 2\\.4\\d\\d eV vs \\d\\.\\d{3} eV \\(\\d+ meV apart, more than \\d+ meV\\)\\.$`),
-    );
+    await expect
+      .poll(() => mismatch.textContent(), { timeout: 10_000 })
+      .toMatch(
+        new RegExp(
+          `^The analysis will refuse this parent for ${first.replace(/\./g, "\\.")}: first excitons 2\\.4\\d\\d eV vs \\d\\.\\d{3} eV \\(\\d+ meV apart, more than \\d+ meV\\)\\.$`,
+        ),
+      );
     await screenshot(page, "upload-split-parent-refused");
     await picker.selectOption("");
     await expect.poll(() => mismatch.count()).toBe(0);
 
     await preview.getByTestId("preview-split").check();
-    await expect.poll(() => preview.getByTestId("preview-creates").textContent(), { timeout: 30_000 })
+    await expect
+      .poll(() => preview.getByTestId("preview-creates").textContent(), { timeout: 30_000 })
       .toBe('3 absorption spectra, one per column: "0.5 eq" (0.5 eq), "1 eq" (1 eq), "2 eq" (2 eq)');
     const profileName = `Plate reader ${seed}`;
     await preview.getByLabel("Save these choices as a profile").fill(profileName);
     await preview.getByRole("button", { name: "Save profile" }).click();
-    await expect.poll(() => preview.getByTestId("profile-saved").textContent(), { timeout: 10_000 }).toBe(`Saved as profile "${profileName}": files with the same header will be read this way.`);
+    await expect
+      .poll(() => preview.getByTestId("profile-saved").textContent(), { timeout: 10_000 })
+      .toBe(`Saved as profile "${profileName}": files with the same header will be read this way.`);
     await expect.poll(() => page.getByTestId("profile-list").textContent(), { timeout: 10_000 }).toContain(profileName);
     await screenshot(page, "upload-split-preview");
 
     await page.getByTestId("start-upload").click();
     const list = page.getByTestId("file-list");
-    await expect.poll(() => list.getByTestId("outcome-name").allTextContents(), { timeout: 60_000 }).toEqual(["0.5 eq → 0.5 eq", "1 eq → 1 eq", "2 eq → 2 eq"]);
+    await expect
+      .poll(() => list.getByTestId("outcome-name").allTextContents(), { timeout: 60_000 })
+      .toEqual(["0.5 eq → 0.5 eq", "1 eq → 1 eq", "2 eq → 2 eq"]);
     await expect.poll(async () => (await list.textContent())!.match(/analysed/g)?.length ?? 0, { timeout: 120_000 }).toBe(3);
     await screenshot(page, "upload-split-stored");
     await page.getByRole("button", { name: "Clear finished" }).click();
@@ -75,18 +97,33 @@ describe("splitting a file and saving an import profile on the upload page", () 
     const second = `plate-${seed}-b.csv`;
     await page.getByLabel("Choose files").setInputFiles([{ name: second, mimeType: "text/csv", buffer: threeColumnFile(seed + 50) }]);
     const next = page.getByTestId("file-preview");
-    await expect.poll(() => next.getByTestId("preview-profile").textContent(), { timeout: 30_000 }).toBe(`"${profileName}" (matched by the file's header)`);
+    await expect
+      .poll(() => next.getByTestId("preview-profile").textContent(), { timeout: 30_000 })
+      .toBe(`"${profileName}" (matched by the file's header)`);
     expect(await next.getByTestId("preview-x-unit").textContent()).toBe("nm (wavelength) (chosen)");
-    expect(await next.getByTestId("preview-creates").textContent()).toBe('3 absorption spectra, one per column: "0.5 eq" (0.5 eq), "1 eq" (1 eq), "2 eq" (2 eq)');
+    expect(await next.getByTestId("preview-creates").textContent()).toBe(
+      '3 absorption spectra, one per column: "0.5 eq" (0.5 eq), "1 eq" (1 eq), "2 eq" (2 eq)',
+    );
     await screenshot(page, "upload-profile-matched");
     await page.getByTestId("start-upload").click();
     await expect.poll(async () => (await list.textContent())!.match(/Read with profile/g)?.length ?? 0, { timeout: 60_000 }).toBe(3);
     await expect.poll(async () => (await list.textContent())!.match(/analysed/g)?.length ?? 0, { timeout: 120_000 }).toBe(3);
     await screenshot(page, "upload-profile-stored");
 
-    const points = await Spectrum.findAll({ where: { seriesId: series.id }, order: [["fileName", "ASC"], ["seriesValue", "ASC"]] });
+    const points = await Spectrum.findAll({
+      where: { seriesId: series.id },
+      order: [
+        ["fileName", "ASC"],
+        ["seriesValue", "ASC"],
+      ],
+    });
     expect(points.map((p) => [p.fileName, p.seriesValue])).toEqual([
-      [first, 0.5], [first, 1], [first, 2], [second, 0.5], [second, 1], [second, 2],
+      [first, 0.5],
+      [first, 1],
+      [first, 2],
+      [second, 0.5],
+      [second, 1],
+      [second, 2],
     ]);
     await page.close();
   }, 300_000);

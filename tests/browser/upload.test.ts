@@ -7,8 +7,12 @@ import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser
 // The spectroscopist's daily flow: drop exports, describe the batch once, watch them
 // go through upload and analysis, open the flagged one.
 let browser: Browser;
-beforeAll(async () => { browser = await launchBrowser(); });
-afterAll(async () => { await browser?.close(); });
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+});
 
 describe("uploading exports in the browser", () => {
   it("stores and analyses a charged spectrum, refuses a bad file, and opens the flag", async () => {
@@ -32,10 +36,15 @@ describe("uploading exports in the browser", () => {
     const list = page.getByTestId("file-list");
     await expect.poll(() => list.textContent(), { timeout: 60_000 }).toMatch(/analysed/);
     await expect.poll(() => list.textContent(), { timeout: 60_000 }).toMatch(/not-a-spectrum\.csv/);
-    await expect.poll(async () => (await list.locator("[role=alert]").allTextContents()).join(" "), { timeout: 60_000 }).toMatch(/not-a-spectrum\.csv/);
+    await expect
+      .poll(async () => (await list.locator("[role=alert]").allTextContents()).join(" "), { timeout: 60_000 })
+      .toMatch(/not-a-spectrum\.csv/);
     await screenshot(page, "upload-batch");
 
-    await list.locator("li", { hasText: `charged-${seed}.csv` }).getByRole("link", { name: "open" }).click();
+    await list
+      .locator("li", { hasText: `charged-${seed}.csv` })
+      .getByRole("link", { name: "open" })
+      .click();
     await expect.poll(() => page.getByRole("heading", { level: 1 }).textContent()).toBe(`charged-${seed}.csv`);
     await expect.poll(() => page.getByTestId("flags-table").textContent(), { timeout: 30_000 }).toContain("Exciton bleach");
     await screenshot(page, "upload-opened-flag");

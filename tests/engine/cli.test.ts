@@ -18,8 +18,35 @@ function run(args: string[]) {
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
-const TOP_FIELDS = ['technique', 'engineVersion', 'sample', 'reference', 'parameters', 'noise', 'peaks', 'firstExciton', 'referenceFirstExciton', 'referenceMatch', 'atmosphericBands', 'flags', 'derived', 'warnings'];
-const FLAG_FIELDS = ['kind', 'energyEv', 'wavelengthNm', 'fraction', 'shiftMeV', 'fwhmChangeMeV', 'magnitude', 'unit', 'uncertainty', 'significance', 'message'];
+const TOP_FIELDS = [
+  'technique',
+  'engineVersion',
+  'sample',
+  'reference',
+  'parameters',
+  'noise',
+  'peaks',
+  'firstExciton',
+  'referenceFirstExciton',
+  'referenceMatch',
+  'atmosphericBands',
+  'flags',
+  'derived',
+  'warnings',
+];
+const FLAG_FIELDS = [
+  'kind',
+  'energyEv',
+  'wavelengthNm',
+  'fraction',
+  'shiftMeV',
+  'fwhmChangeMeV',
+  'magnitude',
+  'unit',
+  'uncertainty',
+  'significance',
+  'message',
+];
 
 describe('scripts/analyze.ts', { timeout: 120_000 }, () => {
   let dir = '';
@@ -99,7 +126,9 @@ describe('scripts/analyze.ts', { timeout: 120_000 }, () => {
 
   describe('reading options: --x-unit, --y-kind, --pair, --block, --sheet', () => {
     // Cells of the real CdSe export (PROVENANCE.md), re-laid out here by test code.
-    const src = readFileSync(path.join(realDir, 'cdse-absorbance-growth-series.csv'), 'utf8').split(/\r?\n/).filter((l) => l.trim());
+    const src = readFileSync(path.join(realDir, 'cdse-absorbance-growth-series.csv'), 'utf8')
+      .split(/\r?\n/)
+      .filter((l) => l.trim());
     const head = src[0]!.split(',');
     const rows = src.slice(1).map((l) => l.split(','));
     const k240 = head.indexOf('240 s');
@@ -108,11 +137,18 @@ describe('scripts/analyze.ts', { timeout: 120_000 }, () => {
       const r = run(args);
       expect(r.stderr).toBe('');
       expect(r.code).toBe(0);
-      return JSON.parse(r.stdout) as { firstExciton: { wavelengthNm: number } | null; peaks: unknown[]; sample: { xUnit: string; yUnit: string; points: number } };
+      return JSON.parse(r.stdout) as {
+        firstExciton: { wavelengthNm: number } | null;
+        peaks: unknown[];
+        sample: { xUnit: string; yUnit: string; points: number };
+      };
     };
     it('--pair 2 on a side-by-side file gives the same analysis as --column "240 s" on the original', () => {
       const pairs = path.join(dir, 'pairs.csv');
-      writeFileSync(pairs, ['Серия А,,Серия Б,', 'λ (nm),A,λ (nm),A', ...rows.map((r) => `${r[0]},${r[k30]},${r[0]},${r[k240]}`)].join('\n'));
+      writeFileSync(
+        pairs,
+        ['Серия А,,Серия Б,', 'λ (nm),A,λ (nm),A', ...rows.map((r) => `${r[0]},${r[k30]},${r[0]},${r[k240]}`)].join('\n'),
+      );
       const a = firstExciton([pairs, '--pair', '2', '--technique', 'absorption']);
       const b = firstExciton([path.join(realDir, 'cdse-absorbance-growth-series.csv'), '--column', '240 s']);
       expect(a.peaks).toEqual(b.peaks);
@@ -121,7 +157,13 @@ describe('scripts/analyze.ts', { timeout: 120_000 }, () => {
     it('a headerless file in an ambiguous range is refused until --x-unit says the unit', () => {
       const bare = path.join(dir, 'bare.txt');
       // near-IR scan written high to low, 2000 → 1200: nm or cm-1 (docs/ingest.md, rule 5)
-      writeFileSync(bare, Array.from({ length: 200 }, (_, i) => `${2000 - 4 * i}\t${(0.2 + 0.1 * Math.exp(-(((1500 - (2000 - 4 * i)) / 60) ** 2))).toFixed(5)}`).join('\n'));
+      writeFileSync(
+        bare,
+        Array.from(
+          { length: 200 },
+          (_, i) => `${2000 - 4 * i}\t${(0.2 + 0.1 * Math.exp(-(((1500 - (2000 - 4 * i)) / 60) ** 2))).toFixed(5)}`,
+        ).join('\n'),
+      );
       const refused = run([bare, '--technique', 'absorption']);
       expect(refused.code).toBe(2);
       expect(refused.stderr).toMatch(/bare\.txt.*X unit unknown.*choose the X unit/);
@@ -129,8 +171,14 @@ describe('scripts/analyze.ts', { timeout: 120_000 }, () => {
       expect(ok.sample.xUnit).toBe('nm');
       expect(ok.sample.yUnit).toBe('absorbance');
     });
-    it('--y-kind transmittance-percent is the engine\'s percent-transmittance', () => {
-      const r = firstExciton([path.join(realDir, 'cdse-absorbance-growth-series.csv'), '--y-kind', 'transmittance-percent', '--technique', 'ir']);
+    it("--y-kind transmittance-percent is the engine's percent-transmittance", () => {
+      const r = firstExciton([
+        path.join(realDir, 'cdse-absorbance-growth-series.csv'),
+        '--y-kind',
+        'transmittance-percent',
+        '--technique',
+        'ir',
+      ]);
       expect(r.sample.yUnit).toBe('percent-transmittance');
     });
     it('--block 2 reads the second block', () => {
@@ -155,7 +203,9 @@ describe('scripts/analyze.ts', { timeout: 120_000 }, () => {
       expect(a.peaks).toEqual(b.peaks);
       const refused = run([book, '--sheet', 'Notes']);
       expect(refused.code).toBe(2);
-      expect(refused.stderr.trim()).toBe("analyze: book.xlsx: no numeric table found on sheet 'Notes'; export the sheet as CSV or choose another sheet");
+      expect(refused.stderr.trim()).toBe(
+        "analyze: book.xlsx: no numeric table found on sheet 'Notes'; export the sheet as CSV or choose another sheet",
+      );
     });
     it('bad option values exit 2 naming the option', () => {
       for (const [args, re] of [

@@ -45,7 +45,11 @@ describe('absorption vs parent', () => {
     expect(Math.abs(r.flags[0]!.shiftMeV! - 10)).toBeLessThan(1.5);
   });
   it('broadening (σ 45 → 50 meV, area kept): FWHM change +11.8 ± 3 meV, no bleach', () => {
-    const s = absorbanceSpectrum({ bands: PARENT_BANDS.map((b, i) => (i === 0 ? { ...b, sigma: 0.05, a: (b.a * 0.045) / 0.05 } : b)), noise, seed: 6 });
+    const s = absorbanceSpectrum({
+      bands: PARENT_BANDS.map((b, i) => (i === 0 ? { ...b, sigma: 0.05, a: (b.a * 0.045) / 0.05 } : b)),
+      noise,
+      seed: 6,
+    });
     const r = analyzeSpectrum(s, { reference: ref });
     expect(kinds(r)).toEqual(['broadening']);
     const truth = (0.05 - 0.045) * 2.3548200450309493 * 1000;
@@ -59,9 +63,17 @@ describe('absorption vs parent', () => {
     expect(r.flags[0]!.intraband).toBe(false);
   });
   it('normalisation by concentration undoes a dilution; unscaled (mode none) it reads as a bleach; auto reports the ratio', () => {
-    const diluted = absorbanceSpectrum({ bands: PARENT_BANDS.map((b) => ({ ...b, a: b.a * 0.5 })), noise: noise / 2, seed: 8, background: 0.025 });
+    const diluted = absorbanceSpectrum({
+      bands: PARENT_BANDS.map((b) => ({ ...b, a: b.a * 0.5 })),
+      noise: noise / 2,
+      seed: 8,
+      background: 0.025,
+    });
     expect(kinds(analyzeSpectrum(diluted, { reference: ref, normalization: { mode: 'none' } }))).toContain('bleach');
-    const r = analyzeSpectrum(diluted, { reference: ref, normalization: { mode: 'concentration', sampleConcentration: 0.5, referenceConcentration: 1 } });
+    const r = analyzeSpectrum(diluted, {
+      reference: ref,
+      normalization: { mode: 'concentration', sampleConcentration: 0.5, referenceConcentration: 1 },
+    });
     expect(r.flags).toEqual([]);
     // truth: the whole spectrum ×0.5 (generator), so the concentration ratio is 0.5
     const auto = analyzeSpectrum(diluted, { reference: ref });
@@ -81,8 +93,24 @@ describe('mid-IR new band is called intraband', () => {
       const x = Float64Array.from({ length: n }, (_, i) => 1000 + (3000 * i) / (n - 1));
       let a = seed;
       const rnd = () => ((a = (a * 16807) % 2147483647) / 2147483647 - 0.5) * 0.002;
-      const y = x.map((w) => 0.2 * Math.exp(-0.5 * ((w - 2900) / 15) ** 2) + (extra ? 0.05 * Math.exp(-0.5 * ((w - 2180) / 150) ** 2) : 0) + rnd());
-      return { fileName: `ir${seed}.csv`, format: 'delimited' as const, x, y, xUnit: 'cm-1' as const, yUnit: 'absorbance' as const, xOrderInFile: 'ascending' as const, technique: 'ir' as const, columnName: 'A', columnIndex: 1, availableColumns: ['A'], metadata: {}, warnings: [] };
+      const y = x.map(
+        (w) => 0.2 * Math.exp(-0.5 * ((w - 2900) / 15) ** 2) + (extra ? 0.05 * Math.exp(-0.5 * ((w - 2180) / 150) ** 2) : 0) + rnd(),
+      );
+      return {
+        fileName: `ir${seed}.csv`,
+        format: 'delimited' as const,
+        x,
+        y,
+        xUnit: 'cm-1' as const,
+        yUnit: 'absorbance' as const,
+        xOrderInFile: 'ascending' as const,
+        technique: 'ir' as const,
+        columnName: 'A',
+        columnIndex: 1,
+        availableColumns: ['A'],
+        metadata: {},
+        warnings: [],
+      };
     };
     const r = analyzeSpectrum(mk(11, true), { reference: mk(12, false) });
     expect(kinds(r)).toEqual(['new-band']);
@@ -94,12 +122,18 @@ describe('mid-IR new band is called intraband', () => {
 describe('PL vs parent (energy axis, excitation line excluded)', () => {
   const pr = plSpectrum({ e: 2.1, sigma: 0.05, area: 2000, noise: 0.5, seed: 11, laserNm: 400 });
   it('noise-only pair: nothing flagged', () => {
-    const r = analyzeSpectrum(plSpectrum({ e: 2.1, sigma: 0.05, area: 2000, noise: 0.5, seed: 12, laserNm: 400 }), { reference: pr, excitationNm: 400 });
+    const r = analyzeSpectrum(plSpectrum({ e: 2.1, sigma: 0.05, area: 2000, noise: 0.5, seed: 12, laserNm: 400 }), {
+      reference: pr,
+      excitationNm: 400,
+    });
     expect(r.flags).toEqual([]);
     expect(r.firstExciton!.energyEv).toBeCloseTo(2.1, 2);
   });
   it('40 % quench recovered within ±0.02', () => {
-    const r = analyzeSpectrum(plSpectrum({ e: 2.1, sigma: 0.05, area: 1200, noise: 0.5, seed: 13, laserNm: 400 }), { reference: pr, excitationNm: 400 });
+    const r = analyzeSpectrum(plSpectrum({ e: 2.1, sigma: 0.05, area: 1200, noise: 0.5, seed: 13, laserNm: 400 }), {
+      reference: pr,
+      excitationNm: 400,
+    });
     expect(kinds(r)).toEqual(['pl-quench']);
     expect(Math.abs(r.flags[0]!.fraction! - 0.4)).toBeLessThan(0.02);
   });
@@ -120,7 +154,10 @@ describe('PL vs parent (energy axis, excitation line excluded)', () => {
     expect(Math.abs(r.flags[0]!.fraction! - expected)).toBeLessThan(0.02);
   });
   it('emission red shift of 15 meV recovered within ±2 meV, no quench', () => {
-    const r = analyzeSpectrum(plSpectrum({ e: 2.085, sigma: 0.05, area: 2000, noise: 0.5, seed: 15, laserNm: 400 }), { reference: pr, excitationNm: 400 });
+    const r = analyzeSpectrum(plSpectrum({ e: 2.085, sigma: 0.05, area: 2000, noise: 0.5, seed: 15, laserNm: 400 }), {
+      reference: pr,
+      excitationNm: 400,
+    });
     expect(kinds(r)).toEqual(['shift']);
     expect(Math.abs(r.flags[0]!.shiftMeV! + 15)).toBeLessThan(2);
   });

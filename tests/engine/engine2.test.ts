@@ -76,7 +76,10 @@ describe('2. smooth backgrounds are not bands (common practice: cuvette mismatch
     expect(Math.abs(r.flags[0]!.fraction! - (0.2 * 0.5) / A1)).toBeLessThan(0.02);
   });
   it('the opposite: a real sub-gap band at 1.85 eV on a sloped baseline is still one new band (±15 meV)', () => {
-    const s = plus(absorbanceSpectrum({ bands: PARENT_BANDS, noise, seed: 47, newBand: { e: 1.85, sigma: 0.05, a: 0.06 } }), (e) => 0.05 * (e - 1.65));
+    const s = plus(
+      absorbanceSpectrum({ bands: PARENT_BANDS, noise, seed: 47, newBand: { e: 1.85, sigma: 0.05, a: 0.06 } }),
+      (e) => 0.05 * (e - 1.65),
+    );
     const r = analyzeSpectrum(s, { reference: ref });
     const nb = r.flags.filter((f) => f.kind === 'new-band');
     expect(nb).toHaveLength(1);
@@ -102,7 +105,12 @@ describe('3. a reference that does not match is not compared (checkReferenceMatc
   // ±1.5 meV here: the band overlaps the next transition, which stays put (a single band gets ±1 meV, section 5)
   it('the opposite: a 15 meV red shift of the same parent is compared (a shift flag, ±1.5 meV)', () => {
     const parent = absorbanceSpectrum({ bands: band(2.15), noise, seed: 50, background: 0 });
-    const shifted = absorbanceSpectrum({ bands: band(2.15).map((b, i) => (i === 0 ? { ...b, e: b.e - 0.015 } : b)), noise, seed: 51, background: 0 });
+    const shifted = absorbanceSpectrum({
+      bands: band(2.15).map((b, i) => (i === 0 ? { ...b, e: b.e - 0.015 } : b)),
+      noise,
+      seed: 51,
+      background: 0,
+    });
     const r = analyzeSpectrum(shifted, { reference: parent });
     expect(r.referenceMatch?.ok).toBe(true);
     expect(Math.abs(flag(r, 'shift')!.shiftMeV! + 15)).toBeLessThan(1.5);
@@ -122,7 +130,21 @@ function midIr(seed: number, o: { ch?: number; extra?: (cm1: number) => number }
     x[i] = k;
     y[i] = 0.02 + ch + 0.06 * g(k, 1460, 20) + (o.extra ? o.extra(k) : 0) + 0.0015 * rng();
   }
-  return { fileName: `ir-${seed}.csv`, format: 'delimited', x, y, xUnit: 'cm-1', yUnit: 'absorbance', xOrderInFile: 'ascending', technique: 'ir', columnName: 'A', columnIndex: 1, availableColumns: ['A'], metadata: {}, warnings: [] };
+  return {
+    fileName: `ir-${seed}.csv`,
+    format: 'delimited',
+    x,
+    y,
+    xUnit: 'cm-1',
+    yUnit: 'absorbance',
+    xOrderInFile: 'ascending',
+    technique: 'ir',
+    columnName: 'A',
+    columnIndex: 1,
+    availableColumns: ['A'],
+    metadata: {},
+    warnings: [],
+  };
 }
 /** CO₂ residue: P and R branches near 2340 and 2360 cm⁻¹ (from memory), 0.03 absorbance. */
 const co2 = (k: number) => 0.03 * (Math.exp(-0.5 * ((k - 2340) / 8) ** 2) + Math.exp(-0.5 * ((k - 2360) / 8) ** 2));
@@ -344,7 +366,11 @@ describe('6. first exciton: width from its low-energy half, dispersion, both CdS
 
 describe('8. bleach net of shift', () => {
   it('a 10 % bleach plus a 10 meV red shift: bleach of the band 0.098 ± 0.015 and shift −10 ± 1 meV', () => {
-    const s = absorbanceSpectrum({ bands: PARENT_BANDS.map((b, i) => (i === 0 ? { ...b, a: b.a * 0.9, e: b.e - 0.01 } : b)), noise, seed: 95 });
+    const s = absorbanceSpectrum({
+      bands: PARENT_BANDS.map((b, i) => (i === 0 ? { ...b, a: b.a * 0.9, e: b.e - 0.01 } : b)),
+      noise,
+      seed: 95,
+    });
     const r = analyzeSpectrum(s, { reference: ref });
     expect(Math.abs(flag(r, 'bleach')!.fraction! - (0.1 * 0.5) / A1)).toBeLessThan(0.015);
     expect(Math.abs(flag(r, 'shift')!.shiftMeV! + 10)).toBeLessThan(1);
@@ -354,7 +380,11 @@ describe('8. bleach net of shift', () => {
 describe('9. words by technique', () => {
   it('absorption peaks are excitonic transitions, PL emission bands, IR vibrational bands', () => {
     expect(analyzeSpectrum(ref).peaks.every((p) => p.bandRole === 'excitonic-transition')).toBe(true);
-    expect(analyzeSpectrum(plSpectrum({ e: 2.1, sigma: 0.05, area: 2000, noise: 0.5, seed: 96 })).peaks.every((p) => p.bandRole === 'emission-band')).toBe(true);
+    expect(
+      analyzeSpectrum(plSpectrum({ e: 2.1, sigma: 0.05, area: 2000, noise: 0.5, seed: 96 })).peaks.every(
+        (p) => p.bandRole === 'emission-band',
+      ),
+    ).toBe(true);
     expect(analyzeSpectrum(midIr(97)).peaks.every((p) => p.bandRole === 'vibrational-band')).toBe(true);
   });
 });
@@ -367,14 +397,21 @@ describe('noise only at SNR 20: no flags in at least 95 of 100 pairs (common pra
     const sigma = top / 20;
     const parent = absorbanceSpectrum({ bands: PARENT_BANDS, noise: sigma, seed: 1000 });
     let flagged = 0;
-    for (let k = 0; k < 100; k++) if (analyzeSpectrum(absorbanceSpectrum({ bands: PARENT_BANDS, noise: sigma, seed: 1001 + k }), { reference: parent }).flags.length) flagged++;
+    for (let k = 0; k < 100; k++)
+      if (analyzeSpectrum(absorbanceSpectrum({ bands: PARENT_BANDS, noise: sigma, seed: 1001 + k }), { reference: parent }).flags.length)
+        flagged++;
     expect(flagged).toBeLessThanOrEqual(5);
   });
   it('PL', () => {
     const peak = ((2000 / (0.05 * Math.sqrt(2 * Math.PI))) * HC) / (HC / 2.1) ** 2;
     const parent = plSpectrum({ e: 2.1, sigma: 0.05, area: 2000, noise: peak / 20, seed: 2000 });
     let flagged = 0;
-    for (let k = 0; k < 100; k++) if (analyzeSpectrum(plSpectrum({ e: 2.1, sigma: 0.05, area: 2000, noise: peak / 20, seed: 2001 + k }), { reference: parent }).flags.length) flagged++;
+    for (let k = 0; k < 100; k++)
+      if (
+        analyzeSpectrum(plSpectrum({ e: 2.1, sigma: 0.05, area: 2000, noise: peak / 20, seed: 2001 + k }), { reference: parent }).flags
+          .length
+      )
+        flagged++;
     expect(flagged).toBeLessThanOrEqual(5);
   });
 });

@@ -14,7 +14,10 @@ describe('first exciton of a charged sample', () => {
     // Generator truth: parent first exciton at 2.148 eV; the charged sample keeps it
     // (bleached by 40 %) and gains a new band at 1.72 eV.
     const reference = parse('parent.csv', absorptionCsv({ firstExcitonEv: 2.148, seed: 5 }, 'parent'));
-    const sample = parse('charged.csv', absorptionCsv({ firstExcitonEv: 2.148, bleach: 0.4, newBand: { centreEv: 1.72, height: 0.05, sigmaEv: 0.08 }, seed: 6 }, 'charged'));
+    const sample = parse(
+      'charged.csv',
+      absorptionCsv({ firstExcitonEv: 2.148, bleach: 0.4, newBand: { centreEv: 1.72, height: 0.05, sigmaEv: 0.08 }, seed: 6 }, 'charged'),
+    );
     const alone = analyzeSpectrum(sample, { technique: 'absorption' });
     expect(alone.firstExciton!.energyEv).toBeLessThan(1.8); // without a parent the lowest feature is taken
     const report = analyzeSpectrum(sample, { technique: 'absorption', reference });
@@ -35,7 +38,10 @@ describe('first exciton of a charged sample', () => {
 describe('a broad new band near the end of the range', () => {
   it('is flagged whatever the smoothing window (known truth of the generator: band at 1.72 eV, 0.067 eV from the 750 nm end)', () => {
     const reference = parse('parent.csv', absorptionCsv({ firstExcitonEv: 2.148, seed: 11 }, 'parent'));
-    const sample = parse('charged.csv', absorptionCsv({ firstExcitonEv: 2.148, bleach: 0.42, newBand: { centreEv: 1.72, height: 0.05, sigmaEv: 0.08 }, seed: 12 }, 'charged'));
+    const sample = parse(
+      'charged.csv',
+      absorptionCsv({ firstExcitonEv: 2.148, bleach: 0.42, newBand: { centreEv: 1.72, height: 0.05, sigmaEv: 0.08 }, seed: 12 }, 'charged'),
+    );
     for (const smoothingWindow of [13, 23, 31]) {
       const report = analyzeSpectrum(sample, { technique: 'absorption', reference, smoothingWindow });
       const bands = report.flags.filter((f) => f.kind === 'new-band');

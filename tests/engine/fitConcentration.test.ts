@@ -18,7 +18,13 @@ describe('fitConcentration', () => {
     const centre = 0.5 * (1.6 + 3.6);
     const S = E.map((e, i) => 0.7 * R[i]! + 0.01 + 0.02 * e + 0.004 * (e / centre) ** 4);
     // noise-free: a tiny σ, so the 25σ² rule keeps the scattering term the data need
-    const f = fitConcentration(E, S, R, R1, mask, { sigmaSample: 1e-7, sigmaReference: 0, clipWindow: 9, allowSlopeAndScatter: true, clippable: none })!;
+    const f = fitConcentration(E, S, R, R1, mask, {
+      sigmaSample: 1e-7,
+      sigmaReference: 0,
+      clipWindow: 9,
+      allowSlopeAndScatter: true,
+      clippable: none,
+    })!;
     expect(f.ratio).toBeCloseTo(0.7, 6);
     expect(f.scatterPower).toBe(4);
     expect(f.offset).toBeCloseTo(0.01, 6);
@@ -28,7 +34,13 @@ describe('fitConcentration', () => {
   it('equals numpy.linalg.lstsq on a noisy pair (offset and slope model, no clipping)', () => {
     const rng = makeRng(5);
     const S = E.map((_e, i) => 0.8 * R[i]! + 0.003 + 0.002 * rng());
-    const f = fitConcentration(E, S, R, R1, mask, { sigmaSample: 0.002, sigmaReference: 0, clipWindow: 9, allowSlopeAndScatter: true, clippable: none })!;
+    const f = fitConcentration(E, S, R, R1, mask, {
+      sigmaSample: 0.002,
+      sigmaReference: 0,
+      clipWindow: 9,
+      allowSlopeAndScatter: true,
+      clippable: none,
+    })!;
     const idx = [...mask.keys()].filter((i) => mask[i]);
     const lo = 1.6;
     const hi = 3.6;

@@ -11,7 +11,9 @@ import { analyzeSpectrum, parseSpectrumBytes, parseSpectrumFile, SpectrumFileErr
 import type { ParseOptions, ParsedSpectrum } from '../../lib/engine/index';
 import { realDir } from './scipy';
 
-const source = readFileSync(path.join(realDir, 'cdse-absorbance-growth-series.csv'), 'utf8').split(/\r?\n/).filter((l) => l.trim().length > 0);
+const source = readFileSync(path.join(realDir, 'cdse-absorbance-growth-series.csv'), 'utf8')
+  .split(/\r?\n/)
+  .filter((l) => l.trim().length > 0);
 const header = source[0]!.split(',');
 const body = source.slice(1).map((l) => l.split(','));
 /** X and three Y columns of the real file: 30 s, 240 s and 600 s aliquots. */
@@ -67,7 +69,12 @@ describe('headerless files: X unit inferred from the values, and stated as infer
 
 describe('encodings: the same text in every accepted encoding', () => {
   const latinHeader = 'Wellenlänge (nm);Extinktion 30 s;Extinktion 240 s;Extinktion 600 s';
-  const latinText = [latinHeader, ...xs.map((x, i) => `${x.replace('.', ',')};${col(0)[i]!.replace('.', ',')};${col(1)[i]!.replace('.', ',')};${col(2)[i]!.replace('.', ',')}`)].join('\r\n');
+  const latinText = [
+    latinHeader,
+    ...xs.map(
+      (x, i) => `${x.replace('.', ',')};${col(0)[i]!.replace('.', ',')};${col(1)[i]!.replace('.', ',')};${col(2)[i]!.replace('.', ',')}`,
+    ),
+  ].join('\r\n');
   const cases: Array<[string, Uint8Array, string]> = [
     ['UTF-8 with BOM', new Uint8Array(Buffer.concat([Buffer.from([0xef, 0xbb, 0xbf]), Buffer.from(plainCsv, 'utf8')])), 'utf-8-bom'],
     ['UTF-16 LE with BOM', new Uint8Array(iconv.encode(plainCsv, 'utf-16le', { addBOM: true })), 'utf-16le'],
@@ -110,7 +117,9 @@ describe('layouts', () => {
     const third = parseSpectrumFile('pairs.csv', bytes, { ...ABS, pair: 3 });
     expect(third.x.length).toBe(251 - 20);
     expect(byIndex.traces!.map((t) => t.group)).toEqual(['Образец А', 'Образец Б', 'Образец В']);
-    expect(() => parseSpectrumFile('pairs.csv', bytes, { ...ABS, column: 2 })).toThrow(/column 2 is the X column of pair 2.*choose its Y column 3 or pair 2/);
+    expect(() => parseSpectrumFile('pairs.csv', bytes, { ...ABS, column: 2 })).toThrow(
+      /column 2 is the X column of pair 2.*choose its Y column 3 or pair 2/,
+    );
     expect(() => parseSpectrumFile('pairs.csv', bytes, { ...ABS, column: 7 })).toThrow(/out of range: Y columns are 1, 3, 5/);
   });
 
@@ -156,7 +165,10 @@ describe('layouts', () => {
 
 describe('header series values', () => {
   it('"0.5 eq", "10 µM", "t = 30 s" and "240 s reaction" carry a value and a unit', () => {
-    const text = ['Wavelength (nm),0.5 eq,10 µM,t = 30 s,240 s reaction', ...xs.map((x, i) => `${x},${col(0)[i]},${col(1)[i]},${col(2)[i]},${col(0)[i]}`)].join('\n');
+    const text = [
+      'Wavelength (nm),0.5 eq,10 µM,t = 30 s,240 s reaction',
+      ...xs.map((x, i) => `${x},${col(0)[i]},${col(1)[i]},${col(2)[i]},${col(0)[i]}`),
+    ].join('\n');
     const s = parseSpectrumFile('series.csv', utf8(text), ABS);
     expect(s.traces!.map((t) => t.seriesValue)).toEqual([
       { value: 0.5, unit: 'eq' },
@@ -188,15 +200,26 @@ describe('new bad-file kinds end with one line naming the file and what to do', 
   it('a spreadsheet with no numbers', async () => {
     const wb = new ExcelJS.Workbook();
     wb.addWorksheet('Results').addRow(['sample', 'comment']);
-    await refuse('words.xlsx', new Uint8Array(await wb.xlsx.writeBuffer()), /no numeric table found on sheet 'Results'; export the sheet as CSV or choose another sheet/);
+    await refuse(
+      'words.xlsx',
+      new Uint8Array(await wb.xlsx.writeBuffer()),
+      /no numeric table found on sheet 'Results'; export the sheet as CSV or choose another sheet/,
+    );
   });
   it('a block without X', async () => {
     const good = [`Wavelength (nm),30 s`, ...xs.map((x, i) => `${x},${col(0)[i]}`)];
     const noX = ['Absorbance A,Absorbance B', ...xs.map((_, i) => `${col(1)[i]},${col(2)[i]}`)];
-    await refuse('nox.csv', utf8([...good, '', ...noX].join('\n')), /block 2 has no X column.*put the X values .* first/, { ...ABS, block: 2 });
+    await refuse('nox.csv', utf8([...good, '', ...noX].join('\n')), /block 2 has no X column.*put the X values .* first/, {
+      ...ABS,
+      block: 2,
+    });
   });
   it('mixed units in one column', async () => {
-    await refuse('mixed.csv', utf8(plainCsv.replace('Wavelength (nm)', 'Wavelength (nm) / Energy (eV)')), /mixed units in one column.*nm and eV; choose the X unit/);
+    await refuse(
+      'mixed.csv',
+      utf8(plainCsv.replace('Wavelength (nm)', 'Wavelength (nm) / Energy (eV)')),
+      /mixed units in one column.*nm and eV; choose the X unit/,
+    );
   });
   it('a UTF-16 file that is really binary', async () => {
     const junk = new Uint8Array(4096);

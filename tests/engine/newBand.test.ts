@@ -34,7 +34,10 @@ describe('new bands: one broad band gives one flag', () => {
   it('absorption: a broad sub-gap band (1.80 eV, σ 0.10 eV) gives one flag within 0.02 eV, not intraband', () => {
     const ref = parseSpectrumFile('parent.csv', enc(absorptionCsv({ firstExcitonEv: 2.1, seed: 1 }, 'parent')));
     for (const seed of [2, 5, 9]) {
-      const smp = parseSpectrumFile('charged.csv', enc(absorptionCsv({ firstExcitonEv: 2.1, seed, newBand: { centreEv: 1.8, height: 0.05, sigmaEv: 0.1 } }, 'charged')));
+      const smp = parseSpectrumFile(
+        'charged.csv',
+        enc(absorptionCsv({ firstExcitonEv: 2.1, seed, newBand: { centreEv: 1.8, height: 0.05, sigmaEv: 0.1 } }, 'charged')),
+      );
       const nb = newBands(analyzeSpectrum(smp, { reference: ref }));
       expect(nb).toHaveLength(1);
       expect(Math.abs(nb[0]!.energyEv! - 1.8)).toBeLessThan(0.02);
@@ -44,7 +47,12 @@ describe('new bands: one broad band gives one flag', () => {
   it('two separate sub-gap bands (1.70 and 1.95 eV, σ 0.03 eV) stay two flags (merging does not swallow a real band)', () => {
     const noise = 0.002;
     const ref = absorbanceSpectrum({ bands: PARENT_BANDS, noise, seed: 1 });
-    const smp = absorbanceSpectrum({ bands: [...PARENT_BANDS, { e: 1.7, sigma: 0.03, a: 0.05 }], noise, seed: 31, newBand: { e: 1.95, sigma: 0.03, a: 0.05 } });
+    const smp = absorbanceSpectrum({
+      bands: [...PARENT_BANDS, { e: 1.7, sigma: 0.03, a: 0.05 }],
+      noise,
+      seed: 31,
+      newBand: { e: 1.95, sigma: 0.03, a: 0.05 },
+    });
     const nb = newBands(analyzeSpectrum(smp, { reference: ref }));
     expect(nb).toHaveLength(2);
     expect(Math.abs(nb[0]!.energyEv! - 1.7)).toBeLessThan(0.015);

@@ -48,7 +48,13 @@ describe('real instrument files parse as their headers state', () => {
     expect(a.columnName).toBe('240 s');
     expect(Array.from(a.y)).toEqual(Array.from(b.y));
   });
-  for (const f of ['carbon-dots-absorbance-decimal-comma.txt', 'carbon-dots-pl-ex365-decimal-comma.txt', 'quinine-sulfate-absorbance-decimal-comma.txt', 'quinine-sulfate-pl-ex365-decimal-comma.txt', 'carbon-dots-pl-ex365-weak-with-scatter.txt']) {
+  for (const f of [
+    'carbon-dots-absorbance-decimal-comma.txt',
+    'carbon-dots-pl-ex365-decimal-comma.txt',
+    'quinine-sulfate-absorbance-decimal-comma.txt',
+    'quinine-sulfate-pl-ex365-decimal-comma.txt',
+    'carbon-dots-pl-ex365-weak-with-scatter.txt',
+  ]) {
     it(`${f}: decimal comma, tab separated, point count equals its "Number of Pixels" header`, () => {
       const s = parseSpectrumFile(f, read(f));
       expect(s.x.length).toBe(Number(s.metadata['Number of Pixels in Spectrum']));
@@ -118,7 +124,10 @@ describe('delimited text layouts', () => {
   it('reads units: cm-1 + %T → ir; eV + counts → pl', () => {
     const a = parseSpectrumFile('a.csv', enc(`Wavenumber (cm-1),%T\n${rows(',', '.')}`));
     expect([a.xUnit, a.yUnit, a.technique]).toEqual(['cm-1', 'percent-transmittance', 'ir']);
-    const b = parseSpectrumFile('b.csv', enc(`Energy (eV),Counts\n${Array.from({ length: 20 }, (_, i) => `${1.5 + 0.01 * i},${i}`).join('\n')}`));
+    const b = parseSpectrumFile(
+      'b.csv',
+      enc(`Energy (eV),Counts\n${Array.from({ length: 20 }, (_, i) => `${1.5 + 0.01 * i},${i}`).join('\n')}`),
+    );
     expect([b.xUnit, b.yUnit, b.technique]).toEqual(['eV', 'counts', 'pl']);
   });
 });

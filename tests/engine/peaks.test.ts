@@ -7,7 +7,15 @@ import { savitzkyGolayFilter } from '../../lib/engine/signal/savitzkyGolayFilter
 import { makeRng } from './synthetic';
 import { scipy } from './scipy';
 
-type PeakRef = { peaks: number[]; prominences: number[]; left: number[]; right: number[]; widths: number[]; leftIps: number[]; rightIps: number[] };
+type PeakRef = {
+  peaks: number[];
+  prominences: number[];
+  left: number[];
+  right: number[];
+  widths: number[];
+  leftIps: number[];
+  rightIps: number[];
+};
 
 describe('peak finding vs scipy.signal.find_peaks / peak_prominences / peak_widths (scipy 1.17)', () => {
   const rng = makeRng(7);

@@ -92,7 +92,21 @@ describe('synthetic Poisson-noise PL spectrum (seeded generator, known truth)', 
     const u = makeUniform(seed);
     const lc = HC / centreEv;
     const y = x.map((nm) => poissonDraw(dark + peakCounts * (lc / nm) ** 2 * Math.exp(-0.5 * ((HC / nm - centreEv) / 0.06) ** 2), u));
-    return { fileName: `poisson-${seed}.txt`, format: 'delimited', x, y, xUnit: 'nm', yUnit: 'counts', xOrderInFile: 'ascending', technique: 'pl', columnName: 'counts', columnIndex: 1, availableColumns: ['counts'], metadata: {}, warnings: [] };
+    return {
+      fileName: `poisson-${seed}.txt`,
+      format: 'delimited',
+      x,
+      y,
+      xUnit: 'nm',
+      yUnit: 'counts',
+      xOrderInFile: 'ascending',
+      technique: 'pl',
+      columnName: 'counts',
+      columnIndex: 1,
+      availableColumns: ['counts'],
+      metadata: {},
+      warnings: [],
+    };
   };
   // tolerance: the argmax of a smoothed broad band scatters with the noise (a 12-seed run of this
   // generator while writing the test: ≤ 0.9 nm at 2000 counts, ≤ 4 nm at 300 counts)

@@ -99,7 +99,8 @@ describe('Savitzky–Golay on a long array with wide windows (sliding-moment int
   const n = 4096;
   const h = 0.000486;
   const y = new Float64Array(n);
-  for (let i = 0; i < n; i++) y[i] = 0.5 * Math.exp(-0.5 * ((i - 1400) / 90) ** 2) + 0.35 * Math.exp(-0.5 * ((i - 2300) / 140) ** 2) + 0.3 + 0.002 * rng();
+  for (let i = 0; i < n; i++)
+    y[i] = 0.5 * Math.exp(-0.5 * ((i - 1400) / 90) ** 2) + 0.35 * Math.exp(-0.5 * ((i - 2300) / 140) ** 2) + 0.3 + 0.002 * rng();
   const cases = [
     { w: 51, p: 2, d: 0 },
     { w: 165, p: 2, d: 0 },
@@ -109,7 +110,10 @@ describe('Savitzky–Golay on a long array with wide windows (sliding-moment int
   ];
   let refs: number[][] = [];
   beforeAll(() => {
-    refs = scipy<number[][]>({ op: 'batch', requests: cases.map((c) => ({ op: 'savgol', y: Array.from(y), window: c.w, poly: c.p, deriv: c.d, delta: h })) });
+    refs = scipy<number[][]>({
+      op: 'batch',
+      requests: cases.map((c) => ({ op: 'savgol', y: Array.from(y), window: c.w, poly: c.p, deriv: c.d, delta: h })),
+    });
   });
   for (const [ci, c] of cases.entries()) {
     it(`w=${c.w} p=${c.p} deriv=${c.d}: every point within 1e-9 of the largest |value|`, () => {

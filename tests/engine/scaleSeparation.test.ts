@@ -25,7 +25,19 @@ interface Pair {
 const DEMO: [number, number, number] = [400, 750, 0.5];
 const WIDE: [number, number, number] = [300, 900, 1];
 
-function spectrum(name: string, p: { scale: number; bleach: number; offset: number; slope: number; noise: number; seed: number; nm: [number, number, number]; fx: number }): ParsedSpectrum {
+function spectrum(
+  name: string,
+  p: {
+    scale: number;
+    bleach: number;
+    offset: number;
+    slope: number;
+    noise: number;
+    seed: number;
+    nm: [number, number, number];
+    fx: number;
+  },
+): ParsedSpectrum {
   const [from, to, step] = p.nm;
   const n = Math.round((to - from) / step) + 1;
   const x = new Float64Array(n);
@@ -37,13 +49,36 @@ function spectrum(name: string, p: { scale: number; bleach: number; offset: numb
     x[i] = nm;
     y[i] = p.scale * cdseLikeAbsorbance(e, { firstExcitonEv: p.fx, bleach: p.bleach }) + p.offset + p.slope * (e - 1.65) + p.noise * rng();
   }
-  return { fileName: name, format: 'delimited', x, y, xUnit: 'nm', yUnit: 'absorbance', xOrderInFile: 'ascending', technique: 'absorption', columnName: 'A', columnIndex: 1, availableColumns: ['A'], metadata: {}, warnings: [] };
+  return {
+    fileName: name,
+    format: 'delimited',
+    x,
+    y,
+    xUnit: 'nm',
+    yUnit: 'absorbance',
+    xOrderInFile: 'ascending',
+    technique: 'absorption',
+    columnName: 'A',
+    columnIndex: 1,
+    availableColumns: ['A'],
+    metadata: {},
+    warnings: [],
+  };
 }
 
 function analysePair(p: Pair): AnalysisReport {
   const fx = p.firstExcitonEv ?? E1;
   const reference = spectrum('parent.csv', { scale: 1, bleach: 0, offset: 0, slope: 0, noise: p.noise, seed: p.seed, nm: p.nm, fx });
-  const sample = spectrum('sample.csv', { scale: p.k, bleach: p.bleach ?? 0, offset: p.offset ?? 0, slope: p.slope ?? 0, noise: p.noise, seed: p.seed + 1000, nm: p.nm, fx });
+  const sample = spectrum('sample.csv', {
+    scale: p.k,
+    bleach: p.bleach ?? 0,
+    offset: p.offset ?? 0,
+    slope: p.slope ?? 0,
+    noise: p.noise,
+    seed: p.seed + 1000,
+    nm: p.nm,
+    fx,
+  });
   return analyzeSpectrum(sample, { reference });
 }
 
@@ -133,7 +168,13 @@ describe('a scale the background can imitate', () => {
   it('the variance inflation of k equals 1/(1 − R²) of R regressed on the other columns (definition, computed here)', () => {
     const mask = Uint8Array.from(E, (e) => (e <= 2.0 || e >= 2.7 ? 1 : 0));
     const S = E.map((_e, i) => 0.6 * R[i]! + 0.01);
-    const f = fitConcentration(E, S, R, R1, mask, { sigmaSample: 1e-3, sigmaReference: 0, clipWindow: 9, allowSlopeAndScatter: true, clippable: none })!;
+    const f = fitConcentration(E, S, R, R1, mask, {
+      sigmaSample: 1e-3,
+      sigmaReference: 0,
+      clipWindow: 9,
+      allowSlopeAndScatter: true,
+      clippable: none,
+    })!;
     // regress R on [1, u, R'] (the terms kept, per f.terms) by normal equations, here in plain JS
     const idx = [...mask.keys()].filter((i) => mask[i]);
     const cols: number[][] = [idx.map(() => 1)];
@@ -142,18 +183,21 @@ describe('a scale the background can imitate', () => {
     expect(f.terms).not.toContain('scatter');
     const y = idx.map((i) => R[i]!);
     const p = cols.length;
-    const A = Array.from({ length: p }, (_, a) => Array.from({ length: p }, (_, b) => cols[a]!.reduce((s, v, j) => s + v * cols[b]![j]!, 0)));
+    const A = Array.from({ length: p }, (_, a) =>
+      Array.from({ length: p }, (_, b) => cols[a]!.reduce((s, v, j) => s + v * cols[b]![j]!, 0)),
+    );
     const bv = Array.from({ length: p }, (_, a) => cols[a]!.reduce((s, v, j) => s + v * y[j]!, 0));
     // Gauss–Jordan
     for (let c = 0; c < p; c++) {
       const piv = A[c]![c]!;
       for (let j = 0; j < p; j++) A[c]![j]! /= piv;
       bv[c]! /= piv;
-      for (let r = 0; r < p; r++) if (r !== c) {
-        const fct = A[r]![c]!;
-        for (let j = 0; j < p; j++) A[r]![j] = A[r]![j]! - fct * A[c]![j]!;
-        bv[r] = bv[r]! - fct * bv[c]!;
-      }
+      for (let r = 0; r < p; r++)
+        if (r !== c) {
+          const fct = A[r]![c]!;
+          for (let j = 0; j < p; j++) A[r]![j] = A[r]![j]! - fct * A[c]![j]!;
+          bv[r] = bv[r]! - fct * bv[c]!;
+        }
     }
     const fitR = y.map((_v, j) => cols.reduce((s, col, a) => s + bv[a]! * col[j]!, 0));
     const mean = y.reduce((s, v) => s + v, 0) / y.length;
@@ -165,13 +209,18 @@ describe('a scale the background can imitate', () => {
   it('a short, nearly straight continuum: the slope the data do not need is left out and k is right', () => {
     const mask = Uint8Array.from(E, (e) => (e <= 2.0 || e >= 3.05 ? 1 : 0));
     const S = E.map((_e, i) => 0.5 * R[i]! + 0.004);
-    const f = fitConcentration(E, S, R, R1, mask, { sigmaSample: 1e-3, sigmaReference: 0, clipWindow: 9, allowSlopeAndScatter: true, clippable: gap })!;
+    const f = fitConcentration(E, S, R, R1, mask, {
+      sigmaSample: 1e-3,
+      sigmaReference: 0,
+      clipWindow: 9,
+      allowSlopeAndScatter: true,
+      clippable: gap,
+    })!;
     expect(f.scaleInflation).toBeLessThanOrEqual(MAX_SCALE_INFLATION);
     expect(f.degenerate).toBeNull();
     expect(f.dropped.length).toBeGreaterThan(0);
     expect(f.ratio).toBeCloseTo(0.5, 6);
   });
-
 });
 
 describe('a ratio the background imitates and the data cannot pin: refused, said, no scale-dependent flag', () => {
@@ -220,7 +269,10 @@ describe('data that stop before the continuum: no ratio can be fitted, so no sca
     const fx = E1;
     const reference = spectrum('parent.csv', { scale: 1, bleach: 0, offset: 0, slope: 0, noise: 0.0015, seed: 4, nm: SHORT, fx });
     const sample = spectrum('sample.csv', { scale: 0.7, bleach: 0.2, offset: 0, slope: 0, noise: 0.0015, seed: 1004, nm: SHORT, fx });
-    const r = analyzeSpectrum(sample, { reference, normalization: { mode: 'concentration', sampleConcentration: 0.7, referenceConcentration: 1 } });
+    const r = analyzeSpectrum(sample, {
+      reference,
+      normalization: { mode: 'concentration', sampleConcentration: 0.7, referenceConcentration: 1 },
+    });
     const b = r.flags.find((f) => f.kind === 'bleach');
     expect(b).toBeDefined();
     expect(Math.abs(b!.fraction! - trueBleach(0.2))).toBeLessThan(BLEACH_TOL);

@@ -61,7 +61,15 @@ describe('concentration, molar mass, quantum yield, inner filter', () => {
       referenceQuantumYield: 0.546,
     });
     expect(r.quantumYield).toBeCloseTo(0.546 * 2 * (1.496 / 1.333) ** 2, 10);
-    const half = relativeQuantumYield({ integratedEmission: 1, absorbanceAtExcitation: 0.1, refractiveIndex: 1, referenceIntegratedEmission: 1, referenceAbsorbanceAtExcitation: 0.05, referenceRefractiveIndex: 1, referenceQuantumYield: 1 });
+    const half = relativeQuantumYield({
+      integratedEmission: 1,
+      absorbanceAtExcitation: 0.1,
+      refractiveIndex: 1,
+      referenceIntegratedEmission: 1,
+      referenceAbsorbanceAtExcitation: 0.05,
+      referenceRefractiveIndex: 1,
+      referenceQuantumYield: 1,
+    });
     expect(half.quantumYield).toBeCloseTo((1 - 10 ** -0.05) / (1 - 10 ** -0.1), 12);
   });
   it('inner filter F_corr = F·10^((A_ex+A_em)/2); warns above 0.1, not applied silently above 0.3 (secondary; thresholds from memory)', () => {

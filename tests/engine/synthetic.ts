@@ -60,7 +60,14 @@ export function absorbanceSpectrum(opts: {
 }
 
 /** Emission spectrum I(λ) in counts per nm whose energy-axis shape is a Gaussian of known area. */
-export function plSpectrum(opts: { e: number; sigma: number; area: number; noise: number; seed: number; laserNm?: number }): ParsedSpectrum {
+export function plSpectrum(opts: {
+  e: number;
+  sigma: number;
+  area: number;
+  noise: number;
+  seed: number;
+  laserNm?: number;
+}): ParsedSpectrum {
   const n = 1001;
   const rng = makeRng(opts.seed);
   const x = new Float64Array(n);

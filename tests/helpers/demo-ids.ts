@@ -17,7 +17,13 @@ export async function demoIds() {
   const otherGroupSpectrum = await byName(Spectrum.findOne({ where: { fileName: "inp-0007-abs.csv" } }), "the other group's spectrum");
   const sharedPoints = await Spectrum.findAll({ where: { seriesId: sharedSeries.id }, attributes: ["id"] });
   const pointIds = sharedPoints.map((p) => p.id);
-  const sharedSupernatant = await byName(Spectrum.findOne({ where: { supernatantOfSpectrumId: { [Op.in]: pointIds } } }), "a supernatant of the shared titration");
-  const sharedSignature = await byName(Signature.findOne({ where: { spectrumId: { [Op.in]: pointIds }, supersededAt: null } }), "a flag of the shared titration");
+  const sharedSupernatant = await byName(
+    Spectrum.findOne({ where: { supernatantOfSpectrumId: { [Op.in]: pointIds } } }),
+    "a supernatant of the shared titration",
+  );
+  const sharedSignature = await byName(
+    Signature.findOne({ where: { spectrumId: { [Op.in]: pointIds }, supersededAt: null } }),
+    "a flag of the shared titration",
+  );
   return { project, sharedSeries, privateSeries, privateSpectrum, sharedSpectrum, otherGroupSpectrum, sharedSupernatant, sharedSignature };
 }

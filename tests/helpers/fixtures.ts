@@ -25,7 +25,14 @@ export async function createUser(label = "tester"): Promise<{ user: User; token:
     passwordHash: await bcrypt.hash("test-password", 4),
   });
   const token = `bkt_${randomBytes(24).toString("hex")}`;
-  await ApiToken.create({ userId: user.id, name: "tests", tokenHash: hashToken(token), prefix: token.slice(0, 8), lastUsedAt: null, revokedAt: null });
+  await ApiToken.create({
+    userId: user.id,
+    name: "tests",
+    tokenHash: hashToken(token),
+    prefix: token.slice(0, 8),
+    lastUsedAt: null,
+    revokedAt: null,
+  });
   return { user, token };
 }
 
@@ -54,7 +61,12 @@ export async function createSample(lab: Lab, material = "CdSe/ZnS"): Promise<Sam
 
 export async function createSeries(lab: Lab): Promise<Series> {
   return Series.create({
-    projectId: lab.project.id, name: `Titration ${uniq()}`, kind: "titration", variableName: "added acceptor", variableUnit: "equiv", createdBy: lab.user.id,
+    projectId: lab.project.id,
+    name: `Titration ${uniq()}`,
+    kind: "titration",
+    variableName: "added acceptor",
+    variableUnit: "equiv",
+    createdBy: lab.user.id,
   });
 }
 

@@ -11,8 +11,12 @@ export type Owned = { child: ChildProcess; output: () => string; stop: (signal?:
 
 function own(child: ChildProcess): Owned {
   let out = "";
-  child.stdout?.on("data", (d: Buffer) => { out = (out + d.toString()).slice(-20_000); });
-  child.stderr?.on("data", (d: Buffer) => { out = (out + d.toString()).slice(-20_000); });
+  child.stdout?.on("data", (d: Buffer) => {
+    out = (out + d.toString()).slice(-20_000);
+  });
+  child.stderr?.on("data", (d: Buffer) => {
+    out = (out + d.toString()).slice(-20_000);
+  });
   const exited = new Promise<number | null>((resolve) => child.once("exit", (code) => resolve(code)));
   return {
     child,
@@ -50,9 +54,13 @@ export function ownRedis(port: number) {
   const dir = mkdtempSync(path.join(tmpdir(), "bandkeep-redis-"));
   let server: Owned | null = null;
   const start = async () => {
-    const child = spawn("redis-server", ["--bind", "127.0.0.1", "--port", String(port), "--dir", dir, "--appendonly", "yes", "--save", ""], {
-      stdio: ["ignore", "pipe", "pipe"],
-    });
+    const child = spawn(
+      "redis-server",
+      ["--bind", "127.0.0.1", "--port", String(port), "--dir", dir, "--appendonly", "yes", "--save", ""],
+      {
+        stdio: ["ignore", "pipe", "pipe"],
+      },
+    );
     server = own(child);
     const deadline = Date.now() + 10_000;
     for (;;) {

@@ -24,23 +24,39 @@ function nodes(node: PlanNode, out: PlanNode[] = []): PlanNode[] {
   return out;
 }
 async function plan(sql: string, replacements: Record<string, unknown>): Promise<PlanNode[]> {
-  const rows = await db.query<{ "QUERY PLAN": [{ Plan: PlanNode }] }>(`EXPLAIN (FORMAT JSON) ${sql}`, { replacements, type: QueryTypes.SELECT });
+  const rows = await db.query<{ "QUERY PLAN": [{ Plan: PlanNode }] }>(`EXPLAIN (FORMAT JSON) ${sql}`, {
+    replacements,
+    type: QueryTypes.SELECT,
+  });
   return nodes(rows[0]!["QUERY PLAN"][0].Plan);
 }
 const seqScansOfAudit = (p: PlanNode[]) => p.filter((n) => n["Node Type"] === "Seq Scan" && n["Relation Name"] === "audit_events");
-const auditIndexes = (p: PlanNode[]) => [...new Set(p.filter((n) => n["Relation Name"] === "audit_events" && n["Index Name"]).map((n) => n["Index Name"]!))];
+const auditIndexes = (p: PlanNode[]) => [
+  ...new Set(p.filter((n) => n["Relation Name"] === "audit_events" && n["Index Name"]).map((n) => n["Index Name"]!)),
+];
 
 async function admin(sql: string) {
   const client = new pg.Client({ connectionString: process.env.ADMIN_DATABASE_URL });
   await client.connect();
-  try { await client.query(sql); } finally { await client.end(); }
+  try {
+    await client.query(sql);
+  } finally {
+    await client.end();
+  }
 }
 
 beforeAll(async () => {
   const url = await seedScaleDatabase(N, scratch, () => {});
   db = new Sequelize(url, { dialect: "postgres", dialectModule: pg, logging: false });
-  groupIds = (await db.query<{ id: string }>("SELECT id FROM groups WHERE slug = 'scale-g1'", { type: QueryTypes.SELECT })).map((r) => r.id);
-  person = (await db.query<{ actor_id: string }>("SELECT actor_id FROM audit_events WHERE group_id = :g AND actor_id IS NOT NULL LIMIT 1", { replacements: { g: groupIds[0] }, type: QueryTypes.SELECT }))[0]!.actor_id;
+  groupIds = (await db.query<{ id: string }>("SELECT id FROM groups WHERE slug = 'scale-g1'", { type: QueryTypes.SELECT })).map(
+    (r) => r.id,
+  );
+  person = (
+    await db.query<{ actor_id: string }>("SELECT actor_id FROM audit_events WHERE group_id = :g AND actor_id IS NOT NULL LIMIT 1", {
+      replacements: { g: groupIds[0] },
+      type: QueryTypes.SELECT,
+    })
+  )[0]!.actor_id;
 }, 900_000);
 afterAll(async () => {
   await db?.close();
@@ -76,6 +92,8 @@ describe(`audit trail query plans at ${N * 5} events`, () => {
   });
 
   it("the check can fail: a filter on the details, which no index covers, is caught", async () => {
-    expect(seqScansOfAudit(await plan("SELECT id FROM audit_events WHERE details->>'reason' = 'x' ORDER BY at DESC LIMIT 5", {}))).toHaveLength(1);
+    expect(
+      seqScansOfAudit(await plan("SELECT id FROM audit_events WHERE details->>'reason' = 'x' ORDER BY at DESC LIMIT 5", {})),
+    ).toHaveLength(1);
   });
 });

@@ -10,7 +10,11 @@ const appUrl = process.env.DATABASE_URL ?? "postgres://bandkeep_app@127.0.0.1:54
 let client: pg.Client;
 type Snapshot = { count: string; digest: string };
 const snapshot = async (): Promise<Snapshot> =>
-  (await client.query<Snapshot>("SELECT count(*)::text AS count, md5(coalesce(string_agg(a::text, '|' ORDER BY id), '')) AS digest FROM audit_events a")).rows[0]!;
+  (
+    await client.query<Snapshot>(
+      "SELECT count(*)::text AS count, md5(coalesce(string_agg(a::text, '|' ORDER BY id), '')) AS digest FROM audit_events a",
+    )
+  ).rows[0]!;
 
 beforeAll(async () => {
   client = new pg.Client({ connectionString: appUrl });
@@ -29,7 +33,9 @@ describe("the audit trail as the app role", () => {
   });
 
   it("may append and read", async () => {
-    const { rows } = await client.query("INSERT INTO audit_events (action, actor_label) VALUES ('tamper-probe', 'audit-tamper test') RETURNING id");
+    const { rows } = await client.query(
+      "INSERT INTO audit_events (action, actor_label) VALUES ('tamper-probe', 'audit-tamper test') RETURNING id",
+    );
     expect(rows[0].id).toBeDefined();
   });
 
@@ -37,9 +43,17 @@ describe("the audit trail as the app role", () => {
     ["disable the append-only trigger", "ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_edit", /must be owner|permission denied/],
     ["disable every trigger", "ALTER TABLE audit_events DISABLE TRIGGER ALL", /must be owner|permission denied/],
     ["drop the trigger", "DROP TRIGGER audit_events_no_edit ON audit_events", /must be owner|permission denied/],
-    ["replace the trigger function", "CREATE OR REPLACE FUNCTION audit_events_append_only() RETURNS trigger LANGUAGE plpgsql AS $$ BEGIN RETURN NEW; END $$", /must be owner|permission denied/],
+    [
+      "replace the trigger function",
+      "CREATE OR REPLACE FUNCTION audit_events_append_only() RETURNS trigger LANGUAGE plpgsql AS $$ BEGIN RETURN NEW; END $$",
+      /must be owner|permission denied/,
+    ],
     ["switch to replica mode", "SET session_replication_role = replica", /permission denied/],
-    ["clear the actor and rewrite the rest", "UPDATE audit_events SET actor_id = NULL, actor_label = 'nobody', at = now() - interval '1 year', group_id = NULL, target_id = 'x' WHERE id = (SELECT max(id) FROM audit_events)", /permission denied/],
+    [
+      "clear the actor and rewrite the rest",
+      "UPDATE audit_events SET actor_id = NULL, actor_label = 'nobody', at = now() - interval '1 year', group_id = NULL, target_id = 'x' WHERE id = (SELECT max(id) FROM audit_events)",
+      /permission denied/,
+    ],
     ["edit an event", "UPDATE audit_events SET action = 'edited'", /permission denied/],
     ["delete events", "DELETE FROM audit_events", /permission denied/],
     ["truncate", "TRUNCATE audit_events", /permission denied/],

@@ -50,24 +50,59 @@ beforeAll(async () => {
   const steward = { actorId: lab.user.id, actorLabel: lab.user.email };
   const byMember = { actorId: member.id, actorLabel: member.email };
 
-  await recordAudit({ ...byMember, groupId: g, action: "spectrum.upload", targetType: "spectrum", targetId: spectrumId, details: { fileName: spectrum.fileName } });
+  await recordAudit({
+    ...byMember,
+    groupId: g,
+    action: "spectrum.upload",
+    targetType: "spectrum",
+    targetId: spectrumId,
+    details: { fileName: spectrum.fileName },
+  });
   written.push("spectrum.upload");
   for (let i = 0; i < 3; i++) {
     await recordAudit({ ...steward, action: "sign-in", details: { address: "10.1.1.1" } }); // personal: no group
     written.push("sign-in");
   }
   await recordAudit({ ...byMember, action: "sign-in", details: { address: "10.1.1.2" } }); // the member's personal event: not the steward's to see
-  await recordAudit({ ...steward, groupId: g, action: "hold-placed", targetType: "spectrum", targetId: spectrumId, details: { holdId: "h", reason: "audit test hold" } });
+  await recordAudit({
+    ...steward,
+    groupId: g,
+    action: "hold-placed",
+    targetType: "spectrum",
+    targetId: spectrumId,
+    details: { holdId: "h", reason: "audit test hold" },
+  });
   written.push("hold-placed");
   // names a spectrum of another group: named, never linked
-  await recordAudit({ ...byMember, groupId: g, action: "signature-decided", targetType: "signature", targetId: "00000000-0000-4000-8000-000000000000",
-    details: { decision: "dismissed", previousState: "awaiting", kind: "bleach", spectrumId: foreignSpectrumId } });
+  await recordAudit({
+    ...byMember,
+    groupId: g,
+    action: "signature-decided",
+    targetType: "signature",
+    targetId: "00000000-0000-4000-8000-000000000000",
+    details: { decision: "dismissed", previousState: "awaiting", kind: "bleach", spectrumId: foreignSpectrumId },
+  });
   written.push("signature-decided");
   for (let i = 0; i < 57; i++) {
-    await recordAudit({ ...byMember, groupId: g, action: "analysis.request", targetType: "spectrum", targetId: spectrumId, details: { runId: `r${i}` } });
+    await recordAudit({
+      ...byMember,
+      groupId: g,
+      action: "analysis.request",
+      targetType: "spectrum",
+      targetId: spectrumId,
+      details: { runId: `r${i}` },
+    });
     written.push("analysis.request");
   }
-  await recordAudit({ actorId: other.user.id, actorLabel: other.user.email, groupId: other.group.id, action: "hold-placed", targetType: "spectrum", targetId: foreignSpectrumId, details: { reason: "other group's hold" } });
+  await recordAudit({
+    actorId: other.user.id,
+    actorLabel: other.user.email,
+    groupId: other.group.id,
+    action: "hold-placed",
+    targetType: "spectrum",
+    targetId: foreignSpectrumId,
+    details: { reason: "other group's hold" },
+  });
 }, 120_000);
 
 afterAll(() => closeDb());
@@ -84,13 +119,22 @@ describe("the audit trail, read as sentences", () => {
 
   it("does not repeat or skip when events arrive while someone pages", async () => {
     const first = (await listAuditPage(lab.actor, filter({ category: "analysis" }), 10))!;
-    await recordAudit({ actorId: member.id, actorLabel: member.email, groupId: lab.group.id, action: "analysis.request", targetType: "spectrum", targetId: spectrumId, details: { runId: "late" } });
+    await recordAudit({
+      actorId: member.id,
+      actorLabel: member.email,
+      groupId: lab.group.id,
+      action: "analysis.request",
+      targetType: "spectrum",
+      targetId: spectrumId,
+      details: { runId: "late" },
+    });
     written.push("analysis.request");
     const second = (await listAuditPage(lab.actor, filter({ category: "analysis", after: first.next! }), 10))!;
     const ids = [...first.lines, ...second.lines].map((l) => l.id);
     expect(new Set(ids).size).toBe(20);
     const truth = await selectRows<{ id: string }>(
-      "SELECT id::text AS id FROM audit_events WHERE group_id = :g AND action = 'analysis.request' ORDER BY at DESC, id DESC", { g: lab.group.id },
+      "SELECT id::text AS id FROM audit_events WHERE group_id = :g AND action = 'analysis.request' ORDER BY at DESC, id DESC",
+      { g: lab.group.id },
     );
     // the new event is on no page already read; the second page continues where the first stopped
     expect(ids).toEqual(truth.slice(1, 21).map((r) => r.id));
@@ -98,10 +142,14 @@ describe("the audit trail, read as sentences", () => {
 
   it("filters by category: holds, sign-ins (folded), decisions", async () => {
     const holds = (await listAuditPage(lab.actor, filter({ category: "holds" })))!;
-    expect(holds.lines.map(text)).toEqual([`${lab.user.name} placed a legal hold on the spectrum ${(await selectRows<{ file_name: string }>("SELECT file_name FROM spectra WHERE id = :id", { id: spectrumId }))[0]!.file_name}: “audit test hold”`]);
+    expect(holds.lines.map(text)).toEqual([
+      `${lab.user.name} placed a legal hold on the spectrum ${(await selectRows<{ file_name: string }>("SELECT file_name FROM spectra WHERE id = :id", { id: spectrumId }))[0]!.file_name}: “audit test hold”`,
+    ]);
     const signIns = (await listAuditPage(lab.actor, filter({ category: "sign-in" })))!;
     expect(signIns.lines).toHaveLength(1);
-    expect(text(signIns.lines[0]!)).toMatch(new RegExp(`^${lab.user.name} signed in 3 times (between|at) \\d+ \\w{3} \\d{4}, \\d\\d:\\d\\d UTC`));
+    expect(text(signIns.lines[0]!)).toMatch(
+      new RegExp(`^${lab.user.name} signed in 3 times (between|at) \\d+ \\w{3} \\d{4}, \\d\\d:\\d\\d UTC`),
+    );
     const decisions = (await listAuditPage(lab.actor, filter({ category: "decision" })))!;
     expect(decisions.lines.map((l) => l.kind === "event" && l.action)).toEqual(["signature-decided"]);
   });
@@ -125,7 +173,9 @@ describe("the audit trail, read as sentences", () => {
     expect(text(decision)).toContain(" dismissed the exciton bleach on "); // named (from the event), not linked
     const everything = (await listAuditJson(lab.actor, filter(), 1000))!;
     expect(everything.events.some((e) => e.details.reason === "other group's hold")).toBe(false);
-    expect((await listAuditJson(other.actor, filter({ category: "holds" }), 1000))!.events.map((e) => e.details.reason)).toEqual(["other group's hold"]);
+    expect((await listAuditJson(other.actor, filter({ category: "holds" }), 1000))!.events.map((e) => e.details.reason)).toEqual([
+      "other group's hold",
+    ]);
   });
 
   it("exports CSV with the raw codes and full details, streamed over HTTP, filtered like the page", async () => {
@@ -136,7 +186,10 @@ describe("the audit trail, read as sentences", () => {
     expect(lines[0]).toBe("id,at,actor,action,target,details,category,sentence");
     expect(lines).toHaveLength(2);
     expect(lines[1]).toContain(`,hold-placed,spectrum ${spectrumId},"{""holdId"":""h"",""reason"":""audit test hold""}",holds,`);
-    const json = await (await fetch(url("/api/v1/audit?format=json&limit=5"), { headers: { cookie } })).json() as { events: { action: string }[]; next: string | null };
+    const json = (await (await fetch(url("/api/v1/audit?format=json&limit=5"), { headers: { cookie } })).json()) as {
+      events: { action: string }[];
+      next: string | null;
+    };
     expect(json.events).toHaveLength(5);
     expect(json.next).toEqual(expect.any(String));
     const bad = await fetch(url("/api/v1/audit?category=gossip"), { headers: { cookie } });
@@ -147,7 +200,9 @@ describe("the audit trail, read as sentences", () => {
   it("every code in the database has a category and a sentence (all that the seed and the tests so far wrote)", async () => {
     const codes = await selectRows<{ action: string }>("SELECT DISTINCT action FROM audit_events");
     // the probes are rows the tamper and migration tests insert by hand to show they cannot be changed
-    const unknown = codes.map((c) => c.action).filter((a) => !Object.hasOwn(AUDIT_EVENT_KINDS, a) && !["probe", "tamper-probe"].includes(a));
+    const unknown = codes
+      .map((c) => c.action)
+      .filter((a) => !Object.hasOwn(AUDIT_EVENT_KINDS, a) && !["probe", "tamper-probe"].includes(a));
     expect(unknown).toEqual([]);
     expect(codes.length).toBeGreaterThan(3);
   });

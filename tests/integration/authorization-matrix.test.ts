@@ -22,8 +22,18 @@ import { sessionCookie, signInOverHttp } from "../helpers/session";
 // revokedSession: the steward's session cookie, copied before the steward signed out. It
 // must get exactly what an anonymous caller gets.
 
-type Persona = "anonymous" | "revokedSession" | "collaboratorShared" | "collaboratorUnshared" | "spectroscopist" | "lead" | "steward" | "otherGroup";
-const PERSONAS: Persona[] = ["anonymous", "revokedSession", "collaboratorShared", "collaboratorUnshared", "spectroscopist", "lead", "steward", "otherGroup"];
+type Persona =
+  "anonymous" | "revokedSession" | "collaboratorShared" | "collaboratorUnshared" | "spectroscopist" | "lead" | "steward" | "otherGroup";
+const PERSONAS: Persona[] = [
+  "anonymous",
+  "revokedSession",
+  "collaboratorShared",
+  "collaboratorUnshared",
+  "spectroscopist",
+  "lead",
+  "steward",
+  "otherGroup",
+];
 
 /** ok: 200 with content; steward-only: 200 with the "for data stewards" notice; signin: redirect; or an HTTP status. */
 type Outcome = "ok" | "steward-only" | "signin" | 401 | 403 | 404;
@@ -31,8 +41,17 @@ type Ids = Awaited<ReturnType<typeof demoIds>>;
 type Row = { what: string; path: (ids: Ids) => string; expect: Record<Exclude<Persona, "revokedSession">, Outcome> };
 
 const stewardPage = (path: string): Row => ({
-  what: `page ${path}`, path: () => path,
-  expect: { anonymous: "signin", collaboratorShared: "steward-only", collaboratorUnshared: "steward-only", spectroscopist: "steward-only", lead: "steward-only", steward: "ok", otherGroup: "steward-only" },
+  what: `page ${path}`,
+  path: () => path,
+  expect: {
+    anonymous: "signin",
+    collaboratorShared: "steward-only",
+    collaboratorUnshared: "steward-only",
+    spectroscopist: "steward-only",
+    lead: "steward-only",
+    steward: "ok",
+    otherGroup: "steward-only",
+  },
 });
 
 const MATRIX: Row[] = [
@@ -43,35 +62,189 @@ const MATRIX: Row[] = [
   stewardPage("/stewardship/audit"),
   stewardPage("/stewardship/storage"),
   stewardPage("/stewardship/exports"),
-  { what: "page /stewardship/sharing", path: () => "/stewardship/sharing",
-    expect: { anonymous: "signin", collaboratorShared: "steward-only", collaboratorUnshared: "steward-only", spectroscopist: "steward-only", lead: "ok", steward: "ok", otherGroup: "steward-only" } },
-  { what: "public invitation page with a bad token", path: () => "/invite/not-a-real-token-0123456789",
-    expect: { anonymous: "ok", collaboratorShared: "ok", collaboratorUnshared: "ok", spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: "ok" } },
-  { what: "audit CSV", path: () => "/api/v1/audit?format=csv",
-    expect: { anonymous: 401, collaboratorShared: 403, collaboratorUnshared: 403, spectroscopist: 403, lead: 403, steward: "ok", otherGroup: 403 } },
-  { what: "export of the shared series", path: (ids) => `/api/v1/exports/series/${ids.sharedSeries.id}`,
-    expect: { anonymous: 401, collaboratorShared: "ok", collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
-  { what: "export of an unshared series", path: (ids) => `/api/v1/exports/series/${ids.privateSeries.id}`,
-    expect: { anonymous: 401, collaboratorShared: 404, collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
-  { what: "export of the whole project", path: (ids) => `/api/v1/exports/project/${ids.project.id}`,
-    expect: { anonymous: 401, collaboratorShared: 404, collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
-  { what: "raw download of a shared spectrum", path: (ids) => `/api/v1/spectra/${ids.sharedSpectrum.id}/raw`,
-    expect: { anonymous: 401, collaboratorShared: "ok", collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
-  { what: "raw download of an unshared spectrum", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/raw`,
-    expect: { anonymous: 401, collaboratorShared: 404, collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
+  {
+    what: "page /stewardship/sharing",
+    path: () => "/stewardship/sharing",
+    expect: {
+      anonymous: "signin",
+      collaboratorShared: "steward-only",
+      collaboratorUnshared: "steward-only",
+      spectroscopist: "steward-only",
+      lead: "ok",
+      steward: "ok",
+      otherGroup: "steward-only",
+    },
+  },
+  {
+    what: "public invitation page with a bad token",
+    path: () => "/invite/not-a-real-token-0123456789",
+    expect: {
+      anonymous: "ok",
+      collaboratorShared: "ok",
+      collaboratorUnshared: "ok",
+      spectroscopist: "ok",
+      lead: "ok",
+      steward: "ok",
+      otherGroup: "ok",
+    },
+  },
+  {
+    what: "audit CSV",
+    path: () => "/api/v1/audit?format=csv",
+    expect: {
+      anonymous: 401,
+      collaboratorShared: 403,
+      collaboratorUnshared: 403,
+      spectroscopist: 403,
+      lead: 403,
+      steward: "ok",
+      otherGroup: 403,
+    },
+  },
+  {
+    what: "export of the shared series",
+    path: (ids) => `/api/v1/exports/series/${ids.sharedSeries.id}`,
+    expect: {
+      anonymous: 401,
+      collaboratorShared: "ok",
+      collaboratorUnshared: 404,
+      spectroscopist: "ok",
+      lead: "ok",
+      steward: "ok",
+      otherGroup: 404,
+    },
+  },
+  {
+    what: "export of an unshared series",
+    path: (ids) => `/api/v1/exports/series/${ids.privateSeries.id}`,
+    expect: {
+      anonymous: 401,
+      collaboratorShared: 404,
+      collaboratorUnshared: 404,
+      spectroscopist: "ok",
+      lead: "ok",
+      steward: "ok",
+      otherGroup: 404,
+    },
+  },
+  {
+    what: "export of the whole project",
+    path: (ids) => `/api/v1/exports/project/${ids.project.id}`,
+    expect: {
+      anonymous: 401,
+      collaboratorShared: 404,
+      collaboratorUnshared: 404,
+      spectroscopist: "ok",
+      lead: "ok",
+      steward: "ok",
+      otherGroup: 404,
+    },
+  },
+  {
+    what: "raw download of a shared spectrum",
+    path: (ids) => `/api/v1/spectra/${ids.sharedSpectrum.id}/raw`,
+    expect: {
+      anonymous: 401,
+      collaboratorShared: "ok",
+      collaboratorUnshared: 404,
+      spectroscopist: "ok",
+      lead: "ok",
+      steward: "ok",
+      otherGroup: 404,
+    },
+  },
+  {
+    what: "raw download of an unshared spectrum",
+    path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/raw`,
+    expect: {
+      anonymous: 401,
+      collaboratorShared: 404,
+      collaboratorUnshared: 404,
+      spectroscopist: "ok",
+      lead: "ok",
+      steward: "ok",
+      otherGroup: 404,
+    },
+  },
   // Guests: no review state anywhere, and only what their share covers, supernatants included.
-  { what: "page of a flag on a shared spectrum", path: (ids) => `/review/${ids.sharedSignature.id}`,
-    expect: { anonymous: "signin", collaboratorShared: 404, collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
-  { what: "decision history of a flag on a shared spectrum", path: (ids) => `/api/v1/signatures/${ids.sharedSignature.id}/decisions`,
-    expect: { anonymous: 401, collaboratorShared: 404, collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
-  { what: "review queue API", path: () => "/api/v1/review/queue",
-    expect: { anonymous: 401, collaboratorShared: 403, collaboratorUnshared: 403, spectroscopist: 403, lead: "ok", steward: 403, otherGroup: 403 } },
-  { what: "page of a supernatant of the shared series", path: (ids) => `/spectra/${ids.sharedSupernatant.id}`,
-    expect: { anonymous: "signin", collaboratorShared: "ok", collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
-  { what: "raw download of a supernatant of the shared series", path: (ids) => `/api/v1/spectra/${ids.sharedSupernatant.id}/raw`,
-    expect: { anonymous: 401, collaboratorShared: "ok", collaboratorUnshared: 404, spectroscopist: "ok", lead: "ok", steward: "ok", otherGroup: 404 } },
-  { what: "another group's raw download", path: (ids) => `/api/v1/spectra/${ids.otherGroupSpectrum.id}/raw`,
-    expect: { anonymous: 401, collaboratorShared: 404, collaboratorUnshared: 404, spectroscopist: 404, lead: 404, steward: 404, otherGroup: "ok" } },
+  {
+    what: "page of a flag on a shared spectrum",
+    path: (ids) => `/review/${ids.sharedSignature.id}`,
+    expect: {
+      anonymous: "signin",
+      collaboratorShared: 404,
+      collaboratorUnshared: 404,
+      spectroscopist: "ok",
+      lead: "ok",
+      steward: "ok",
+      otherGroup: 404,
+    },
+  },
+  {
+    what: "decision history of a flag on a shared spectrum",
+    path: (ids) => `/api/v1/signatures/${ids.sharedSignature.id}/decisions`,
+    expect: {
+      anonymous: 401,
+      collaboratorShared: 404,
+      collaboratorUnshared: 404,
+      spectroscopist: "ok",
+      lead: "ok",
+      steward: "ok",
+      otherGroup: 404,
+    },
+  },
+  {
+    what: "review queue API",
+    path: () => "/api/v1/review/queue",
+    expect: {
+      anonymous: 401,
+      collaboratorShared: 403,
+      collaboratorUnshared: 403,
+      spectroscopist: 403,
+      lead: "ok",
+      steward: 403,
+      otherGroup: 403,
+    },
+  },
+  {
+    what: "page of a supernatant of the shared series",
+    path: (ids) => `/spectra/${ids.sharedSupernatant.id}`,
+    expect: {
+      anonymous: "signin",
+      collaboratorShared: "ok",
+      collaboratorUnshared: 404,
+      spectroscopist: "ok",
+      lead: "ok",
+      steward: "ok",
+      otherGroup: 404,
+    },
+  },
+  {
+    what: "raw download of a supernatant of the shared series",
+    path: (ids) => `/api/v1/spectra/${ids.sharedSupernatant.id}/raw`,
+    expect: {
+      anonymous: 401,
+      collaboratorShared: "ok",
+      collaboratorUnshared: 404,
+      spectroscopist: "ok",
+      lead: "ok",
+      steward: "ok",
+      otherGroup: 404,
+    },
+  },
+  {
+    what: "another group's raw download",
+    path: (ids) => `/api/v1/spectra/${ids.otherGroupSpectrum.id}/raw`,
+    expect: {
+      anonymous: 401,
+      collaboratorShared: 404,
+      collaboratorUnshared: 404,
+      spectroscopist: 404,
+      lead: 404,
+      steward: 404,
+      otherGroup: "ok",
+    },
+  },
 ];
 
 let ids: Ids;
@@ -93,9 +266,12 @@ beforeAll(async () => {
   const revoked = await createUser("steward-signed-out");
   await Membership.create({ groupId: ids.project.groupId, userId: revoked.user.id, role: "steward" });
   const signedIn = await signInOverHttp(revoked.user.email, "test-password");
-  const { csrfToken } = (await (await fetch(url("/api/auth/csrf"), { headers: { cookie: signedIn.cookie } })).json()) as { csrfToken: string };
+  const { csrfToken } = (await (await fetch(url("/api/auth/csrf"), { headers: { cookie: signedIn.cookie } })).json()) as {
+    csrfToken: string;
+  };
   await fetch(url("/api/auth/signout"), {
-    method: "POST", redirect: "manual",
+    method: "POST",
+    redirect: "manual",
     headers: { cookie: signedIn.cookie, origin: APP_ORIGIN, "content-type": "application/x-www-form-urlencoded" },
     body: new URLSearchParams({ csrfToken, json: "true" }),
   });
@@ -120,11 +296,15 @@ async function outcomeOf(path: string, persona: Persona): Promise<Outcome> {
 
 describe("authorization matrix", () => {
   for (const row of MATRIX) {
-    it(row.what, async () => {
-      const got: Partial<Record<Persona, Outcome>> = {};
-      for (const p of PERSONAS) got[p] = await outcomeOf(row.path(ids), p);
-      expect(got).toEqual({ ...row.expect, revokedSession: row.expect.anonymous });
-    }, 120_000);
+    it(
+      row.what,
+      async () => {
+        const got: Partial<Record<Persona, Outcome>> = {};
+        for (const p of PERSONAS) got[p] = await outcomeOf(row.path(ids), p);
+        expect(got).toEqual({ ...row.expect, revokedSession: row.expect.anonymous });
+      },
+      120_000,
+    );
   }
 
   it("shows a guest no review state, and lists the supernatants their series share lets them open", async () => {
@@ -137,11 +317,15 @@ describe("authorization matrix", () => {
     expect(spectrum).toContain(ids.sharedSpectrum.fileName);
     expect(spectrum).not.toMatch(/awaiting review|>confirmed<|>dismissed<|>Review</);
     expect(await page("/")).not.toContain("nav-awaiting-review");
-    const api = (await (await fetch(url(`/api/v1/spectra/${ids.sharedSpectrum.id}`), { headers: { cookie } })).json()) as { analysis: { flags: { reviewState: string | null }[] } };
+    const api = (await (await fetch(url(`/api/v1/spectra/${ids.sharedSpectrum.id}`), { headers: { cookie } })).json()) as {
+      analysis: { flags: { reviewState: string | null }[] };
+    };
     expect(api.analysis.flags.length).toBeGreaterThan(0);
     expect(api.analysis.flags.every((f) => f.reviewState === null)).toBe(true);
     // A member still sees the state on the same spectrum.
-    const member = (await (await fetch(url(`/api/v1/spectra/${ids.sharedSpectrum.id}`), { headers: { cookie: cookies.spectroscopist! } })).json()) as typeof api;
+    const member = (await (
+      await fetch(url(`/api/v1/spectra/${ids.sharedSpectrum.id}`), { headers: { cookie: cookies.spectroscopist! } })
+    ).json()) as typeof api;
     expect(member.analysis.flags.every((f) => typeof f.reviewState === "string")).toBe(true);
     // The list shows what the share lets the guest open: the supernatant of a shared point.
     const list = await page(`/spectra?q=${encodeURIComponent(ids.sharedSupernatant.fileName)}`);
@@ -153,7 +337,14 @@ describe("authorization matrix", () => {
     const lab = await createLab("steward");
     const user = lab.user;
     const cookie = await sessionCookie(user.email, "test-password");
-    for (const page of ["/stewardship/policies", "/stewardship/holds", "/stewardship/storage", "/stewardship/exports", "/stewardship/audit", "/stewardship/sharing"]) {
+    for (const page of [
+      "/stewardship/policies",
+      "/stewardship/holds",
+      "/stewardship/storage",
+      "/stewardship/exports",
+      "/stewardship/audit",
+      "/stewardship/sharing",
+    ]) {
       const html = await (await fetch(url(page), { headers: { cookie } })).text();
       expect(html, page).not.toContain(ids.project.name);
       expect(html, page).not.toContain(DEMO.spectroscopist);

@@ -21,8 +21,10 @@ type Call = { method: string; path: (ids: Ids) => string; body?: () => BodyInit;
 const PUBLIC_ROUTES: Record<string, string> = {
   "api/auth/[...nextauth]": "next-auth's own sign-in endpoints",
   "api/health": "service status for the start script and load balancers; names no lab data",
-  "shared/[token]/curves/[spectrumId]": "read-only share link: the processed curves (chart data, CSV, JCAMP-DX) of a spectrum within the share, token-guarded like the raw route (see below and share-link-curves.test.ts)",
-  "shared/[token]/raw/[spectrumId]": "read-only share link: public by design but token-guarded (a wrong, revoked or expired token, or a spectrum outside the share, is 404; see below and stewardship-share-links.test.ts)",
+  "shared/[token]/curves/[spectrumId]":
+    "read-only share link: the processed curves (chart data, CSV, JCAMP-DX) of a spectrum within the share, token-guarded like the raw route (see below and share-link-curves.test.ts)",
+  "shared/[token]/raw/[spectrumId]":
+    "read-only share link: public by design but token-guarded (a wrong, revoked or expired token, or a spectrum outside the share, is 404; see below and stewardship-share-links.test.ts)",
 };
 
 function uploadForm(ids: Ids): FormData {
@@ -44,7 +46,9 @@ const ROUTES: Record<string, Call[]> = {
   "api/v1/projects/[id]/import-profiles": [
     { method: "GET", path: (ids) => `/api/v1/projects/${ids.project.id}/import-profiles` },
     {
-      method: "POST", path: (ids) => `/api/v1/projects/${ids.project.id}/import-profiles`, contentType: "application/json",
+      method: "POST",
+      path: (ids) => `/api/v1/projects/${ids.project.id}/import-profiles`,
+      contentType: "application/json",
       body: () => JSON.stringify({ name: "walk", choice: { xUnit: "nm" }, signature: "ext=csv" }),
     },
   ],
@@ -61,7 +65,12 @@ const ROUTES: Record<string, Call[]> = {
   "api/v1/spectra/[id]": [{ method: "GET", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}` }],
   "api/v1/spectra/[id]/raw": [{ method: "GET", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/raw` }],
   "api/v1/spectra/[id]/analyses": [
-    { method: "POST", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/analyses`, body: () => "{}", contentType: "application/json" },
+    {
+      method: "POST",
+      path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/analyses`,
+      body: () => "{}",
+      contentType: "application/json",
+    },
   ],
   "api/v1/spectra/[id]/data": [{ method: "GET", path: (ids) => `/api/v1/spectra/${ids.privateSpectrum.id}/data?axis=nm` }],
   "api/v1/spectra/[id]/export": [
@@ -75,7 +84,9 @@ const ROUTES: Record<string, Call[]> = {
     { method: "GET", path: (ids) => `/api/v1/series/${ids.privateSeries.id}/supernatants?nmA=577&nmX=400` },
     // The shared series: its collaborator may read it but not link (403); another group does not see it (404).
     {
-      method: "POST", path: (ids) => `/api/v1/series/${ids.sharedSeries.id}/supernatants`, contentType: "application/json",
+      method: "POST",
+      path: (ids) => `/api/v1/series/${ids.sharedSeries.id}/supernatants`,
+      contentType: "application/json",
       body: () => JSON.stringify({ supernatantSpectrumId: "00000000-0000-4000-8000-000000000000", pointSpectrumId: null }),
     },
   ],
@@ -87,7 +98,12 @@ const ROUTES: Record<string, Call[]> = {
   "api/v1/review/queue": [{ method: "GET", path: () => "/api/v1/review/queue" }],
   "api/v1/signatures/[id]/decisions": [
     { method: "GET", path: () => `/api/v1/signatures/${signatureId}/decisions` },
-    { method: "POST", path: () => `/api/v1/signatures/${signatureId}/decisions`, body: () => JSON.stringify({ decision: "dismissed", comment: "walk" }), contentType: "application/json" },
+    {
+      method: "POST",
+      path: () => `/api/v1/signatures/${signatureId}/decisions`,
+      body: () => JSON.stringify({ decision: "dismissed", comment: "walk" }),
+      contentType: "application/json",
+    },
   ],
 };
 
@@ -122,7 +138,9 @@ async function call(c: Call, cookie?: string): Promise<Response> {
 
 describe("authorization walk over every route handler", () => {
   it("has an entry for every route.ts in app/", () => {
-    const found = routeFiles(join(process.cwd(), "app")).map((r) => r.replace(/^\(app\)\//, "")).sort();
+    const found = routeFiles(join(process.cwd(), "app"))
+      .map((r) => r.replace(/^\(app\)\//, ""))
+      .sort();
     const listed = [...Object.keys(ROUTES), ...Object.keys(PUBLIC_ROUTES)].sort();
     expect(found).toEqual(listed);
   });
@@ -130,7 +148,10 @@ describe("authorization walk over every route handler", () => {
   it("refuses a share-link download with a wrong token, whoever asks", async () => {
     const wrong = randomBytes(32).toString("base64url");
     for (const cookie of [undefined, cookies.collaborator, cookies.otherGroup]) {
-      for (const path of [`/shared/${wrong}/raw/${ids.privateSpectrum.id}`, `/shared/${wrong}/curves/${ids.sharedSpectrum.id}?format=csv`]) {
+      for (const path of [
+        `/shared/${wrong}/raw/${ids.privateSpectrum.id}`,
+        `/shared/${wrong}/curves/${ids.sharedSpectrum.id}?format=csv`,
+      ]) {
         const response = await fetch(url(path), { redirect: "manual", headers: cookie ? { cookie } : {} });
         expect(response.status, path).toBe(404);
         expect(response.headers.get("cache-control")).toBe("private, no-store");
@@ -173,9 +194,13 @@ describe("authorization walk over every route handler", () => {
   });
 
   it("lists no project of another group, and none to a read-only collaborator", async () => {
-    const other = (await (await fetch(url("/api/v1/projects"), { headers: { cookie: cookies.otherGroup } })).json()) as { projects: { id: string }[] };
+    const other = (await (await fetch(url("/api/v1/projects"), { headers: { cookie: cookies.otherGroup } })).json()) as {
+      projects: { id: string }[];
+    };
     expect(other.projects.map((p) => p.id)).not.toContain(ids.project.id);
-    const guest = (await (await fetch(url("/api/v1/projects"), { headers: { cookie: cookies.collaborator } })).json()) as { projects: { id: string }[] };
+    const guest = (await (await fetch(url("/api/v1/projects"), { headers: { cookie: cookies.collaborator } })).json()) as {
+      projects: { id: string }[];
+    };
     expect(guest.projects.map((p) => p.id)).not.toContain(ids.project.id);
   });
 
@@ -187,9 +212,22 @@ describe("authorization walk over every route handler", () => {
   });
 
   it("sends signed-out visitors of every page to sign-in", async () => {
-    for (const page of ["/", "/upload", "/samples", "/samples/new", `/samples/${ids.privateSpectrum.sampleId}`, "/spectra", `/spectra/${ids.privateSpectrum.id}`,
-      "/series", `/series/${ids.sharedSeries.id}`, "/review", "/stewardship", "/settings",
-      "/series/new", `/review/${signatureId}`]) {
+    for (const page of [
+      "/",
+      "/upload",
+      "/samples",
+      "/samples/new",
+      `/samples/${ids.privateSpectrum.sampleId}`,
+      "/spectra",
+      `/spectra/${ids.privateSpectrum.id}`,
+      "/series",
+      `/series/${ids.sharedSeries.id}`,
+      "/review",
+      "/stewardship",
+      "/settings",
+      "/series/new",
+      `/review/${signatureId}`,
+    ]) {
       const response = await fetch(url(page), { redirect: "manual" });
       expect([302, 303, 307], page).toContain(response.status);
       expect(response.headers.get("location") ?? "", page).toContain("/signin");
@@ -197,8 +235,12 @@ describe("authorization walk over every route handler", () => {
   });
 
   it("shows a member of another group no page of this group's records", async () => {
-    for (const page of [`/spectra/${ids.privateSpectrum.id}`, `/samples/${ids.privateSpectrum.sampleId}`, `/series/${ids.privateSeries.id}`,
-      `/review/${signatureId}`]) {
+    for (const page of [
+      `/spectra/${ids.privateSpectrum.id}`,
+      `/samples/${ids.privateSpectrum.sampleId}`,
+      `/series/${ids.privateSeries.id}`,
+      `/review/${signatureId}`,
+    ]) {
       const response = await fetch(url(page), { headers: { cookie: cookies.otherGroup } });
       expect(response.status, page).toBe(404);
     }

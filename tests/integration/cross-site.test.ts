@@ -21,8 +21,10 @@ const ATTACKER_ORIGIN = (() => {
 let leadCookie: string;
 let signatureId: string;
 let projectId: string;
-const reviewCount = async () => Number((await selectRows<{ n: string }>("SELECT count(*) AS n FROM reviews WHERE signature_id = :id", { id: signatureId }))[0]!.n);
-const spectraCount = async () => Number((await selectRows<{ n: string }>("SELECT count(*) AS n FROM spectra WHERE project_id = :id", { id: projectId }))[0]!.n);
+const reviewCount = async () =>
+  Number((await selectRows<{ n: string }>("SELECT count(*) AS n FROM reviews WHERE signature_id = :id", { id: signatureId }))[0]!.n);
+const spectraCount = async () =>
+  Number((await selectRows<{ n: string }>("SELECT count(*) AS n FROM spectra WHERE project_id = :id", { id: projectId }))[0]!.n);
 
 beforeAll(async () => {
   const ids = await demoIds();
@@ -71,7 +73,11 @@ describe("a page of another origin, with the signed-in lead's cookie", () => {
     form.set("projectId", projectId);
     form.set("technique", "absorption");
     form.set("file", new Blob(["nm,A\n400,0.1\n401,0.2\n"], { type: "text/csv" }), "cross-site.csv");
-    const res = await fetch(url("/api/v1/spectra"), { method: "POST", headers: { cookie: leadCookie, origin: ATTACKER_ORIGIN }, body: form });
+    const res = await fetch(url("/api/v1/spectra"), {
+      method: "POST",
+      headers: { cookie: leadCookie, origin: ATTACKER_ORIGIN },
+      body: form,
+    });
     expect(res.status).toBe(403);
     expect(await spectraCount()).toBe(before);
   });
@@ -94,10 +100,21 @@ describe("a page of another origin, with the signed-in lead's cookie", () => {
 });
 
 describe("return paths after sign-in", () => {
-  const shapes = ["/\\evil.example/", "/%09/evil.example", "/%2F%2Fevil.example", "//evil.example", "/\t/evil.example", "https://evil.example/", "javascript:alert(1)"];
+  const shapes = [
+    "/\\evil.example/",
+    "/%09/evil.example",
+    "/%2F%2Fevil.example",
+    "//evil.example",
+    "/\t/evil.example",
+    "https://evil.example/",
+    "javascript:alert(1)",
+  ];
 
   it.each(shapes)("the sign-in page sends a signed-in visitor to this origin for %j", async (shape) => {
-    const res = await fetch(url(`/signin?callbackUrl=${encodeURIComponent(shape)}`), { redirect: "manual", headers: { cookie: leadCookie } });
+    const res = await fetch(url(`/signin?callbackUrl=${encodeURIComponent(shape)}`), {
+      redirect: "manual",
+      headers: { cookie: leadCookie },
+    });
     expect([303, 307, 308]).toContain(res.status);
     const target = new URL(res.headers.get("location")!, APP_URL);
     expect(target.origin).toBe(APP_ORIGIN);
@@ -105,7 +122,10 @@ describe("return paths after sign-in", () => {
   });
 
   it("keeps a same-origin return path", async () => {
-    const res = await fetch(url(`/signin?callbackUrl=${encodeURIComponent("/review?state=pending")}`), { redirect: "manual", headers: { cookie: leadCookie } });
+    const res = await fetch(url(`/signin?callbackUrl=${encodeURIComponent("/review?state=pending")}`), {
+      redirect: "manual",
+      headers: { cookie: leadCookie },
+    });
     expect(res.headers.get("location")).toMatch(/\/review\?state=pending$/);
   });
 });

@@ -12,17 +12,26 @@ describe("health when services are down", () => {
     env: { ...process.env, REDIS_URL: "redis://127.0.0.1:1", SMTP_URL: "smtp://127.0.0.1:1", HEALTH_PROBE_PORT: String(port) },
     stdio: ["ignore", "pipe", "pipe"],
   });
-  afterAll(() => { child.kill("SIGTERM"); });
+  afterAll(() => {
+    child.kill("SIGTERM");
+  });
 
   it("names redis and mail as down, database and storage as up", async () => {
     const output = await new Promise<string>((resolve, reject) => {
       let text = "";
-      child.stdout.on("data", (d: Buffer) => { text += d.toString(); });
-      child.stderr.on("data", (d: Buffer) => { text += d.toString(); });
+      child.stdout.on("data", (d: Buffer) => {
+        text += d.toString();
+      });
+      child.stderr.on("data", (d: Buffer) => {
+        text += d.toString();
+      });
       child.on("exit", () => resolve(text));
       setTimeout(() => reject(new Error(`probe did not finish: ${text}`)), 30_000);
     });
-    const result = JSON.parse(output.trim().split("\n").pop() ?? "{}") as { httpStatus: number; services: Record<string, { status: string }> };
+    const result = JSON.parse(output.trim().split("\n").pop() ?? "{}") as {
+      httpStatus: number;
+      services: Record<string, { status: string }>;
+    };
     expect(result.httpStatus).toBe(503);
     expect(result.services.redis.status).toBe("down");
     expect(result.services.mail.status).toBe("down");

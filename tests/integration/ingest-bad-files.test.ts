@@ -39,7 +39,11 @@ describe("bad files and bad metadata", () => {
     if (status >= 400) {
       expect(body.error?.message).toBeTruthy();
       const message = body.error!.message;
-      const namesFileOrField = message.includes(c.fileName) || (body.error!.field !== undefined && message.includes(body.error!.field)) || /project/.test(message) || /unknown form field/.test(message);
+      const namesFileOrField =
+        message.includes(c.fileName) ||
+        (body.error!.field !== undefined && message.includes(body.error!.field)) ||
+        /project/.test(message) ||
+        /unknown form field/.test(message);
       expect(namesFileOrField, message).toBe(true);
       if (c.expect) expect(message).toMatch(c.expect);
       expect(message).not.toMatch(/Sequelize|stack|at .*\.ts:\d+|ECONN|SQL/i);
@@ -60,10 +64,16 @@ describe("bad files and bad metadata", () => {
 
   it("a bad request body is refused with 415 or 400, not 500", async () => {
     const headers = { Authorization: `Bearer ${lab.token}` };
-    const json = await fetch(appUrl("/api/v1/spectra"), { method: "POST", headers: { ...headers, "Content-Type": "application/json" }, body: "{}" });
+    const json = await fetch(appUrl("/api/v1/spectra"), {
+      method: "POST",
+      headers: { ...headers, "Content-Type": "application/json" },
+      body: "{}",
+    });
     expect(json.status).toBe(415);
     const broken = await fetch(appUrl("/api/v1/spectra"), {
-      method: "POST", headers: { ...headers, "Content-Type": "multipart/form-data; boundary=xyz" }, body: "--xyz\r\nnot a part",
+      method: "POST",
+      headers: { ...headers, "Content-Type": "multipart/form-data; boundary=xyz" },
+      body: "--xyz\r\nnot a part",
     });
     expect(broken.status).toBe(400);
     expect(((await broken.json()) as { error: { message: string } }).error.message).toMatch(/multipart/);
@@ -82,9 +92,14 @@ describe("bad files and bad metadata", () => {
   });
 
   it("the worker still analyses good files afterwards", async () => {
-    const { status, body } = await upload(lab.token, [{ fileName: "after-the-storm.csv", bytes: enc(syntheticAbsorptionCsv({ seed: 333 })) }], {
-      projectId: lab.project.id, technique: "absorption",
-    });
+    const { status, body } = await upload(
+      lab.token,
+      [{ fileName: "after-the-storm.csv", bytes: enc(syntheticAbsorptionCsv({ seed: 333 })) }],
+      {
+        projectId: lab.project.id,
+        technique: "absorption",
+      },
+    );
     expect(status).toBe(201);
     const out = body.files![0];
     if (!out.ok) throw new Error(out.error.message);

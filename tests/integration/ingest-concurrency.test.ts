@@ -25,19 +25,28 @@ describe("concurrent uploads", () => {
   it("50 concurrent uploads are all stored and analysed", async () => {
     const fields = { projectId: lab.project.id, technique: "absorption" };
     const results = await Promise.all(
-      Array.from({ length: 50 }, (_, i) => upload(lab.token, [{ fileName: `parallel-${i}.csv`, bytes: enc(syntheticAbsorptionCsv({ seed: 7000 + i, points: 800 })) }], fields)),
+      Array.from({ length: 50 }, (_, i) =>
+        upload(lab.token, [{ fileName: `parallel-${i}.csv`, bytes: enc(syntheticAbsorptionCsv({ seed: 7000 + i, points: 800 })) }], fields),
+      ),
     );
     expect(results.map((r) => r.status)).toEqual(Array(50).fill(201));
     const ids = results.map((r) => (r.body.files![0].ok ? r.body.files![0].spectrumId : ""));
     expect(new Set(ids).size).toBe(50);
-    await waitFor("all 50 analysed", async () => ((await Spectrum.count({ where: { id: { [Op.in]: ids }, status: "analysed" } })) === 50 ? true : undefined), 120_000, 500);
+    await waitFor(
+      "all 50 analysed",
+      async () => ((await Spectrum.count({ where: { id: { [Op.in]: ids }, status: "analysed" } })) === 50 ? true : undefined),
+      120_000,
+      500,
+    );
     expect(await AnalysisRun.count({ where: { spectrumId: { [Op.in]: ids }, status: "done" } })).toBe(50);
   });
 
   it("the same file sent 10 times at once is stored once and linked 9 times", async () => {
     const bytes = enc(syntheticAbsorptionCsv({ seed: 7999 }));
     const results = await Promise.all(
-      Array.from({ length: 10 }, (_, i) => upload(lab.token, [{ fileName: `copy-${i}.csv`, bytes }], { projectId: lab.project.id, technique: "absorption" })),
+      Array.from({ length: 10 }, (_, i) =>
+        upload(lab.token, [{ fileName: `copy-${i}.csv`, bytes }], { projectId: lab.project.id, technique: "absorption" }),
+      ),
     );
     const outs = results.map((r) => r.body.files![0]);
     expect(outs.every((o) => o.ok)).toBe(true);

@@ -28,14 +28,18 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await Promise.all(workers.map((w) => w.stop("SIGTERM")));
-  await analysisQueue().obliterate({ force: true }).catch(() => {});
+  await analysisQueue()
+    .obliterate({ force: true })
+    .catch(() => {});
   await analysisQueue().close();
   await closeDb();
 });
 
 /** Stores one file through the ingest entry point the API and the seed use; fails the test on a refusal. */
 async function storeOne(fileName: string, bytes: Uint8Array, metadata: { referenceSpectrumId?: string } = {}) {
-  const [outcome] = await ingestFiles(lab.actor, { projectId: lab.project.id, technique: "absorption", ...metadata }, [{ fileName, bytes }]);
+  const [outcome] = await ingestFiles(lab.actor, { projectId: lab.project.id, technique: "absorption", ...metadata }, [
+    { fileName, bytes },
+  ]);
   if (!outcome?.ok) throw new Error(`${fileName} was not stored: ${outcome?.error.message}`);
   return outcome;
 }
@@ -43,10 +47,13 @@ async function storeOne(fileName: string, bytes: Uint8Array, metadata: { referen
 describe("idempotent analysis writes", () => {
   it("writes once when the same run is delivered four times to two workers", async () => {
     const reference = await storeOne("parent.csv", enc(syntheticAbsorptionCsv({ seed: 201 })));
-    const stored = await storeOne("child.csv", enc(syntheticAbsorptionCsv({ seed: 202, excitonHeight: 0.2 })), { referenceSpectrumId: reference.spectrumId });
+    const stored = await storeOne("child.csv", enc(syntheticAbsorptionCsv({ seed: 202, excitonHeight: 0.2 })), {
+      referenceSpectrumId: reference.spectrumId,
+    });
     // Extra deliveries of the same payload under other job ids, as a crashed producer retrying would cause.
     const queue = new Queue(QUEUE, { connection: connectionOptions() });
-    for (let i = 0; i < 3; i++) await queue.add("analyse", { spectrumId: stored.spectrumId, runId: stored.runId }, { jobId: `dup-${i}-${stored.runId}` });
+    for (let i = 0; i < 3; i++)
+      await queue.add("analyse", { spectrumId: stored.spectrumId, runId: stored.runId }, { jobId: `dup-${i}-${stored.runId}` });
     await queue.close();
 
     for (let i = 0; i < 2; i++) {
@@ -80,7 +87,15 @@ describe("idempotent analysis writes", () => {
     // Make the run writable again, then race two saves of the same result.
     await Peak.destroy({ where: { runId: done.id } });
     await done.update({ status: "running" });
-    const input = { runId: done.id, report, startedAt: new Date(), durationMs: 5, engineVersion: done.engineVersion, axisUnit: "nm", valueUnit: "absorbance" };
+    const input = {
+      runId: done.id,
+      report,
+      startedAt: new Date(),
+      durationMs: 5,
+      engineVersion: done.engineVersion,
+      axisUnit: "nm",
+      valueUnit: "absorbance",
+    };
     const results = await Promise.all([saveAnalysis(input), saveAnalysis(input), saveAnalysis(input)]);
     expect(results.filter(Boolean)).toHaveLength(1);
     expect(await Peak.count({ where: { runId: done.id } })).toBe(report.peaks.length);

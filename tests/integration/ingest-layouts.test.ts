@@ -15,7 +15,9 @@ import { createLab, type Lab } from "../helpers/fixtures";
 import { settled, upload } from "../helpers/api";
 
 const realDir = path.resolve(process.cwd(), "..", "shared", "real-spectra");
-const source = readFileSync(path.join(realDir, "cdse-absorbance-growth-series.csv"), "utf8").split(/\r?\n/).filter((l) => l.trim());
+const source = readFileSync(path.join(realDir, "cdse-absorbance-growth-series.csv"), "utf8")
+  .split(/\r?\n/)
+  .filter((l) => l.trim());
 const head = source[0]!.split(",");
 const rows = source.slice(1).map((l) => l.split(","));
 const k240 = head.indexOf("240 s");
@@ -23,7 +25,9 @@ const k30 = head.indexOf("30 s");
 const enc = (s: string) => new Uint8Array(Buffer.from(s, "utf8"));
 /** The peaks of the 240 s column read from the plain file (energies, eV). */
 const plainPeaks = () => {
-  const s = parseSpectrumFile("plain.csv", enc(["Wavelength (nm),240 s", ...rows.map((r) => `${r[0]},${r[k240]}`)].join("\n")), { technique: "absorption" });
+  const s = parseSpectrumFile("plain.csv", enc(["Wavelength (nm),240 s", ...rows.map((r) => `${r[0]},${r[k240]}`)].join("\n")), {
+    technique: "absorption",
+  });
   return analyzeSpectrum(s, { technique: "absorption", pathLengthCm: 1 }).peaks.map((p) => p.energyEv);
 };
 
@@ -45,7 +49,11 @@ describe("real exports through the app", () => {
   it("a headerless file (unique bytes) with the X unit chosen in the API is analysed like the plain file", async () => {
     const text = rows.map((r) => `${r[0]}\t${r[k240]}`).join("\n") + `\n`;
     const { status, body } = await upload(lab.token, [{ fileName: `bare-${Date.now()}.txt`, bytes: enc(text) }], {
-      projectId: lab.project.id, technique: "absorption", xUnit: "nm", yKind: "absorbance", pathLengthCm: "1",
+      projectId: lab.project.id,
+      technique: "absorption",
+      xUnit: "nm",
+      yKind: "absorbance",
+      pathLengthCm: "1",
     });
     expect(status).toBe(201);
     const out = body.files![0]!;
@@ -64,9 +72,15 @@ describe("real exports through the app", () => {
     ws.addRow(["Wavelength (nm)", "240 s"]);
     for (const r of rows) ws.addRow([Number(r[0]), Number(r[k240])]);
     const bytes = new Uint8Array(await wb.xlsx.writeBuffer());
-    const { status, body } = await upload(lab.token, [{ fileName: "book.xlsx", bytes, type: "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet" }], {
-      projectId: lab.project.id, technique: "absorption", pathLengthCm: "1",
-    });
+    const { status, body } = await upload(
+      lab.token,
+      [{ fileName: "book.xlsx", bytes, type: "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet" }],
+      {
+        projectId: lab.project.id,
+        technique: "absorption",
+        pathLengthCm: "1",
+      },
+    );
     expect(status).toBe(201);
     expect(body.files).toHaveLength(1);
     const out = body.files![0]!;
@@ -78,7 +92,12 @@ describe("real exports through the app", () => {
   });
 
   it("X,Y pairs side by side: the pair chosen is analysed; the same bytes with another path length report the difference", async () => {
-    const text = ["Серия А,,Серия Б,", "λ (nm),A,λ (nm),A", ...rows.map((r) => `${r[0]},${r[k30]},${r[0]},${r[k240]}`), `# ${Date.now()}`].join("\n");
+    const text = [
+      "Серия А,,Серия Б,",
+      "λ (nm),A,λ (nm),A",
+      ...rows.map((r) => `${r[0]},${r[k30]},${r[0]},${r[k240]}`),
+      `# ${Date.now()}`,
+    ].join("\n");
     const fields = { projectId: lab.project.id, technique: "absorption", pair: "2", pathLengthCm: "1" };
     const first = await upload(lab.token, [{ fileName: "pairs.csv", bytes: enc(text) }], fields);
     const out = first.body.files![0]!;
@@ -89,7 +108,12 @@ describe("real exports through the app", () => {
 
     const again = await upload(lab.token, [{ fileName: "pairs.csv", bytes: enc(text) }], { ...fields, pathLengthCm: "0.5" });
     expect(again.status).toBe(200);
-    const dup = again.body.files![0]! as { ok: true; duplicate: boolean; spectrumId: string; differences?: Array<{ field: string; stored: string | null; sent: string }> };
+    const dup = again.body.files![0]! as {
+      ok: true;
+      duplicate: boolean;
+      spectrumId: string;
+      differences?: Array<{ field: string; stored: string | null; sent: string }>;
+    };
     expect(dup.duplicate).toBe(true);
     expect(dup.spectrumId).toBe(out.spectrumId);
     expect(dup.differences).toEqual([{ field: "pathLengthCm", label: "path length (cm)", stored: "1", sent: "0.5" }]);

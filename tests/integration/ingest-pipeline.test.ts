@@ -67,7 +67,11 @@ describe("ingest pipeline end to end", () => {
   it("compares against the parent reference and writes the flagged signatures once", async () => {
     const sample = await createSample(lab, "CdSe/ZnS");
     const bytes = enc(syntheticAbsorptionCsv({ seed: 102, excitonHeight: 0.25, excitonNm: 566 }));
-    const { status, body } = await upload(lab.token, [{ fileName: "charged.csv", bytes }], { ...fields, referenceSpectrumId: referenceId, sampleId: sample.id });
+    const { status, body } = await upload(lab.token, [{ fileName: "charged.csv", bytes }], {
+      ...fields,
+      referenceSpectrumId: referenceId,
+      sampleId: sample.id,
+    });
     expect(status).toBe(201);
     const out = body.files![0];
     if (!out.ok) throw new Error(out.error.message);
@@ -116,11 +120,19 @@ describe("ingest pipeline end to end", () => {
   it("records the series, its value and the acquisition numbers", async () => {
     const series = await createSeries(lab);
     const bytes = enc(syntheticAbsorptionCsv({ seed: 103 }));
-    const { body } = await upload(lab.token, [{ fileName: "titration-2.csv", bytes }], { ...fields, seriesId: series.id, seriesValue: "2", pathLengthCm: "0.2" });
+    const { body } = await upload(lab.token, [{ fileName: "titration-2.csv", bytes }], {
+      ...fields,
+      seriesId: series.id,
+      seriesValue: "2",
+      pathLengthCm: "0.2",
+    });
     const out = body.files![0];
     if (!out.ok) throw new Error(out.error.message);
     await settled(lab.token, out.spectrumId);
-    const { status, body: view } = await getJson<{ spectra: { id: string; seriesValue: number; status: string; firstExciton: unknown }[] }>(lab.token, `/api/v1/series/${series.id}`);
+    const { status, body: view } = await getJson<{ spectra: { id: string; seriesValue: number; status: string; firstExciton: unknown }[] }>(
+      lab.token,
+      `/api/v1/series/${series.id}`,
+    );
     expect(status).toBe(200);
     expect(view.spectra).toHaveLength(1);
     expect(view.spectra[0]).toMatchObject({ id: out.spectrumId, seriesValue: 2, status: "analysed" });
@@ -136,7 +148,9 @@ describe("ingest pipeline end to end", () => {
 
     const outsider = await createUser("outsider");
     expect((await getJson(outsider.token, `/api/v1/spectra/${referenceId}`)).status).toBe(404);
-    expect((await fetch(appUrl(`/api/v1/spectra/${referenceId}/raw`), { headers: { Authorization: `Bearer ${outsider.token}` } })).status).toBe(404);
+    expect(
+      (await fetch(appUrl(`/api/v1/spectra/${referenceId}/raw`), { headers: { Authorization: `Bearer ${outsider.token}` } })).status,
+    ).toBe(404);
     const refused = await upload(outsider.token, [{ fileName: "x.csv", bytes }], fields);
     expect(refused.status).toBe(404);
     expect(refused.body.error?.field).toBe("projectId");
@@ -156,6 +170,14 @@ describe("ingest pipeline end to end", () => {
     const { status, body } = await getJson<{ openapi: string; paths: Record<string, unknown> }>(lab.token, "/api/v1/openapi.json");
     expect(status).toBe(200);
     expect(body.openapi).toBe("3.1.0");
-    expect(Object.keys(body.paths)).toEqual(expect.arrayContaining(["/api/v1/spectra", "/api/v1/spectra/{id}", "/api/v1/spectra/{id}/raw", "/api/v1/series/{id}", "/api/v1/projects"]));
+    expect(Object.keys(body.paths)).toEqual(
+      expect.arrayContaining([
+        "/api/v1/spectra",
+        "/api/v1/spectra/{id}",
+        "/api/v1/spectra/{id}/raw",
+        "/api/v1/series/{id}",
+        "/api/v1/projects",
+      ]),
+    );
   });
 });

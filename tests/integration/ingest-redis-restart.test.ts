@@ -29,13 +29,18 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await worker?.stop("SIGTERM");
-  await analysisQueue().close().catch(() => {});
+  await analysisQueue()
+    .close()
+    .catch(() => {});
   await redisServer.destroy();
   await closeDb();
 });
 
 const files = (from: number, n: number) =>
-  Array.from({ length: n }, (_, i) => ({ fileName: `redis-${from + i}.csv`, bytes: enc(syntheticAbsorptionCsv({ seed: 5000 + from + i, points: 600 })) }));
+  Array.from({ length: n }, (_, i) => ({
+    fileName: `redis-${from + i}.csv`,
+    bytes: enc(syntheticAbsorptionCsv({ seed: 5000 + from + i, points: 600 })),
+  }));
 
 describe("Redis restart in the middle of a batch", () => {
   it("loses no job", async () => {
@@ -44,11 +49,20 @@ describe("Redis restart in the middle of a batch", () => {
     expect(first.every((o) => o.ok && o.queued)).toBe(true);
 
     worker = startWorker({
-      BANDKEEP_QUEUE: QUEUE, REDIS_URL: process.env.REDIS_URL!, WORKER_CONCURRENCY: "2", WORKER_SWEEP_MS: "1000", WORKER_SWEEP_AGE_MS: "2000",
+      BANDKEEP_QUEUE: QUEUE,
+      REDIS_URL: process.env.REDIS_URL!,
+      WORKER_CONCURRENCY: "2",
+      WORKER_SWEEP_MS: "1000",
+      WORKER_SWEEP_AGE_MS: "2000",
     });
     await workerReady(worker);
     const ids = first.map((o) => (o.ok ? o.spectrumId : ""));
-    await waitFor("some analyses", async () => ((await Spectrum.count({ where: { id: { [Op.in]: ids }, status: "analysed" } })) >= 10 ? true : undefined), 60_000, 100);
+    await waitFor(
+      "some analyses",
+      async () => ((await Spectrum.count({ where: { id: { [Op.in]: ids }, status: "analysed" } })) >= 10 ? true : undefined),
+      60_000,
+      100,
+    );
 
     await redisServer.stop();
     // Uploads while Redis is down: stored, not queued.
@@ -60,7 +74,12 @@ describe("Redis restart in the middle of a batch", () => {
     expect(after.every((o) => o.ok)).toBe(true);
 
     const all = [...first, ...during, ...after].map((o) => (o.ok ? o.spectrumId : ""));
-    await waitFor("every file analysed", async () => ((await Spectrum.count({ where: { id: { [Op.in]: all }, status: "analysed" } })) === all.length ? true : undefined), 120_000, 250);
+    await waitFor(
+      "every file analysed",
+      async () => ((await Spectrum.count({ where: { id: { [Op.in]: all }, status: "analysed" } })) === all.length ? true : undefined),
+      120_000,
+      250,
+    );
     const runs = await AnalysisRun.findAll({ where: { spectrumId: { [Op.in]: all } } });
     expect(runs).toHaveLength(all.length);
     expect(runs.every((r) => r.status === "done")).toBe(true);

@@ -27,7 +27,9 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await worker?.stop("SIGTERM");
-  await analysisQueue().obliterate({ force: true }).catch(() => {});
+  await analysisQueue()
+    .obliterate({ force: true })
+    .catch(() => {});
   await analysisQueue().close();
   await closeDb();
 });

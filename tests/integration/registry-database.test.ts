@@ -42,7 +42,9 @@ describe("registries and database", () => {
     await client.query("BEGIN");
     try {
       await client.query("SAVEPOINT before_fake");
-      await expect(client.query("UPDATE signatures SET kind = 'fake-kind' WHERE id = $1", [row!.id])).rejects.toThrow(/signatures_kind_known/);
+      await expect(client.query("UPDATE signatures SET kind = 'fake-kind' WHERE id = $1", [row!.id])).rejects.toThrow(
+        /signatures_kind_known/,
+      );
       await client.query("ROLLBACK TO SAVEPOINT before_fake");
       await addCheckValues(query, exec, REGISTRY_COLUMNS.signatureKind, ["fake-kind"]);
       expect(await liveCheckValues(query, REGISTRY_COLUMNS.signatureKind)).toEqual([...FLAG_KINDS, "fake-kind"]);
@@ -58,21 +60,40 @@ describe("registries and database", () => {
   });
 
   it("keeps the technique check beside 0004's supernatant rule", async () => {
-    const defs = (await client.query<{ conname: string }>("SELECT conname FROM pg_constraint WHERE conrelid = 'spectra'::regclass AND contype = 'c'")).rows.map((r) => r.conname);
+    const defs = (
+      await client.query<{ conname: string }>("SELECT conname FROM pg_constraint WHERE conrelid = 'spectra'::regclass AND contype = 'c'")
+    ).rows.map((r) => r.conname);
     expect(defs).toEqual(expect.arrayContaining(["spectra_technique_known", "spectra_supernatant_shape"]));
   });
 
   it("stores each flag's magnitude, unit and uncertainty in their own columns, equal to the engine's report", async () => {
-    type Row = { kind: string; magnitude: number | null; unit: string | null; uncertainty: number | null; energy_ev: number | null; flags: { kind: string; magnitude: number; unit: string; uncertainty: number; energyEv: number | null }[] };
-    const rows = await waitFor("analysed demo spectra with flags", async () => {
-      const r = (await client.query<Row>(
-        `SELECT g.kind, g.magnitude, g.unit, g.uncertainty, g.energy_ev, r.report->'flags' AS flags
+    type Row = {
+      kind: string;
+      magnitude: number | null;
+      unit: string | null;
+      uncertainty: number | null;
+      energy_ev: number | null;
+      flags: { kind: string; magnitude: number; unit: string; uncertainty: number; energyEv: number | null }[];
+    };
+    const rows = await waitFor(
+      "analysed demo spectra with flags",
+      async () => {
+        const r = (
+          await client.query<Row>(
+            `SELECT g.kind, g.magnitude, g.unit, g.uncertainty, g.energy_ev, r.report->'flags' AS flags
          FROM signatures g JOIN analysis_runs r ON r.id = g.run_id WHERE r.status = 'done'`,
-      )).rows;
-      return r.length >= 3 ? r : undefined;
-    }, 240_000, 1000);
+          )
+        ).rows;
+        return r.length >= 3 ? r : undefined;
+      },
+      240_000,
+      1000,
+    );
     for (const r of rows) {
-      const flag = r.flags.find((f) => f.kind === r.kind && (f.energyEv === null ? r.energy_ev === null : Math.abs(f.energyEv - (r.energy_ev ?? Number.NaN)) < 1e-9));
+      const flag = r.flags.find(
+        (f) =>
+          f.kind === r.kind && (f.energyEv === null ? r.energy_ev === null : Math.abs(f.energyEv - (r.energy_ev ?? Number.NaN)) < 1e-9),
+      );
       expect(flag, `${r.kind} at ${r.energy_ev} eV in its run's report`).toBeDefined();
       expect(r.magnitude).toBeCloseTo(flag!.magnitude, 9);
       expect(r.unit).toBe(flag!.unit);

@@ -36,11 +36,18 @@ async function rerun(spectrumId: string, body: unknown) {
     headers: { Authorization: `Bearer ${lab.token}`, "Content-Type": "application/json" },
     body: JSON.stringify(body),
   });
-  return { status: res.status, body: (await res.json()) as { runId?: string; created?: boolean; error?: { code: string; message: string; field?: string } } };
+  return {
+    status: res.status,
+    body: (await res.json()) as { runId?: string; created?: boolean; error?: { code: string; message: string; field?: string } },
+  };
 }
 
 async function uploaded(fileName: string, csv: string, fields: Record<string, string>): Promise<string> {
-  const { status, body } = await upload(lab.token, [{ fileName, bytes: enc(csv) }], { projectId: lab.project.id, technique: "absorption", ...fields });
+  const { status, body } = await upload(lab.token, [{ fileName, bytes: enc(csv) }], {
+    projectId: lab.project.id,
+    technique: "absorption",
+    ...fields,
+  });
   expect(status).toBe(201);
   const out = body.files![0]!;
   if (!out.ok) throw new Error(out.error.message);
@@ -56,7 +63,10 @@ async function bleachOf(runId: string): Promise<number> {
 
 /** Noise-free absorbance of a generator model at a wavelength (linear between its 0.5 nm points). */
 function trueAbsorbance(model: Parameters<typeof absorptionCsv>[0], nm: number): number {
-  const rows = absorptionCsv({ ...model, noise: 0 }, "truth").split("\r\n").filter((l) => /^\d/.test(l)).map((l) => l.split(",").map(Number));
+  const rows = absorptionCsv({ ...model, noise: 0 }, "truth")
+    .split("\r\n")
+    .filter((l) => /^\d/.test(l))
+    .map((l) => l.split(",").map(Number));
   const i = rows.findIndex(([x]) => x! >= nm);
   const [[x0, y0], [x1, y1]] = [rows[i - 1]!, rows[i]!];
   return y0! + ((y1! - y0!) * (nm - x0!)) / (x1! - x0!);
@@ -72,7 +82,10 @@ beforeAll(async () => {
   const tag = Date.now().toString(36);
   parentId = await uploaded(`lot-K${tag} parent.csv`, absorptionCsv({ ...parentModel, seed }, "lot K parent"), { sampleId: sample.id });
   sampleFileName = `lot-K${tag} reduced.csv`;
-  sampleId = await uploaded(sampleFileName, absorptionCsv({ ...sampleModel, seed: seed + 1 }, "lot K reduced"), { sampleId: sample.id, referenceSpectrumId: parentId });
+  sampleId = await uploaded(sampleFileName, absorptionCsv({ ...sampleModel, seed: seed + 1 }, "lot K reduced"), {
+    sampleId: sample.id,
+    referenceSpectrumId: parentId,
+  });
   // The bleach read without any scaling (the upload's own run scales automatically since engine 2).
   const unscaled = await rerun(sampleId, { normalization: { mode: "none" } });
   expect(unscaled.status).toBe(201);
@@ -91,7 +104,11 @@ describe("re-running with a normalisation", () => {
     const state = await settled(lab.token, sampleId);
     expect(state.analysis).toMatchObject({ runId: body.runId, status: "done", parameters: { normalization } });
     const run = (await AnalysisRun.findByPk(body.runId!))!;
-    const report = run.report as { parameters: { normalization: { factor: number } }; referenceFirstExciton: { energyEv: number }; flags: { kind: string; fraction: number }[] };
+    const report = run.report as {
+      parameters: { normalization: { factor: number } };
+      referenceFirstExciton: { energyEv: number };
+      flags: { kind: string; fraction: number }[];
+    };
     const factor = 1 / CONCENTRATION_RATIO;
     // The factor is reference ÷ sample concentration (docs/analysis-json.md, parameters.normalization).
     expect(report.parameters.normalization).toMatchObject({ ...normalization, factor: expect.closeTo(factor, 12) });
@@ -119,7 +136,9 @@ describe("re-running with a normalisation", () => {
 
   it("the same normalisation again is the same run; another is a new run", async () => {
     const runsBefore = await AnalysisRun.count({ where: { spectrumId: sampleId } });
-    const again = await rerun(sampleId, { normalization: { referenceConcentration: 1, sampleConcentration: CONCENTRATION_RATIO, mode: "concentration" } });
+    const again = await rerun(sampleId, {
+      normalization: { referenceConcentration: 1, sampleConcentration: CONCENTRATION_RATIO, mode: "concentration" },
+    });
     expect(again.status).toBe(200);
     expect(again.body.created).toBe(false);
     expect(await AnalysisRun.count({ where: { spectrumId: sampleId } })).toBe(runsBefore);
@@ -165,15 +184,29 @@ describe("re-running with a normalisation", () => {
     const runsBefore = await AnalysisRun.count({ where: { spectrumId: sampleId } });
     const low = await rerun(sampleId, { normalization: { mode: "wavelength", wavelengthNm: 50 } });
     expect(low.status).toBe(400);
-    expect(low.body.error).toMatchObject({ code: "invalid", message: "normalization.wavelengthNm: must lie between 100 and 25000 nm", field: "normalization.wavelengthNm" });
-    const negative = await rerun(sampleId, { normalization: { mode: "concentration", sampleConcentration: -0.6, referenceConcentration: 1 } });
+    expect(low.body.error).toMatchObject({
+      code: "invalid",
+      message: "normalization.wavelengthNm: must lie between 100 and 25000 nm",
+      field: "normalization.wavelengthNm",
+    });
+    const negative = await rerun(sampleId, {
+      normalization: { mode: "concentration", sampleConcentration: -0.6, referenceConcentration: 1 },
+    });
     expect(negative.status).toBe(400);
-    expect(negative.body.error).toMatchObject({ message: "normalization.sampleConcentration: must be positive", field: "normalization.sampleConcentration" });
+    expect(negative.body.error).toMatchObject({
+      message: "normalization.sampleConcentration: must be positive",
+      field: "normalization.sampleConcentration",
+    });
     expect(await AnalysisRun.count({ where: { spectrumId: sampleId } })).toBe(runsBefore);
 
-    const parentless = await rerun(parentId, { normalization: { mode: "concentration", sampleConcentration: 1, referenceConcentration: 2 } });
+    const parentless = await rerun(parentId, {
+      normalization: { mode: "concentration", sampleConcentration: 1, referenceConcentration: 2 },
+    });
     expect(parentless.status).toBe(400);
-    expect(parentless.body.error).toMatchObject({ message: "normalization: needs a parent reference spectrum, and the run would have none", field: "normalization" });
+    expect(parentless.body.error).toMatchObject({
+      message: "normalization: needs a parent reference spectrum, and the run would have none",
+      field: "normalization",
+    });
     const droppingReference = await rerun(sampleId, { referenceSpectrumId: null });
     expect(droppingReference.status).toBe(400); // the latest parameters carry a normalisation
     expect(droppingReference.body.error?.field).toBe("normalization");

@@ -38,15 +38,26 @@ let sampleSpectrumId: string;
 /** Two more bleached samples, left awaiting review, for the counts and the mail. */
 const otherSpectrumIds: string[] = [];
 
-type Sig = { id: string; run_id: string; kind: string; energy_ev: number | null; fraction: number | null; review_state: string;
-  matched_signature_id: string | null; superseded_by_run_id: string | null };
-const signaturesOf = (spectrumId: string) => selectRows<Sig>(
-  `SELECT id, run_id, kind, energy_ev, fraction, review_state, matched_signature_id, superseded_by_run_id FROM signatures WHERE spectrum_id = :spectrumId ORDER BY created_at, id`,
-  { spectrumId },
-);
+type Sig = {
+  id: string;
+  run_id: string;
+  kind: string;
+  energy_ev: number | null;
+  fraction: number | null;
+  review_state: string;
+  matched_signature_id: string | null;
+  superseded_by_run_id: string | null;
+};
+const signaturesOf = (spectrumId: string) =>
+  selectRows<Sig>(
+    `SELECT id, run_id, kind, energy_ev, fraction, review_state, matched_signature_id, superseded_by_run_id FROM signatures WHERE spectrum_id = :spectrumId ORDER BY created_at, id`,
+    { spectrumId },
+  );
 /** The current first-exciton bleach: the bleach flag nearest 2.1 eV of the newest run. */
 async function currentBleach(spectrumId: string): Promise<Sig | undefined> {
-  const current = (await signaturesOf(spectrumId)).filter((s) => s.superseded_by_run_id === null && s.kind === "bleach" && s.energy_ev !== null);
+  const current = (await signaturesOf(spectrumId)).filter(
+    (s) => s.superseded_by_run_id === null && s.kind === "bleach" && s.energy_ev !== null,
+  );
   return current.sort((a, b) => Math.abs(a.energy_ev! - 2.1) - Math.abs(b.energy_ev! - 2.1))[0];
 }
 
@@ -62,23 +73,34 @@ async function newestRunAwaiting(): Promise<number> {
 
 async function rerun(spectrumId: string, body: unknown): Promise<string> {
   const res = await fetch(appUrl(`/api/v1/spectra/${spectrumId}/analyses`), {
-    method: "POST", headers: { Authorization: `Bearer ${uploader.token}`, "Content-Type": "application/json" }, body: JSON.stringify(body),
+    method: "POST",
+    headers: { Authorization: `Bearer ${uploader.token}`, "Content-Type": "application/json" },
+    body: JSON.stringify(body),
   });
   const answer = (await res.json()) as { runId: string };
   expect(res.status).toBe(201);
-  await waitFor(`run ${answer.runId} to finish`, async () => ((await AnalysisRun.findByPk(answer.runId))?.status === "done" ? true : undefined), 60_000);
+  await waitFor(
+    `run ${answer.runId} to finish`,
+    async () => ((await AnalysisRun.findByPk(answer.runId))?.status === "done" ? true : undefined),
+    60_000,
+  );
   return answer.runId;
 }
 
 async function decide(signatureId: string, payload: unknown) {
   const res = await fetch(appUrl(`/api/v1/signatures/${signatureId}/decisions`), {
-    method: "POST", headers: { Authorization: `Bearer ${lab.token}`, "content-type": "application/json" }, body: JSON.stringify(payload),
+    method: "POST",
+    headers: { Authorization: `Bearer ${lab.token}`, "content-type": "application/json" },
+    body: JSON.stringify(payload),
   });
   return { status: res.status, body: (await res.json()) as Record<string, unknown> & { error?: { code: string; message: string } } };
 }
 
-type History = { reviewState: string; supersededBy: { runId: string; matchId: string | null } | null;
-  history: { decision: string; origin: string; comment: string; carriedFromRunId: string | null; carriedFromSignatureId: string | null }[] };
+type History = {
+  reviewState: string;
+  supersededBy: { runId: string; matchId: string | null } | null;
+  history: { decision: string; origin: string; comment: string; carriedFromRunId: string | null; carriedFromSignatureId: string | null }[];
+};
 const historyOf = async (id: string) => (await getJson<History>(lab.token, `/api/v1/signatures/${id}/decisions`)).body;
 
 beforeAll(async () => {
@@ -88,19 +110,32 @@ beforeAll(async () => {
   const sample = await createSample(lab, "CdSe");
   const seed = Date.now() % 100000;
   const send = async (fileName: string, csv: string, fields: Record<string, string>) => {
-    const { status, body } = await upload(uploader.token, [{ fileName, bytes: enc(csv) }], { projectId: lab.project.id, technique: "absorption", ...fields });
+    const { status, body } = await upload(uploader.token, [{ fileName, bytes: enc(csv) }], {
+      projectId: lab.project.id,
+      technique: "absorption",
+      ...fields,
+    });
     expect(status).toBe(201);
     const out = body.files![0]!;
     if (!out.ok) throw new Error(out.error.message);
     expect((await settled(uploader.token, out.spectrumId)).spectrum.status).toBe("analysed");
     return out.spectrumId;
   };
-  const parentId = await send(`lot-R${seed} parent.csv`, absorptionCsv({ firstExcitonEv: 2.1, seed }, "lot R parent"), { sampleId: sample.id });
-  sampleSpectrumId = await send(`lot-R${seed} reduced.csv`, absorptionCsv({ firstExcitonEv: 2.1, bleach: BLEACH, scale: SCALE, seed: seed + 1 }, "lot R reduced"),
-    { sampleId: sample.id, referenceSpectrumId: parentId });
+  const parentId = await send(`lot-R${seed} parent.csv`, absorptionCsv({ firstExcitonEv: 2.1, seed }, "lot R parent"), {
+    sampleId: sample.id,
+  });
+  sampleSpectrumId = await send(
+    `lot-R${seed} reduced.csv`,
+    absorptionCsv({ firstExcitonEv: 2.1, bleach: BLEACH, scale: SCALE, seed: seed + 1 }, "lot R reduced"),
+    { sampleId: sample.id, referenceSpectrumId: parentId },
+  );
   for (const k of [2, 3]) {
-    otherSpectrumIds.push(await send(`lot-R${seed} échantillon ${k}.csv`, absorptionCsv({ firstExcitonEv: 2.1, bleach: 0.3, seed: seed + k }, `lot R ${k}`),
-      { sampleId: sample.id, referenceSpectrumId: parentId }));
+    otherSpectrumIds.push(
+      await send(`lot-R${seed} échantillon ${k}.csv`, absorptionCsv({ firstExcitonEv: 2.1, bleach: 0.3, seed: seed + k }, `lot R ${k}`), {
+        sampleId: sample.id,
+        referenceSpectrumId: parentId,
+      }),
+    );
   }
 });
 afterAll(closeDb);
@@ -126,7 +161,12 @@ describe("a decision across re-analyses", () => {
     expect(carried.matched_signature_id).toBe(confirmed.id);
     expect(carried.review_state).toBe("confirmed");
     const history = await historyOf(carried.id);
-    expect(history.history[0]).toMatchObject({ decision: "confirmed", origin: "carried", carriedFromRunId: firstRunId, carriedFromSignatureId: confirmed.id });
+    expect(history.history[0]).toMatchObject({
+      decision: "confirmed",
+      origin: "carried",
+      carriedFromRunId: firstRunId,
+      carriedFromSignatureId: confirmed.id,
+    });
     expect(history.history[0]!.comment).toBe(`Carried from run ${firstRunId.slice(0, 8)}.`);
 
     // The first run's flag is superseded: readable, naming what replaced it, refused for decisions.
@@ -155,7 +195,9 @@ describe("a decision across re-analyses", () => {
     expect(held.review_state).toBe("awaiting");
     const [entry] = (await historyOf(held.id)).history;
     expect(entry).toMatchObject({ decision: "awaiting", origin: "not-carried", carriedFromSignatureId: carried.id });
-    expect(entry!.comment).toMatch(/^The confirmed decision on run [0-9a-f]{8} was not carried: its size changed from (5[7-9]|6[0-3])\.\d % to (1[7-9]|2[0-3])\.\d % \(more than a factor of 2\)\. Decide again\.$/);
+    expect(entry!.comment).toMatch(
+      /^The confirmed decision on run [0-9a-f]{8} was not carried: its size changed from (5[7-9]|6[0-3])\.\d % to (1[7-9]|2[0-3])\.\d % \(more than a factor of 2\)\. Decide again\.$/,
+    );
     carried = held;
   });
 
@@ -184,10 +226,17 @@ describe("one source of counts", () => {
     const html = await (await fetch(appUrl("/"), { headers: { cookie } })).text();
     expect(html).toMatch(new RegExp(`data-testid="nav-awaiting-review"[^>]*>${queue.body.total}<`));
 
-    await selectRows(`UPDATE signatures g SET digested_at = NULL FROM spectra s WHERE s.id = g.spectrum_id AND s.project_id = :p RETURNING g.id`, { p: lab.project.id });
+    await selectRows(
+      `UPDATE signatures g SET digested_at = NULL FROM spectra s WHERE s.id = g.spectrum_id AND s.project_id = :p RETURNING g.id`,
+      { p: lab.project.id },
+    );
     const startedAt = new Date().toISOString();
     await runReviewDigest();
-    const mail = await waitFor("the lead's digest", async () => (await mailTo(lab.user.email)).find((m) => m.receivedAt >= startedAt && m.subject.includes("to review")), 20_000);
+    const mail = await waitFor(
+      "the lead's digest",
+      async () => (await mailTo(lab.user.email)).find((m) => m.receivedAt >= startedAt && m.subject.includes("to review")),
+      20_000,
+    );
     const text = (await simpleParser(mail.raw)).text ?? "";
     expect(text).toContain(`${queue.body.total} signature${queue.body.total === 1 ? "" : "s"} in ${lab.group.name} await review in all`);
     expect(text).toMatch(/ at \d\.\d{3} eV, \d+\.\dσ, in lot-R\d+ /); // σ decoded as σ (UTF-8 through quoted-printable)
@@ -222,28 +271,42 @@ describe("decision mail", () => {
     expect(undone.body).toMatchObject({ reviewState: "awaiting", previousState: "confirmed" });
     const cHistory = await historyOf(c.id);
     expect(cHistory.reviewState).toBe("awaiting");
-    expect(cHistory.history.map((h) => [h.decision, h.origin])).toEqual([["awaiting", "undo"], ["confirmed", "decision"]]);
+    expect(cHistory.history.map((h) => [h.decision, h.origin])).toEqual([
+      ["awaiting", "undo"],
+      ["confirmed", "decision"],
+    ]);
 
-    const mail = await waitFor("the uploader's decision mail", async () => (await mailTo(uploader.user.email)).find((m) => m.receivedAt >= startedAt), 20_000);
+    const mail = await waitFor(
+      "the uploader's decision mail",
+      async () => (await mailTo(uploader.user.email)).find((m) => m.receivedAt >= startedAt),
+      20_000,
+    );
     // Wait out two more windows (NOTICE_WINDOW_MS is 3 s under test): nothing else may arrive.
     await new Promise((r) => setTimeout(r, 7000));
     expect((await mailTo(uploader.user.email)).filter((m) => m.receivedAt >= startedAt)).toHaveLength(1);
 
     const parsed = await simpleParser(mail.raw);
     const [row] = await selectRows<{ energy_ev: number; significance: number; file_name: string }>(
-      `SELECT g.energy_ev, g.significance, s.file_name FROM signatures g JOIN spectra s ON s.id = g.spectrum_id WHERE g.id = :id`, { id: b.id },
+      `SELECT g.energy_ev, g.significance, s.file_name FROM signatures g JOIN spectra s ON s.id = g.spectrum_id WHERE g.id = :id`,
+      { id: b.id },
     );
     const base = (process.env.APP_URL ?? appUrl("")).replace(/\/$/, "");
     expect(parsed.subject).toBe(`Bandkeep: Exciton bleach in ${row!.file_name} dismissed`);
-    expect(parsed.text).toBe([
-      `Hello ${name},`, "",
-      "Band changes flagged in your uploads were reviewed:", "",
-      `- Exciton bleach at ${row!.energy_ev.toFixed(3)} eV (${row!.significance.toFixed(1)}σ) in ${row!.file_name}: dismissed (was awaiting review)`,
-      `  confirmed by ${lab.user.name}: ${first}`,
-      `  dismissed by ${lab.user.name}: ${second}`,
-      `  ${base}/review/${b.id}`, "",
-      `You receive this because decision e-mails are on in your settings: ${base}/settings`, "",
-    ].join("\n"));
+    expect(parsed.text).toBe(
+      [
+        `Hello ${name},`,
+        "",
+        "Band changes flagged in your uploads were reviewed:",
+        "",
+        `- Exciton bleach at ${row!.energy_ev.toFixed(3)} eV (${row!.significance.toFixed(1)}σ) in ${row!.file_name}: dismissed (was awaiting review)`,
+        `  confirmed by ${lab.user.name}: ${first}`,
+        `  dismissed by ${lab.user.name}: ${second}`,
+        `  ${base}/review/${b.id}`,
+        "",
+        `You receive this because decision e-mails are on in your settings: ${base}/settings`,
+        "",
+      ].join("\n"),
+    );
     expect(parsed.text).not.toContain(c.id);
   });
 });

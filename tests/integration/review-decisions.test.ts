@@ -46,9 +46,11 @@ function decide(id: string, who: string, payload: unknown) {
 }
 const reviewsOf = (id: string) =>
   selectRows<{ decision: string; comment: string; email: string }>(
-    `SELECT v.decision, v.comment, u.email FROM reviews v JOIN users u ON u.id = v.reviewer_id WHERE v.signature_id = :id ORDER BY v.created_at, v.id`, { id },
+    `SELECT v.decision, v.comment, u.email FROM reviews v JOIN users u ON u.id = v.reviewer_id WHERE v.signature_id = :id ORDER BY v.created_at, v.id`,
+    { id },
   );
-const stateOf = async (id: string) => (await selectRows<{ review_state: string }>(`SELECT review_state FROM signatures WHERE id = :id`, { id }))[0]!.review_state;
+const stateOf = async (id: string) =>
+  (await selectRows<{ review_state: string }>(`SELECT review_state FROM signatures WHERE id = :id`, { id }))[0]!.review_state;
 
 describe("signature decisions", () => {
   it("records a lead's decision as a Review row, updates the state and mails the uploader", async () => {
@@ -60,8 +62,11 @@ describe("signature decisions", () => {
     expect(await stateOf(sig.id)).toBe("confirmed");
     const audit = await selectRows<{ action: string }>(`SELECT action FROM audit_events WHERE target_id = :id ORDER BY id`, { id: sig.id });
     expect(audit.map((a) => a.action)).toContain("signature-decided");
-    const mail = await waitFor("the uploader's decision mail in the SMTP fake", async () =>
-      (await mailTo(DEMO.spectroscopist)).find((m) => m.receivedAt >= startedAt && body(m).includes(`/review/${sig.id}`)), 20_000);
+    const mail = await waitFor(
+      "the uploader's decision mail in the SMTP fake",
+      async () => (await mailTo(DEMO.spectroscopist)).find((m) => m.receivedAt >= startedAt && body(m).includes(`/review/${sig.id}`)),
+      20_000,
+    );
     expect(mail.subject).toContain(sig.file_name);
     expect(body(mail)).toContain("Bleach and new band agree.");
   });
@@ -74,7 +79,8 @@ describe("signature decisions", () => {
     expect((await reviewsOf(sig.id)).map((r) => r.decision)).toEqual(["confirmed", "dismissed"]);
     expect(await stateOf(sig.id)).toBe("dismissed");
     const history = (await (await fetch(url(`/api/v1/signatures/${sig.id}/decisions`), { headers: { cookie: cookies.lead! } })).json()) as {
-      reviewState: string; history: { decision: string; comment: string }[];
+      reviewState: string;
+      history: { decision: string; comment: string }[];
     };
     expect(history.reviewState).toBe("dismissed");
     expect(history.history.map((h) => h.decision)).toEqual(["dismissed", "confirmed"]);
@@ -110,7 +116,9 @@ describe("signature decisions", () => {
 
 describe("review queue API", () => {
   it("filters by kind and sorts by significance as asked", async () => {
-    const response = await fetch(url("/api/v1/review/queue?kind=bleach&state=all&sort=significance&dir=asc&pageSize=50"), { headers: { cookie: cookies.lead! } });
+    const response = await fetch(url("/api/v1/review/queue?kind=bleach&state=all&sort=significance&dir=asc&pageSize=50"), {
+      headers: { cookie: cookies.lead! },
+    });
     expect(response.status).toBe(200);
     const queue = (await response.json()) as { items: { kind: string; significance: number }[]; total: number };
     expect(queue.items.length).toBeGreaterThan(0);

@@ -29,22 +29,31 @@ function seqScans(node: PlanNode, out: string[] = []): string[] {
   return out;
 }
 async function plan(sql: string, replacements: Record<string, unknown>): Promise<PlanNode> {
-  const rows = await db.query<{ "QUERY PLAN": [{ Plan: PlanNode }] }>(`EXPLAIN (FORMAT JSON) ${sql}`, { replacements, type: QueryTypes.SELECT });
+  const rows = await db.query<{ "QUERY PLAN": [{ Plan: PlanNode }] }>(`EXPLAIN (FORMAT JSON) ${sql}`, {
+    replacements,
+    type: QueryTypes.SELECT,
+  });
   return rows[0]!["QUERY PLAN"][0].Plan;
 }
 
 async function admin(sql: string) {
   const client = new pg.Client({ connectionString: process.env.ADMIN_DATABASE_URL });
   await client.connect();
-  try { await client.query(sql); } finally { await client.end(); }
+  try {
+    await client.query(sql);
+  } finally {
+    await client.end();
+  }
 }
 
 beforeAll(async () => {
   const url = await seedScaleDatabase(N, scratch, () => {});
   db = new Sequelize(url, { dialect: "postgres", dialectModule: pg, logging: false });
-  projectIds = (await db.query<{ id: string }>(
-    "SELECT p.id FROM projects p JOIN groups g ON g.id = p.group_id WHERE g.slug = 'scale-g1'", { type: QueryTypes.SELECT },
-  )).map((r) => r.id);
+  projectIds = (
+    await db.query<{ id: string }>("SELECT p.id FROM projects p JOIN groups g ON g.id = p.group_id WHERE g.slug = 'scale-g1'", {
+      type: QueryTypes.SELECT,
+    })
+  ).map((r) => r.id);
   groupId = (await db.query<{ id: string }>("SELECT id FROM groups WHERE slug = 'scale-g1'", { type: QueryTypes.SELECT }))[0]!.id;
 }, 900_000);
 afterAll(async () => {
@@ -71,12 +80,18 @@ const SEARCHES: Record<string, () => Record<string, string>> = {
 };
 
 // deep in the queue: a bleach flag of about 5σ flagged eight years ago
-const deepQueue = (value: string) => encodeSortedCursor({ value, at: "2018-01-01T00:00:00.000000Z", id: "ffffffff-ffff-ffff-ffff-ffffffffffff" });
+const deepQueue = (value: string) =>
+  encodeSortedCursor({ value, at: "2018-01-01T00:00:00.000000Z", id: "ffffffff-ffff-ffff-ffff-ffffffffffff" });
 const QUEUES: Record<string, () => Record<string, string>> = {
   "awaiting, by significance (the default)": () => ({}),
   "awaiting, by significance, deep page": () => ({ after: deepQueue("5.5") }),
   "bleach ≥ 5σ": () => ({ kind: "bleach", minSignificance: "5" }),
-  "all states by date, oldest first, deep page": () => ({ state: "all", sort: "date", dir: "asc", after: deepQueue("2018-01-01T00:00:00.000000Z") }),
+  "all states by date, oldest first, deep page": () => ({
+    state: "all",
+    sort: "date",
+    dir: "asc",
+    after: deepQueue("2018-01-01T00:00:00.000000Z"),
+  }),
   "by kind": () => ({ sort: "kind", state: "all" }),
   "one sample": () => ({ sample: "00000000-0000-4000-8000-000000000000", state: "all" }),
 };

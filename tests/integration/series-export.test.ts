@@ -26,12 +26,19 @@ if "qx" in req:
     out["ksv"] = r.slope; out["ksv_se"] = r.stderr; out["r2"] = r.rvalue ** 2
 print(json.dumps(out))
 `;
-const scipy = (req: object) => JSON.parse(execFileSync("python3", ["-c", SCIPY], { input: JSON.stringify(req) }).toString()) as Record<string, number>;
+const scipy = (req: object) =>
+  JSON.parse(execFileSync("python3", ["-c", SCIPY], { input: JSON.stringify(req) }).toString()) as Record<string, number>;
 
 function parseCsv(text: string) {
   const [table, fits] = text.trim().split(/\r\n\r\n/);
-  const rows = table!.split(/\r\n/).slice(1).map((l) => l.split(","));
-  const fitRows = fits!.split(/\r\n/).slice(1).map((l) => l.split(","));
+  const rows = table!
+    .split(/\r\n/)
+    .slice(1)
+    .map((l) => l.split(","));
+  const fitRows = fits!
+    .split(/\r\n/)
+    .slice(1)
+    .map((l) => l.split(","));
   return { rows, fit: (name: string, param: string) => fitRows.find((f) => f[0] === name && f[1]!.startsWith(param)) };
 }
 
@@ -64,7 +71,8 @@ describe("series export and fits", () => {
     const bp = fit("saturation", "breakpoint");
     const plateau = fit("saturation", "plateau");
     expect(bp, "saturation fit row").toBeDefined();
-    const x = rows.map((r) => Number(r[0])), y = rows.map((r) => Number(r[3]));
+    const x = rows.map((r) => Number(r[0])),
+      y = rows.map((r) => Number(r[3]));
     const ref = scipy({ bx: x, by: y, p0: [0, 0.4, Number(bp![2])] });
     expect(Number(bp![2])).toBeCloseTo(ref.breakpoint!, 6); // scipy curve_fit
     expect(Number(bp![3]) / ref.breakpoint_se!).toBeCloseTo(1, 3); // scipy curve_fit pcov

@@ -28,7 +28,8 @@ const ADDED_A = 0.5;
 const design = [0.5, 1, 3, 4].map((feed) => {
   const addedX = feed * ADDED_A;
   const boundA = Math.min(ADDED_A, addedX / 2);
-  const leftA = ADDED_A - boundA, leftX = addedX - 2 * boundA;
+  const leftA = ADDED_A - boundA,
+    leftX = addedX - 2 * boundA;
   // Beer–Lambert, l = 1 cm: A's absorbance at its 550 nm exciton, X's at 400 nm.
   return { feed, leftA, leftX, a: leftA * 1e-6 * EPS_CDSE_550, x: leftX * 1e-6 * EPS_PBS_400 };
 });
@@ -61,7 +62,10 @@ async function link(token: string, supernatantSpectrumId: string, pointSpectrumI
     headers: { Authorization: `Bearer ${token}`, "content-type": "application/json" },
     body: JSON.stringify({ supernatantSpectrumId, pointSpectrumId }),
   });
-  return { status: res.status, body: (await res.json()) as { changed?: boolean; error?: { code: string; message: string; field?: string } } };
+  return {
+    status: res.status,
+    body: (await res.json()) as { changed?: boolean; error?: { code: string; message: string; field?: string } },
+  };
 }
 
 const readingsPath = (extra = "") => `/api/v1/series/${seriesId}/supernatants?nmA=550&nmX=400${extra}`;
@@ -74,13 +78,22 @@ beforeAll(async () => {
   const base = { projectId: lab.project.id, technique: "absorption", pathLengthCm: "1" };
   for (const d of design) {
     // The mixture itself: any absorption spectrum, here the A-like dots with a bleach.
-    points.push(await uploadOne(lab.token, `mixture-${d.feed}.csv`, absorptionCsv({ firstExcitonEv: HC / 550, bleach: 0.1 * d.feed, seed: 700 + d.feed * 10 }, `mixture ${d.feed}`),
-      { ...base, seriesId, seriesValue: String(d.feed) }));
-    const text = supernatantCsv({
-      cdse: { firstExcitonEv: HC / 550, atNm: 550, absorbance: d.a },
-      pbs: { firstExcitonEv: PBS_EXCITON_EV, atNm: 400, absorbance: d.x },
-      noise: 0,
-    }, `supernatant ${d.feed}`);
+    points.push(
+      await uploadOne(
+        lab.token,
+        `mixture-${d.feed}.csv`,
+        absorptionCsv({ firstExcitonEv: HC / 550, bleach: 0.1 * d.feed, seed: 700 + d.feed * 10 }, `mixture ${d.feed}`),
+        { ...base, seriesId, seriesValue: String(d.feed) },
+      ),
+    );
+    const text = supernatantCsv(
+      {
+        cdse: { firstExcitonEv: HC / 550, atNm: 550, absorbance: d.a },
+        pbs: { firstExcitonEv: PBS_EXCITON_EV, atNm: 400, absorbance: d.x },
+        noise: 0,
+      },
+      `supernatant ${d.feed}`,
+    );
     supernatants.push({ id: await uploadOne(lab.token, `supernatant-${d.feed}.csv`, text, base), text });
   }
   pure.a.text = absorptionCsv({ firstExcitonEv: HC / 550, noise: 0 }, "pure A");
@@ -107,7 +120,10 @@ describe("supernatant spectra of a titration", () => {
     const again = await link(lab.token, supernatants[0]!.id, points[0]!);
     expect(again.status).toBe(200);
     expect(again.body.changed).toBe(false);
-    const audit = await selectRows<{ action: string }>(`SELECT action FROM audit_events WHERE target_id = :id AND action LIKE 'supernatant-%'`, { id: supernatants[0]!.id });
+    const audit = await selectRows<{ action: string }>(
+      `SELECT action FROM audit_events WHERE target_id = :id AND action LIKE 'supernatant-%'`,
+      { id: supernatants[0]!.id },
+    );
     expect(audit.map((a) => a.action)).toEqual(["supernatant-linked"]); // linking again changed nothing and recorded nothing
   });
 
@@ -153,7 +169,9 @@ describe("supernatant spectra of a titration", () => {
     expect(out.result.constant).toBe(true);
     // Without the overlap correction X's share at 400 nm includes A's: the composition comes out wrong.
     const naive = depletionComposition(rows.rows, {
-      dotA: { material: "CdSe", firstExcitonNm: 550 }, dotX: { material: "PbS", firstExcitonNm: HC / PBS_EXCITON_EV }, pathLengthCm: 1,
+      dotA: { material: "CdSe", firstExcitonNm: 550 },
+      dotX: { material: "PbS", firstExcitonNm: HC / PBS_EXCITON_EV },
+      pathLengthCm: 1,
     });
     expect(naive.result.constant).toBe(false);
   });
@@ -163,22 +181,38 @@ describe("supernatant spectra of a titration", () => {
     expect(far.status).toBe(200);
     expect(far.body.points[0]!.supernatant!.error).toBe("supernatant-0.5.csv: 800 nm is outside the recorded range 400–750 nm");
     expect(far.body.points[0]!.supernatant!.atA).toBeNull();
-    const bad = await getJson<{ error: { field: string; message: string } }>(lab.token, `/api/v1/series/${seriesId}/supernatants?nmA=blue&nmX=400`);
+    const bad = await getJson<{ error: { field: string; message: string } }>(
+      lab.token,
+      `/api/v1/series/${seriesId}/supernatants?nmA=blue&nmX=400`,
+    );
     expect(bad.status).toBe(400);
     expect(bad.body.error).toMatchObject({ field: "nmA", message: "nmA: give a wavelength in nm" });
     const missing = await getJson<{ error: { field: string } }>(lab.token, `/api/v1/series/${seriesId}/supernatants?nmA=550`);
     expect(missing.status).toBe(400);
     expect(missing.body.error.field).toBe("nmX");
-    const foreign = await getJson<{ error: { field: string } }>(lab.token, readingsPath(`&pureX=${(await strangerSpectrum())}`));
+    const foreign = await getJson<{ error: { field: string } }>(lab.token, readingsPath(`&pureX=${await strangerSpectrum()}`));
     expect(foreign.status).toBe(404);
     expect(foreign.body.error.field).toBe("pureX");
   });
 
   it("refuses links that break the rules, naming the field", async () => {
-    const pl = await uploadOne(lab.token, "pl.csv", emissionCsv({ peakEv: 2.2, intensity: 1000, seed: 9 }, "pl"), { projectId: lab.project.id, technique: "pl" });
-    const extra = await uploadOne(lab.token, "extra-supernatant.csv", supernatantCsv({
-      cdse: { firstExcitonEv: HC / 550, atNm: 550, absorbance: 0.01 }, pbs: { firstExcitonEv: PBS_EXCITON_EV, atNm: 400, absorbance: 0.02 }, noise: 0,
-    }, "extra"), { projectId: lab.project.id, technique: "absorption" });
+    const pl = await uploadOne(lab.token, "pl.csv", emissionCsv({ peakEv: 2.2, intensity: 1000, seed: 9 }, "pl"), {
+      projectId: lab.project.id,
+      technique: "pl",
+    });
+    const extra = await uploadOne(
+      lab.token,
+      "extra-supernatant.csv",
+      supernatantCsv(
+        {
+          cdse: { firstExcitonEv: HC / 550, atNm: 550, absorbance: 0.01 },
+          pbs: { firstExcitonEv: PBS_EXCITON_EV, atNm: 400, absorbance: 0.02 },
+          noise: 0,
+        },
+        "extra",
+      ),
+      { projectId: lab.project.id, technique: "absorption" },
+    );
     const cases: [string, string, number, string, RegExp][] = [
       ["an emission spectrum", pl, 400, "supernatantSpectrumId", /is a pl spectrum; a supernatant must be an absorption spectrum/],
       ["a point of the series", points[1]!, 400, "supernatantSpectrumId", /is itself a point of a series/],
@@ -196,7 +230,11 @@ describe("supernatant spectra of a titration", () => {
     const badId = await link(lab.token, "not-an-id", points[0]!);
     expect(badId.status).toBe(400);
     expect(badId.body.error?.field).toBe("supernatantSpectrumId");
-    const form = await fetch(appUrl(`/api/v1/series/${seriesId}/supernatants`), { method: "POST", headers: { Authorization: `Bearer ${lab.token}` }, body: new FormData() });
+    const form = await fetch(appUrl(`/api/v1/series/${seriesId}/supernatants`), {
+      method: "POST",
+      headers: { Authorization: `Bearer ${lab.token}` },
+      body: new FormData(),
+    });
     expect(form.status).toBe(415);
   });
 
@@ -217,7 +255,8 @@ describe("supernatant spectra of a titration", () => {
     expect(body.points.filter((p) => p.supernatant).length).toBe(3);
     expect((await getJson(lab.token, `/api/v1/spectra/${supernatants[3]!.id}`)).status).toBe(200);
     const audit = await selectRows<{ action: string; details: { pointSpectrumId: string | null; previousPointSpectrumId: string | null } }>(
-      `SELECT action, details FROM audit_events WHERE target_id = :id AND action LIKE 'supernatant-%' ORDER BY id`, { id: supernatants[3]!.id },
+      `SELECT action, details FROM audit_events WHERE target_id = :id AND action LIKE 'supernatant-%' ORDER BY id`,
+      { id: supernatants[3]!.id },
     );
     expect(audit.map((a) => a.action)).toEqual(["supernatant-linked", "supernatant-unlinked"]);
     expect(audit[1]!.details).toMatchObject({ pointSpectrumId: null, previousPointSpectrumId: points[3] });
@@ -234,7 +273,9 @@ describe("the demo titration's supernatants and the collaborator it is shared wi
   });
 
   it("shows the collaborator every point's supernatant and lets them open it, but nobody outside the group", async () => {
-    const res = await fetch(url(`/api/v1/series/${ids.sharedSeries.id}/supernatants?nmA=577.2&nmX=400`), { headers: { cookie: cookies.collaborator! } });
+    const res = await fetch(url(`/api/v1/series/${ids.sharedSeries.id}/supernatants?nmA=577.2&nmX=400`), {
+      headers: { cookie: cookies.collaborator! },
+    });
     expect(res.status).toBe(200);
     const body = (await res.json()) as SupernatantReadings;
     const linked = body.points.filter((p) => p.supernatant);
@@ -244,7 +285,8 @@ describe("the demo titration's supernatants and the collaborator it is shared wi
     expect((await fetch(url(`/api/v1/spectra/${one}/raw`), { headers: { cookie: cookies.collaborator! } })).status).toBe(200);
     expect((await fetch(url(`/api/v1/spectra/${one}`), { headers: { cookie: cookies.otherGroup! } })).status).toBe(404);
     const link = await fetch(url(`/api/v1/series/${ids.sharedSeries.id}/supernatants`), {
-      method: "POST", headers: { cookie: cookies.collaborator!, origin: APP_ORIGIN, "content-type": "application/json" },
+      method: "POST",
+      headers: { cookie: cookies.collaborator!, origin: APP_ORIGIN, "content-type": "application/json" },
       body: JSON.stringify({ supernatantSpectrumId: one, pointSpectrumId: null }),
     });
     expect(link.status).toBe(403); // read-only collaborator
@@ -252,5 +294,8 @@ describe("the demo titration's supernatants and the collaborator it is shared wi
 });
 
 async function strangerSpectrum(): Promise<string> {
-  return uploadOne(stranger.token, "stranger.csv", absorptionCsv({ firstExcitonEv: 2.2, seed: 5 }, "stranger"), { projectId: stranger.project.id, technique: "absorption" });
+  return uploadOne(stranger.token, "stranger.csv", absorptionCsv({ firstExcitonEv: 2.2, seed: 5 }, "stranger"), {
+    projectId: stranger.project.id,
+    technique: "absorption",
+  });
 }

@@ -30,11 +30,17 @@ beforeAll(async () => {
   models();
   ids = await demoIds();
   const steward = await User.findOne({ where: { email: DEMO.steward } });
-  const created = await createShareLink((await loadActor(steward!.id, "session"))!, { targetType: "series", targetId: ids.sharedSeries.id, expiresAt: null });
+  const created = await createShareLink((await loadActor(steward!.id, "session"))!, {
+    targetType: "series",
+    targetId: ids.sharedSeries.id,
+    expiresAt: null,
+  });
   token = created.token;
   shareId = created.shareId;
   leadCookie = await sessionCookie(DEMO.lead, DEMO_PASSWORD);
-  points = await selectRows("SELECT id, file_name FROM spectra WHERE series_id = :id AND status = 'analysed' ORDER BY series_value", { id: ids.sharedSeries.id });
+  points = await selectRows("SELECT id, file_name FROM spectra WHERE series_id = :id AND status = 'analysed' ORDER BY series_value", {
+    id: ids.sharedSeries.id,
+  });
 }, 60_000);
 afterAll(closeDb);
 
@@ -49,10 +55,12 @@ describe("a series share link, signed out", () => {
     expect(html).toContain(`/shared/${token}/curves/${ids.sharedSpectrum.id}?format=csv`);
     // review state never reaches a guest: the series' flags have review states in the database, none is on the page
     const states = await selectRows<{ review_state: string }>(
-      "SELECT DISTINCT g.review_state FROM signatures g JOIN spectra s ON s.id = g.spectrum_id WHERE s.series_id = :id", { id: ids.sharedSeries.id },
+      "SELECT DISTINCT g.review_state FROM signatures g JOIN spectra s ON s.id = g.spectrum_id WHERE s.series_id = :id",
+      { id: ids.sharedSeries.id },
     );
     expect(states.length).toBeGreaterThan(0);
-    for (const { review_state } of states) expect(html.toLowerCase()).not.toContain(review_state === "awaiting" ? "awaiting review" : `>${review_state}<`);
+    for (const { review_state } of states)
+      expect(html.toLowerCase()).not.toContain(review_state === "awaiting" ? "awaiting review" : `>${review_state}<`);
     expect(html).not.toContain("reviewState");
   });
 
@@ -69,7 +77,9 @@ describe("a series share link, signed out", () => {
 
   it("serves JCAMP-DX that an independent reader decodes to the chart's smoothed curve", async () => {
     const jdx = await (await get(`/shared/${token}/curves/${points[0]!.id}?format=jcamp&axis=ev&series=smoothed`)).text();
-    const curves = payloadFromColumns(decodeColumns(await (await get(`/shared/${token}/curves/${points[0]!.id}?format=binary&axis=ev`)).arrayBuffer()));
+    const curves = payloadFromColumns(
+      decodeColumns(await (await get(`/shared/${token}/curves/${points[0]!.id}?format=binary&axis=ev`)).arrayBuffer()),
+    );
     const decoded = convert(jdx).flatten[0]!.spectra[0]!.data as unknown as { x: number[]; y: number[] };
     expect(decoded.x.length).toBe(curves.points);
     for (let i = 0; i < curves.points; i += 50) {
@@ -80,7 +90,8 @@ describe("a series share link, signed out", () => {
 
   it("reaches every point and every supernatant of the shared series, and the raw files too", async () => {
     const supernatants = await selectRows<{ id: string }>(
-      "SELECT s.id FROM spectra s JOIN spectra p ON p.id = s.supernatant_of_spectrum_id WHERE p.series_id = :id AND s.status = 'analysed'", { id: ids.sharedSeries.id },
+      "SELECT s.id FROM spectra s JOIN spectra p ON p.id = s.supernatant_of_spectrum_id WHERE p.series_id = :id AND s.status = 'analysed'",
+      { id: ids.sharedSeries.id },
     );
     expect(supernatants.length).toBeGreaterThan(0);
     for (const { id } of [...points, ...supernatants]) {
@@ -93,7 +104,11 @@ describe("a series share link, signed out", () => {
 
   it("reaches nothing else: the group's other spectra, another group's, made-up ids", async () => {
     for (const id of [ids.privateSpectrum.id, ids.otherGroupSpectrum.id, "00000000-0000-4000-8000-000000000000"]) {
-      for (const path of [`/shared/${token}/curves/${id}?format=csv`, `/shared/${token}/curves/${id}?format=binary`, `/shared/${token}/raw/${id}`]) {
+      for (const path of [
+        `/shared/${token}/curves/${id}?format=csv`,
+        `/shared/${token}/curves/${id}?format=binary`,
+        `/shared/${token}/raw/${id}`,
+      ]) {
         const res = await get(path);
         expect(res.status, path).toBe(404);
       }

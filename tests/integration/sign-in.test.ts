@@ -83,11 +83,18 @@ describe("sign-in", () => {
     expect(locked.error).toBe("locked");
     expect(await AuditEvent.count({ where: { actorLabel: email, action: "sign-in-locked" } })).toBe(1);
 
-    const mail = await waitFor(`the unlock mail to ${email}`, async () => {
-      const list = (await (await fetch(`${MAIL_VIEW}/messages`)).json()) as Captured[];
-      return list.find((m) => m.to.includes(email));
-    }, 15_000);
-    const token = mail.raw.replace(/=\r?\n/g, "").replace(/=3D/g, "=").match(/\/signin\/unlock\?token=([A-Za-z0-9_-]{20,64})/)?.[1];
+    const mail = await waitFor(
+      `the unlock mail to ${email}`,
+      async () => {
+        const list = (await (await fetch(`${MAIL_VIEW}/messages`)).json()) as Captured[];
+        return list.find((m) => m.to.includes(email));
+      },
+      15_000,
+    );
+    const token = mail.raw
+      .replace(/=\r?\n/g, "")
+      .replace(/=3D/g, "=")
+      .match(/\/signin\/unlock\?token=([A-Za-z0-9_-]{20,64})/)?.[1];
     expect(token).toBeDefined();
     // Opening the link changes nothing; the page's button does (the same function as below).
     const page = await fetch(url(`/signin/unlock?token=${token}`));

@@ -100,12 +100,16 @@ describe("spectra search filters (known rows)", () => {
   it("size range from the sizing curves, and filters combined", async () => {
     expect(await found({ sizeMin: "3.8", sizeMax: "4.5" })).toEqual(["a2", "a3"]); // a2 is 4.2 now (3.5 before)
     expect(await found({ sizeMax: "3.55" })).toEqual([]);
-    expect(await found({ material: "CdSe", band: "first-exciton", bandMin: "570", bandMax: "590", flag: "bleach", flagMin: "0.2" })).toEqual(["a1"]);
+    expect(
+      await found({ material: "CdSe", band: "first-exciton", bandMin: "570", bandMax: "590", flag: "bleach", flagMin: "0.2" }),
+    ).toEqual(["a1"]);
   });
 
   it("the latest-analysis summary follows the runs: a deleted newest run brings the earlier one back, a new one replaces it", async () => {
     // migrations/0012's triggers: deleting a2's 600 nm run (as the retention sweep of processed data does) leaves the 575 nm run newest
-    await selectRows("DELETE FROM analysis_runs WHERE spectrum_id = :s AND created_at = '2026-03-06T11:00:00Z' RETURNING id", { s: fixture.ids.a2 });
+    await selectRows("DELETE FROM analysis_runs WHERE spectrum_id = :s AND created_at = '2026-03-06T11:00:00Z' RETURNING id", {
+      s: fixture.ids.a2,
+    });
     expect(await found({ band: "first-exciton", bandMin: "570", bandMax: "590" })).toEqual(["a1", "a2"]);
     expect(await found({ sizeMin: "3.4", sizeMax: "3.55" })).toEqual(["a2"]); // 3.5 nm came back with it
     expect(await found({ flag: "bleach", flagMin: "0.2", flagSig: "5" })).toEqual(["a1", "a2"]); // its 40 %, 20σ flag counts again
@@ -113,9 +117,12 @@ describe("spectra search filters (known rows)", () => {
     const [run] = await selectRows<{ id: string }>(
       `INSERT INTO analysis_runs (spectrum_id, engine_version, parameter_hash, status, report, created_at)
        VALUES (:s, 'fixture', md5(random()::text) || md5(random()::text), 'running', '{"derived":{"diameterNm":4.6}}', '2026-03-06T12:00:00Z') RETURNING id`,
-      { s: fixture.ids.a2 });
-    await selectRows("INSERT INTO peaks (run_id, energy_ev, wavelength_nm, height, is_first_exciton) VALUES (:r, :ev, 610, 0.5, true) RETURNING id",
-      { r: run!.id, ev: 1239.841984 / 610 });
+      { s: fixture.ids.a2 },
+    );
+    await selectRows(
+      "INSERT INTO peaks (run_id, energy_ev, wavelength_nm, height, is_first_exciton) VALUES (:r, :ev, 610, 0.5, true) RETURNING id",
+      { r: run!.id, ev: 1239.841984 / 610 },
+    );
     expect(await found({ band: "first-exciton", bandMin: "570", bandMax: "590" })).toEqual(["a1", "a2"]);
     await selectRows("UPDATE analysis_runs SET status = 'done' WHERE id = :r RETURNING id", { r: run!.id });
     expect(await found({ band: "first-exciton", bandMin: "570", bandMax: "590" })).toEqual(["a1"]);
@@ -135,11 +142,15 @@ describe("spectra search filters (known rows)", () => {
            OR s.diameter_nm IS DISTINCT FROM (lr.report->'derived'->>'diameterNm')::float8
            OR (s.technique = 'pl' AND s.emission_ev IS DISTINCT FROM
                 (SELECT k.energy_ev FROM peaks k WHERE k.run_id = lr.id ORDER BY k.height DESC LIMIT 1))
-           OR (s.technique <> 'pl' AND s.emission_ev IS NOT NULL)`, {});
+           OR (s.technique <> 'pl' AND s.emission_ev IS NOT NULL)`,
+      {},
+    );
     expect(disagree).toEqual([]);
     // the demo's spectra were analysed by the running worker: at least one of them has a first exciton on its row
     const [analysed] = await selectRows<{ n: string }>(
-      "SELECT count(*) AS n FROM spectra s JOIN projects p ON p.id = s.project_id WHERE s.first_exciton_ev IS NOT NULL AND p.id <> :p", { p: fixture.projectId });
+      "SELECT count(*) AS n FROM spectra s JOIN projects p ON p.id = s.project_id WHERE s.first_exciton_ev IS NOT NULL AND p.id <> :p",
+      { p: fixture.projectId },
+    );
     expect(Number(analysed!.n)).toBeGreaterThan(0);
   });
 
@@ -147,7 +158,10 @@ describe("spectra search filters (known rows)", () => {
     const seen: string[] = [];
     let after: string | undefined;
     for (let i = 0; i < 5; i++) {
-      const page = (await listSpectra(lead, spectrumSearchSchema.parse({ project: fixture.projectId, limit: "3", ...(after ? { after } : {}) })))!;
+      const page = (await listSpectra(
+        lead,
+        spectrumSearchSchema.parse({ project: fixture.projectId, limit: "3", ...(after ? { after } : {}) }),
+      ))!;
       seen.push(...page.rows.map((r) => r.id));
       if (!page.next) break;
       expect(decodeCursor(page.next)).not.toBeNull();
@@ -187,7 +201,11 @@ describe("GET /api/v1/spectra", () => {
   it("answers the band search with the same rows and a next link that pages on", async () => {
     const res = await get(`project=${fixture.projectId}&band=first-exciton&bandMin=570&bandMax=590`);
     expect(res.status).toBe(200);
-    const body = (await res.json()) as { items: { id: string; firstExcitonNm: number; url: string }[]; count: { value: number; exact: boolean }; next: string | null };
+    const body = (await res.json()) as {
+      items: { id: string; firstExcitonNm: number; url: string }[];
+      count: { value: number; exact: boolean };
+      next: string | null;
+    };
     expect(body.items.map((i) => i.id)).toEqual([fixture.ids.a1]);
     expect(body.items[0]!.firstExcitonNm).toBeCloseTo(580, 6);
     expect(body.count).toEqual({ value: 1, exact: true });
@@ -195,7 +213,10 @@ describe("GET /api/v1/spectra", () => {
 
     const first = (await (await get(`project=${fixture.projectId}&limit=4`)).json()) as { items: { id: string }[]; nextUrl: string };
     expect(first.items).toHaveLength(4);
-    const second = (await (await fetch(url(first.nextUrl), { headers: { cookie } })).json()) as { items: { id: string }[]; nextUrl: string | null };
+    const second = (await (await fetch(url(first.nextUrl), { headers: { cookie } })).json()) as {
+      items: { id: string }[];
+      nextUrl: string | null;
+    };
     expect(second.items).toHaveLength(3);
     expect(second.nextUrl).toBeNull();
     expect(new Set([...first.items, ...second.items].map((i) => i.id)).size).toBe(7);

@@ -15,8 +15,15 @@ import { sessionCookie } from "../helpers/session";
 const HC = 1239.841984; // eV·nm, CODATA 2018
 
 type Payload = {
-  spectrumId: string; runId: string; axis: string; xLabel: string; yLabel: string; emission: boolean; points: number;
-  x: number[]; series: Record<"raw" | "smoothed" | "reference" | "difference", (number | null)[] | null>;
+  spectrumId: string;
+  runId: string;
+  axis: string;
+  xLabel: string;
+  yLabel: string;
+  emission: boolean;
+  points: number;
+  x: number[];
+  series: Record<"raw" | "smoothed" | "reference" | "difference", (number | null)[] | null>;
 };
 
 let cookie: string;
@@ -42,7 +49,12 @@ beforeAll(async () => {
 afterAll(closeDb);
 
 describe("who may read the curves and downloads", () => {
-  const paths = (id: string) => [`/api/v1/spectra/${id}/data?axis=nm`, `/api/v1/spectra/${id}/export?format=csv`, `/api/v1/spectra/${id}/export?format=jcamp`, `/api/v1/spectra/${id}/export?format=json`];
+  const paths = (id: string) => [
+    `/api/v1/spectra/${id}/data?axis=nm`,
+    `/api/v1/spectra/${id}/export?format=csv`,
+    `/api/v1/spectra/${id}/export?format=jcamp`,
+    `/api/v1/spectra/${id}/export?format=json`,
+  ];
 
   it("refuses anonymous callers with 401 and the JSON error shape", async () => {
     for (const p of paths(flagged.id)) {
@@ -63,7 +75,10 @@ describe("who may read the curves and downloads", () => {
   it("names the bad field in a 400", async () => {
     const bad = await get(`/api/v1/spectra/${flagged.id}/data?axis=furlong`, { cookie });
     expect(bad.status).toBe(400);
-    expect(((await bad.json()) as { error: { field: string; message: string } }).error).toMatchObject({ field: "axis", message: expect.stringMatching(/axis must be nm, ev or cm-1/) });
+    expect(((await bad.json()) as { error: { field: string; message: string } }).error).toMatchObject({
+      field: "axis",
+      message: expect.stringMatching(/axis must be nm, ev or cm-1/),
+    });
     const run = await get(`/api/v1/spectra/${flagged.id}/export?format=csv&run=nope`, { cookie });
     expect(((await run.json()) as { error: { field: string } }).error.field).toBe("run");
     const fmt = await get(`/api/v1/spectra/${flagged.id}/export?format=xlsx`, { cookie });
@@ -87,7 +102,8 @@ describe("GET /api/v1/spectra/{id}/data", () => {
     }
     for (let i = 1; i < nm.x.length; i++) expect(nm.x[i]!).toBeGreaterThan(nm.x[i - 1]!);
     // difference = smoothed − reference, each rounded to 7 significant digits in transit
-    for (let i = 0; i < nm.points; i += 25) expect(nm.series.difference![i]!).toBeCloseTo(nm.series.smoothed![i]! - nm.series.reference![i]!, 5);
+    for (let i = 0; i < nm.points; i += 25)
+      expect(nm.series.difference![i]!).toBeCloseTo(nm.series.smoothed![i]! - nm.series.reference![i]!, 5);
     // the bleach the demo put into this file shows in the difference at the parent's first exciton
     const run = await AnalysisRun.findByPk(nm.runId);
     const bleach = (run!.report as { flags: { kind: string; energyEv: number }[] }).flags.find((f) => f.kind === "bleach")!;
@@ -107,7 +123,9 @@ describe("GET /api/v1/spectra/{id}/data", () => {
   });
 
   it("converts emission with the Jacobian: I(λ) = I(E)·E²/hc (DOMAIN.md §4, Mooney & Kambhampati 2013)", async () => {
-    const [a, b] = await Promise.all(["nm", "ev"].map(async (axis) => (await (await get(`/api/v1/spectra/${pl.id}/data?axis=${axis}`, { cookie })).json()) as Payload));
+    const [a, b] = await Promise.all(
+      ["nm", "ev"].map(async (axis) => (await (await get(`/api/v1/spectra/${pl.id}/data?axis=${axis}`, { cookie })).json()) as Payload),
+    );
     expect(a!.emission && b!.emission).toBe(true);
     expect(a!.yLabel).toMatch(/per nm/);
     const n = a!.points;
@@ -140,7 +158,8 @@ describe("GET /api/v1/spectra/{id}/data", () => {
       // float32 rounds to 24 bits (≤ 2^-24 ≈ 6e-8, IEEE 754): the two may differ by their sum.
       expect(Math.abs(body.x[i]! - nm.x[i]!) / nm.x[i]!).toBeLessThan(1e-8);
       for (const k of ["raw", "smoothed", "reference", "difference"] as const) {
-        const a = body.series[k]![i]!, b = nm.series[k]![i]!;
+        const a = body.series[k]![i]!,
+          b = nm.series[k]![i]!;
         expect(Math.abs(a - b), `${k}[${i}]`).toBeLessThanOrEqual((5e-7 + 6e-8) * Math.max(Math.abs(a), Math.abs(b)) + 1e-15);
       }
     }
@@ -157,7 +176,11 @@ describe("GET /api/v1/spectra/{id}/data", () => {
   });
 
   it("for a file that could not be read, answers 422 with the engine's message", async () => {
-    const up = await upload(lab.token, [{ fileName: "broken-export.csv", bytes: new TextEncoder().encode("wavelength (nm),absorbance\nfour hundred,zero\n") }], { projectId: lab.project.id, technique: "absorption" });
+    const up = await upload(
+      lab.token,
+      [{ fileName: "broken-export.csv", bytes: new TextEncoder().encode("wavelength (nm),absorbance\nfour hundred,zero\n") }],
+      { projectId: lab.project.id, technique: "absorption" },
+    );
     const file = up.body.files?.[0];
     expect(file && file.ok).toBe(true);
     const id = (file as { spectrumId: string }).spectrumId;

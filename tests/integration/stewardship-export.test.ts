@@ -16,7 +16,9 @@ import { sessionCookie } from "../helpers/session";
 // sha256 recorded at upload, every JCAMP-DX with the engine's parser and jcampconverter.
 
 let ids: Awaited<ReturnType<typeof demoIds>>;
-beforeAll(async () => { ids = await demoIds(); });
+beforeAll(async () => {
+  ids = await demoIds();
+});
 afterAll(closeDb);
 
 it("exports a series as a zip whose manifest, checksums and JCAMP-DX files check out", async () => {
@@ -30,7 +32,11 @@ it("exports a series as a zip whose manifest, checksums and JCAMP-DX files check
   expect(manifest.target).toMatchObject({ type: "series", id: ids.sharedSeries.id });
   expect(manifest.spectra.length).toBeGreaterThan(2);
   // Every file but the manifest is listed, and every listed file is there with its sha256.
-  expect(Object.keys(files).filter((p) => p !== "manifest.json").sort()).toEqual(manifest.files.map((f) => f.path).sort());
+  expect(
+    Object.keys(files)
+      .filter((p) => p !== "manifest.json")
+      .sort(),
+  ).toEqual(manifest.files.map((f) => f.path).sort());
   for (const f of manifest.files) {
     const bytes = files[f.path]!;
     expect(createHash("sha256").update(bytes).digest("hex"), f.path).toBe(f.sha256);
@@ -42,7 +48,10 @@ it("exports a series as a zip whose manifest, checksums and JCAMP-DX files check
     expect(createHash("sha256").update(files[raw]!).digest("hex"), "raw file as it arrived").toBe(s.sha256);
     const jdx = s.files.find((p) => p.endsWith(".jdx"));
     const csv = s.files.find((p) => p.endsWith(".csv") && p.startsWith("processed/"));
-    if (!jdx || !csv) { expect(s.note).toMatch(/not processed/); continue; }
+    if (!jdx || !csv) {
+      expect(s.note).toMatch(/not processed/);
+      continue;
+    }
     const fromRaw = parseSpectrumFile(s.fileName, files[raw]!);
     const fromJdx = parseSpectrumFile("x.jdx", files[jdx]!);
     expect(fromJdx.x.length).toBe(fromRaw.x.length);

@@ -20,10 +20,14 @@ type Captured = { to: string[]; subject: string; raw: string };
 
 async function linkFor(email: string): Promise<string> {
   const base = process.env.MAIL_VIEW_URL ?? "http://127.0.0.1:25350";
-  const found = await waitFor(`the invitation mail to ${email}`, async () => {
-    const list = (await (await fetch(`${base}/messages`)).json()) as Captured[];
-    return list.find((m) => m.to.includes(email));
-  }, 15_000);
+  const found = await waitFor(
+    `the invitation mail to ${email}`,
+    async () => {
+      const list = (await (await fetch(`${base}/messages`)).json()) as Captured[];
+      return list.find((m) => m.to.includes(email));
+    },
+    15_000,
+  );
   const text = found.raw.replace(/=\r?\n/g, "").replace(/=3D/g, "=");
   const match = text.match(/\/invite\/([A-Za-z0-9_-]{20,100})/);
   if (!match) throw new Error(`no invitation link in:\n${text}`);
@@ -35,7 +39,14 @@ it("invites a collaborator by e-mail: one-time link, account, membership, share;
   const lab = await createLab("steward");
   const series = await createSeries(lab);
   const email = `guest-${uniq()}@partner.test`;
-  await sendInvitation({ groupId: lab.group.id, groupName: lab.group.name, email, role: "collaborator", invitedBy: { id: lab.user.id, name: lab.user.name }, share: { type: "series", id: series.id, label: series.name } });
+  await sendInvitation({
+    groupId: lab.group.id,
+    groupName: lab.group.name,
+    email,
+    role: "collaborator",
+    invitedBy: { id: lab.user.id, name: lab.user.name },
+    share: { type: "series", id: series.id, label: series.name },
+  });
   const token = await linkFor(email);
   const stored = await Invitation.findOne({ where: { email } });
   expect(stored!.tokenHash).not.toContain(token); // only the hash is stored
@@ -61,7 +72,13 @@ it("invites a collaborator by e-mail: one-time link, account, membership, share;
 it("refuses an expired or unknown invitation with a reason", async () => {
   const lab = await createLab("lead");
   const email = `late-${uniq()}@example.test`;
-  await sendInvitation({ groupId: lab.group.id, groupName: lab.group.name, email, role: "spectroscopist", invitedBy: { id: lab.user.id, name: lab.user.name } });
+  await sendInvitation({
+    groupId: lab.group.id,
+    groupName: lab.group.name,
+    email,
+    role: "spectroscopist",
+    invitedBy: { id: lab.user.id, name: lab.user.name },
+  });
   const token = await linkFor(email);
   await Invitation.update({ expiresAt: new Date(Date.now() - 1000) }, { where: { email } });
   await expect(usableInvitation(token)).rejects.toThrow(/expired/);

@@ -21,7 +21,9 @@ it("a sweep killed half way leaves rows and objects consistent after the next ru
   await RetentionPolicy.create({ projectId: lab.project.id, dataClass: "raw", keepDays: 10, onExpiry: "delete", createdBy: null });
 
   const child = spawn(process.execPath, ["--import", "tsx", "tests/integration/stewardship-sweep-child.ts", lab.project.id, "1500"], {
-    env: process.env, stdio: ["ignore", "pipe", "pipe"], detached: true,
+    env: process.env,
+    stdio: ["ignore", "pipe", "pipe"],
+    detached: true,
   });
   let out = "";
   child.stdout.on("data", (d) => (out += String(d)));

@@ -63,16 +63,23 @@ describe("share link for a series", () => {
   let token: string;
 
   it("is created by the group's steward; only the sha256 is stored; the creation is audited", async () => {
-    const link = await createShareLink(lab.actor, { targetType: "series", targetId: seriesA.id, expiresAt: new Date(Date.now() + 86_400_000) });
+    const link = await createShareLink(lab.actor, {
+      targetType: "series",
+      targetId: seriesA.id,
+      expiresAt: new Date(Date.now() + 86_400_000),
+    });
     token = link.token;
     expect(token).toMatch(/^[A-Za-z0-9_-]{43}$/);
     const row = await Share.findByPk(link.shareId);
     expect(row!.linkTokenHash).toBe(hashToken(token));
     expect(row!.granteeUserId).toBeNull();
-    const [stored] = await selectRows<{ everything: string }>("SELECT row_to_json(s)::text AS everything FROM shares s WHERE id = :id", { id: link.shareId });
+    const [stored] = await selectRows<{ everything: string }>("SELECT row_to_json(s)::text AS everything FROM shares s WHERE id = :id", {
+      id: link.shareId,
+    });
     expect(stored!.everything).not.toContain(token);
     const [event] = await selectRows<{ details: { prefix: string; shareId: string } }>(
-      "SELECT details FROM audit_events WHERE action = 'share-link-created' AND details->>'shareId' = :id", { id: link.shareId },
+      "SELECT details FROM audit_events WHERE action = 'share-link-created' AND details->>'shareId' = :id",
+      { id: link.shareId },
     );
     expect(event!.details.prefix).toBe(token.slice(0, 6));
     const listed = (await listShareLinks(lab.actor)).find((l) => l.id === link.shareId);
@@ -121,7 +128,9 @@ describe("share link for a series", () => {
     expect(await resolveShareLink(token)).toBeNull();
     await expectInvalidPage(token);
     await expectRawRefused(token, a1.id);
-    const events = await selectRows("SELECT 1 FROM audit_events WHERE action = 'share-link-revoked' AND details->>'shareId' = :shareId", { shareId });
+    const events = await selectRows("SELECT 1 FROM audit_events WHERE action = 'share-link-revoked' AND details->>'shareId' = :shareId", {
+      shareId,
+    });
     expect(events).toHaveLength(1);
     await expect(revokeShareLink(lab.actor, shareId)).rejects.toThrow(/already revoked/);
     expect((await listShareLinks(lab.actor)).find((l) => l.id === shareId)?.state).toBe("revoked");
@@ -129,7 +138,11 @@ describe("share link for a series", () => {
 });
 
 it("refuses an expired link at once (expires_at in the past)", async () => {
-  const link = await createShareLink(lab.actor, { targetType: "series", targetId: seriesA.id, expiresAt: new Date(Date.now() + 3_600_000) });
+  const link = await createShareLink(lab.actor, {
+    targetType: "series",
+    targetId: seriesA.id,
+    expiresAt: new Date(Date.now() + 3_600_000),
+  });
   expect((await get(`/shared/${link.token}/raw/${a2.id}`)).status).toBe(200);
   await Share.update({ expiresAt: new Date(Date.now() - 1000) }, { where: { id: link.shareId } });
   expect(await resolveShareLink(link.token)).toBeNull();
@@ -151,7 +164,8 @@ it("a project link shows its series and spectra (names and states) and serves on
   const page = await get(`/shared/${link.token}`);
   expect(page.status).toBe(200);
   const html = await page.text();
-  for (const text of [lab.project.name, seriesA.name, seriesB.name, a1.fileName, b1.fileName, "no expiry date"]) expect(html).toContain(text);
+  for (const text of [lab.project.name, seriesA.name, seriesB.name, a1.fileName, b1.fileName, "no expiry date"])
+    expect(html).toContain(text);
   expect(html).not.toContain(elsewhere.fileName);
   const raw = await get(`/shared/${link.token}/raw/${b1.id}`);
   expect(raw.status).toBe(200);
@@ -173,10 +187,13 @@ it("only a data steward of the owning group creates or revokes links; bad input 
   }
   const before = await Share.count({ where: { targetId: seriesA.id } });
   const link = await createShareLink(lab.actor, { targetType: "series", targetId: seriesA.id, expiresAt: null });
-  for (const actor of [spectroscopist.actor, outsider.actor]) await expect(revokeShareLink(actor, link.shareId)).rejects.toThrow(/Not found/);
+  for (const actor of [spectroscopist.actor, outsider.actor])
+    await expect(revokeShareLink(actor, link.shareId)).rejects.toThrow(/Not found/);
   expect(await resolveShareLink(link.token)).not.toBeNull();
   expect(await Share.count({ where: { targetId: seriesA.id } })).toBe(before + 1);
-  await expect(createShareLink(lab.actor, { targetType: "series", targetId: seriesA.id, expiresAt: new Date(Date.now() - 60_000) })).rejects.toThrow(/^expiresAt: /);
+  await expect(
+    createShareLink(lab.actor, { targetType: "series", targetId: seriesA.id, expiresAt: new Date(Date.now() - 60_000) }),
+  ).rejects.toThrow(/^expiresAt: /);
   await expect(createShareLink(lab.actor, { targetType: "series", targetId: "nope", expiresAt: null })).rejects.toThrow(/^shareTarget: /);
   await expect(revokeShareLink(lab.actor, "nope")).rejects.toThrow(/^id: /);
   await revokeShareLink(lab.actor, link.shareId);

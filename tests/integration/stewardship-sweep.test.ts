@@ -31,8 +31,24 @@ describe("retention sweep on the real database and storage", () => {
     const young = await storedSpectrum(lab, { ageDays: 10 });
     const run = await storedRun(old, 100);
     await RetentionPolicy.create({ projectId: lab.project.id, dataClass: "raw", keepDays: 30, onExpiry: "delete", createdBy: lab.user.id });
-    await LegalHold.create({ groupId: lab.group.id, targetType: "sample", targetId: sample.id, reason: "journal inquiry", placedBy: lab.user.id, liftedAt: null, liftedBy: null });
-    await LegalHold.create({ groupId: lab.group.id, targetType: "series", targetId: series.id, reason: "patent", placedBy: lab.user.id, liftedAt: null, liftedBy: null });
+    await LegalHold.create({
+      groupId: lab.group.id,
+      targetType: "sample",
+      targetId: sample.id,
+      reason: "journal inquiry",
+      placedBy: lab.user.id,
+      liftedAt: null,
+      liftedBy: null,
+    });
+    await LegalHold.create({
+      groupId: lab.group.id,
+      targetType: "series",
+      targetId: series.id,
+      reason: "patent",
+      placedBy: lab.user.id,
+      liftedAt: null,
+      liftedBy: null,
+    });
 
     const preview = await previewPolicy({ projectId: lab.project.id, dataClass: "raw", keepDays: 30, onExpiry: "delete" });
     expect(preview.toDelete.map((r) => r.id)).toEqual([old.id]);
@@ -48,7 +64,10 @@ describe("retention sweep on the real database and storage", () => {
     expect(tomb!.policyId).not.toBeNull();
     const runLeft = await selectRows("SELECT id FROM analysis_runs WHERE id = :id", { id: run.id });
     expect(runLeft).toHaveLength(0); // its analyses went with it
-    const events = await selectRows<{ action: string; details: { sha256: string } }>("SELECT action, details FROM audit_events WHERE target_id = :id", { id: old.id });
+    const events = await selectRows<{ action: string; details: { sha256: string } }>(
+      "SELECT action, details FROM audit_events WHERE target_id = :id",
+      { id: old.id },
+    );
     expect(events.map((e) => e.action)).toEqual(["deleted"]);
     expect(events[0]!.details.sha256).toBe(old.sha256);
     expect(await consistency([lab.project.id])).toEqual({ rowsWithoutObject: [], objectsWithoutRow: [], pending: 0 });
@@ -75,11 +94,21 @@ describe("retention sweep on the real database and storage", () => {
     const s = await storedSpectrum(lab, { ageDays: 400 });
     const oldRun = await storedRun(s, 200);
     const newRun = await storedRun(s, 1);
-    await RetentionPolicy.create({ projectId: lab.project.id, dataClass: "processed", keepDays: 90, onExpiry: "delete", createdBy: lab.user.id });
+    await RetentionPolicy.create({
+      projectId: lab.project.id,
+      dataClass: "processed",
+      keepDays: 90,
+      onExpiry: "delete",
+      createdBy: lab.user.id,
+    });
     await runSweep({ projectIds: [lab.project.id] });
     const left = await selectRows<{ id: string }>("SELECT id FROM analysis_runs WHERE spectrum_id = :id", { id: s.id });
     expect(left.map((r) => r.id)).toEqual([newRun.id]);
-    expect(await Tombstone.findOne({ where: { targetId: oldRun.id } })).toMatchObject({ state: "done", targetType: "analysis-run", dataClass: "processed" });
+    expect(await Tombstone.findOne({ where: { targetId: oldRun.id } })).toMatchObject({
+      state: "done",
+      targetType: "analysis-run",
+      dataClass: "processed",
+    });
     expect(await exists(s.id)).toBe(true);
   });
 
@@ -91,12 +120,22 @@ describe("retention sweep on the real database and storage", () => {
     await supernatant.update({ supernatantOfSpectrumId: point.id });
     const free = await storedSpectrum(lab, { ageDays: 100 });
     await RetentionPolicy.create({ projectId: lab.project.id, dataClass: "raw", keepDays: 30, onExpiry: "delete", createdBy: lab.user.id });
-    await LegalHold.create({ groupId: lab.group.id, targetType: "series", targetId: series.id, reason: "titration under review", placedBy: lab.user.id, liftedAt: null, liftedBy: null });
+    await LegalHold.create({
+      groupId: lab.group.id,
+      targetType: "series",
+      targetId: series.id,
+      reason: "titration under review",
+      placedBy: lab.user.id,
+      liftedAt: null,
+      liftedBy: null,
+    });
 
     const preview = await previewPolicy({ projectId: lab.project.id, dataClass: "raw", keepDays: 30, onExpiry: "delete" });
     expect(preview.toDelete.map((r) => r.id)).toEqual([free.id]);
     expect(preview.protectedItems.find((r) => r.id === supernatant.id)?.why).toContain("titration under review");
-    await expect(deleteSpectrum(supernatant.id, { cause: "owner", actorId: lab.user.id, actorLabel: lab.user.email })).rejects.toThrow(/titration under review/);
+    await expect(deleteSpectrum(supernatant.id, { cause: "owner", actorId: lab.user.id, actorLabel: lab.user.email })).rejects.toThrow(
+      /titration under review/,
+    );
     await runSweep({ projectIds: [lab.project.id] });
     expect(await exists(supernatant.id)).toBe(true);
     expect(await exists(free.id)).toBe(false);
@@ -110,10 +149,20 @@ describe("retention sweep on the real database and storage", () => {
   it("refuses a person's delete under hold, with the reason", async () => {
     const lab = await createLab("spectroscopist");
     const s = await storedSpectrum(lab);
-    await LegalHold.create({ groupId: lab.group.id, targetType: "project", targetId: lab.project.id, reason: "audit by the funder", placedBy: null, liftedAt: null, liftedBy: null });
+    await LegalHold.create({
+      groupId: lab.group.id,
+      targetType: "project",
+      targetId: lab.project.id,
+      reason: "audit by the funder",
+      placedBy: null,
+      liftedAt: null,
+      liftedBy: null,
+    });
     const attempt = deleteSpectrum(s.id, { cause: "owner", actorId: lab.user.id, actorLabel: lab.user.email });
     await expect(attempt).rejects.toBeInstanceOf(Refusal);
-    await expect(deleteSpectrum(s.id, { cause: "owner", actorId: lab.user.id, actorLabel: lab.user.email })).rejects.toThrow(/audit by the funder/);
+    await expect(deleteSpectrum(s.id, { cause: "owner", actorId: lab.user.id, actorLabel: lab.user.email })).rejects.toThrow(
+      /audit by the funder/,
+    );
     expect(await exists(s.id)).toBe(true);
   });
 
@@ -121,7 +170,16 @@ describe("retention sweep on the real database and storage", () => {
     await fc.assert(
       fc.asyncProperty(
         fc.record({
-          spectra: fc.array(fc.record({ age: fc.integer({ min: 0, max: 90 }), failed: fc.boolean(), refTo: fc.option(fc.nat(), { nil: null }), inSeries: fc.boolean(), withSample: fc.boolean() }), { minLength: 1, maxLength: 6 }),
+          spectra: fc.array(
+            fc.record({
+              age: fc.integer({ min: 0, max: 90 }),
+              failed: fc.boolean(),
+              refTo: fc.option(fc.nat(), { nil: null }),
+              inSeries: fc.boolean(),
+              withSample: fc.boolean(),
+            }),
+            { minLength: 1, maxLength: 6 },
+          ),
           rawDays: fc.option(fc.integer({ min: 1, max: 60 }), { nil: null }),
           draftDays: fc.option(fc.integer({ min: 1, max: 60 }), { nil: null }),
           hold: fc.constantFrom("none", "series", "sample", "first-spectrum"),
@@ -133,25 +191,63 @@ describe("retention sweep on the real database and storage", () => {
           const made: { s: Spectrum; age: number; failed: boolean }[] = [];
           for (const [i, x] of w.spectra.entries()) {
             const ref = x.refTo !== null && i > 0 ? made[x.refTo % i]!.s.id : null;
-            made.push({ s: await storedSpectrum(lab, { ageDays: x.age, failed: x.failed, ref, seriesId: x.inSeries ? series.id : null, sampleId: x.withSample ? sample.id : null }), age: x.age, failed: x.failed });
+            made.push({
+              s: await storedSpectrum(lab, {
+                ageDays: x.age,
+                failed: x.failed,
+                ref,
+                seriesId: x.inSeries ? series.id : null,
+                sampleId: x.withSample ? sample.id : null,
+              }),
+              age: x.age,
+              failed: x.failed,
+            });
           }
-          if (w.rawDays) await RetentionPolicy.create({ projectId: lab.project.id, dataClass: "raw", keepDays: w.rawDays, onExpiry: "delete", createdBy: null });
-          if (w.draftDays) await RetentionPolicy.create({ projectId: lab.project.id, dataClass: "drafts", keepDays: w.draftDays, onExpiry: "delete", createdBy: null });
-          const holdTarget = w.hold === "series" ? series.id : w.hold === "sample" ? sample.id : w.hold === "first-spectrum" ? made[0]!.s.id : null;
-          if (holdTarget) await LegalHold.create({ groupId: lab.group.id, targetType: w.hold === "first-spectrum" ? "spectrum" : (w.hold as "series" | "sample"), targetId: holdTarget, reason: "property test", placedBy: null, liftedAt: null, liftedBy: null });
+          if (w.rawDays)
+            await RetentionPolicy.create({
+              projectId: lab.project.id,
+              dataClass: "raw",
+              keepDays: w.rawDays,
+              onExpiry: "delete",
+              createdBy: null,
+            });
+          if (w.draftDays)
+            await RetentionPolicy.create({
+              projectId: lab.project.id,
+              dataClass: "drafts",
+              keepDays: w.draftDays,
+              onExpiry: "delete",
+              createdBy: null,
+            });
+          const holdTarget =
+            w.hold === "series" ? series.id : w.hold === "sample" ? sample.id : w.hold === "first-spectrum" ? made[0]!.s.id : null;
+          if (holdTarget)
+            await LegalHold.create({
+              groupId: lab.group.id,
+              targetType: w.hold === "first-spectrum" ? "spectrum" : (w.hold as "series" | "sample"),
+              targetId: holdTarget,
+              reason: "property test",
+              placedBy: null,
+              liftedAt: null,
+              liftedBy: null,
+            });
           await runSweep({ projectIds: [lab.project.id] });
 
           const kept = new Set<string>();
           for (const m of made) if (await exists(m.s.id)) kept.add(m.s.id);
           for (const m of made) {
             const s = m.s;
-            const held = (w.hold === "series" && s.seriesId) || (w.hold === "sample" && s.sampleId) || (w.hold === "first-spectrum" && s.id === made[0]!.s.id);
+            const held =
+              (w.hold === "series" && s.seriesId) ||
+              (w.hold === "sample" && s.sampleId) ||
+              (w.hold === "first-spectrum" && s.id === made[0]!.s.id);
             const days = m.failed ? w.draftDays : w.rawDays;
             const expired = days !== null && m.age >= days + 1; // ages are whole days back from now; a day of slack for the clock
             if (held) expect(kept.has(s.id), "held spectrum deleted").toBe(true);
             if (!expired && (days === null || m.age < days)) expect(kept.has(s.id), "unexpired spectrum deleted").toBe(true);
             // Nothing kept depends on something deleted.
-            if (kept.has(s.id) && s.referenceSpectrumId) expect(kept.has(s.referenceSpectrumId), "reference of a kept spectrum deleted").toBe(true);
+            if (kept.has(s.id) && s.referenceSpectrumId)
+              expect(kept.has(s.referenceSpectrumId), "reference of a kept spectrum deleted").toBe(true);
             // Expired, not held, and nothing kept depends on it: gone.
             const dependedOn = made.some((d) => d.s.referenceSpectrumId === s.id && kept.has(d.s.id));
             if (expired && !held && !dependedOn) expect(kept.has(s.id), "expired free spectrum kept").toBe(false);

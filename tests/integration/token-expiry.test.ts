@@ -20,7 +20,15 @@ describe("API token expiry", () => {
     models();
     const { user } = await createUser("expiry");
     const secret = `bk_${randomBytes(24).toString("base64url")}`;
-    await ApiToken.create({ userId: user.id, name: "short-lived", tokenHash: hashToken(secret), prefix: secret.slice(0, 7), lastUsedAt: null, revokedAt: null, expiresAt: new Date(Date.now() + 2500) });
+    await ApiToken.create({
+      userId: user.id,
+      name: "short-lived",
+      tokenHash: hashToken(secret),
+      prefix: secret.slice(0, 7),
+      lastUsedAt: null,
+      revokedAt: null,
+      expiresAt: new Date(Date.now() + 2500),
+    });
     expect((await projects(secret)).status).toBe(200);
     expect((await ApiToken.findOne({ where: { tokenHash: hashToken(secret) } }))!.lastUsedAt).not.toBeNull(); // "last used" is recorded
     await new Promise((r) => setTimeout(r, 3000));

@@ -42,6 +42,9 @@ describe("revoking an API token", () => {
 
     const after = await Promise.all(Array.from({ length: 24 }, () => statusOnNewConnection("/api/v1/projects", lab.token)));
     // 401 is "authentication required or failed" (RFC 9110 §15.5.2)
-    expect(after.filter((s) => s !== 401), "answers other than 401 after the revoke").toEqual([]);
+    expect(
+      after.filter((s) => s !== 401),
+      "answers other than 401 after the revoke",
+    ).toEqual([]);
   });
 });

@@ -53,7 +53,9 @@ describe("an upload of unbounded length", () => {
     expect(appProcesses.length).toBeGreaterThan(1); // serve.mjs's primary and its request handlers
 
     let peak = 0;
-    const sample = () => { for (const pid of appProcesses) peak = Math.max(peak, rssBytes(pid)); };
+    const sample = () => {
+      for (const pid of appProcesses) peak = Math.max(peak, rssBytes(pid));
+    };
     sample();
     const baseline = peak; // what the processes held before the attempt (grows over a long test run)
     const sampler = setInterval(sample, 25);
@@ -71,7 +73,11 @@ describe("an upload of unbounded length", () => {
       };
       const req = http.request(target, {
         method: "POST",
-        headers: { Authorization: `Bearer ${lab.token}`, "content-type": `multipart/form-data; boundary=${boundary}`, "transfer-encoding": "chunked" },
+        headers: {
+          Authorization: `Bearer ${lab.token}`,
+          "content-type": `multipart/form-data; boundary=${boundary}`,
+          "transfer-encoding": "chunked",
+        },
       });
       req.on("response", (res) => {
         res.resume();
@@ -80,13 +86,21 @@ describe("an upload of unbounded length", () => {
       });
       req.on("error", (e) => finish({ error: e.message }));
       const chunk = Buffer.alloc(1024 * 1024, 0x41);
-      const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="projectId"\r\n\r\n${lab.project.id}\r\n--${boundary}\r\nContent-Disposition: form-data; name="technique"\r\n\r\nabsorption\r\n--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="huge.csv"\r\nContent-Type: text/csv\r\n\r\n`);
+      const head = Buffer.from(
+        `--${boundary}\r\nContent-Disposition: form-data; name="projectId"\r\n\r\n${lab.project.id}\r\n--${boundary}\r\nContent-Disposition: form-data; name="technique"\r\n\r\nabsorption\r\n--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="huge.csv"\r\nContent-Type: text/csv\r\n\r\n`,
+      );
       const write = () => {
         if (settled) return;
-        if (sent === 0) { req.write(head); sent += head.length; }
+        if (sent === 0) {
+          req.write(head);
+          sent += head.length;
+        }
         while (sent < SENT_BYTES && !settled) {
           sent += chunk.length;
-          if (!req.write(chunk)) { req.once("drain", write); return; }
+          if (!req.write(chunk)) {
+            req.once("drain", write);
+            return;
+          }
         }
         if (!settled) req.end();
       };
@@ -95,7 +109,9 @@ describe("an upload of unbounded length", () => {
     clearInterval(sampler);
     sample();
 
-    console.info(`upload-memory: sent ${(outcome.sent / 2 ** 20).toFixed(0)} MiB, answer ${outcome.status ?? outcome.error}, peak app RSS ${(peak / 2 ** 20).toFixed(0)} MiB`);
+    console.info(
+      `upload-memory: sent ${(outcome.sent / 2 ** 20).toFixed(0)} MiB, answer ${outcome.status ?? outcome.error}, peak app RSS ${(peak / 2 ** 20).toFixed(0)} MiB`,
+    );
     // The app either answered 413 while we were still sending, or closed the connection.
     if (outcome.status !== undefined) expect(outcome.status).toBe(413);
     else expect(outcome.error).toMatch(/ECONNRESET|EPIPE|socket hang up/);
@@ -104,7 +120,10 @@ describe("an upload of unbounded length", () => {
     // Without the bound one process took 2.2 GB for this attempt; with it the attempt adds little to
     // what the process already held. Alone (npm test -- this file) the absolute peak is ~235 MiB;
     // after the whole suite the baseline itself nears 300 MB, so the growth (under 128 MiB) is what this checks.
-    expect(peak - baseline, `peak ${(peak / 2 ** 20).toFixed(0)} MiB over a baseline of ${(baseline / 2 ** 20).toFixed(0)} MiB`).toBeLessThan(GROWTH_LIMIT_BYTES);
+    expect(
+      peak - baseline,
+      `peak ${(peak / 2 ** 20).toFixed(0)} MiB over a baseline of ${(baseline / 2 ** 20).toFixed(0)} MiB`,
+    ).toBeLessThan(GROWTH_LIMIT_BYTES);
     if (baseline < PEAK_LIMIT_BYTES - GROWTH_LIMIT_BYTES) expect(peak).toBeLessThan(PEAK_LIMIT_BYTES);
     const stored = await selectRows<{ n: string }>("SELECT count(*) AS n FROM spectra WHERE project_id = :id", { id: lab.project.id });
     expect(Number(stored[0]!.n)).toBe(0);

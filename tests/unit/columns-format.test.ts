@@ -15,7 +15,15 @@ describe("columns format", () => {
       { name: "smoothed", type: "f32", values: withGap },
     ]);
     const { head, columns } = decodeColumns(bytes);
-    expect(head).toMatchObject({ points: 1001, runId: "r1", axis: "nm", columns: [{ name: "x", type: "f64" }, { name: "smoothed", type: "f32" }] });
+    expect(head).toMatchObject({
+      points: 1001,
+      runId: "r1",
+      axis: "nm",
+      columns: [
+        { name: "x", type: "f64" },
+        { name: "smoothed", type: "f32" },
+      ],
+    });
     expect(Array.from(columns.x!)).toEqual(Array.from(x));
     expect(Number.isNaN(columns.smoothed![10]!)).toBe(true);
     expect(Number.isNaN(columns.smoothed![11]!), "non-finite values travel as NaN").toBe(true);
@@ -27,7 +35,10 @@ describe("columns format", () => {
 
   it("aligns the columns on 8 bytes after a head of any length, and the size is what the layout says", () => {
     for (const pad of ["", "a", "abcdefg"]) {
-      const bytes = encodeColumns({ points: 3, note: pad }, [{ name: "x", type: "f64", values: [1, 2, 3] }, { name: "raw", type: "f32", values: [4, 5, 6] }]);
+      const bytes = encodeColumns({ points: 3, note: pad }, [
+        { name: "x", type: "f64", values: [1, 2, 3] },
+        { name: "raw", type: "f32", values: [4, 5, 6] },
+      ]);
       const headLength = new DataView(bytes.buffer).getUint32(4, true);
       const dataStart = Math.ceil((8 + headLength) / 8) * 8;
       expect(bytes.length).toBe(dataStart + 3 * 8 + 3 * 4);

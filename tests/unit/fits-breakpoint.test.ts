@@ -27,7 +27,10 @@ const Y = X.map((x, i) => 0.45 * Math.min(x, 1) + NOISE[i]!);
 describe("fitBreakpoint", () => {
   it("recovers an exact two-line model (analytic: y = 0.1 + 0.5·min(x, 1.25))", () => {
     const x = [0, 0.5, 1, 1.5, 2, 2.5];
-    const fit = fitBreakpoint(x, x.map((v) => 0.1 + 0.5 * Math.min(v, 1.25)));
+    const fit = fitBreakpoint(
+      x,
+      x.map((v) => 0.1 + 0.5 * Math.min(v, 1.25)),
+    );
     expect(fit.breakpoint).toBeCloseTo(1.25, 8);
     expect(fit.plateau).toBeCloseTo(0.725, 10);
     expect(fit.slope).toBeCloseTo(0.5, 10);

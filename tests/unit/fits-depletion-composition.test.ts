@@ -15,7 +15,8 @@ const EPS_PBS_400 = 0.0233 * 27 * 1e6; // Moreels 2009: ε₄₀₀ = 0.0233·d�
 // (rA = 1.2) and X at A's 550 nm (rX = 0.35): absorbances add (common practice).
 const addedA = 0.5;
 const feeds = [0.5, 1, 3, 4];
-const rA = 1.2, rX = 0.35;
+const rA = 1.2,
+  rX = 0.35;
 const truth = feeds.map((feed) => {
   const addedX = feed * addedA;
   const boundA = Math.min(addedA, addedX / 2);
@@ -50,34 +51,57 @@ describe("depletionComposition", () => {
 
   it("names the row, the dot or the field of every refusal", () => {
     const ok = { label: "Points, line 1", addedA: 0.5, addedX: 0.25, atA: 0.03, atX: 0.01 };
-    expect(() => depletionComposition([ok, { ...ok, label: "Points, line 2", addedX: 0 }], setup)).toThrow("Points, line 2: added X must be a positive number of µM");
+    expect(() => depletionComposition([ok, { ...ok, label: "Points, line 2", addedX: 0 }], setup)).toThrow(
+      "Points, line 2: added X must be a positive number of µM",
+    );
     expect(() => depletionComposition([ok], setup)).toThrow(/Points: need at least 2 points/);
-    expect(() => depletionComposition([ok, ok], { ...setup, dotA: { material: "CdSe", firstExcitonNm: -1 } })).toThrow(/^Dot A: first exciton must be/);
+    expect(() => depletionComposition([ok, ok], { ...setup, dotA: { material: "CdSe", firstExcitonNm: -1 } })).toThrow(
+      /^Dot A: first exciton must be/,
+    );
     expect(() => depletionComposition([ok, ok], { ...setup, pathLengthCm: 0 })).toThrow("Path length: give a positive number of cm");
-    expect(() => depletionComposition([ok, { ...ok, label: "sup-2.csv" }], { ...setup, overlap: { aAtXPerAtA: 1, xAtAPerAtX: 0.99 } })).toThrow(/^Points, line 1: the two dots absorb too alike/);
+    expect(() =>
+      depletionComposition([ok, { ...ok, label: "sup-2.csv" }], { ...setup, overlap: { aAtXPerAtA: 1, xAtAPerAtX: 0.99 } }),
+    ).toThrow(/^Points, line 1: the two dots absorb too alike/);
   });
 });
 
 describe("rows for the depletion panel", () => {
-  const reading = (fileName: string, atA: number | null, atX: number | null, error: string | null = null) =>
-    ({ spectrumId: fileName, fileName, atA, atX, pathLengthCm: 1, error });
+  const reading = (fileName: string, atA: number | null, atX: number | null, error: string | null = null) => ({
+    spectrumId: fileName,
+    fileName,
+    atA,
+    atX,
+    pathLengthCm: 1,
+    error,
+  });
   const readings: SupernatantReadings = {
-    seriesId: "s", wavelengthsNm: { a: 550, x: 400 }, reading: "measured",
+    seriesId: "s",
+    wavelengthsNm: { a: 550, x: 400 },
+    reading: "measured",
     points: [
       { spectrumId: "p0", fileName: "p0.csv", seriesValue: 0, supernatant: reading("s0.csv", 0.05, 0.06) },
       { spectrumId: "p1", fileName: "p1.csv", seriesValue: 1, supernatant: reading("s1.csv", 0.03, 0.04) },
       { spectrumId: "p2", fileName: "p2.csv", seriesValue: 2, supernatant: null },
       { spectrumId: "p3", fileName: "p3.csv", seriesValue: null, supernatant: reading("s3.csv", 0.01, 0.2) },
-      { spectrumId: "p4", fileName: "p4.csv", seriesValue: 4, supernatant: reading("s4.csv", null, null, "s4.csv: 400 nm is outside the recorded range 450–750 nm") },
+      {
+        spectrumId: "p4",
+        fileName: "p4.csv",
+        seriesValue: 4,
+        supernatant: reading("s4.csv", null, null, "s4.csv: 400 nm is outside the recorded range 450–750 nm"),
+      },
     ],
-    pureA: null, pureX: null,
+    pureA: null,
+    pureX: null,
   };
 
   it("takes added X from the series value as a feed ratio or as a concentration, naming each file it cannot use", () => {
     const ratio = rowsFromReadings(readings, "feed-ratio", 0.5, "PbS per CdSe");
     expect(ratio.rows).toEqual([{ label: "s1.csv", addedA: 0.5, addedX: 0.5, atA: 0.03, atX: 0.04, pathLengthCm: 1 }]);
     expect(ratio.notes).toEqual(["s0.csv left out: nothing of dot X was added at PbS per CdSe 0"]);
-    expect(ratio.errors).toEqual(["s3.csv: its point p3.csv has no value of PbS per CdSe", "s4.csv: 400 nm is outside the recorded range 450–750 nm"]);
+    expect(ratio.errors).toEqual([
+      "s3.csv: its point p3.csv has no value of PbS per CdSe",
+      "s4.csv: 400 nm is outside the recorded range 450–750 nm",
+    ]);
     expect(rowsFromReadings(readings, "added-x", 0.5, "PbS").rows[0]!.addedX).toBe(1);
   });
 
@@ -95,6 +119,8 @@ describe("rows for the depletion panel", () => {
     expect(typed.rows.map((r) => r.label)).toEqual(["Points, line 1", "Points, line 3"]);
     expect(typed.rows[1]!.pathLengthCm).toBe(0.5);
     expect(typed.errors[0]).toMatch(/^Points, line 4: give four numbers/);
-    expect(parseTypedRows(formatTypedRows(typed.rows)).rows.map(({ label: _label, ...r }) => r)).toEqual(typed.rows.map(({ label: _label, ...r }) => r));
+    expect(parseTypedRows(formatTypedRows(typed.rows)).rows.map(({ label: _label, ...r }) => r)).toEqual(
+      typed.rows.map(({ label: _label, ...r }) => r),
+    );
   });
 });

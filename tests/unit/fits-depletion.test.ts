@@ -9,13 +9,13 @@ const epsA = SIZING_CURVES["cdse-yu2003"].size(577).extinctionPerMPerCm; // Yu 2
 const epsX = SIZING_CURVES["pbs-moreels2009"].size(1200).extinctionPerMPerCm; // Moreels 2009, ε at 400 nm
 const l = 1;
 function supernatant(addedA: number, addedX: number, bound: number) {
-  return { addedA, addedX, absorbanceA: ((addedA - bound) * 1e-6) * epsA * l, absorbanceX: ((addedX - bound) * 1e-6) * epsX * l };
+  return { addedA, addedX, absorbanceA: (addedA - bound) * 1e-6 * epsA * l, absorbanceX: (addedX - bound) * 1e-6 * epsX * l };
 }
 
 describe("boundRatioFromDepletion", () => {
   it("finds the 1:1 composition constant while the feed ratio changes four-fold (DOMAIN.md §6)", () => {
-    const points = [supernatant(1, 0.5, 0.5), supernatant(1, 1, 0.9), supernatant(1, 2, 1)].map((p, i) =>
-      i === 1 ? { ...p, absorbanceX: 0.1e-6 * epsX } : p, // 0.9 bound of each: X left 0.1 µM
+    const points = [supernatant(1, 0.5, 0.5), supernatant(1, 1, 0.9), supernatant(1, 2, 1)].map(
+      (p, i) => (i === 1 ? { ...p, absorbanceX: 0.1e-6 * epsX } : p), // 0.9 bound of each: X left 0.1 µM
     );
     const r = boundRatioFromDepletion(points, { epsilonA: epsA, epsilonX: epsX, pathLengthCm: l });
     expect(r.rows.map((x) => x.boundRatio)).toEqual([expect.closeTo(1, 10), expect.closeTo(1, 10), expect.closeTo(1, 10)]);
@@ -36,9 +36,19 @@ describe("boundRatioFromDepletion", () => {
   });
 
   it("refuses bad input with messages naming the field", () => {
-    expect(() => boundRatioFromDepletion([supernatant(1, 1, 0.5)], { epsilonA: epsA, epsilonX: epsX, pathLengthCm: 1 })).toThrow(/at least 2 points/);
-    expect(() => boundRatioFromDepletion([supernatant(1, 1, 0.5), { ...supernatant(1, 1, 0.5), addedA: 0 }], { epsilonA: epsA, epsilonX: epsX, pathLengthCm: 1 })).toThrow("points[1].addedA must be positive");
-    expect(() => boundRatioFromDepletion([supernatant(1, 1, 0.5), supernatant(1, 1, 0.5)], { epsilonA: 0, epsilonX: epsX, pathLengthCm: 1 })).toThrow(/extinction must be positive/);
+    expect(() => boundRatioFromDepletion([supernatant(1, 1, 0.5)], { epsilonA: epsA, epsilonX: epsX, pathLengthCm: 1 })).toThrow(
+      /at least 2 points/,
+    );
+    expect(() =>
+      boundRatioFromDepletion([supernatant(1, 1, 0.5), { ...supernatant(1, 1, 0.5), addedA: 0 }], {
+        epsilonA: epsA,
+        epsilonX: epsX,
+        pathLengthCm: 1,
+      }),
+    ).toThrow("points[1].addedA must be positive");
+    expect(() =>
+      boundRatioFromDepletion([supernatant(1, 1, 0.5), supernatant(1, 1, 0.5)], { epsilonA: 0, epsilonX: epsX, pathLengthCm: 1 }),
+    ).toThrow(/extinction must be positive/);
   });
 });
 
@@ -52,6 +62,8 @@ describe("boundRatioFromDepletion with a path length per point", () => {
       expect(r.leftA).toBeCloseTo(a.rows[i]!.leftA, 12);
       expect(r.leftX).toBeCloseTo(a.rows[i]!.leftX, 12);
     });
-    expect(() => boundRatioFromDepletion([points[0]!, { ...points[1]!, pathLengthCm: 0 }], { epsilonA: epsA, epsilonX: epsX, pathLengthCm: 1 })).toThrow("points[1].pathLengthCm must be positive");
+    expect(() =>
+      boundRatioFromDepletion([points[0]!, { ...points[1]!, pathLengthCm: 0 }], { epsilonA: epsA, epsilonX: epsX, pathLengthCm: 1 }),
+    ).toThrow("points[1].pathLengthCm must be positive");
   });
 });

@@ -21,7 +21,9 @@ describe("separateTwoAbsorbances", () => {
   });
 
   it("refuses overlaps too alike to tell apart, and bad inputs, naming them", () => {
-    expect(() => separateTwoAbsorbances(0.3, 0.3, { aAtXPerAtA: 1, xAtAPerAtX: 0.95 })).toThrow(/too alike .*1 − rA·rX = 0\.050, needs ≥ 0\.1/);
+    expect(() => separateTwoAbsorbances(0.3, 0.3, { aAtXPerAtA: 1, xAtAPerAtX: 0.95 })).toThrow(
+      /too alike .*1 − rA·rX = 0\.050, needs ≥ 0\.1/,
+    );
     expect(() => separateTwoAbsorbances(0.3, 0.3, { aAtXPerAtA: -0.1 })).toThrow("aAtXPerAtA must be a finite number ≥ 0");
     expect(() => separateTwoAbsorbances(Number.NaN, 0.3)).toThrow("absorbance at A's wavelength is not a finite number");
   });

@@ -14,7 +14,11 @@ print(json.dumps({"slope": r.slope, "intercept": r.intercept, "stderr": r.stderr
 `;
 function linregress(c: number[], q: number[]) {
   return JSON.parse(execFileSync("python3", ["-c", LINREGRESS], { input: JSON.stringify({ c, q }) }).toString()) as {
-    slope: number; intercept: number; stderr: number; intercept_stderr: number; r2: number;
+    slope: number;
+    intercept: number;
+    stderr: number;
+    intercept_stderr: number;
+    r2: number;
   };
 }
 

@@ -32,7 +32,11 @@ function sourceFiles(dir: string): string[] {
 }
 
 function folderGraph(): Map<string, Map<string, string>> {
-  const config = ts.getParsedCommandLineOfConfigFile(path.join(ROOT, "tsconfig.json"), {}, { ...ts.sys, onUnRecoverableConfigFileDiagnostic: () => {} })!;
+  const config = ts.getParsedCommandLineOfConfigFile(
+    path.join(ROOT, "tsconfig.json"),
+    {},
+    { ...ts.sys, onUnRecoverableConfigFileDiagnostic: () => {} },
+  )!;
   const host = ts.createCompilerHost(config.options);
   const graph = new Map<string, Map<string, string>>();
   for (const file of TOP.flatMap((t) => sourceFiles(path.join(ROOT, t)))) {
@@ -87,7 +91,12 @@ function cycles(graph: Map<string, Map<string, string>>): string[][] {
 
 describe("imports between folders", () => {
   it("finds a cycle when there is one (the check itself)", () => {
-    const g = new Map([["a", new Map([["b", "a → b"]])], ["b", new Map([["c", "b → c"]])], ["c", new Map([["a", "c → a"]])], ["d", new Map([["a", "d → a"]])]]);
+    const g = new Map([
+      ["a", new Map([["b", "a → b"]])],
+      ["b", new Map([["c", "b → c"]])],
+      ["c", new Map([["a", "c → a"]])],
+      ["d", new Map([["a", "d → a"]])],
+    ]);
     expect(cycles(g)).toEqual([["a", "b", "c"]]);
   });
 
@@ -95,7 +104,9 @@ describe("imports between folders", () => {
     const graph = folderGraph();
     const found = cycles(graph).map((component) => {
       const inside = new Set(component);
-      const arrows = component.flatMap((from) => [...(graph.get(from) ?? [])].filter(([to]) => inside.has(to)).map(([, example]) => `  ${example}`));
+      const arrows = component.flatMap((from) =>
+        [...(graph.get(from) ?? [])].filter(([to]) => inside.has(to)).map(([, example]) => `  ${example}`),
+      );
       return `${component.join(" ⇄ ")}\n${arrows.join("\n")}`;
     });
     expect(found, found.join("\n\n")).toEqual([]);

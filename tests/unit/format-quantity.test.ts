@@ -1,6 +1,15 @@
 import { describe, expect, it } from "vitest";
 import {
-  MINUS, countOf, formatFlagMagnitude, formatFlagUncertainty, formatQuantity, formatUncertainty, formatWithUncertainty, perUnit, pluralOf, reciprocalUnit,
+  MINUS,
+  countOf,
+  formatFlagMagnitude,
+  formatFlagUncertainty,
+  formatQuantity,
+  formatUncertainty,
+  formatWithUncertainty,
+  perUnit,
+  pluralOf,
+  reciprocalUnit,
 } from "@/lib/format/quantity";
 
 // Sources: the minus sign is U+2212 MINUS SIGN (Unicode Standard, "Mathematical Operators" block;
@@ -49,7 +58,9 @@ describe("formatFlagMagnitude", () => {
   });
 
   it("shows a concentration ratio as a plain number with its uncertainty", () => {
-    expect(formatFlagMagnitude({ kind: "concentration", magnitude: 0.7, unit: "ratio", uncertainty: 0.01 }, { withUncertainty: true })).toBe("0.70 ± 0.01");
+    expect(
+      formatFlagMagnitude({ kind: "concentration", magnitude: 0.7, unit: "ratio", uncertainty: 0.01 }, { withUncertainty: true }),
+    ).toBe("0.70 ± 0.01");
   });
 
   it("uses the stored unit when it differs from the kind's usual one", () => {

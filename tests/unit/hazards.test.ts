@@ -56,7 +56,8 @@ describe("hazard cautions", () => {
       expect(s.source, s.code).toMatch(/from memory/);
       expect(s.statements.length, s.code).toBeGreaterThan(0);
       for (const c of s.statements) expect(HAZARD_STATEMENTS[c], `${s.code} ${c}`).toBeTruthy();
-      for (const f of hazardsOf({ material: "", ligand: s.label, solvent: s.label }).filter((f) => f.code === s.code)) expect(f.source).toBe(s.source);
+      for (const f of hazardsOf({ material: "", ligand: s.label, solvent: s.label }).filter((f) => f.code === s.code))
+        expect(f.source).toBe(s.source);
     }
     expect(new Set(SUBSTANCES.map((s) => s.code)).size).toBe(SUBSTANCES.length);
   });

@@ -14,17 +14,31 @@ function issue(input: Record<string, unknown>) {
 
 describe("ingest metadata schema", () => {
   it("accepts form strings, coerces numbers and drops blanks", () => {
-    const r = ingestMetadataSchema.parse({ projectId, technique: "pl", excitationNm: "405", pathLengthCm: "", solvent: "  toluene ", seriesId: projectId, seriesValue: "0.25" });
+    const r = ingestMetadataSchema.parse({
+      projectId,
+      technique: "pl",
+      excitationNm: "405",
+      pathLengthCm: "",
+      solvent: "  toluene ",
+      seriesId: projectId,
+      seriesValue: "0.25",
+    });
     expect(r).toEqual({ projectId, technique: "pl", excitationNm: 405, solvent: "toluene", seriesId: projectId, seriesValue: 0.25 });
   });
 
   it("names the field of every refusal", () => {
     expect(issue({ technique: "absorption" })?.field).toBe("projectId");
-    expect(issue({ projectId, technique: "raman" })).toEqual({ field: "technique", message: "technique must be one of absorption, pl, ir" });
+    expect(issue({ projectId, technique: "raman" })).toEqual({
+      field: "technique",
+      message: "technique must be one of absorption, pl, ir",
+    });
     expect(issue({ projectId, technique: "pl", pathLengthCm: "abc" })?.field).toBe("pathLengthCm");
     expect(issue({ projectId, technique: "pl", pathLengthCm: "0" })?.message).toMatch(/above 0/);
     expect(issue({ projectId, technique: "pl", excitationNm: "Infinity" })?.field).toBe("excitationNm");
-    expect(issue({ projectId, technique: "pl", seriesValue: "3" })).toEqual({ field: "seriesValue", message: "seriesValue needs a seriesId" });
+    expect(issue({ projectId, technique: "pl", seriesValue: "3" })).toEqual({
+      field: "seriesValue",
+      message: "seriesValue needs a seriesId",
+    });
     expect(issue({ projectId, technique: "pl", sampleId: "12" })?.message).toBe("sampleId must be an id (UUID)");
   });
 
@@ -37,7 +51,9 @@ describe("ingest metadata schema", () => {
 
 describe("analysis parameters", () => {
   it("canonical JSON sorts keys at every depth and drops undefined members", () => {
-    expect(canonicalJson({ b: 1, a: { d: [1, { y: 2, x: undefined, w: null }], c: "s" } })).toBe('{"a":{"c":"s","d":[1,{"w":null,"y":2}]},"b":1}');
+    expect(canonicalJson({ b: 1, a: { d: [1, { y: 2, x: undefined, w: null }], c: "s" } })).toBe(
+      '{"a":{"c":"s","d":[1,{"w":null,"y":2}]},"b":1}',
+    );
     expect(() => canonicalJson({ a: Number.NaN })).toThrow(RangeError);
   });
 
@@ -53,7 +69,12 @@ describe("analysis parameters", () => {
   it("merges re-analysis changes: absent keeps, null clears, thresholds merge", () => {
     const base = { technique: "absorption" as const, material: "CdSe" as const, pathLengthCm: 1, thresholds: { minSignificance: 5 } };
     const changes = reanalysisSchema.parse({ material: null, smoothingWindow: 11, thresholds: { minShiftMeV: 2 } });
-    expect(mergeParameters(base, changes)).toEqual({ technique: "absorption", pathLengthCm: 1, smoothingWindow: 11, thresholds: { minShiftMeV: 2, minSignificance: 5 } });
+    expect(mergeParameters(base, changes)).toEqual({
+      technique: "absorption",
+      pathLengthCm: 1,
+      smoothingWindow: 11,
+      thresholds: { minShiftMeV: 2, minSignificance: 5 },
+    });
     expect(reanalysisSchema.safeParse({ smoothingWindow: 10 }).error?.issues[0].message).toBe("smoothingWindow must be odd");
     expect(reanalysisSchema.safeParse({ smoothingWindw: 11 }).success).toBe(false);
   });

@@ -4,7 +4,13 @@ import { expandZip, looksLikeZip } from "@/lib/ingest/expandZip";
 import type { IngestLimits } from "@/lib/ingest/limits";
 import { Refusal } from "@/lib/errors";
 
-const limits: IngestLimits = { maxFileBytes: 1024 * 1024, maxZipEntries: 10, maxZipTotalBytes: 2 * 1024 * 1024, maxZipRatio: 50, maxFilesPerRequest: 100 };
+const limits: IngestLimits = {
+  maxFileBytes: 1024 * 1024,
+  maxZipEntries: 10,
+  maxZipTotalBytes: 2 * 1024 * 1024,
+  maxZipRatio: 50,
+  maxFilesPerRequest: 100,
+};
 
 function refusal(fn: () => unknown): Refusal {
   try {
@@ -18,7 +24,12 @@ function refusal(fn: () => unknown): Refusal {
 
 describe("expandZip", () => {
   it("expands entries with their folder paths, skipping folders and hidden files", () => {
-    const zip = zipSync({ "run1/a.csv": strToU8("1,2\n"), "run1/b.csv": strToU8("3,4\n"), ".DS_Store": strToU8("x"), "__MACOSX/run1/._a.csv": strToU8("x") });
+    const zip = zipSync({
+      "run1/a.csv": strToU8("1,2\n"),
+      "run1/b.csv": strToU8("3,4\n"),
+      ".DS_Store": strToU8("x"),
+      "__MACOSX/run1/._a.csv": strToU8("x"),
+    });
     const entries = expandZip("exports.zip", zip, limits);
     expect(entries.map((e) => e.fileName).sort()).toEqual(["run1/a.csv", "run1/b.csv"]);
     expect(new TextDecoder().decode(entries.find((e) => e.fileName === "run1/b.csv")!.bytes)).toBe("3,4\n");
@@ -40,7 +51,9 @@ describe("expandZip", () => {
 
   it("refuses an entry larger than the per-file limit and a zip over the total", () => {
     const big = new Uint8Array(limits.maxFileBytes + 10).map((_, i) => (i * 2654435761) >>> 24);
-    expect(refusal(() => expandZip("big.zip", zipSync({ "big.csv": big }, { level: 0 }), limits)).message).toMatch(/^big\.zip: entry big\.csv expands to/);
+    expect(refusal(() => expandZip("big.zip", zipSync({ "big.csv": big }, { level: 0 }), limits)).message).toMatch(
+      /^big\.zip: entry big\.csv expands to/,
+    );
     const part = new Uint8Array(900_000).map((_, i) => (i * 2654435761) >>> 24);
     const total = zipSync({ "a.csv": part, "b.csv": part, "c.csv": part }, { level: 0 });
     expect(refusal(() => expandZip("total.zip", total, limits)).message).toMatch(/^total\.zip: expands to more than 2 MiB in total/);
@@ -66,7 +79,7 @@ describe("expandZip", () => {
   });
 
   it("recognises zips by signature or name", () => {
-    expect(looksLikeZip("x.bin", zipSync({ "a": strToU8("1") }))).toBe(true);
+    expect(looksLikeZip("x.bin", zipSync({ a: strToU8("1") }))).toBe(true);
     expect(looksLikeZip("x.ZIP", strToU8("no"))).toBe(true);
     expect(looksLikeZip("x.csv", strToU8("1,2"))).toBe(false);
   });

@@ -4,7 +4,11 @@ import { navFor } from "@/lib/navigation";
 import type { Role } from "@/models/Membership";
 
 const actorWith = (...roles: Role[]): Actor => ({
-  id: "u", email: "u@example.test", name: "U", isSiteAdmin: false, via: "session",
+  id: "u",
+  email: "u@example.test",
+  name: "U",
+  isSiteAdmin: false,
+  via: "session",
   memberships: roles.map((role, i) => ({ groupId: `g${i}`, groupName: `G${i}`, groupSlug: `g${i}`, role })),
 });
 

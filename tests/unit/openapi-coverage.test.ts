@@ -10,9 +10,15 @@ function routes(dir: string, root: string): { path: string; methods: string[] }[
     const full = join(dir, name);
     if (statSync(full).isDirectory()) return routes(full, root);
     if (name !== "route.ts") return [];
-    const path = "/api/v1/" + relative(root, dir).replace(/\\/g, "/").replace(/\[([^\]]+)\]/g, "{$1}");
+    const path =
+      "/api/v1/" +
+      relative(root, dir)
+        .replace(/\\/g, "/")
+        .replace(/\[([^\]]+)\]/g, "{$1}");
     const source = readFileSync(full, "utf8");
-    const methods = ["GET", "POST", "PUT", "PATCH", "DELETE"].filter((m) => new RegExp(`export (const|async function) ${m}\\b`).test(source));
+    const methods = ["GET", "POST", "PUT", "PATCH", "DELETE"].filter((m) =>
+      new RegExp(`export (const|async function) ${m}\\b`).test(source),
+    );
     return [{ path: path.replace(/\/$/, ""), methods }];
   });
 }
@@ -32,7 +38,9 @@ describe("OpenAPI document", () => {
   });
 
   it("has unique operation ids", () => {
-    const ids = Object.values(doc.paths as Record<string, Record<string, { operationId?: string }>>).flatMap((item) => Object.values(item).map((op) => op.operationId));
+    const ids = Object.values(doc.paths as Record<string, Record<string, { operationId?: string }>>).flatMap((item) =>
+      Object.values(item).map((op) => op.operationId),
+    );
     expect(new Set(ids).size).toBe(ids.length);
   });
 });

@@ -11,11 +11,24 @@ const e550 = HC / 550; // 2.2543 eV
 const e600 = HC / 600; // 2.0664 eV
 
 const candidate = (over: Partial<ParentCandidate>): ParentCandidate => ({
-  id: over.id ?? "c", fileName: `${over.id ?? "c"}.csv`, technique: "absorption", sampleId: null, sampleName: null, material: "CdSe",
-  createdAt: "2026-11-01T00:00:00.000Z", firstExcitonEv: e550, fwhmMeV: 90, rangeEv: [1.65, 3.1], ...over,
+  id: over.id ?? "c",
+  fileName: `${over.id ?? "c"}.csv`,
+  technique: "absorption",
+  sampleId: null,
+  sampleName: null,
+  material: "CdSe",
+  createdAt: "2026-11-01T00:00:00.000Z",
+  firstExcitonEv: e550,
+  fwhmMeV: 90,
+  rangeEv: [1.65, 3.1],
+  ...over,
 });
 const target = (over: Partial<ParentTarget> = {}): ParentTarget => ({
-  technique: "absorption", sample: { id: "s", name: "Batch 7 reduced", material: "CdSe", parentIds: ["p"] }, side: null, spectrumId: "self", ...over,
+  technique: "absorption",
+  sample: { id: "s", name: "Batch 7 reduced", material: "CdSe", parentIds: ["p"] },
+  side: null,
+  spectrumId: "self",
+  ...over,
 });
 
 describe("parent picker order", () => {
@@ -35,7 +48,9 @@ describe("parent picker order", () => {
   });
 
   it("never offers another technique, another material or the spectrum itself", () => {
-    const ids = Object.values(orderParentChoices(list, target())).flat().map((c) => c.id);
+    const ids = Object.values(orderParentChoices(list, target()))
+      .flat()
+      .map((c) => c.id);
     for (const id of ["pl-of-parent", "pbs", "self"]) expect(ids).not.toContain(id);
   });
 

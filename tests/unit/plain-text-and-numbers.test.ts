@@ -11,7 +11,14 @@ const spectrumId = projectId;
 // ECMAScript's Number() reads hexadecimal, binary, octal and "Infinity" (ECMA-262,
 // StringToNumber); a form field holds a decimal measurement or nothing.
 describe("parseDecimal", () => {
-  it.each([["1", 1], ["0.5", 0.5], [" 2,5 ", 2.5], [".25", 0.25], ["-3e2", -300], ["1E-3", 0.001]])("reads %j", (text, value) => {
+  it.each([
+    ["1", 1],
+    ["0.5", 0.5],
+    [" 2,5 ", 2.5],
+    [".25", 0.25],
+    ["-3e2", -300],
+    ["1E-3", 0.001],
+  ])("reads %j", (text, value) => {
     expect(parseDecimal(text)).toBe(value);
   });
   it.each(["0x10", "0b11", "0o7", "Infinity", "", "1.2.3", "1,2,3", "12abc", "NaN"])("refuses %j", (text) => {
@@ -30,7 +37,8 @@ describe("names", () => {
   it("refuse text-direction characters beside markup and controls", () => {
     expect(isPlainText("toluene")).toBe(true);
     expect(isPlainText("Ölsäure (oleic acid)")).toBe(true);
-    for (const c of ["\u202e", "\u202d", "\u2066", "\u2067", "\u2068", "\u2069", "\u200f", "\u061c"]) expect(isPlainText(`a${c}b`)).toBe(false);
+    for (const c of ["\u202e", "\u202d", "\u2066", "\u2067", "\u2068", "\u2069", "\u200f", "\u061c"])
+      expect(isPlainText(`a${c}b`)).toBe(false);
     expect(fileNameProblem("invoice\u202Efdp.csv")).toMatch(/text-direction/);
     expect(fileNameProblem("run 3/sample-a.csv")).toBeNull();
   });

@@ -73,9 +73,9 @@ describe("a fake flag kind and a fake technique added to the registries", () => 
     const { ingestMetadataSchema } = await import("@/lib/ingest/metadata");
     const upload = ingestMetadataSchema.safeParse({ projectId: "6c1f3a4e-9a59-4a8e-8a3c-0d3c4a1b2c3d", technique: "fake" });
     expect(upload.error?.issues.filter((i) => i.path[0] === "technique") ?? []).toEqual([]);
-    expect(ingestMetadataSchema.safeParse({ projectId: "6c1f3a4e-9a59-4a8e-8a3c-0d3c4a1b2c3d", technique: "raman" }).error?.issues[0]?.message).toBe(
-      "technique must be one of absorption, pl, ir, fake",
-    );
+    expect(
+      ingestMetadataSchema.safeParse({ projectId: "6c1f3a4e-9a59-4a8e-8a3c-0d3c4a1b2c3d", technique: "raman" }).error?.issues[0]?.message,
+    ).toBe("technique must be one of absorption, pl, ir, fake");
 
     const { reanalysisSchema, THRESHOLD_NAMES } = await import("@/lib/ingest/parameters");
     expect(THRESHOLD_NAMES).toContain("minFakeGrowthMeV");
@@ -102,7 +102,13 @@ describe("a fake flag kind and a fake technique added to the registries", () => 
     expect(FLAG_COLOURS["fake-kind" as keyof typeof FLAG_COLOURS]).toBe("#123456");
 
     const { THRESHOLD_FIELDS, rerunFormSchema } = await import("@/lib/spectrum-view/rerunSchema");
-    expect(THRESHOLD_FIELDS.find((f) => (f.name as string) === "minFakeGrowthMeV")).toEqual({ name: "minFakeGrowthMeV", label: "Least fake growth (meV)", hint: "default 7", min: 0, max: 50 });
+    expect(THRESHOLD_FIELDS.find((f) => (f.name as string) === "minFakeGrowthMeV")).toEqual({
+      name: "minFakeGrowthMeV",
+      label: "Least fake growth (meV)",
+      hint: "default 7",
+      min: 0,
+      max: 50,
+    });
     const form = rerunFormSchema.safeParse({ spectrumId: "6c1f3a4e-9a59-4a8e-8a3c-0d3c4a1b2c3d", minFakeGrowthMeV: "60" });
     expect(form.success).toBe(false);
     expect(form.error?.issues.map((i) => i.message)).toContain("Least fake growth (meV) must be at most 50");
@@ -121,6 +127,8 @@ describe("a fake flag kind and a fake technique added to the registries", () => 
     const { REGISTRY_COLUMNS, inCheck } = await import("@/lib/registry/sqlChecks");
     expect(REGISTRY_COLUMNS.signatureKind.values).toContain("fake-kind");
     expect(REGISTRY_COLUMNS.spectrumTechnique.values).toContain("fake");
-    expect(inCheck(REGISTRY_COLUMNS.signatureKind, REGISTRY_COLUMNS.signatureKind.values)).toMatch(/^CHECK \(kind IN \('bleach', .*'fake-kind'\)\)$/);
+    expect(inCheck(REGISTRY_COLUMNS.signatureKind, REGISTRY_COLUMNS.signatureKind.values)).toMatch(
+      /^CHECK \(kind IN \('bleach', .*'fake-kind'\)\)$/,
+    );
   });
 });

@@ -23,24 +23,40 @@ function refusal(changes: unknown): string | null {
 
 describe("normalisation in the re-analysis schema", () => {
   it("accepts each mode with the members it needs", () => {
-    expect(reanalysisSchema.parse({ normalization: { mode: "wavelength", wavelengthNm: 450 } }).normalization).toEqual({ mode: "wavelength", wavelengthNm: 450 });
-    expect(reanalysisSchema.parse({ normalization: { mode: "concentration", sampleConcentration: 0.6, referenceConcentration: 1 } }).normalization)
-      .toEqual({ mode: "concentration", sampleConcentration: 0.6, referenceConcentration: 1 });
+    expect(reanalysisSchema.parse({ normalization: { mode: "wavelength", wavelengthNm: 450 } }).normalization).toEqual({
+      mode: "wavelength",
+      wavelengthNm: 450,
+    });
+    expect(
+      reanalysisSchema.parse({ normalization: { mode: "concentration", sampleConcentration: 0.6, referenceConcentration: 1 } })
+        .normalization,
+    ).toEqual({ mode: "concentration", sampleConcentration: 0.6, referenceConcentration: 1 });
     expect(reanalysisSchema.parse({ normalization: { mode: "none" } }).normalization).toEqual({ mode: "none" });
     expect(reanalysisSchema.parse({ normalization: null }).normalization).toBeNull();
   });
 
   it("names the field of every refusal", () => {
     const { min, max } = NORMALIZATION_WAVELENGTH_NM;
-    expect(refusal({ normalization: { mode: "wavelength", wavelengthNm: min - 1 } })).toBe(`normalization.wavelengthNm: must lie between ${min} and ${max} nm`);
-    expect(refusal({ normalization: { mode: "wavelength", wavelengthNm: max + 1 } })).toBe(`normalization.wavelengthNm: must lie between ${min} and ${max} nm`);
+    expect(refusal({ normalization: { mode: "wavelength", wavelengthNm: min - 1 } })).toBe(
+      `normalization.wavelengthNm: must lie between ${min} and ${max} nm`,
+    );
+    expect(refusal({ normalization: { mode: "wavelength", wavelengthNm: max + 1 } })).toBe(
+      `normalization.wavelengthNm: must lie between ${min} and ${max} nm`,
+    );
     expect(refusal({ normalization: { mode: "wavelength" } })).toBe("normalization.wavelengthNm: is required for mode wavelength");
     expect(refusal({ normalization: { mode: "wavelength", wavelengthNm: "450" } })).toBe("normalization.wavelengthNm: must be a number");
-    expect(refusal({ normalization: { mode: "concentration", sampleConcentration: 0, referenceConcentration: 1 } })).toBe("normalization.sampleConcentration: must be positive");
-    expect(refusal({ normalization: { mode: "concentration", sampleConcentration: 1, referenceConcentration: -2 } })).toBe("normalization.referenceConcentration: must be positive");
-    expect(refusal({ normalization: { mode: "concentration", sampleConcentration: 1 } })).toBe("normalization.referenceConcentration: is required for mode concentration");
-    expect(refusal({ normalization: { mode: "concentration", sampleConcentration: 1, referenceConcentration: 1001 } }))
-      .toBe("normalization.referenceConcentration: the two concentrations must lie within a factor of 1000 of each other");
+    expect(refusal({ normalization: { mode: "concentration", sampleConcentration: 0, referenceConcentration: 1 } })).toBe(
+      "normalization.sampleConcentration: must be positive",
+    );
+    expect(refusal({ normalization: { mode: "concentration", sampleConcentration: 1, referenceConcentration: -2 } })).toBe(
+      "normalization.referenceConcentration: must be positive",
+    );
+    expect(refusal({ normalization: { mode: "concentration", sampleConcentration: 1 } })).toBe(
+      "normalization.referenceConcentration: is required for mode concentration",
+    );
+    expect(refusal({ normalization: { mode: "concentration", sampleConcentration: 1, referenceConcentration: 1001 } })).toBe(
+      "normalization.referenceConcentration: the two concentrations must lie within a factor of 1000 of each other",
+    );
     expect(refusal({ normalization: { mode: "area" } })).toBe("normalization.mode: must be one of auto, none, wavelength, concentration");
     expect(refusal({ normalization: "concentration" })).toBe("normalization: must be an object with a mode, or null");
     expect(refusal({ normalization: { mode: "none", wavelengthNm: 450 } })).toMatch(/^normalization: Unrecognized key/);
@@ -62,24 +78,42 @@ describe("normalisation in the stored parameters and their hash", () => {
   it("replaces the whole normalisation, keeps it when absent, clears it with null or mode auto, keeps an explicit none", () => {
     const withConcentration = mergeParameters(base, reanalysisSchema.parse({ normalization: byConcentration }));
     expect(withConcentration).toEqual({ ...base, normalization: byConcentration });
-    const atWavelength = mergeParameters(withConcentration, reanalysisSchema.parse({ normalization: { mode: "wavelength", wavelengthNm: 450 } }));
+    const atWavelength = mergeParameters(
+      withConcentration,
+      reanalysisSchema.parse({ normalization: { mode: "wavelength", wavelengthNm: 450 } }),
+    );
     expect(atWavelength.normalization).toEqual({ mode: "wavelength", wavelengthNm: 450 });
-    expect(mergeParameters(atWavelength, reanalysisSchema.parse({ smoothingWindow: 21 })).normalization).toEqual({ mode: "wavelength", wavelengthNm: 450 });
+    expect(mergeParameters(atWavelength, reanalysisSchema.parse({ smoothingWindow: 21 })).normalization).toEqual({
+      mode: "wavelength",
+      wavelengthNm: 450,
+    });
     expect(mergeParameters(atWavelength, reanalysisSchema.parse({ normalization: null }))).toEqual(base);
     expect(mergeParameters(atWavelength, reanalysisSchema.parse({ normalization: { mode: "auto" } }))).toEqual(base);
     // engine 2 defaults to auto: "none" must stay stored so the run is re-run unscaled
-    expect(mergeParameters(atWavelength, reanalysisSchema.parse({ normalization: { mode: "none" } }))).toEqual({ ...base, normalization: { mode: "none" } });
+    expect(mergeParameters(atWavelength, reanalysisSchema.parse({ normalization: { mode: "none" } }))).toEqual({
+      ...base,
+      normalization: { mode: "none" },
+    });
   });
 
   it("a different normalisation is a new run; the same one, however written, is the same run", () => {
     const plain = parameterHash(base, referenceId);
     const concentration = parameterHash(mergeParameters(base, reanalysisSchema.parse({ normalization: byConcentration })), referenceId);
     const reordered = parameterHash(
-      mergeParameters(base, reanalysisSchema.parse({ normalization: { referenceConcentration: 1, mode: "concentration", sampleConcentration: 0.6 } })),
+      mergeParameters(
+        base,
+        reanalysisSchema.parse({ normalization: { referenceConcentration: 1, mode: "concentration", sampleConcentration: 0.6 } }),
+      ),
       referenceId,
     );
-    const otherRatio = parameterHash(mergeParameters(base, reanalysisSchema.parse({ normalization: { ...byConcentration, sampleConcentration: 0.5 } })), referenceId);
-    const wavelength = parameterHash(mergeParameters(base, reanalysisSchema.parse({ normalization: { mode: "wavelength", wavelengthNm: 450 } })), referenceId);
+    const otherRatio = parameterHash(
+      mergeParameters(base, reanalysisSchema.parse({ normalization: { ...byConcentration, sampleConcentration: 0.5 } })),
+      referenceId,
+    );
+    const wavelength = parameterHash(
+      mergeParameters(base, reanalysisSchema.parse({ normalization: { mode: "wavelength", wavelengthNm: 450 } })),
+      referenceId,
+    );
     const none = parameterHash(mergeParameters(base, reanalysisSchema.parse({ normalization: { mode: "none" } })), referenceId);
     const auto = parameterHash(mergeParameters(base, reanalysisSchema.parse({ normalization: { mode: "auto" } })), referenceId);
     expect(reordered).toBe(concentration);
@@ -93,9 +127,13 @@ describe("the re-run form's normalisation fields", () => {
 
   it("turns a chosen mode and its fields into the API's change", () => {
     const concentration = form({ normalizationMode: "concentration", sampleConcentration: "0,6", referenceConcentration: " 1 " });
-    expect(concentration.success && toReanalysisChanges(concentration.data)).toEqual({ normalization: { mode: "concentration", sampleConcentration: 0.6, referenceConcentration: 1 } });
+    expect(concentration.success && toReanalysisChanges(concentration.data)).toEqual({
+      normalization: { mode: "concentration", sampleConcentration: 0.6, referenceConcentration: 1 },
+    });
     const wavelength = form({ normalizationMode: "wavelength", normalizationWavelengthNm: "450" });
-    expect(wavelength.success && toReanalysisChanges(wavelength.data)).toEqual({ normalization: { mode: "wavelength", wavelengthNm: 450 } });
+    expect(wavelength.success && toReanalysisChanges(wavelength.data)).toEqual({
+      normalization: { mode: "wavelength", wavelengthNm: 450 },
+    });
     const none = form({ normalizationMode: "none" });
     expect(none.success && toReanalysisChanges(none.data)).toEqual({ normalization: { mode: "none" } });
     const auto = form({ normalizationMode: "auto" });
@@ -109,9 +147,15 @@ describe("the re-run form's normalisation fields", () => {
       const r = form(fields);
       return r.success ? {} : fieldErrorsOf(r.error);
     };
-    expect(errorsOf({ normalizationMode: "wavelength" })).toEqual({ normalizationWavelengthNm: ["Enter the wavelength to scale the sample to its reference at"] });
-    expect(errorsOf({ normalizationMode: "wavelength", normalizationWavelengthNm: "40" })).toEqual({ normalizationWavelengthNm: ["Wavelength must lie between 100 and 25000 nm"] });
-    expect(errorsOf({ normalizationMode: "wavelength", normalizationWavelengthNm: "blue" })).toEqual({ normalizationWavelengthNm: ["Wavelength must be a number"] });
+    expect(errorsOf({ normalizationMode: "wavelength" })).toEqual({
+      normalizationWavelengthNm: ["Enter the wavelength to scale the sample to its reference at"],
+    });
+    expect(errorsOf({ normalizationMode: "wavelength", normalizationWavelengthNm: "40" })).toEqual({
+      normalizationWavelengthNm: ["Wavelength must lie between 100 and 25000 nm"],
+    });
+    expect(errorsOf({ normalizationMode: "wavelength", normalizationWavelengthNm: "blue" })).toEqual({
+      normalizationWavelengthNm: ["Wavelength must be a number"],
+    });
     expect(errorsOf({ normalizationMode: "concentration", sampleConcentration: "-1" })).toEqual({
       sampleConcentration: ["Sample concentration must be positive"],
       referenceConcentration: ["Enter the reference concentration"],
@@ -119,7 +163,9 @@ describe("the re-run form's normalisation fields", () => {
     expect(errorsOf({ normalizationMode: "concentration", sampleConcentration: "1", referenceConcentration: "2000" })).toEqual({
       referenceConcentration: ["The two concentrations must lie within a factor of 1000 of each other"],
     });
-    expect(errorsOf({ normalizationMode: "area" })).toEqual({ normalizationMode: ["Normalisation must be automatic, none, at a wavelength or by concentration"] });
+    expect(errorsOf({ normalizationMode: "area" })).toEqual({
+      normalizationMode: ["Normalisation must be automatic, none, at a wavelength or by concentration"],
+    });
   });
 
   it("accepts a normalisation exactly when the API schema does", () => {
@@ -136,7 +182,11 @@ describe("the re-run form's normalisation fields", () => {
         const parsedForm = form(fields);
         const api = parsedForm.success ? reanalysisSchema.safeParse(toReanalysisChanges(parsedForm.data)).success : false;
         const direct = normalizationSchema.safeParse(
-          mode === "none" ? { mode } : mode === "wavelength" ? { mode, wavelengthNm: nm } : { mode, sampleConcentration: sample, referenceConcentration: reference },
+          mode === "none"
+            ? { mode }
+            : mode === "wavelength"
+              ? { mode, wavelengthNm: nm }
+              : { mode, sampleConcentration: sample, referenceConcentration: reference },
         ).success;
         expect(parsedForm.success).toBe(direct);
         expect(api).toBe(direct);
@@ -145,11 +195,18 @@ describe("the re-run form's normalisation fields", () => {
   });
 
   it("shows the API's refusals beside the form's fields, without the API field name", () => {
-    expect(formFieldOf("normalization.wavelengthNm", "normalization.wavelengthNm: must lie between 100 and 25000 nm"))
-      .toEqual({ field: "normalizationWavelengthNm", message: "Wavelength must lie between 100 and 25000 nm" });
-    expect(formFieldOf("normalization", "normalization: needs a parent reference spectrum, and the run would have none"))
-      .toEqual({ field: "normalizationMode", message: "Normalisation needs a parent reference spectrum, and the run would have none" });
-    expect(formFieldOf("thresholds.minShiftMeV", "thresholds.minShiftMeV: minShiftMeV must be positive")).toEqual({ field: "minShiftMeV", message: "thresholds.minShiftMeV: minShiftMeV must be positive" });
+    expect(formFieldOf("normalization.wavelengthNm", "normalization.wavelengthNm: must lie between 100 and 25000 nm")).toEqual({
+      field: "normalizationWavelengthNm",
+      message: "Wavelength must lie between 100 and 25000 nm",
+    });
+    expect(formFieldOf("normalization", "normalization: needs a parent reference spectrum, and the run would have none")).toEqual({
+      field: "normalizationMode",
+      message: "Normalisation needs a parent reference spectrum, and the run would have none",
+    });
+    expect(formFieldOf("thresholds.minShiftMeV", "thresholds.minShiftMeV: minShiftMeV must be positive")).toEqual({
+      field: "minShiftMeV",
+      message: "thresholds.minShiftMeV: minShiftMeV must be positive",
+    });
     expect(formFieldOf(undefined, "x")).toEqual({ field: undefined, message: "x" });
   });
 });

@@ -44,10 +44,18 @@ describe("keyset cursor", () => {
 describe("search query string", () => {
   it("is the same for the same search whatever the order or blanks of the URL", () => {
     const a = spectrumSearchSchema.parse({ bandMax: "590", band: "first-exciton", bandMin: "570", q: "", technique: "absorption" });
-    const b = spectrumSearchSchema.parse({ technique: "absorption", band: "first-exciton", bandMin: "570", bandMax: "590", bandUnit: "nm" });
+    const b = spectrumSearchSchema.parse({
+      technique: "absorption",
+      band: "first-exciton",
+      bandMin: "570",
+      bandMax: "590",
+      bandUnit: "nm",
+    });
     expect(searchQueryString(a)).toBe(searchQueryString(b));
     expect(searchQueryString(a)).toBe("technique=absorption&band=first-exciton&bandMin=570&bandMax=590");
-    expect(searchQueryString(spectrumSearchSchema.parse({ band: "band", bandMin: "2900", bandMax: "2950", bandUnit: "cm-1" }))).toContain("bandUnit=cm-1");
+    expect(searchQueryString(spectrumSearchSchema.parse({ band: "band", bandMin: "2900", bandMax: "2950", bandUnit: "cm-1" }))).toContain(
+      "bandUnit=cm-1",
+    );
   });
 
   it("takes % _ and \\ in text literally in ILIKE patterns", () => {

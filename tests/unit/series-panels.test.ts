@@ -44,7 +44,14 @@ describe("panels by technique (TECHNIQUE_SPECS[t].seriesPlot)", () => {
   it("an absorption series draws the bleach with its two-line fit and no Stern–Volmer panel", () => {
     // Bleach rising 40 % per equivalent to a plateau at 1 equivalent (a made-up titration).
     const eq = [0, 0.25, 0.5, 0.75, 1, 1.25, 1.5];
-    const rows = eq.map((v) => ({ value: v, technique: "absorption", bleachFraction: 0.4 * Math.min(v, 1), quenchFraction: null, shiftMeV: null, newBandArea: null }));
+    const rows = eq.map((v) => ({
+      value: v,
+      technique: "absorption",
+      bleachFraction: 0.4 * Math.min(v, 1),
+      quenchFraction: null,
+      shiftMeV: null,
+      newBandArea: null,
+    }));
     const panels = seriesPanels("absorption", rows, analyseSeries(rows));
     expect(panels.map((p) => p.key)).toEqual(["bleach"]);
     expect(panels[0]!.title).toBe("Bleach of the first exciton");

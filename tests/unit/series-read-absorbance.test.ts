@@ -30,9 +30,22 @@ describe("readAbsorbanceAt", () => {
   });
 
   it("reads a parsed instrument-style export at its recorded lines (the file's own numbers)", () => {
-    const text = supernatantCsv({ cdse: { firstExcitonEv: HC / 550, atNm: 550, absorbance: 0.04 }, pbs: { firstExcitonEv: 1.3, atNm: 400, absorbance: 0.2 }, noise: 0 }, "probe");
+    const text = supernatantCsv(
+      {
+        cdse: { firstExcitonEv: HC / 550, atNm: 550, absorbance: 0.04 },
+        pbs: { firstExcitonEv: 1.3, atNm: 400, absorbance: 0.2 },
+        noise: 0,
+      },
+      "probe",
+    );
     const parsed = parseSpectrumFile("probe.csv", new TextEncoder().encode(text));
-    const line = (n: string) => Number(text.split("\r\n").find((l) => l.startsWith(`${n},`))!.split(",")[1]);
+    const line = (n: string) =>
+      Number(
+        text
+          .split("\r\n")
+          .find((l) => l.startsWith(`${n},`))!
+          .split(",")[1],
+      );
     expect(readAbsorbanceAt(parsed, 550)).toBe(line("550.0"));
     expect(readAbsorbanceAt(parsed, 400)).toBe(line("400.0"));
   });

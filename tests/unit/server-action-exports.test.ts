@@ -22,11 +22,13 @@ function sourceFiles(dir: string): string[] {
 }
 
 const root = process.cwd();
-const useServerModules = ["app", "lib", "components"].flatMap((d) => sourceFiles(join(root, d))).filter((file) => {
-  const source = ts.createSourceFile(file, readFileSync(file, "utf8"), ts.ScriptTarget.Latest, true);
-  const first = source.statements[0];
-  return first && ts.isExpressionStatement(first) && ts.isStringLiteral(first.expression) && first.expression.text === "use server";
-});
+const useServerModules = ["app", "lib", "components"]
+  .flatMap((d) => sourceFiles(join(root, d)))
+  .filter((file) => {
+    const source = ts.createSourceFile(file, readFileSync(file, "utf8"), ts.ScriptTarget.Latest, true);
+    const first = source.statements[0];
+    return first && ts.isExpressionStatement(first) && ts.isStringLiteral(first.expression) && first.expression.text === "use server";
+  });
 
 type ExportKind = "protectedAction" | "function" | "other";
 function exportsOf(file: string): { name: string; kind: ExportKind }[] {
@@ -34,7 +36,8 @@ function exportsOf(file: string): { name: string; kind: ExportKind }[] {
   const out: { name: string; kind: ExportKind }[] = [];
   for (const statement of source.statements) {
     const exported = ts.canHaveModifiers(statement) && ts.getModifiers(statement)?.some((m) => m.kind === ts.SyntaxKind.ExportKeyword);
-    if (ts.isExportDeclaration(statement) || ts.isExportAssignment(statement)) out.push({ name: statement.getText().slice(0, 60), kind: "other" });
+    if (ts.isExportDeclaration(statement) || ts.isExportAssignment(statement))
+      out.push({ name: statement.getText().slice(0, 60), kind: "other" });
     if (!exported) continue;
     if (ts.isFunctionDeclaration(statement)) out.push({ name: statement.name?.text ?? "default", kind: "function" });
     else if (ts.isVariableStatement(statement)) {
@@ -43,7 +46,8 @@ function exportsOf(file: string): { name: string; kind: ExportKind }[] {
         const isWrapped = init && ts.isCallExpression(init) && init.expression.getText() === "protectedAction";
         out.push({ name: d.name.getText(), kind: isWrapped ? "protectedAction" : "other" });
       }
-    } else if (!ts.isTypeAliasDeclaration(statement) && !ts.isInterfaceDeclaration(statement)) out.push({ name: statement.getText().slice(0, 60), kind: "other" });
+    } else if (!ts.isTypeAliasDeclaration(statement) && !ts.isInterfaceDeclaration(statement))
+      out.push({ name: statement.getText().slice(0, 60), kind: "other" });
   }
   return out;
 }

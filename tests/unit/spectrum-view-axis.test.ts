@@ -12,7 +12,8 @@ import { PARENT_BANDS, absorbanceSpectrum, plSpectrum } from "../engine/syntheti
 const HC = 1239.841984;
 const CM1_PER_EV = 8065.54394;
 
-const uniformEnergy = (from: number, to: number, n: number) => Float64Array.from({ length: n }, (_, i) => from + ((to - from) * i) / (n - 1));
+const uniformEnergy = (from: number, to: number, n: number) =>
+  Float64Array.from({ length: n }, (_, i) => from + ((to - from) * i) / (n - 1));
 const trapz = (x: ArrayLike<number>, y: ArrayLike<number>) => {
   let s = 0;
   for (let i = 1; i < x.length; i++) s += 0.5 * (y[i]! + y[i - 1]!) * (x[i]! - x[i - 1]!);
@@ -51,7 +52,7 @@ describe("toDisplayAxis", () => {
   it("turns I(E) back into I(λ) with I(λ) = I(E)·E²/hc, the inverse of DOMAIN.md's I(E) = I(λ)·λ²/hc", () => {
     // I(λ): a Gaussian in wavelength, known in closed form; I(E) from the DOMAIN.md formula.
     const iLambda = (nm: number) => 1000 * Math.exp(-0.5 * ((nm - 560) / 18) ** 2);
-    const iE = e.map((ev) => iLambda(HC / ev) * (HC / ev) ** 2 / HC);
+    const iE = e.map((ev) => (iLambda(HC / ev) * (HC / ev) ** 2) / HC);
     const d = toDisplayAxis(e, { pl: iE }, "nm", { emission: true });
     for (let i = 0; i < d.x.length; i += 50) expect(d.series.pl![i]).toBeCloseTo(iLambda(d.x[i]!), 9);
     // the integrated emission is preserved (DOMAIN.md §4), to the trapezoid rule's accuracy
@@ -61,7 +62,7 @@ describe("toDisplayAxis", () => {
 
   it("gives I(ν̃) = I(λ)·λ²/10⁷ on the wavenumber axis (same Jacobian, ν̃ = 10⁷/λ)", () => {
     const iLambda = (nm: number) => 50 + nm / 10;
-    const iE = e.map((ev) => iLambda(HC / ev) * (HC / ev) ** 2 / HC);
+    const iE = e.map((ev) => (iLambda(HC / ev) * (HC / ev) ** 2) / HC);
     const d = toDisplayAxis(e, { pl: iE }, "cm-1", { emission: true });
     for (let i = 0; i < d.x.length; i += 100) {
       const nm = 1e7 / d.x[i]!;
@@ -82,7 +83,12 @@ describe("toDisplayAxis", () => {
 describe("deriveViewArrays re-derives the curves the engine measured", () => {
   it("absorption with a parent: smoothed curve passes through every reported peak height; difference = smoothed − reference", () => {
     const parent = absorbanceSpectrum({ bands: PARENT_BANDS, noise: 0.0015, seed: 7 });
-    const sample = absorbanceSpectrum({ bands: PARENT_BANDS.map((b, i) => (i === 0 ? { ...b, a: b.a * 0.6 } : b)), noise: 0.0015, seed: 8, newBand: { e: 1.9, sigma: 0.05, a: 0.06 } });
+    const sample = absorbanceSpectrum({
+      bands: PARENT_BANDS.map((b, i) => (i === 0 ? { ...b, a: b.a * 0.6 } : b)),
+      noise: 0.0015,
+      seed: 8,
+      newBand: { e: 1.9, sigma: 0.05, a: 0.06 },
+    });
     const report = analyzeSpectrum(sample, { reference: parent });
     expect(report.flags.some((f) => f.kind === "bleach")).toBe(true);
     const v = deriveViewArrays(report, sample, parent);

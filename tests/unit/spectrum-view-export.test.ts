@@ -22,7 +22,14 @@ function bandOnGrid(n: number) {
 describe("writeJcamp on the viewer's display arrays", () => {
   const { e, a } = bandOnGrid(1201);
   const d = toDisplayAxis(e, { a }, "cm-1", { emission: false }); // a uniform energy grid is a uniform wavenumber grid
-  const text = writeJcamp({ title: "cdse test (smoothed)", dataType: "UV/VIS SPECTRUM", xUnits: "1/CM", yUnits: "ABSORBANCE", x: d.x, y: d.series.a! });
+  const text = writeJcamp({
+    title: "cdse test (smoothed)",
+    dataType: "UV/VIS SPECTRUM",
+    xUnits: "1/CM",
+    yUnits: "ABSORBANCE",
+    x: d.x,
+    y: d.series.a!,
+  });
   const yFactor = Number(/##YFACTOR=(.*)/.exec(text)![1]);
 
   it("writes the required labels in the order the standard gives and ends with ##END=", () => {
@@ -30,7 +37,8 @@ describe("writeJcamp on the viewer's display arrays", () => {
     expect(lines[0]).toBe("##TITLE=cdse test (smoothed)");
     expect(lines[1]).toBe("##JCAMP-DX=4.24");
     expect(lines[2]).toBe("##DATA TYPE=UV/VIS SPECTRUM");
-    for (const label of ["##XUNITS=1/CM", "##YUNITS=ABSORBANCE", "##XFACTOR=1", "##NPOINTS=1201", "##XYDATA=(X++(Y..Y))"]) expect(lines).toContain(label);
+    for (const label of ["##XUNITS=1/CM", "##YUNITS=ABSORBANCE", "##XFACTOR=1", "##NPOINTS=1201", "##XYDATA=(X++(Y..Y))"])
+      expect(lines).toContain(label);
     expect(lines.filter(Boolean).at(-1)).toBe("##END=");
     expect(Math.max(...lines.map((l) => l.length))).toBeLessThanOrEqual(80); // 80-character lines (McDonald & Wilks)
     expect(Number(/##FIRSTX=(.*)/.exec(text)![1])).toBe(d.x[0]);
@@ -61,10 +69,19 @@ describe("writeJcamp on the viewer's display arrays", () => {
 
   it("writes X that is not equally spaced as X,Y pairs, and refuses a value that is not finite, naming it", () => {
     const nm = toDisplayAxis(e, { a }, "nm", { emission: false }); // uniform in energy = not uniform in wavelength
-    const pairs = writeJcamp({ title: "t", dataType: "UV/VIS SPECTRUM", xUnits: "NANOMETERS", yUnits: "ABSORBANCE", x: nm.x, y: nm.series.a! });
+    const pairs = writeJcamp({
+      title: "t",
+      dataType: "UV/VIS SPECTRUM",
+      xUnits: "NANOMETERS",
+      yUnits: "ABSORBANCE",
+      x: nm.x,
+      y: nm.series.a!,
+    });
     expect(pairs).toContain("##PEAK TABLE=(XY..XY)");
     expect(pairs).not.toContain("##XYDATA");
-    expect(() => writeJcamp({ title: "t", dataType: "x", xUnits: "1/CM", yUnits: "A", x: [1, 2], y: [1, Number.NaN] })).toThrow(new RangeError("y[1] is not a finite number"));
+    expect(() => writeJcamp({ title: "t", dataType: "x", xUnits: "1/CM", yUnits: "A", x: [1, 2], y: [1, Number.NaN] })).toThrow(
+      new RangeError("y[1] is not a finite number"),
+    );
   });
 
   it("on the wavelength axis, resampleLinear gives equal steps that both readers accept, exact for a linear curve", () => {
@@ -86,7 +103,7 @@ describe("writeCsv", () => {
     const ref = a.map((v) => v * 1.1);
     const d = toDisplayAxis(e, { raw: a, smoothed: a, reference: ref, difference: null }, "nm", { emission: false });
     const csv = writeCsv(d, {
-      metadata: { spectrum: "cdse, batch \"7\".csv", technique: "absorption" },
+      metadata: { spectrum: 'cdse, batch "7".csv', technique: "absorption" },
       columnNames: { raw: "absorbance measured", smoothed: "absorbance smoothed", reference: "absorbance reference" },
     });
     expect(csv.split("\r\n")[0]).toBe('spectrum,"cdse, batch ""7"".csv"'); // RFC 4180 quoting
@@ -103,7 +120,10 @@ describe("writeCsv", () => {
 
   it("names the axis in the X header so the energy and wavenumber exports read back in their units", () => {
     const { e, a } = bandOnGrid(64);
-    for (const [axis, unit] of [["ev", "eV"], ["cm-1", "cm-1"]] as const) {
+    for (const [axis, unit] of [
+      ["ev", "eV"],
+      ["cm-1", "cm-1"],
+    ] as const) {
       const csv = writeCsv(toDisplayAxis(e, { a }, axis, { emission: false }), { columnNames: { a: "absorbance" } });
       expect(parseSpectrumFile(`e.csv`, enc(csv)).xUnit).toBe(unit);
     }

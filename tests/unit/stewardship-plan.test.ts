@@ -13,11 +13,31 @@ const daysAgo = (d: number) => new Date(NOW.getTime() - d * DAY_MS);
 
 function spectrum(id: string, over: Partial<RetainedItem> = {}): RetainedItem {
   return {
-    kind: "spectrum", id, dataClass: "raw", projectId: "P", spectrumId: id, seriesId: null, sampleId: null, referenceSpectrumId: null,
-    createdAt: daysAgo(100), sizeBytes: 10, label: id, busy: false, keptByDecision: false, flagged: false, ...over,
+    kind: "spectrum",
+    id,
+    dataClass: "raw",
+    projectId: "P",
+    spectrumId: id,
+    seriesId: null,
+    sampleId: null,
+    referenceSpectrumId: null,
+    createdAt: daysAgo(100),
+    sizeBytes: 10,
+    label: id,
+    busy: false,
+    keptByDecision: false,
+    flagged: false,
+    ...over,
   };
 }
-const policy = (over: Partial<PolicyRule> = {}): PolicyRule => ({ id: "pol", projectId: "P", dataClass: "raw", keepDays: 30, onExpiry: "delete", ...over });
+const policy = (over: Partial<PolicyRule> = {}): PolicyRule => ({
+  id: "pol",
+  projectId: "P",
+  dataClass: "raw",
+  keepDays: 30,
+  onExpiry: "delete",
+  ...over,
+});
 
 describe("expiryOf", () => {
   it("adds whole days to the creation time", () => {
@@ -31,7 +51,12 @@ describe("expiryOf", () => {
 
 describe("holdOn", () => {
   const item = spectrum("s1", { seriesId: "ser", sampleId: "smp" });
-  it.each([["project", "P"], ["series", "ser"], ["sample", "smp"], ["spectrum", "s1"]] as const)("a hold on the %s covers the spectrum", (t, id) => {
+  it.each([
+    ["project", "P"],
+    ["series", "ser"],
+    ["sample", "smp"],
+    ["spectrum", "s1"],
+  ] as const)("a hold on the %s covers the spectrum", (t, id) => {
     expect(holdOn(item, [{ id: "h", targetType: t, targetId: id, reason: "r" }])?.id).toBe("h");
   });
   it("a hold elsewhere does not", () => {
@@ -50,18 +75,36 @@ describe("planSweep on hand-made cases", () => {
     expect(planSweep([spectrum("edge", { createdAt: new Date(daysAgo(30).getTime() + 1) })], [policy()], [], NOW).toDelete).toHaveLength(0);
   });
   it("keeps held items and says why", () => {
-    const plan = planSweep([spectrum("s", { sampleId: "smp" })], [policy()], [{ id: "h", targetType: "sample", targetId: "smp", reason: "patent filing" }], NOW);
+    const plan = planSweep(
+      [spectrum("s", { sampleId: "smp" })],
+      [policy()],
+      [{ id: "h", targetType: "sample", targetId: "smp", reason: "patent filing" }],
+      NOW,
+    );
     expect(plan.toDelete).toEqual([]);
     expect(describeProtection(plan.protectedItems[0]!.protection)).toBe("Under legal hold (sample): patent filing");
   });
   it("keeps a reference spectrum while a kept spectrum depends on it, including transitively", () => {
-    const items = [spectrum("ref"), spectrum("mid", { referenceSpectrumId: "ref" }), spectrum("leaf", { referenceSpectrumId: "mid", createdAt: daysAgo(1) })];
+    const items = [
+      spectrum("ref"),
+      spectrum("mid", { referenceSpectrumId: "ref" }),
+      spectrum("leaf", { referenceSpectrumId: "mid", createdAt: daysAgo(1) }),
+    ];
     const plan = planSweep(items, [policy()], [], NOW);
     expect(plan.toDelete).toEqual([]);
-    expect(plan.protectedItems.map((p) => [p.item.id, p.protection.kind])).toEqual(expect.arrayContaining([["mid", "reference"], ["ref", "reference"]]));
+    expect(plan.protectedItems.map((p) => [p.item.id, p.protection.kind])).toEqual(
+      expect.arrayContaining([
+        ["mid", "reference"],
+        ["ref", "reference"],
+      ]),
+    );
   });
   it("deletes a reference together with all its dependents, dependents first", () => {
-    const items = [spectrum("ref", { createdAt: daysAgo(200) }), spectrum("a", { referenceSpectrumId: "ref" }), spectrum("b", { referenceSpectrumId: "a", createdAt: daysAgo(40) })];
+    const items = [
+      spectrum("ref", { createdAt: daysAgo(200) }),
+      spectrum("a", { referenceSpectrumId: "ref" }),
+      spectrum("b", { referenceSpectrumId: "a", createdAt: daysAgo(40) }),
+    ];
     expect(planSweep(items, [policy()], [], NOW).toDelete.map((a) => a.item.id)).toEqual(["b", "a", "ref"]);
   });
   it("flags instead of deleting under a flag policy, once", () => {
@@ -94,18 +137,36 @@ const ids = ["a", "b", "c", "d", "e", "f", "g", "h"];
 const world = fc.record({
   spectra: fc.uniqueArray(
     fc.record({
-      id: fc.constantFrom(...ids), project: fc.constantFrom("P", "Q"), series: fc.option(fc.constantFrom("s1", "s2"), { nil: null }),
-      sample: fc.option(fc.constantFrom("m1", "m2"), { nil: null }), ref: fc.option(fc.constantFrom(...ids), { nil: null }),
-      age: fc.integer({ min: 0, max: 400 }), failed: fc.boolean(), busy: fc.boolean(), kept: fc.boolean(), flagged: fc.boolean(),
+      id: fc.constantFrom(...ids),
+      project: fc.constantFrom("P", "Q"),
+      series: fc.option(fc.constantFrom("s1", "s2"), { nil: null }),
+      sample: fc.option(fc.constantFrom("m1", "m2"), { nil: null }),
+      ref: fc.option(fc.constantFrom(...ids), { nil: null }),
+      age: fc.integer({ min: 0, max: 400 }),
+      failed: fc.boolean(),
+      busy: fc.boolean(),
+      kept: fc.boolean(),
+      flagged: fc.boolean(),
     }),
     { selector: (s) => s.id, maxLength: 8 },
   ),
   runs: fc.array(fc.record({ of: fc.constantFrom(...ids), age: fc.integer({ min: 0, max: 400 }), busy: fc.boolean() }), { maxLength: 6 }),
   policies: fc.uniqueArray(
-    fc.record({ project: fc.constantFrom("P", "Q"), dataClass: fc.constantFrom("raw", "processed", "drafts" as const), keepDays: fc.integer({ min: 1, max: 365 }), onExpiry: fc.constantFrom("delete", "flag" as const) }),
+    fc.record({
+      project: fc.constantFrom("P", "Q"),
+      dataClass: fc.constantFrom("raw", "processed", "drafts" as const),
+      keepDays: fc.integer({ min: 1, max: 365 }),
+      onExpiry: fc.constantFrom("delete", "flag" as const),
+    }),
     { selector: (p) => `${p.project}${p.dataClass}`, maxLength: 6 },
   ),
-  holds: fc.array(fc.record({ type: fc.constantFrom("project", "series", "sample", "spectrum" as const), id: fc.constantFrom("P", "Q", "s1", "s2", "m1", "m2", ...ids) }), { maxLength: 3 }),
+  holds: fc.array(
+    fc.record({
+      type: fc.constantFrom("project", "series", "sample", "spectrum" as const),
+      id: fc.constantFrom("P", "Q", "s1", "s2", "m1", "m2", ...ids),
+    }),
+    { maxLength: 3 },
+  ),
 });
 
 type World = typeof world extends fc.Arbitrary<infer T> ? T : never;
@@ -115,16 +176,44 @@ function build(w: World) {
   // References only to older spectra that exist, as in the database (no cycles).
   const order = new Map(w.spectra.map((s, i) => [s.id, i]));
   const items: RetainedItem[] = w.spectra.map((s, i) => ({
-    kind: "spectrum", id: s.id, dataClass: s.failed ? "drafts" : "raw", projectId: s.project, spectrumId: s.id, seriesId: s.series, sampleId: s.sample,
-    referenceSpectrumId: s.ref && present.has(s.ref) && order.get(s.ref)! < i ? s.ref : null, createdAt: daysAgo(s.age), sizeBytes: 1, label: s.id,
-    busy: s.busy, keptByDecision: s.kept, flagged: s.flagged,
+    kind: "spectrum",
+    id: s.id,
+    dataClass: s.failed ? "drafts" : "raw",
+    projectId: s.project,
+    spectrumId: s.id,
+    seriesId: s.series,
+    sampleId: s.sample,
+    referenceSpectrumId: s.ref && present.has(s.ref) && order.get(s.ref)! < i ? s.ref : null,
+    createdAt: daysAgo(s.age),
+    sizeBytes: 1,
+    label: s.id,
+    busy: s.busy,
+    keptByDecision: s.kept,
+    flagged: s.flagged,
   }));
   const byId = new Map(items.map((i) => [i.id, i]));
   w.runs.forEach((r, k) => {
     const s = byId.get(r.of);
-    if (s) items.push({ ...s, kind: "analysis-run", id: `run${k}`, dataClass: "processed", referenceSpectrumId: null, createdAt: daysAgo(r.age), busy: r.busy, keptByDecision: false, flagged: false });
+    if (s)
+      items.push({
+        ...s,
+        kind: "analysis-run",
+        id: `run${k}`,
+        dataClass: "processed",
+        referenceSpectrumId: null,
+        createdAt: daysAgo(r.age),
+        busy: r.busy,
+        keptByDecision: false,
+        flagged: false,
+      });
   });
-  const policies: PolicyRule[] = w.policies.map((p, k) => ({ id: `pol${k}`, projectId: p.project, dataClass: p.dataClass, keepDays: p.keepDays, onExpiry: p.onExpiry }));
+  const policies: PolicyRule[] = w.policies.map((p, k) => ({
+    id: `pol${k}`,
+    projectId: p.project,
+    dataClass: p.dataClass,
+    keepDays: p.keepDays,
+    onExpiry: p.onExpiry,
+  }));
   const holds: ActiveHold[] = w.holds.map((h, k) => ({ id: `h${k}`, targetType: h.type, targetId: h.id, reason: "r" }));
   return { items, policies, holds };
 }
@@ -144,11 +233,14 @@ describe("planSweep properties", () => {
           expect(a.expiredAt.getTime()).toBeLessThanOrEqual(NOW.getTime());
         }
         for (const s of items.filter((i) => i.kind === "spectrum" && !goneSpectra.has(i.id))) {
-          if (s.referenceSpectrumId) expect(goneSpectra.has(s.referenceSpectrumId), `${s.referenceSpectrumId} is the reference of kept ${s.id}`).toBe(false);
+          if (s.referenceSpectrumId)
+            expect(goneSpectra.has(s.referenceSpectrumId), `${s.referenceSpectrumId} is the reference of kept ${s.id}`).toBe(false);
         }
         // Dependents come before their references.
         const position = new Map(plan.toDelete.map((a, i) => [a.item.id, i]));
-        for (const a of plan.toDelete) if (a.item.referenceSpectrumId && position.has(a.item.referenceSpectrumId)) expect(position.get(a.item.id)!).toBeLessThan(position.get(a.item.referenceSpectrumId)!);
+        for (const a of plan.toDelete)
+          if (a.item.referenceSpectrumId && position.has(a.item.referenceSpectrumId))
+            expect(position.get(a.item.id)!).toBeLessThan(position.get(a.item.referenceSpectrumId)!);
         expect(deleted.size).toBe(plan.toDelete.length);
       }),
       { numRuns: 2000 },

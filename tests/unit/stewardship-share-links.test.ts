@@ -31,10 +31,19 @@ describe("checkLinkExpiry", () => {
     expect(checkLinkExpiry(inAWeek, now)).toEqual(inAWeek);
   });
   it("refuses a past or present moment, an invalid date and one beyond the limit, naming the field", () => {
-    const cases = [at("2030-06-15T12:00:00Z"), at("2029-01-01T00:00:00Z"), new Date(Number.NaN), new Date(now.getTime() + (MAX_LINK_DAYS + 1) * 86_400_000)];
+    const cases = [
+      at("2030-06-15T12:00:00Z"),
+      at("2029-01-01T00:00:00Z"),
+      new Date(Number.NaN),
+      new Date(now.getTime() + (MAX_LINK_DAYS + 1) * 86_400_000),
+    ];
     for (const c of cases) {
       let refusal: unknown;
-      try { checkLinkExpiry(c, now); } catch (error) { refusal = error; }
+      try {
+        checkLinkExpiry(c, now);
+      } catch (error) {
+        refusal = error;
+      }
       expect(refusal).toBeInstanceOf(Refusal);
       expect((refusal as Refusal).field).toBe("expiresAt");
       expect((refusal as Refusal).message).toMatch(/^expiresAt: /);
@@ -53,6 +62,7 @@ describe("tokens", () => {
     expect(new Set(tokens).size).toBe(tokens.length);
   });
   it("anything that is not base64url of a plausible length is not looked up", () => {
-    for (const bad of ["", "short", "a".repeat(31), "a".repeat(129), `${"a".repeat(40)}/..`, `${"a".repeat(40)}%20`, `${"a".repeat(40)}=`]) expect(looksLikeLinkToken(bad)).toBe(false);
+    for (const bad of ["", "short", "a".repeat(31), "a".repeat(129), `${"a".repeat(40)}/..`, `${"a".repeat(40)}%20`, `${"a".repeat(40)}=`])
+      expect(looksLikeLinkToken(bad)).toBe(false);
   });
 });

@@ -24,8 +24,12 @@ function decisionMessage(decision: DecisionOutcome["decision"], outcomes: Decisi
   const same = outcomes.length - changed.length;
   const revised = changed.filter((o) => o.previousState !== "awaiting").length;
   const parts: string[] = [];
-  if (changed.length) parts.push(`${count(changed.length)} ${STATE_TEXT[decision]}${revised ? ` (${revised} revised from the other decision)` : ""}.`);
-  if (same) parts.push(`${count(same)} ${same === 1 ? "was" : "were"} already ${STATE_TEXT[decision]}; nothing recorded for ${same === 1 ? "it" : "them"}.`);
+  if (changed.length)
+    parts.push(`${count(changed.length)} ${STATE_TEXT[decision]}${revised ? ` (${revised} revised from the other decision)` : ""}.`);
+  if (same)
+    parts.push(
+      `${count(same)} ${same === 1 ? "was" : "were"} already ${STATE_TEXT[decision]}; nothing recorded for ${same === 1 ? "it" : "them"}.`,
+    );
   return parts.join(" ") + (changed.length ? mailNote(mailed) : "");
 }
 

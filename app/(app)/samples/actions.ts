@@ -22,13 +22,16 @@ const sampleSchema = z.object({
   ligand: text(200).default(""),
   solvent: text(100).default(""),
   notes: text(4000).default(""),
-  parentIds: z.union([z.string(), z.array(z.string())]).optional()
+  parentIds: z
+    .union([z.string(), z.array(z.string())])
+    .optional()
     .transform((v) => (v === undefined ? [] : Array.isArray(v) ? v : [v]).filter(Boolean))
     .pipe(z.array(z.string().uuid("A parent sample is not valid.")).max(10, "At most 10 parents.")),
 });
 
 export const registerSample = protectedAction(sampleSchema, async (input, actor) => {
-  if (!canWrite(actor, input.groupId)) throw refuse(400, "Only spectroscopists and group leads of this group can register samples.", "groupId");
+  if (!canWrite(actor, input.groupId))
+    throw refuse(400, "Only spectroscopists and group leads of this group can register samples.", "groupId");
   const db = models();
   if (input.projectId) {
     const project = await Project.findByPk(input.projectId);
@@ -41,12 +44,23 @@ export const registerSample = protectedAction(sampleSchema, async (input, actor)
   let id: string;
   try {
     id = await db.transaction(async (transaction) => {
-      const sample = await Sample.create(
-        { ...input, hazardClass: hazardClassOf(input), createdBy: actor.id },
+      const sample = await Sample.create({ ...input, hazardClass: hazardClassOf(input), createdBy: actor.id }, { transaction });
+      await SampleParent.bulkCreate(
+        [...new Set(input.parentIds)].map((parentId) => ({ sampleId: sample.id, parentId })),
         { transaction },
       );
-      await SampleParent.bulkCreate([...new Set(input.parentIds)].map((parentId) => ({ sampleId: sample.id, parentId })), { transaction });
-      await recordAudit({ actorId: actor.id, actorLabel: actor.email, groupId: input.groupId, action: "sample-registered", targetType: "sample", targetId: sample.id, details: { name: sample.name, material: sample.material } }, transaction);
+      await recordAudit(
+        {
+          actorId: actor.id,
+          actorLabel: actor.email,
+          groupId: input.groupId,
+          action: "sample-registered",
+          targetType: "sample",
+          targetId: sample.id,
+          details: { name: sample.name, material: sample.material },
+        },
+        transaction,
+      );
       return sample.id;
     });
   } catch (error) {

@@ -14,7 +14,11 @@ import { SERIES_KINDS } from "@/models/Series";
 import { refuse } from "@/lib/errors";
 
 const plain = (label: string, max: number) =>
-  z.string().trim().max(max, `${label} must be at most ${max} characters`).refine((s) => !/[<>\u0000-\u001f]/.test(s), `${label} must be plain text`);
+  z
+    .string()
+    .trim()
+    .max(max, `${label} must be at most ${max} characters`)
+    .refine((s) => !/[<>\u0000-\u001f]/.test(s), `${label} must be plain text`);
 
 const seriesSchema = z.object({
   projectId: z.string().uuid("Choose a project."),
@@ -33,7 +37,15 @@ export const createSeries = protectedAction(seriesSchema, async (input, actor) =
   try {
     const series = await Series.create({ ...input, createdBy: actor.id });
     id = series.id;
-    await recordAudit({ actorId: actor.id, actorLabel: actor.email, groupId: project.groupId, action: "series-created", targetType: "series", targetId: id, details: { name: input.name, kind: input.kind } });
+    await recordAudit({
+      actorId: actor.id,
+      actorLabel: actor.email,
+      groupId: project.groupId,
+      action: "series-created",
+      targetType: "series",
+      targetId: id,
+      details: { name: input.name, kind: input.kind },
+    });
   } catch (error) {
     if (error instanceof UniqueConstraintError) throw refuse(400, `A series named "${input.name}" already exists in this project.`, "name");
     throw error;

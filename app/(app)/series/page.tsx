@@ -17,20 +17,44 @@ export default async function SeriesPage() {
       <PageHeader
         title="Series"
         subtitle="Titrations, shell-thickness and time series: ordered spectra with a variable, plotted and fitted."
-        actions={mayCreate && <Link href="/series/new" className="rounded-md bg-glow px-3 py-2 text-sm font-medium text-white hover:bg-glow-deep">New series</Link>}
+        actions={
+          mayCreate && (
+            <Link href="/series/new" className="rounded-md bg-glow px-3 py-2 text-sm font-medium text-white hover:bg-glow-deep">
+              New series
+            </Link>
+          )
+        }
       />
       {series.length === 0 ? (
-        <EmptyState title="No series yet" action={mayCreate ? { href: "/series/new", label: "Create the first series" } : undefined}>A series groups spectra along a variable, such as equivalents of added dots. Choose a series and its variable value when you upload.</EmptyState>
+        <EmptyState title="No series yet" action={mayCreate ? { href: "/series/new", label: "Create the first series" } : undefined}>
+          A series groups spectra along a variable, such as equivalents of added dots. Choose a series and its variable value when you
+          upload.
+        </EmptyState>
       ) : (
         <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm">
-            <thead className="bg-stone-100 text-left text-xs text-ink-soft"><tr><th className="px-3 py-2">Series</th><th className="px-3 py-2">Kind</th><th className="px-3 py-2">Variable</th><th className="px-3 py-2">Project</th><th className="px-3 py-2">Spectra</th></tr></thead>
+            <thead className="bg-stone-100 text-left text-xs text-ink-soft">
+              <tr>
+                <th className="px-3 py-2">Series</th>
+                <th className="px-3 py-2">Kind</th>
+                <th className="px-3 py-2">Variable</th>
+                <th className="px-3 py-2">Project</th>
+                <th className="px-3 py-2">Spectra</th>
+              </tr>
+            </thead>
             <tbody>
               {series.map((s) => (
                 <tr key={s.id} className="border-t border-stone-100 hover:bg-stone-50">
-                  <td className="px-3 py-2"><Link prefetch={false} className="font-medium text-glow-deep hover:underline" href={`/series/${s.id}`}>{s.name}</Link>{s.shared && <span className="ml-2 rounded bg-stone-100 px-1.5 text-xs text-ink-soft">shared with you</span>}</td>
-                  <td className="px-3 py-2">{s.kind}</td><td className="px-3 py-2">{s.variable}</td>
-                  <td className="px-3 py-2 text-ink-soft">{s.projectName}</td><td className="tabular px-3 py-2">{s.spectrumCount}</td>
+                  <td className="px-3 py-2">
+                    <Link prefetch={false} className="font-medium text-glow-deep hover:underline" href={`/series/${s.id}`}>
+                      {s.name}
+                    </Link>
+                    {s.shared && <span className="ml-2 rounded bg-stone-100 px-1.5 text-xs text-ink-soft">shared with you</span>}
+                  </td>
+                  <td className="px-3 py-2">{s.kind}</td>
+                  <td className="px-3 py-2">{s.variable}</td>
+                  <td className="px-3 py-2 text-ink-soft">{s.projectName}</td>
+                  <td className="tabular px-3 py-2">{s.spectrumCount}</td>
                 </tr>
               ))}
             </tbody>

@@ -13,11 +13,20 @@ import { refuse } from "@/lib/errors";
 export const createApiToken = protectedAction(
   z.object({
     name: z.string().trim().min(1, "Name the token after the script that uses it.").max(100, "At most 100 characters."),
-    lifetime: z.enum(Object.keys(TOKEN_LIFETIMES) as [TokenLifetime, ...TokenLifetime[]], { error: "lifetime: choose never, 30, 90 or 365 days." }).default("never"),
+    lifetime: z
+      .enum(Object.keys(TOKEN_LIFETIMES) as [TokenLifetime, ...TokenLifetime[]], { error: "lifetime: choose never, 30, 90 or 365 days." })
+      .default("never"),
   }),
   async ({ name, lifetime }, actor) => {
     const { id, secret } = await issueApiToken(actor.id, name, lifetime);
-    await recordAudit({ actorId: actor.id, actorLabel: actor.email, action: "api-token-created", targetType: "api-token", targetId: id, details: { name, lifetime } });
+    await recordAudit({
+      actorId: actor.id,
+      actorLabel: actor.email,
+      action: "api-token-created",
+      targetType: "api-token",
+      targetId: id,
+      details: { name, lifetime },
+    });
     revalidatePath("/settings");
     return { ok: true, message: secret };
   },
@@ -37,14 +46,14 @@ export const revokeApiToken = protectedAction(z.object({ id: z.string().uuid() }
 });
 
 // An unticked checkbox sends no field at all: a missing key is "off" (optional, not a union with undefined).
-const checkbox = z.literal("on").optional().transform((v) => v === "on");
+const checkbox = z
+  .literal("on")
+  .optional()
+  .transform((v) => v === "on");
 
-export const saveNotifications = protectedAction(
-  z.object({ notifyDigest: checkbox, notifyDecisions: checkbox }),
-  async (input, actor) => {
-    models();
-    await User.update(input, { where: { id: actor.id } });
-    revalidatePath("/settings");
-    return { ok: true, message: "Saved." };
-  },
-);
+export const saveNotifications = protectedAction(z.object({ notifyDigest: checkbox, notifyDecisions: checkbox }), async (input, actor) => {
+  models();
+  await User.update(input, { where: { id: actor.id } });
+  revalidatePath("/settings");
+  return { ok: true, message: "Saved." };
+});

@@ -27,7 +27,11 @@ export default async function SettingsPage() {
   let outbox: OutboxMessage[] | null = null;
   let outboxError: string | null = null;
   if (actor.isSiteAdmin) {
-    try { outbox = await listOutbox(); } catch (e) { outboxError = e instanceof Error ? e.message : String(e); }
+    try {
+      outbox = await listOutbox();
+    } catch (e) {
+      outboxError = e instanceof Error ? e.message : String(e);
+    }
   }
   return (
     <>
@@ -41,21 +45,31 @@ export default async function SettingsPage() {
         </Section>
         {actor.isSiteAdmin && (
           <Section title="Outbox" hint="Mail the app has sent, as captured by the local mail service. Shown to site administrators only.">
-            {outboxError ? <p role="alert" className="text-sm text-red-700">The mail capture service cannot be reached ({outboxError}).</p>
-              : outbox === null ? <p className="text-sm text-ink-soft">No capture service is configured (MAIL_VIEW_URL): mail goes to the real relay.</p>
-              : outbox.length === 0 ? <p className="text-sm text-ink-soft">No mail sent yet.</p>
-              : (
-                <ul className="divide-y divide-stone-100" data-testid="outbox">
-                  {outbox.map((m) => (
-                    <li key={m.id} className="py-2 text-sm">
-                      <details>
-                        <summary className="cursor-pointer"><span className="font-medium">{m.subject || "(no subject)"}</span> <span className="text-ink-soft">to {m.to.join(", ")} · {formatWhen(m.receivedAt)}</span></summary>
-                        <pre className="mt-2 whitespace-pre-wrap rounded bg-stone-50 p-2 text-xs">{m.body}</pre>
-                      </details>
-                    </li>
-                  ))}
-                </ul>
-              )}
+            {outboxError ? (
+              <p role="alert" className="text-sm text-red-700">
+                The mail capture service cannot be reached ({outboxError}).
+              </p>
+            ) : outbox === null ? (
+              <p className="text-sm text-ink-soft">No capture service is configured (MAIL_VIEW_URL): mail goes to the real relay.</p>
+            ) : outbox.length === 0 ? (
+              <p className="text-sm text-ink-soft">No mail sent yet.</p>
+            ) : (
+              <ul className="divide-y divide-stone-100" data-testid="outbox">
+                {outbox.map((m) => (
+                  <li key={m.id} className="py-2 text-sm">
+                    <details>
+                      <summary className="cursor-pointer">
+                        <span className="font-medium">{m.subject || "(no subject)"}</span>{" "}
+                        <span className="text-ink-soft">
+                          to {m.to.join(", ")} · {formatWhen(m.receivedAt)}
+                        </span>
+                      </summary>
+                      <pre className="mt-2 whitespace-pre-wrap rounded bg-stone-50 p-2 text-xs">{m.body}</pre>
+                    </details>
+                  </li>
+                ))}
+              </ul>
+            )}
           </Section>
         )}
       </div>

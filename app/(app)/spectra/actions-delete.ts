@@ -15,15 +15,16 @@ import { refuse } from "@/lib/errors";
  * that others use as their reference is refused too. A tombstone and an audit event remain;
  * the spectra list then shows what was deleted, read from the tombstone.
  */
-export const deleteSpectrumAction = protectedAction(
-  deleteSpectrumInput,
-  async (input, actor) => {
-    models();
-    const spectrum = await Spectrum.findByPk(input.spectrumId);
-    const groupId = spectrum ? await groupOfSpectrum(spectrum) : null;
-    if (!spectrum || !groupId || !canDeleteInGroup(actor, groupId)) throw refuse(400, "Spectrum not found.", "spectrumId");
-    const tombstone = await deleteSpectrum(spectrum.id, { cause: canSteward(actor, groupId) ? "steward" : "owner", actorId: actor.id, actorLabel: actor.email });
-    revalidatePath("/spectra");
-    redirect(`/spectra?deleted=${tombstone.id}`);
-  },
-);
+export const deleteSpectrumAction = protectedAction(deleteSpectrumInput, async (input, actor) => {
+  models();
+  const spectrum = await Spectrum.findByPk(input.spectrumId);
+  const groupId = spectrum ? await groupOfSpectrum(spectrum) : null;
+  if (!spectrum || !groupId || !canDeleteInGroup(actor, groupId)) throw refuse(400, "Spectrum not found.", "spectrumId");
+  const tombstone = await deleteSpectrum(spectrum.id, {
+    cause: canSteward(actor, groupId) ? "steward" : "owner",
+    actorId: actor.id,
+    actorLabel: actor.email,
+  });
+  revalidatePath("/spectra");
+  redirect(`/spectra?deleted=${tombstone.id}`);
+});

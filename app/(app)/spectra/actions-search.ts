@@ -23,11 +23,8 @@ export const saveSearchAction = protectedAction(
   },
 );
 
-export const deleteSavedSearchAction = protectedAction(
-  z.object({ id: z.string().uuid("id: not a valid id.") }),
-  async (input, actor) => {
-    if (!(await deleteSavedSearch(actor, input.id))) throw refuse(400, "That saved search was not found.", "id");
-    revalidatePath("/");
-    return { ok: true, message: "Saved search removed." };
-  },
-);
+export const deleteSavedSearchAction = protectedAction(z.object({ id: z.string().uuid("id: not a valid id.") }), async (input, actor) => {
+  if (!(await deleteSavedSearch(actor, input.id))) throw refuse(400, "That saved search was not found.", "id");
+  revalidatePath("/");
+  return { ok: true, message: "Saved search removed." };
+});

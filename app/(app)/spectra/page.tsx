@@ -24,7 +24,12 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
   const actor = await requireActor("/spectra");
   const values = queryObject(await searchParams);
   const parsed = spectrumSearchSchema.safeParse(values);
-  const error = parsed.success ? null : { field: String(parsed.error.issues[0]?.path[0] ?? "q"), message: `${String(parsed.error.issues[0]?.path[0] ?? "search")}: ${parsed.error.issues[0]?.message ?? "not valid"}` };
+  const error = parsed.success
+    ? null
+    : {
+        field: String(parsed.error.issues[0]?.path[0] ?? "q"),
+        message: `${String(parsed.error.issues[0]?.path[0] ?? "search")}: ${parsed.error.issues[0]?.message ?? "not valid"}`,
+      };
   const search = parsed.success ? parsed.data : null;
   const deletedId = typeof values.deleted === "string" ? values.deleted : null;
   const [page, choices, deleted] = await Promise.all([
@@ -41,7 +46,10 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
       <SpectrumSearchForm values={values} choices={choices} error={error} />
       {search && filtered && <SaveSearchForm query={query} />}
       {page.rows.length === 0 ? (
-        <EmptyState title={filtered ? "No spectrum matches" : "No spectra yet"} action={filtered ? undefined : { href: "/upload", label: "Upload exports" }}>
+        <EmptyState
+          title={filtered ? "No spectrum matches" : "No spectra yet"}
+          action={filtered ? undefined : { href: "/upload", label: "Upload exports" }}
+        >
           {filtered ? "Loosen the search." : "Upload UV-Vis-NIR absorption, PL or mid-IR exports (CSV, text or JCAMP-DX)."}
         </EmptyState>
       ) : (
@@ -49,22 +57,37 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
           <table className="w-full text-sm">
             <thead className="bg-stone-100 text-left text-xs text-ink-soft">
               <tr>
-                <th className="px-3 py-2">File</th><th className="px-3 py-2">Technique</th><th className="px-3 py-2">Sample</th>
-                <th className="px-3 py-2">Project</th><th className="px-3 py-2 text-right">1st exciton</th><th className="px-3 py-2 text-right">Size</th>
-                <th className="px-3 py-2">State</th><th className="px-3 py-2">Stored</th>
+                <th className="px-3 py-2">File</th>
+                <th className="px-3 py-2">Technique</th>
+                <th className="px-3 py-2">Sample</th>
+                <th className="px-3 py-2">Project</th>
+                <th className="px-3 py-2 text-right">1st exciton</th>
+                <th className="px-3 py-2 text-right">Size</th>
+                <th className="px-3 py-2">State</th>
+                <th className="px-3 py-2">Stored</th>
               </tr>
             </thead>
             <tbody>
               {page.rows.map((s) => (
                 <tr key={s.id} className="border-t border-stone-100 hover:bg-stone-50">
-                  <td className="max-w-xs truncate px-3 py-2"><Link prefetch={false} className="font-medium text-glow-deep hover:underline" href={`/spectra/${s.id}`}>{s.fileName}</Link>
-                    {s.errorMessage && <div className="truncate text-xs text-red-700" title={s.errorMessage}>{s.errorMessage}</div>}</td>
+                  <td className="max-w-xs truncate px-3 py-2">
+                    <Link prefetch={false} className="font-medium text-glow-deep hover:underline" href={`/spectra/${s.id}`}>
+                      {s.fileName}
+                    </Link>
+                    {s.errorMessage && (
+                      <div className="truncate text-xs text-red-700" title={s.errorMessage}>
+                        {s.errorMessage}
+                      </div>
+                    )}
+                  </td>
                   <td className="px-3 py-2">{TECHNIQUE_SHORT_LABELS[s.technique]}</td>
                   <td className="px-3 py-2">{s.sampleName ?? "—"}</td>
                   <td className="px-3 py-2 text-ink-soft">{s.projectName}</td>
                   <td className="tabular px-3 py-2 text-right">{s.firstExcitonNm === null ? "—" : `${s.firstExcitonNm.toFixed(0)} nm`}</td>
                   <td className="tabular px-3 py-2 text-right">{s.diameterNm === null ? "—" : `${s.diameterNm.toFixed(1)} nm`}</td>
-                  <td className="px-3 py-2"><StatusBadge status={s.status} /></td>
+                  <td className="px-3 py-2">
+                    <StatusBadge status={s.status} />
+                  </td>
                   <td className="tabular px-3 py-2 text-ink-soft">{formatWhen(s.createdAt)}</td>
                 </tr>
               ))}
@@ -74,8 +97,20 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
       )}
       {search && (search.after || page.next) && (
         <nav aria-label="Pages" className="mt-3 flex items-center gap-4 text-sm">
-          {search.after && <Link href={`/spectra${query ? `?${query}` : ""}`} className="text-glow-deep hover:underline">← Newest</Link>}
-          {page.next && <Link prefetch={false} href={`/spectra?${search ? searchQueryString(search, { after: page.next }) : ""}`} className="text-glow-deep hover:underline">Older →</Link>}
+          {search.after && (
+            <Link href={`/spectra${query ? `?${query}` : ""}`} className="text-glow-deep hover:underline">
+              ← Newest
+            </Link>
+          )}
+          {page.next && (
+            <Link
+              prefetch={false}
+              href={`/spectra?${search ? searchQueryString(search, { after: page.next }) : ""}`}
+              className="text-glow-deep hover:underline"
+            >
+              Older →
+            </Link>
+          )}
         </nav>
       )}
     </>

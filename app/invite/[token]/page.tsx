@@ -29,14 +29,27 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
           <h1 className="text-xl font-semibold">Invitation to Bandkeep</h1>
         </div>
         {problem || !view ? (
-          <p role="alert" className="text-sm text-red-700" data-testid="invite-problem">{problem}</p>
+          <p role="alert" className="text-sm text-red-700" data-testid="invite-problem">
+            {problem}
+          </p>
         ) : (
           <>
-            <p className="mb-4 text-sm">You are invited to <strong>{view.groupName}</strong> as <strong>{ROLE_LABELS[view.role as keyof typeof ROLE_LABELS]}</strong>, for <strong>{view.email}</strong>.</p>
+            <p className="mb-4 text-sm">
+              You are invited to <strong>{view.groupName}</strong> as <strong>{ROLE_LABELS[view.role as keyof typeof ROLE_LABELS]}</strong>,
+              for <strong>{view.email}</strong>.
+            </p>
             {actor && actor.email !== view.email ? (
-              <p role="alert" className="text-sm text-red-700">You are signed in as {actor.email}. Sign out, then open the link again.</p>
+              <p role="alert" className="text-sm text-red-700">
+                You are signed in as {actor.email}. Sign out, then open the link again.
+              </p>
             ) : !actor && view.accountExists ? (
-              <p className="text-sm">An account for {view.email} exists. <Link className="text-glow underline" href={`/signin?callbackUrl=${encodeURIComponent(`/invite/${token}`)}`}>Sign in</Link>, then accept.</p>
+              <p className="text-sm">
+                An account for {view.email} exists.{" "}
+                <Link className="text-glow underline" href={`/signin?callbackUrl=${encodeURIComponent(`/invite/${token}`)}`}>
+                  Sign in
+                </Link>
+                , then accept.
+              </p>
             ) : (
               <AcceptInvitationForm token={token} needsAccount={!actor} />
             )}

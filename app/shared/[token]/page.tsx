@@ -35,7 +35,11 @@ async function Cautions({ link }: { link: ResolvedLink }) {
   return (
     <div className="mb-4 space-y-2">
       <HazardNotice flags={flags} />
-      {photoluminescence && <p className="text-xs text-caution"><span className="font-semibold">⚠ UV and laser light.</span> {LIGHT_CAUTION}</p>}
+      {photoluminescence && (
+        <p className="text-xs text-caution">
+          <span className="font-semibold">⚠ UV and laser light.</span> {LIGHT_CAUTION}
+        </p>
+      )}
     </div>
   );
 }
@@ -44,10 +48,25 @@ const rawHref = (token: string, spectrumId: string) => `/shared/${encodeURICompo
 const plotHref = (token: string, spectrumId: string) => `/shared/${encodeURIComponent(token)}?spectrum=${spectrumId}#plot`;
 
 /** The spectrum to plot: the one asked for when the link covers it, else the first finished one. */
-async function Plot({ token, link, asked, fallback }: { token: string; link: ResolvedLink; asked: string | undefined; fallback: string | undefined }) {
+async function Plot({
+  token,
+  link,
+  asked,
+  fallback,
+}: {
+  token: string;
+  link: ResolvedLink;
+  asked: string | undefined;
+  fallback: string | undefined;
+}) {
   const id = asked ?? fallback;
   const spectrum = id ? await spectrumThroughLink(link, id) : null;
-  if (!spectrum) return asked ? <p role="alert" className="mt-6 text-sm text-red-700">That spectrum is not part of what this link shares.</p> : null;
+  if (!spectrum)
+    return asked ? (
+      <p role="alert" className="mt-6 text-sm text-red-700">
+        That spectrum is not part of what this link shares.
+      </p>
+    ) : null;
   return (
     <section id="plot" className="mt-6" aria-label="Plot">
       <SharedSpectrumPanel token={token} view={await sharedSpectrumView(spectrum)} />
@@ -56,9 +75,13 @@ async function Plot({ token, link, asked, fallback }: { token: string; link: Res
 }
 
 function PlotLink({ token, id, shown }: { token: string; id: string; shown: boolean }) {
-  return shown
-    ? <span className="text-xs font-medium text-ink-soft">plotted below</span>
-    : <Link prefetch={false} scroll={false} href={plotHref(token, id)} className="text-xs text-glow-deep hover:underline">Plot</Link>;
+  return shown ? (
+    <span className="text-xs font-medium text-ink-soft">plotted below</span>
+  ) : (
+    <Link prefetch={false} scroll={false} href={plotHref(token, id)} className="text-xs text-glow-deep hover:underline">
+      Plot
+    </Link>
+  );
 }
 
 function Supernatants({ token, rows, shown }: { token: string; rows: SharedSupernatant[]; shown: string | undefined }) {
@@ -69,7 +92,9 @@ function Supernatants({ token, rows, shown }: { token: string; rows: SharedSuper
       <ul className="divide-y divide-stone-100 rounded-lg border border-stone-200 bg-white text-sm" data-testid="shared-supernatants">
         {rows.map((r) => (
           <li key={r.id} className="flex flex-wrap items-center gap-3 px-3 py-2">
-            <a className="text-glow-deep hover:underline" href={rawHref(token, r.id)} rel="noreferrer" download>{r.fileName}</a>
+            <a className="text-glow-deep hover:underline" href={rawHref(token, r.id)} rel="noreferrer" download>
+              {r.fileName}
+            </a>
             <span className="text-ink-soft">for {r.pointFileName}</span>
             <StatusBadge status={r.status} />
             <PlotLink token={token} id={r.id} shown={shown === r.id} />
@@ -80,7 +105,13 @@ function Supernatants({ token, rows, shown }: { token: string; rows: SharedSuper
   );
 }
 
-export default async function SharedPage({ params, searchParams }: { params: Promise<{ token: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function SharedPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ token: string }>;
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const { token } = await params;
   const askedRaw = (await searchParams).spectrum;
   const asked = typeof askedRaw === "string" && /^[0-9a-f-]{36}$/i.test(askedRaw) ? askedRaw : undefined;
@@ -100,26 +131,48 @@ export default async function SharedPage({ params, searchParams }: { params: Pro
       <>
         <Banner link={link} />
         <header className="mb-4">
-          <h1 className="text-2xl font-semibold tracking-tight" data-testid="shared-title">{series.name}</h1>
-          <p className="mt-1 text-sm text-ink-soft">{project?.name ?? ""} · {series.kind} series · {countOf(points.length, "spectrum")} · variable: {variable}</p>
+          <h1 className="text-2xl font-semibold tracking-tight" data-testid="shared-title">
+            {series.name}
+          </h1>
+          <p className="mt-1 text-sm text-ink-soft">
+            {project?.name ?? ""} · {series.kind} series · {countOf(points.length, "spectrum")} · variable: {variable}
+          </p>
         </header>
         <Cautions link={link} />
-        {points.length === 0 ? <p className="text-sm text-ink-soft">No spectra in this series yet.</p> : (
+        {points.length === 0 ? (
+          <p className="text-sm text-ink-soft">No spectra in this series yet.</p>
+        ) : (
           <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
             <table className="w-full text-sm" data-testid="shared-series-table">
               <thead className="bg-stone-100 text-left text-xs text-ink-soft">
-                <tr><th className="px-3 py-2">{variable}</th><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Bleach</th><th className="px-3 py-2">PL quench</th><th className="px-3 py-2">Shift (meV)</th><th className="px-3 py-2">State</th><th className="px-3 py-2" aria-label="Plot" /></tr>
+                <tr>
+                  <th className="px-3 py-2">{variable}</th>
+                  <th className="px-3 py-2">Spectrum (raw file)</th>
+                  <th className="px-3 py-2">Bleach</th>
+                  <th className="px-3 py-2">PL quench</th>
+                  <th className="px-3 py-2">Shift (meV)</th>
+                  <th className="px-3 py-2">State</th>
+                  <th className="px-3 py-2" aria-label="Plot" />
+                </tr>
               </thead>
               <tbody className="tabular">
                 {points.map((p) => (
                   <tr key={p.spectrumId} className="border-t border-stone-100">
                     <td className="px-3 py-1.5">{p.value ?? "—"}</td>
-                    <td className="px-3 py-1.5"><a className="text-glow-deep hover:underline" href={rawHref(token, p.spectrumId)} rel="noreferrer" download>{p.fileName}</a></td>
+                    <td className="px-3 py-1.5">
+                      <a className="text-glow-deep hover:underline" href={rawHref(token, p.spectrumId)} rel="noreferrer" download>
+                        {p.fileName}
+                      </a>
+                    </td>
                     <td className="px-3 py-1.5">{pct(p.bleachFraction)}</td>
                     <td className="px-3 py-1.5">{pct(p.quenchFraction)}</td>
                     <td className="px-3 py-1.5">{p.shiftMeV === null ? "—" : p.shiftMeV.toFixed(1)}</td>
-                    <td className="px-3 py-1.5"><StatusBadge status={p.status} /></td>
-                    <td className="px-3 py-1.5"><PlotLink token={token} id={p.spectrumId} shown={shown === p.spectrumId} /></td>
+                    <td className="px-3 py-1.5">
+                      <StatusBadge status={p.status} />
+                    </td>
+                    <td className="px-3 py-1.5">
+                      <PlotLink token={token} id={p.spectrumId} shown={shown === p.spectrumId} />
+                    </td>
                   </tr>
                 ))}
               </tbody>
@@ -140,29 +193,60 @@ export default async function SharedPage({ params, searchParams }: { params: Pro
     <>
       <Banner link={link} />
       <header className="mb-4">
-        <h1 className="text-2xl font-semibold tracking-tight" data-testid="shared-title">{project.name}</h1>
-        <p className="mt-1 text-sm text-ink-soft">Project · {countOf(project.series.length, "series")} · {countOf(project.spectra.length, "spectrum")}</p>
+        <h1 className="text-2xl font-semibold tracking-tight" data-testid="shared-title">
+          {project.name}
+        </h1>
+        <p className="mt-1 text-sm text-ink-soft">
+          Project · {countOf(project.series.length, "series")} · {countOf(project.spectra.length, "spectrum")}
+        </p>
       </header>
       <Cautions link={link} />
       <h2 className="mb-2 text-base font-semibold">Series</h2>
-      {project.series.length === 0 ? <p className="mb-4 text-sm text-ink-soft">No series.</p> : (
+      {project.series.length === 0 ? (
+        <p className="mb-4 text-sm text-ink-soft">No series.</p>
+      ) : (
         <ul className="mb-6 divide-y divide-stone-100 rounded-lg border border-stone-200 bg-white text-sm" data-testid="shared-series-list">
-          {project.series.map((s) => <li key={s.id} className="px-3 py-2"><span className="font-medium">{s.name}</span> <span className="text-ink-soft">· {s.kind} · {countOf(s.spectra, "spectrum")}</span></li>)}
+          {project.series.map((s) => (
+            <li key={s.id} className="px-3 py-2">
+              <span className="font-medium">{s.name}</span>{" "}
+              <span className="text-ink-soft">
+                · {s.kind} · {countOf(s.spectra, "spectrum")}
+              </span>
+            </li>
+          ))}
         </ul>
       )}
       <h2 className="mb-2 text-base font-semibold">Spectra</h2>
-      {project.spectra.length === 0 ? <p className="text-sm text-ink-soft">No spectra.</p> : (
+      {project.spectra.length === 0 ? (
+        <p className="text-sm text-ink-soft">No spectra.</p>
+      ) : (
         <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm" data-testid="shared-spectra-table">
-            <thead className="bg-stone-100 text-left text-xs text-ink-soft"><tr><th className="px-3 py-2">Spectrum (raw file)</th><th className="px-3 py-2">Technique</th><th className="px-3 py-2">Series</th><th className="px-3 py-2">State</th><th className="px-3 py-2" aria-label="Plot" /></tr></thead>
+            <thead className="bg-stone-100 text-left text-xs text-ink-soft">
+              <tr>
+                <th className="px-3 py-2">Spectrum (raw file)</th>
+                <th className="px-3 py-2">Technique</th>
+                <th className="px-3 py-2">Series</th>
+                <th className="px-3 py-2">State</th>
+                <th className="px-3 py-2" aria-label="Plot" />
+              </tr>
+            </thead>
             <tbody>
               {project.spectra.map((s) => (
                 <tr key={s.id} className="border-t border-stone-100">
-                  <td className="px-3 py-1.5"><a className="text-glow-deep hover:underline" href={rawHref(token, s.id)} rel="noreferrer" download>{s.fileName}</a></td>
+                  <td className="px-3 py-1.5">
+                    <a className="text-glow-deep hover:underline" href={rawHref(token, s.id)} rel="noreferrer" download>
+                      {s.fileName}
+                    </a>
+                  </td>
                   <td className="px-3 py-1.5">{s.technique}</td>
                   <td className="px-3 py-1.5">{s.seriesName ?? "—"}</td>
-                  <td className="px-3 py-1.5"><StatusBadge status={s.status} /></td>
-                  <td className="px-3 py-1.5"><PlotLink token={token} id={s.id} shown={shown === s.id} /></td>
+                  <td className="px-3 py-1.5">
+                    <StatusBadge status={s.status} />
+                  </td>
+                  <td className="px-3 py-1.5">
+                    <PlotLink token={token} id={s.id} shown={shown === s.id} />
+                  </td>
                 </tr>
               ))}
             </tbody>

@@ -11,7 +11,13 @@ export function ReadingsTable({ readings, variableLabel }: { readings: Supernata
     <div className="mt-2">
       <table className="w-full tabular text-sm" data-testid="depletion-readings">
         <thead className="text-left text-xs text-ink-soft">
-          <tr><th>{variableLabel}</th><th>supernatant spectrum</th><th>A at {a} nm</th><th>A at {x} nm</th><th>path (cm)</th></tr>
+          <tr>
+            <th>{variableLabel}</th>
+            <th>supernatant spectrum</th>
+            <th>A at {a} nm</th>
+            <th>A at {x} nm</th>
+            <th>path (cm)</th>
+          </tr>
         </thead>
         <tbody>
           {rows.map((p) => {
@@ -19,9 +25,15 @@ export function ReadingsTable({ readings, variableLabel }: { readings: Supernata
             return (
               <tr key={p.spectrumId} className="border-t border-stone-100">
                 <td>{p.seriesValue ?? "—"}</td>
-                <td><Link className="text-glow-deep hover:underline" href={`/spectra/${s.spectrumId}`}>{s.fileName}</Link>
-                  {s.error && <span className="block text-xs text-red-700">{s.error}</span>}</td>
-                <td>{abs(s.atA)}</td><td>{abs(s.atX)}</td><td>{s.pathLengthCm ?? "—"}</td>
+                <td>
+                  <Link className="text-glow-deep hover:underline" href={`/spectra/${s.spectrumId}`}>
+                    {s.fileName}
+                  </Link>
+                  {s.error && <span className="block text-xs text-red-700">{s.error}</span>}
+                </td>
+                <td>{abs(s.atA)}</td>
+                <td>{abs(s.atX)}</td>
+                <td>{s.pathLengthCm ?? "—"}</td>
               </tr>
             );
           })}

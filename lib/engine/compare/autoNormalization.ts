@@ -26,7 +26,18 @@ export interface AutoNormalization {
 const none = (reason: string, scaleDetermined = true, separation: NormalizationReport['separation'] = null): AutoNormalization => ({
   fit: null,
   flag: null,
-  details: { requested: 'auto', applied: 'none', factor: 1, concentrationRatio: 1, concentrationRatioUncertainty: null, background: null, regionsEv: [], separation, scaleDetermined, reason },
+  details: {
+    requested: 'auto',
+    applied: 'none',
+    factor: 1,
+    concentrationRatio: 1,
+    concentrationRatioUncertainty: null,
+    background: null,
+    regionsEv: [],
+    separation,
+    scaleDetermined,
+    reason,
+  },
 });
 
 const TERM_WORDS: Record<BackgroundTerm, string> = {
@@ -36,7 +47,8 @@ const TERM_WORDS: Record<BackgroundTerm, string> = {
 };
 
 /** Why a withheld scale matters, and what the caller can do (said once, in every refusal). */
-const WITHHELD = 'bleach and new-band flags, whose size depends on the ratio, are withheld (give --normalize wavelength:NM or concentration:S/R)';
+const WITHHELD =
+  'bleach and new-band flags, whose size depends on the ratio, are withheld (give --normalize wavelength:NM or concentration:S/R)';
 
 /**
  * 'auto' normalisation: for absorption, the reference is fitted to the sample (scale k and a smooth
@@ -55,7 +67,9 @@ export function autoNormalization(
   t: AnalysisThresholds,
 ): AutoNormalization {
   if (technique === 'pl') {
-    return none('not scaled: for emission the intensity is what a quench changes; give the absorbances to compare emission per absorbed photon');
+    return none(
+      'not scaled: for emission the intensity is what a quench changes; give the absorbances to compare emission per absorbed photon',
+    );
   }
   if (technique === 'ir') return none('not scaled: the mid-IR has no band-free continuum to scale on; bands are compared by their ratio');
   const fx = r.firstExciton;
@@ -83,10 +97,11 @@ export function autoNormalization(
   const withGap = gap >= MIN_REGION_POINTS;
   const clippable = new Uint8Array(n);
   if (withGap) {
-    for (let i = 0; i < n; i++) if (energy[i]! <= gapTo) {
-      mask[i] = 1;
-      clippable[i] = 1;
-    }
+    for (let i = 0; i < n; i++)
+      if (energy[i]! <= gapTo) {
+        mask[i] = 1;
+        clippable[i] = 1;
+      }
   }
   const fit = fitConcentration(energy, sample, r.smoothed, r.firstDerivative, mask, {
     sigmaSample,
@@ -96,7 +111,12 @@ export function autoNormalization(
     clippable,
   });
   if (!fit) return none(`not scaled: the concentration fit failed (too few usable points or a non-positive scale); ${WITHHELD}`, false);
-  const separation = { scaleInflation: fit.scaleInflation, maxScaleInflation: MAX_SCALE_INFLATION, terms: fit.terms, droppedTerms: fit.dropped };
+  const separation = {
+    scaleInflation: fit.scaleInflation,
+    maxScaleInflation: MAX_SCALE_INFLATION,
+    terms: fit.terms,
+    droppedTerms: fit.dropped,
+  };
   // A ratio the background terms can imitate is used only when it is still so precise that a 5σ
   // error of it stays below the smallest bleach flagged: σ_k/k ≤ minBleachFraction/minSignificance
   // (1 % with the defaults). Otherwise a trade of scale against background could itself make a flag.
@@ -110,13 +130,21 @@ export function autoNormalization(
     );
   }
   if (fit.sigmaRatio > MAX_RELATIVE_UNCERTAINTY * fit.ratio) {
-    return none(`not scaled: the concentration ratio ${fit.ratio.toFixed(2)} ± ${fit.sigmaRatio.toFixed(2)} is too uncertain to use (noise or too short a continuum); ${WITHHELD}`, false, separation);
+    return none(
+      `not scaled: the concentration ratio ${fit.ratio.toFixed(2)} ± ${fit.sigmaRatio.toFixed(2)} is too uncertain to use (noise or too short a continuum); ${WITHHELD}`,
+      false,
+      separation,
+    );
   }
   const k = fit.ratio;
   const sigmaK = Math.sqrt(fit.sigmaRatio ** 2 + 2 * (SYSTEMATIC_RELATIVE * k) ** 2);
   const regionsEv: Array<[number, number]> = [[contFrom, energy[n - 1]!]];
   if (withGap) regionsEv.unshift([energy[0]!, gapTo]);
-  const bgTerms = ['offset', ...(fit.terms.includes('slope') ? ['slope'] : []), ...(fit.scatterPower !== null ? [`scattering ∝ E^${fit.scatterPower} (λ^−${fit.scatterPower})`] : [])];
+  const bgTerms = [
+    'offset',
+    ...(fit.terms.includes('slope') ? ['slope'] : []),
+    ...(fit.scatterPower !== null ? [`scattering ∝ E^${fit.scatterPower} (λ^−${fit.scatterPower})`] : []),
+  ];
   const bg = bgTerms.length > 1 ? `${bgTerms.slice(0, -1).join(', ')} and ${bgTerms[bgTerms.length - 1]}` : bgTerms[0]!;
   const droppedNote =
     (fit.dropped.length > 0

@@ -35,7 +35,10 @@ const sorted = (r: readonly [number, number]): [number, number] => (r[0] <= r[1]
  */
 export function checkReferenceMatch(sample: MatchSide, reference: MatchSide): MatchVerdict {
   if (sample.technique !== reference.technique) {
-    return { ok: false, reason: `the reference does not match this sample: the sample is ${sample.technique}, the reference ${reference.technique}` };
+    return {
+      ok: false,
+      reason: `the reference does not match this sample: the sample is ${sample.technique}, the reference ${reference.technique}`,
+    };
   }
   const [s0, s1] = sorted(sample.rangeEv);
   const [r0, r1] = sorted(reference.rangeEv);

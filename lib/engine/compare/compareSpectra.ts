@@ -108,11 +108,22 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
     if (fit) fitRange = [E[fit.from]!, E[fit.to - 1]!];
     // for absorption also a symmetric ±1.5 FWHM fit, used only to explain differences (a shift of
     // the first exciton alone leaves the next transitions behind; one window cannot serve both)
-    const moved = fit && (Math.abs(fit.shiftEv) > 2 * fit.sigmaShiftEv || Math.abs(fit.broadeningVarianceEv2) > 2 * fit.sigmaBroadeningVarianceEv2);
+    const moved =
+      fit && (Math.abs(fit.shiftEv) > 2 * fit.sigmaShiftEv || Math.abs(fit.broadeningVarianceEv2) > 2 * fit.sigmaBroadeningVarianceEv2);
     if (moved && o.technique === 'absorption' && (evaluate.from < from || evaluate.to > to)) {
-      explain = fitShiftBroadening(E, s.raw, r.smoothed, r.firstDerivative, r.secondDerivative, evaluate.from, evaluate.to, sigmaFit, evaluate, Infinity);
-    }
-    else warnings.push('shift/broadening fit around the first exciton did not converge');
+      explain = fitShiftBroadening(
+        E,
+        s.raw,
+        r.smoothed,
+        r.firstDerivative,
+        r.secondDerivative,
+        evaluate.from,
+        evaluate.to,
+        sigmaFit,
+        evaluate,
+        Infinity,
+      );
+    } else warnings.push('shift/broadening fit around the first exciton did not converge');
   }
   if (fit && fx) {
     const shiftMeV = fit.shiftEv * 1000;
@@ -181,7 +192,12 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
       // noise part, 0.5 % systematic on each of A_s and A_r (SYSTEMATIC_RELATIVE), and the
       // concentration scale's own uncertainty
       const ratio = 1 - fraction;
-      const sigma = Math.sqrt((s.sigmaSmoothed / Ar) ** 2 + ((As * r.sigmaSmoothed) / (Ar * Ar)) ** 2 + 2 * (SYSTEMATIC_RELATIVE * ratio) ** 2 + (scaleRel * ratio) ** 2);
+      const sigma = Math.sqrt(
+        (s.sigmaSmoothed / Ar) ** 2 +
+          ((As * r.sigmaSmoothed) / (Ar * Ar)) ** 2 +
+          2 * (SYSTEMATIC_RELATIVE * ratio) ** 2 +
+          (scaleRel * ratio) ** 2,
+      );
       const sig = sigma > 0 ? fraction / sigma : 0;
       if (fraction >= t.minBleachFraction && sig >= t.minSignificance) {
         const netOfShift = fit && Math.abs(gross - fraction) > 1e-9;
@@ -241,14 +257,19 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
     }
     atmosphericBands = atmosphericBandsInRange(E, excess, lo, rawDiff, smoothDiff, sigmaDiffRaw, sigmaD, t.minSignificance);
     for (const b of atmosphericBands) {
-      if (b.present) warnings.push(`${b.name} (${b.fromCm1}–${b.toCm1} cm⁻¹) seen in the difference: atmospheric, ${b.masked ? 'masked' : 'not masked'} before band flags`);
+      if (b.present)
+        warnings.push(
+          `${b.name} (${b.fromCm1}–${b.toCm1} cm⁻¹) seen in the difference: atmospheric, ${b.masked ? 'masked' : 'not masked'} before band flags`,
+        );
     }
   }
   // noise, 0.5 % systematic on each spectrum, and the scale's own uncertainty (the sample was divided by it)
-  const uncertaintyAt = (i: number) => Math.sqrt(sigmaD ** 2 + SYSTEMATIC_RELATIVE ** 2 * (sDer[i]! ** 2 + rDer[i]! ** 2) + (scaleRel * sDer[i]!) ** 2);
+  const uncertaintyAt = (i: number) =>
+    Math.sqrt(sigmaD ** 2 + SYSTEMATIC_RELATIVE ** 2 * (sDer[i]! ** 2 + rDer[i]! ** 2) + (scaleRel * sDer[i]!) ** 2);
   // a band of the reference that grew is a changed band, not a new one (mid-IR: band-change below)
   const referenceBands = o.technique === 'ir' ? r.peaks : [];
-  const hasCounterpart = (e: number) => referenceBands.some((p) => Math.abs(p.energyEv - e) <= Math.max((p.fwhmMeV ?? 0) / 1000, wd * s.step));
+  const hasCounterpart = (e: number) =>
+    referenceBands.some((p) => Math.abs(p.energyEv - e) <= Math.max((p.fwhmMeV ?? 0) / 1000, wd * s.step));
   const candidates: FlagReport[] = [];
   const maxima = o.scaleUndetermined ? [] : findLocalMaxima(excess);
   // prominences only when some maximum passes the height thresholds (none in most noise-only pairs)
@@ -263,8 +284,15 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
   // edge would have almost no prominence and go unflagged.
   const padded = new Float64Array(excess.length + 2);
   padded.set(excess, 1);
-  const { prominences, leftBases: leftPadded, rightBases: rightPadded } = any
-    ? peakProminences(padded, Int32Array.from(maxima, (m) => m + 1))
+  const {
+    prominences,
+    leftBases: leftPadded,
+    rightBases: rightPadded,
+  } = any
+    ? peakProminences(
+        padded,
+        Int32Array.from(maxima, (m) => m + 1),
+      )
     : { prominences: new Float64Array(0), leftBases: new Int32Array(0), rightBases: new Int32Array(0) };
   const clampBase = (b: number) => Math.min(Math.max(b - 1, 0), excess.length - 1);
   const leftBases = Int32Array.from(leftPadded, clampBase);
@@ -303,7 +331,11 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
       significance: sig,
       intraband,
       widthMeV,
-      ...(o.technique === 'ir' ? { bandRole: intraband ? ('intraband-candidate' as const) : ('vibrational-band' as const) } : o.technique === 'pl' ? { bandRole: 'emission-band' as const } : {}),
+      ...(o.technique === 'ir'
+        ? { bandRole: intraband ? ('intraband-candidate' as const) : ('vibrational-band' as const) }
+        : o.technique === 'pl'
+          ? { bandRole: 'emission-band' as const }
+          : {}),
       message:
         o.technique === 'ir'
           ? `new ${intraband ? 'broad ' : ''}band at ${(e * CM1_PER_EV).toFixed(0)} cm⁻¹ (${e.toFixed(3)} eV)${wide}, with no counterpart in the reference${intraband ? ': intraband candidate' : ''}`
@@ -330,13 +362,19 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
       const reach = Math.max(1, Math.round((p.fwhmMeV ?? 0) / 1000 / 2 / s.step));
       let Sv = -Infinity;
       let at = p.index;
-      for (let i = Math.max(0, p.index - reach); i <= Math.min(n - 1, p.index + reach); i++) if (s.smoothed[i]! > Sv) {
-        Sv = s.smoothed[i]!;
-        at = i;
-      }
+      for (let i = Math.max(0, p.index - reach); i <= Math.min(n - 1, p.index + reach); i++)
+        if (s.smoothed[i]! > Sv) {
+          Sv = s.smoothed[i]!;
+          at = i;
+        }
       const ratio = Sv / Rv;
       const change = ratio - 1;
-      const sigma = Math.sqrt((s.sigmaSmoothed / Rv) ** 2 + ((Sv * r.sigmaSmoothed) / (Rv * Rv)) ** 2 + 2 * (SYSTEMATIC_RELATIVE * ratio) ** 2 + (scaleRel * ratio) ** 2);
+      const sigma = Math.sqrt(
+        (s.sigmaSmoothed / Rv) ** 2 +
+          ((Sv * r.sigmaSmoothed) / (Rv * Rv)) ** 2 +
+          2 * (SYSTEMATIC_RELATIVE * ratio) ** 2 +
+          (scaleRel * ratio) ** 2,
+      );
       const sig = sigma > 0 ? Math.abs(change) / sigma : 0;
       if (Math.abs(change) >= t.minBandChangeFraction && sig >= t.minSignificance) {
         const e = E[at]!;
@@ -381,11 +419,19 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
         warnings.push('absorbance at the emission band not given for both spectra: taken as 0 (no secondary inner-filter correction)');
       }
       const cs = emissionPerAbsorbedPhoton(
-        { excitation: o.sampleAbsorbanceAtExcitation, emission: o.sampleAbsorbanceAtEmission ?? 0, dotsAtExcitation: o.sampleDotsAbsorbanceAtExcitation },
+        {
+          excitation: o.sampleAbsorbanceAtExcitation,
+          emission: o.sampleAbsorbanceAtEmission ?? 0,
+          dotsAtExcitation: o.sampleDotsAbsorbanceAtExcitation,
+        },
         o.forceInnerFilterCorrection,
       );
       const cr = emissionPerAbsorbedPhoton(
-        { excitation: o.referenceAbsorbanceAtExcitation, emission: o.referenceAbsorbanceAtEmission ?? 0, dotsAtExcitation: o.referenceDotsAbsorbanceAtExcitation },
+        {
+          excitation: o.referenceAbsorbanceAtExcitation,
+          emission: o.referenceAbsorbanceAtEmission ?? 0,
+          dotsAtExcitation: o.referenceDotsAbsorbanceAtExcitation,
+        },
         o.forceInnerFilterCorrection,
       );
       if (cs.applied && cr.applied) {
@@ -398,14 +444,18 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
         warnings.push(`emission not corrected for absorbance (${why})`);
       }
     } else {
-      warnings.push('absorbances at the excitation not given: emission compared as measured, not per absorbed photon (a dilution reads as a drop)');
+      warnings.push(
+        'absorbances at the excitation not given: emission compared as measured, not per absorbed photon (a dilution reads as a drop)',
+      );
     }
     if (Fr > 0 && count > 0) {
       const ratio = (Fs / Fr) * corr;
       const fraction = 1 - ratio;
       const sFs = s.sigma * s.step * Math.sqrt(count);
       const sFr = r.sigma * s.step * Math.sqrt(count);
-      const sigma = Math.abs(ratio) * Math.sqrt((sFs / Math.max(Math.abs(Fs), 1e-300)) ** 2 + (sFr / Fr) ** 2 + 2 * SYSTEMATIC_RELATIVE ** 2 + scaleRel ** 2);
+      const sigma =
+        Math.abs(ratio) *
+        Math.sqrt((sFs / Math.max(Math.abs(Fs), 1e-300)) ** 2 + (sFr / Fr) ** 2 + 2 * SYSTEMATIC_RELATIVE ** 2 + scaleRel ** 2);
       const sig = sigma > 0 ? fraction / sigma : 0;
       if (fraction >= t.minQuenchFraction && sig >= t.minSignificance) {
         flags.push({
@@ -425,7 +475,9 @@ export function compareSpectra(s: ProcessedSpectrum, r: ProcessedSpectrum, o: Co
             : `emission down ${(100 * fraction).toFixed(1)} % (${notCorrected})`,
         });
       } else if (fraction <= -t.minQuenchFraction && -sig >= t.minSignificance) {
-        warnings.push(`integrated emission${corrected ? ' per absorbed photon' : ''} up ${(-100 * fraction).toFixed(1)} % against the reference`);
+        warnings.push(
+          `integrated emission${corrected ? ' per absorbed photon' : ''} up ${(-100 * fraction).toFixed(1)} % against the reference`,
+        );
       }
     } else {
       warnings.push('reference PL integral is not positive: quench not computed');
@@ -449,7 +501,14 @@ function bandTop(E: Float64Array, y: Float64Array, offset: number, peak: number,
   const m = b - a + 1;
   if (m < 5) return E[peak + offset]!;
   // fit y = c0 + c1 u + c2 u² with u = index − peak
-  let s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, t0 = 0, t1 = 0, t2 = 0;
+  let s0 = 0,
+    s1 = 0,
+    s2 = 0,
+    s3 = 0,
+    s4 = 0,
+    t0 = 0,
+    t1 = 0,
+    t2 = 0;
   for (let j = a; j <= b; j++) {
     const u = j - peak;
     const u2 = u * u;

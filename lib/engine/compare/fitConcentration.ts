@@ -104,15 +104,17 @@ export function fitConcentration(
   o: { sigmaSample: number; sigmaReference: number; clipWindow: number; allowSlopeAndScatter: boolean; clippable: Uint8Array },
 ): ConcentrationFit | null {
   const n = energy.length;
-  if (sample.length !== n || reference.length !== n || mask.length !== n) throw new RangeError('fitConcentration: arrays must share the grid');
+  if (sample.length !== n || reference.length !== n || mask.length !== n)
+    throw new RangeError('fitConcentration: arrays must share the grid');
   const use = mask.slice();
   // centre and scale of the energy columns (conditioning)
   let lo = Infinity;
   let hi = -Infinity;
-  for (let i = 0; i < n; i++) if (use[i]) {
-    lo = Math.min(lo, energy[i]!);
-    hi = Math.max(hi, energy[i]!);
-  }
+  for (let i = 0; i < n; i++)
+    if (use[i]) {
+      lo = Math.min(lo, energy[i]!);
+      hi = Math.max(hi, energy[i]!);
+    }
   if (!(hi > lo)) return null;
   const centre = 0.5 * (lo + hi);
   const half = 0.5 * (hi - lo);
@@ -177,7 +179,8 @@ export function fitConcentration(
       const e = energy[i]!;
       const t = e / centre;
       const t2 = t * t;
-      resid[i] = sample[i]! - (w0 * reference[i]! + w6 * referenceSlope[i]! + w1 + (w2 * (e - centre)) / half + t2 * (w3 + t * (w4 + t * w5)));
+      resid[i] =
+        sample[i]! - (w0 * reference[i]! + w6 * referenceSlope[i]! + w1 + (w2 * (e - centre)) / half + t2 * (w3 + t * (w4 + t * w5)));
     }
     // running mean of the residual over w points of each contiguous run of used, clippable points
     const flag = new Uint8Array(n);
@@ -208,10 +211,11 @@ export function fitConcentration(
     }
     if (!any) break;
     let dropped = 0;
-    for (let i = 0; i < n; i++) if (flag[i] && use[i]) {
-      use[i] = 0;
-      dropped++;
-    }
+    for (let i = 0; i < n; i++)
+      if (flag[i] && use[i]) {
+        use[i] = 0;
+        dropped++;
+      }
     if (dropped === 0) break;
     clipped += dropped;
   }
@@ -253,9 +257,51 @@ const COLUMNS = 7;
  * (row-major), acc[49..56) = XᵀS, acc[56] = SᵀS. Returns the number of points used. A small
  * function of its own, so that the engine's JIT compiles this hot loop early and tight.
  */
-function accumulate(acc: Float64Array, energy: Float64Array, sample: ArrayLike<number>, reference: ArrayLike<number>, referenceSlope: ArrayLike<number>, use: Uint8Array, centre: number, half: number): number {
-  let s00 = 0, s01 = 0, s02 = 0, s03 = 0, s04 = 0, s05 = 0, s06 = 0, s11 = 0, s12 = 0, s13 = 0, s14 = 0, s15 = 0, s16 = 0, s22 = 0, s23 = 0, s24 = 0, s25 = 0, s26 = 0, s33 = 0, s34 = 0, s35 = 0, s36 = 0, s44 = 0, s45 = 0, s46 = 0, s55 = 0, s56 = 0, s66 = 0;
-  let y0 = 0, y1 = 0, y2 = 0, y3 = 0, y4 = 0, y5 = 0, y6 = 0;
+function accumulate(
+  acc: Float64Array,
+  energy: Float64Array,
+  sample: ArrayLike<number>,
+  reference: ArrayLike<number>,
+  referenceSlope: ArrayLike<number>,
+  use: Uint8Array,
+  centre: number,
+  half: number,
+): number {
+  let s00 = 0,
+    s01 = 0,
+    s02 = 0,
+    s03 = 0,
+    s04 = 0,
+    s05 = 0,
+    s06 = 0,
+    s11 = 0,
+    s12 = 0,
+    s13 = 0,
+    s14 = 0,
+    s15 = 0,
+    s16 = 0,
+    s22 = 0,
+    s23 = 0,
+    s24 = 0,
+    s25 = 0,
+    s26 = 0,
+    s33 = 0,
+    s34 = 0,
+    s35 = 0,
+    s36 = 0,
+    s44 = 0,
+    s45 = 0,
+    s46 = 0,
+    s55 = 0,
+    s56 = 0,
+    s66 = 0;
+  let y0 = 0,
+    y1 = 0,
+    y2 = 0,
+    y3 = 0,
+    y4 = 0,
+    y5 = 0,
+    y6 = 0;
   let yy = 0;
   let m = 0;
   const n = energy.length;
@@ -375,8 +421,13 @@ function separateScale(chosen: Model, solve: (cols: number[], power: number | nu
     if (!f || f.chi2 - chosen.chi2 > needGain) continue;
     if (f.inflation < least.model.inflation) least = { model: f, dropped: out };
     if (f.inflation > MAX_SCALE_INFLATION) continue;
-    if (!best || out.length < best.dropped.length || (out.length === best.dropped.length && f.inflation < best.model.inflation)) best = { model: f, dropped: out };
+    if (!best || out.length < best.dropped.length || (out.length === best.dropped.length && f.inflation < best.model.inflation))
+      best = { model: f, dropped: out };
   }
   if (best) return { ...best.model, dropped: termsOf(best.dropped), degenerate: null };
-  return { ...least.model, dropped: termsOf(least.dropped), degenerate: { terms: termsOf(least.model.cols), inflation: least.model.inflation } };
+  return {
+    ...least.model,
+    dropped: termsOf(least.dropped),
+    degenerate: { terms: termsOf(least.model.cols), inflation: least.model.inflation },
+  };
 }

@@ -128,7 +128,7 @@ function fitTaylor(
   for (let iter = 0; iter < 8; iter++) {
     // reference shifted by delta, by linear interpolation on the grid
     for (let k = 0; k < m; k++) {
-      const t = (from + k) - delta / step;
+      const t = from + k - delta / step;
       const j = Math.min(Math.max(Math.floor(t), 0), n - 2);
       const f = t - j;
       R[k] = refSmoothed[j]! + f * (refSmoothed[j + 1]! - refSmoothed[j]!);
@@ -139,8 +139,19 @@ function fitTaylor(
     const p = 4;
     ata.fill(0);
     atb.fill(0);
-    let a00 = 0, a01 = 0, a02 = 0, a03 = 0, a11 = 0, a12 = 0, a13 = 0, a22 = 0, a23 = 0;
-    let b0 = 0, b1 = 0, b2 = 0, b3 = 0;
+    let a00 = 0,
+      a01 = 0,
+      a02 = 0,
+      a03 = 0,
+      a11 = 0,
+      a12 = 0,
+      a13 = 0,
+      a22 = 0,
+      a23 = 0;
+    let b0 = 0,
+      b1 = 0,
+      b2 = 0,
+      b3 = 0;
     for (let k = 0; k < m; k++) {
       const r0 = R[k]!;
       const r1 = R1[k]!;

@@ -44,7 +44,10 @@ export function deriveQuantities(p: {
     warnings.push('no first exciton found: size and concentration not derived');
     return { report: empty, warnings };
   }
-  if (p.technique === 'pl') warnings.push('size derived from the emission peak, which lies below the absorption first exciton (Stokes shift): diameter is overestimated');
+  if (p.technique === 'pl')
+    warnings.push(
+      'size derived from the emission peak, which lies below the absorption first exciton (Stokes shift): diameter is overestimated',
+    );
   const id = p.material === 'CdSe' && p.sizingModel === 'jasieniak2009' ? 'cdse-jasieniak2009' : info.defaultSizing;
   const curve = SIZING_CURVES[id];
   const fx = p.firstExciton;
@@ -89,7 +92,12 @@ export function deriveQuantities(p: {
     const sizeGap = Math.abs(other.diameterNm - res.diameterNm) / (0.5 * (other.diameterNm + res.diameterNm));
     const epsGap = Math.abs(Math.log(other.extinctionPerMPerCm / res.extinctionPerMPerCm));
     const agrees = sizeGap <= CDSE_SIZE_AGREEMENT && epsGap <= CDSE_EXTINCTION_AGREEMENT;
-    report.alternativeSizing = { source: other.source, diameterNm: other.diameterNm, extinctionPerMPerCm: other.extinctionPerMPerCm, agrees };
+    report.alternativeSizing = {
+      source: other.source,
+      diameterNm: other.diameterNm,
+      extinctionPerMPerCm: other.extinctionPerMPerCm,
+      agrees,
+    };
     if (!agrees) {
       warnings.push(
         `the two CdSe sizing models disagree beyond their stated uncertainty (size ±5–10 %, ε ±10–15 % each): ${res.source.split(',')[0]} gives D ${res.diameterNm.toFixed(2)} nm, ε ${res.extinctionPerMPerCm.toExponential(2)}; ${other.source.split(',')[0]} gives D ${other.diameterNm.toFixed(2)} nm, ε ${other.extinctionPerMPerCm.toExponential(2)} M⁻¹cm⁻¹`,

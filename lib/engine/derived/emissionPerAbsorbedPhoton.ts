@@ -28,21 +28,30 @@ export interface EmissionAbsorbances {
   dotsAtExcitation?: number | undefined;
 }
 
-export type EmissionCorrection =
-  | { applied: true; factor: number; warnings: string[] }
-  | { applied: false; reason: string };
+export type EmissionCorrection = { applied: true; factor: number; warnings: string[] } | { applied: false; reason: string };
 
 export function emissionPerAbsorbedPhoton(a: EmissionAbsorbances, force = false): EmissionCorrection {
   const dots = a.dotsAtExcitation ?? a.excitation;
-  for (const [name, v] of [['absorbance at the excitation', a.excitation], ['absorbance at the emission', a.emission], ["dots' absorbance at the excitation", dots]] as const) {
+  for (const [name, v] of [
+    ['absorbance at the excitation', a.excitation],
+    ['absorbance at the emission', a.emission],
+    ["dots' absorbance at the excitation", dots],
+  ] as const) {
     if (!Number.isFinite(v) || v < 0) throw new RangeError(`${name} must be a non-negative number`);
   }
   if (!(dots > 0)) return { applied: false, reason: "the dots' absorbance at the excitation is 0: no light absorbed by the dots" };
-  if (dots > a.excitation * (1 + 1e-9)) throw new RangeError("the dots' absorbance at the excitation cannot exceed the total absorbance there");
+  if (dots > a.excitation * (1 + 1e-9))
+    throw new RangeError("the dots' absorbance at the excitation cannot exceed the total absorbance there");
   const worst = Math.max(a.excitation, a.emission);
   if (worst > INNER_FILTER_REFUSE_ABOVE && !force) {
-    return { applied: false, reason: `absorbance ${worst.toFixed(3)} is above ${INNER_FILTER_REFUSE_ABOVE}, where the inner-filter correction no longer holds; dilute to A ≤ 0.1` };
+    return {
+      applied: false,
+      reason: `absorbance ${worst.toFixed(3)} is above ${INNER_FILTER_REFUSE_ABOVE}, where the inner-filter correction no longer holds; dilute to A ≤ 0.1`,
+    };
   }
-  const warnings = worst > INNER_FILTER_WARN_ABOVE ? [`absorbance ${worst.toFixed(3)} is above ${INNER_FILTER_WARN_ABOVE}: the inner-filter correction is approximate`] : [];
+  const warnings =
+    worst > INNER_FILTER_WARN_ABOVE
+      ? [`absorbance ${worst.toFixed(3)} is above ${INNER_FILTER_WARN_ABOVE}: the inner-filter correction is approximate`]
+      : [];
   return { applied: true, factor: 10 ** ((a.excitation + a.emission) / 2) / dots, warnings };
 }

@@ -18,11 +18,51 @@ export type SizingModelId = 'cdse-yu2003' | 'cdse-jasieniak2009' | 'cdte-yu2003'
  * CdS 4.82, PbS 7.60, PbSe 8.10 g/cm³).
  */
 export const MATERIALS: Readonly<Record<MaterialName, MaterialInfo>> = {
-  CdSe: { name: 'CdSe', elements: [{ symbol: 'Cd', hazardous: true }, { symbol: 'Se', hazardous: false }], densityGPerCm3: 5.82, defaultSizing: 'cdse-yu2003' },
-  CdTe: { name: 'CdTe', elements: [{ symbol: 'Cd', hazardous: true }, { symbol: 'Te', hazardous: false }], densityGPerCm3: 5.85, defaultSizing: 'cdte-yu2003' },
-  CdS: { name: 'CdS', elements: [{ symbol: 'Cd', hazardous: true }, { symbol: 'S', hazardous: false }], densityGPerCm3: 4.82, defaultSizing: 'cds-yu2003' },
-  PbS: { name: 'PbS', elements: [{ symbol: 'Pb', hazardous: true }, { symbol: 'S', hazardous: false }], densityGPerCm3: 7.6, defaultSizing: 'pbs-moreels2009' },
-  PbSe: { name: 'PbSe', elements: [{ symbol: 'Pb', hazardous: true }, { symbol: 'Se', hazardous: false }], densityGPerCm3: 8.1, defaultSizing: 'pbse-moreels2007' },
+  CdSe: {
+    name: 'CdSe',
+    elements: [
+      { symbol: 'Cd', hazardous: true },
+      { symbol: 'Se', hazardous: false },
+    ],
+    densityGPerCm3: 5.82,
+    defaultSizing: 'cdse-yu2003',
+  },
+  CdTe: {
+    name: 'CdTe',
+    elements: [
+      { symbol: 'Cd', hazardous: true },
+      { symbol: 'Te', hazardous: false },
+    ],
+    densityGPerCm3: 5.85,
+    defaultSizing: 'cdte-yu2003',
+  },
+  CdS: {
+    name: 'CdS',
+    elements: [
+      { symbol: 'Cd', hazardous: true },
+      { symbol: 'S', hazardous: false },
+    ],
+    densityGPerCm3: 4.82,
+    defaultSizing: 'cds-yu2003',
+  },
+  PbS: {
+    name: 'PbS',
+    elements: [
+      { symbol: 'Pb', hazardous: true },
+      { symbol: 'S', hazardous: false },
+    ],
+    densityGPerCm3: 7.6,
+    defaultSizing: 'pbs-moreels2009',
+  },
+  PbSe: {
+    name: 'PbSe',
+    elements: [
+      { symbol: 'Pb', hazardous: true },
+      { symbol: 'Se', hazardous: false },
+    ],
+    densityGPerCm3: 8.1,
+    defaultSizing: 'pbse-moreels2007',
+  },
 };
 
 export function isMaterialName(s: string): s is MaterialName {

@@ -19,7 +19,9 @@ export interface SizingCurve {
 }
 
 function rangeWarning(lambda: number, [lo, hi]: [number, number], src: string): string[] {
-  return lambda < lo || lambda > hi ? [`first exciton ${lambda.toFixed(1)} nm is outside the ${lo}–${hi} nm range of ${src}; size and extinction are extrapolated`] : [];
+  return lambda < lo || lambda > hi
+    ? [`first exciton ${lambda.toFixed(1)} nm is outside the ${lo}–${hi} nm range of ${src}; size and extinction are extrapolated`]
+    : [];
 }
 
 /** Solves E0(d) = e for d on [lo, hi] by bisection (E0 decreasing in d). */
@@ -43,7 +45,13 @@ export const cdseYu2003: SizingCurve = {
   validNm: [450, 650],
   size(l) {
     const D = 1.6122e-9 * l ** 4 - 2.6575e-6 * l ** 3 + 1.6242e-3 * l ** 2 - 0.4277 * l + 41.57;
-    return { diameterNm: D, extinctionPerMPerCm: 5857 * D ** 2.65, extinctionAt: 'first-exciton', source: this.source, warnings: rangeWarning(l, this.validNm, 'Yu 2003 (CdSe)') };
+    return {
+      diameterNm: D,
+      extinctionPerMPerCm: 5857 * D ** 2.65,
+      extinctionAt: 'first-exciton',
+      source: this.source,
+      warnings: rangeWarning(l, this.validNm, 'Yu 2003 (CdSe)'),
+    };
   },
 };
 
@@ -54,7 +62,13 @@ export const cdteYu2003: SizingCurve = {
   validNm: [500, 750],
   size(l) {
     const D = 9.8127e-7 * l ** 3 - 1.7147e-3 * l ** 2 + 1.0064 * l - 194.84;
-    return { diameterNm: D, extinctionPerMPerCm: 10043 * D ** 2.12, extinctionAt: 'first-exciton', source: this.source, warnings: rangeWarning(l, this.validNm, 'Yu 2003 (CdTe)') };
+    return {
+      diameterNm: D,
+      extinctionPerMPerCm: 10043 * D ** 2.12,
+      extinctionAt: 'first-exciton',
+      source: this.source,
+      warnings: rangeWarning(l, this.validNm, 'Yu 2003 (CdTe)'),
+    };
   },
 };
 
@@ -65,7 +79,13 @@ export const cdsYu2003: SizingCurve = {
   validNm: [350, 480],
   size(l) {
     const D = -6.6521e-8 * l ** 3 + 1.9557e-4 * l ** 2 - 9.2352e-2 * l + 13.29;
-    return { diameterNm: D, extinctionPerMPerCm: 21536 * D ** 2.3, extinctionAt: 'first-exciton', source: this.source, warnings: rangeWarning(l, this.validNm, 'Yu 2003 (CdS)') };
+    return {
+      diameterNm: D,
+      extinctionPerMPerCm: 21536 * D ** 2.3,
+      extinctionAt: 'first-exciton',
+      source: this.source,
+      warnings: rangeWarning(l, this.validNm, 'Yu 2003 (CdS)'),
+    };
   },
 };
 
@@ -101,7 +121,8 @@ export const pbsMoreels2009: SizingCurve = {
   validNm: [HC_EV_NM / pbsBandGapEv(2.3), HC_EV_NM / pbsBandGapEv(10)],
   size(l) {
     const d = solveDiameter(pbsBandGapEv, HC_EV_NM / l);
-    const warnings = d < 2.3 || d > 10 ? [`diameter ${d.toFixed(2)} nm is outside the ~2.3–10 nm range of Moreels 2009 (range from memory)`] : [];
+    const warnings =
+      d < 2.3 || d > 10 ? [`diameter ${d.toFixed(2)} nm is outside the ~2.3–10 nm range of Moreels 2009 (range from memory)`] : [];
     return { diameterNm: d, extinctionPerMPerCm: 0.0233e6 * d ** 3, extinctionAt: '400nm', source: this.source, warnings };
   },
 };

@@ -91,7 +91,10 @@ export function decodeText(
   const encoding = chooseEncoding(bytes);
   const utf16 = encoding === 'utf-16le' || encoding === 'utf-16be';
   if (utf16 && bytes.length % 2 === 1) {
-    throw new SpectrumFileError(fileName, 'file starts like UTF-16 text but has an odd number of bytes; it looks binary, export it again as text (CSV)');
+    throw new SpectrumFileError(
+      fileName,
+      'file starts like UTF-16 text but has an odd number of bytes; it looks binary, export it again as text (CSV)',
+    );
   }
   const text = decodeWith(bytes, encoding);
   const { nul, share } = controlShare(text, 65536);

@@ -67,7 +67,7 @@ export function finalizeSpectrum(
   // merge duplicates
   let m = 0;
   let dupes = 0;
-  for (let i = 0; i < n; ) {
+  for (let i = 0; i < n;) {
     let j = i + 1;
     let sum = ys[i]!;
     while (j < n && xs[j] === xs[i]) {

@@ -1,8 +1,6 @@
 import type { XUnit } from '../types';
 
-export type XUnitInference =
-  | { unit: XUnit; rule: string }
-  | { unit: undefined; candidates: XUnit[]; rule: string };
+export type XUnitInference = { unit: XUnit; rule: string } | { unit: undefined; candidates: XUnit[]; rule: string };
 
 /**
  * Infers the X unit of a headerless column from its values, only where the ranges used for
@@ -34,7 +32,8 @@ export function inferXUnit(x: ArrayLike<number>): XUnitInference {
       : { unit: 'nm', rule: `values ${range}, written low to high, lie in 150–2600, wavelengths in nm` };
   }
   if (lo >= 200 && hi >= 3000 && hi <= 8000) {
-    if (descending || hi > 3300) return { unit: 'cm-1', rule: `values ${range}${descending ? ', written high to low,' : ''} are IR wavenumbers in cm⁻¹` };
+    if (descending || hi > 3300)
+      return { unit: 'cm-1', rule: `values ${range}${descending ? ', written high to low,' : ''} are IR wavenumbers in cm⁻¹` };
     return { unit: undefined, candidates: ['nm', 'cm-1'], rule: `values ${range} could be nm or cm⁻¹` };
   }
   if (lo >= 150 && hi < 3000) return { unit: undefined, candidates: ['nm', 'cm-1'], rule: `values ${range} could be nm or cm⁻¹` };

@@ -8,6 +8,7 @@ const ZIP_MAGIC = [0x50, 0x4b, 0x03, 0x04];
 export function looksLikeSpreadsheet(fileName: string, bytes: Uint8Array): boolean {
   if (/\.xls[xm]$/i.test(fileName)) return true;
   if (!ZIP_MAGIC.every((b, i) => bytes[i] === b)) return false;
-  const latin = (from: number, to: number) => new TextDecoder('latin1').decode(bytes.subarray(Math.max(0, from), Math.min(bytes.length, to)));
+  const latin = (from: number, to: number) =>
+    new TextDecoder('latin1').decode(bytes.subarray(Math.max(0, from), Math.min(bytes.length, to)));
   return latin(0, 65536).includes('xl/workbook.xml') || latin(bytes.length - 65536, bytes.length).includes('xl/workbook.xml');
 }

@@ -50,7 +50,14 @@ function detectLayout(lines: string[]): { delimiter: Delimiter; decimalComma: bo
     for (const line of sample) {
       const cells = delimiter === 'whitespace' ? line.trim().split(/\s+/) : line.split(delimiter);
       if (cells.length < 2) continue;
-      if (numericCount(cells, decimalComma) >= 2 && isDataRow(cells.map((c) => c.trim()), decimalComma)) score++;
+      if (
+        numericCount(cells, decimalComma) >= 2 &&
+        isDataRow(
+          cells.map((c) => c.trim()),
+          decimalComma,
+        )
+      )
+        score++;
     }
     if (score > best.score) best = { delimiter, decimalComma, score };
   }

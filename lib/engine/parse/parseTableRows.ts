@@ -61,7 +61,10 @@ const runStartsAt = (rows: string[][], i: number, dc: boolean) =>
 
 /** A header row: at least two cells, at least one of them text. */
 const isHeaderRow = (row: string[] | undefined, dc: boolean) =>
-  row !== undefined && !isBlank(row) && row.filter((c) => c.length > 0).length >= 2 && numericCount(row, dc) < row.filter((c) => c.length > 0).length;
+  row !== undefined &&
+  !isBlank(row) &&
+  row.filter((c) => c.length > 0).length >= 2 &&
+  numericCount(row, dc) < row.filter((c) => c.length > 0).length;
 
 const KEY_VALUE = /^[^:=]{1,80}[:=]/;
 
@@ -147,7 +150,8 @@ function dataEnd(rows: string[][], start: number, dc: boolean): number {
 }
 
 function damage(fileName: string, rows: string[][], end: number, resume: number): SpectrumFileError {
-  if (isBlank(rows[end]!)) return new SpectrumFileError(fileName, `blank line inside the data (data resumes at line ${resume + 1})`, { line: end + 1 });
+  if (isBlank(rows[end]!))
+    return new SpectrumFileError(fileName, `blank line inside the data (data resumes at line ${resume + 1})`, { line: end + 1 });
   const cell = rows[end]![0] ?? '';
   const problem = isNonFiniteWord(cell) ? `X value "${cell}" is not finite` : `X value "${cell.slice(0, 40)}" is not a number`;
   return new SpectrumFileError(fileName, problem, { line: end + 1, column: 1 });
@@ -247,7 +251,8 @@ function tracesOf(blocks: Block[]): TraceInfo[] {
   // Same labels (e.g. "Absorbance" under each pair with no group line) get their pair or column number.
   const counts = new Map<string, number>();
   for (const t of traces) counts.set(t.label, (counts.get(t.label) ?? 0) + 1);
-  for (const t of traces) if (counts.get(t.label)! > 1) t.label = t.pair ? `${t.label} (pair ${t.pair})` : `${t.label} (column ${t.column + 1})`;
+  for (const t of traces)
+    if (counts.get(t.label)! > 1) t.label = t.pair ? `${t.label} (pair ${t.pair})` : `${t.label} (column ${t.column + 1})`;
   return traces;
 }
 
@@ -260,7 +265,8 @@ function chooseTrace(fileName: string, blocks: Block[], traces: TraceInfo[], opt
   const b = blocks[blockNo - 1]!;
   if (inBlock.length === 0) throw new SpectrumFileError(fileName, 'no Y column with values found', { line: b.start + 1 });
   if (options.pair !== undefined) {
-    if (!b.pairs) throw new SpectrumFileError(fileName, `the file has no X,Y pairs side by side; choose a column instead of pair ${options.pair}`);
+    if (!b.pairs)
+      throw new SpectrumFileError(fileName, `the file has no X,Y pairs side by side; choose a column instead of pair ${options.pair}`);
     const t = inBlock.find((tr) => tr.pair === options.pair);
     if (!t) throw new SpectrumFileError(fileName, `pair ${options.pair} does not exist: pairs are 1..${inBlock.length}`);
     return t;
@@ -401,14 +407,14 @@ export function parseTableRows(fileName: string, rows: string[][], decimalComma:
   }
 
   // X unit: the person's choice, else the header, the group line, the metadata, else the values
-  const metaText = Object.entries(metadata).map(([k, v]) => `${k} ${v}`).join('\n');
+  const metaText = Object.entries(metadata)
+    .map(([k, v]) => `${k} ${v}`)
+    .join('\n');
   const stated = statedXUnits(xName);
   if (!options.xUnit && stated.size > 1) {
-    throw new SpectrumFileError(
-      fileName,
-      `mixed units in one column: the header names ${[...stated].join(' and ')}; choose the X unit`,
-      { column: xName },
-    );
+    throw new SpectrumFileError(fileName, `mixed units in one column: the header names ${[...stated].join(' and ')}; choose the X unit`, {
+      column: xName,
+    });
   }
   let xUnit: XUnit | undefined = options.xUnit;
   let xUnitSource: UnitSource = 'chosen';
@@ -432,7 +438,11 @@ export function parseTableRows(fileName: string, rows: string[][], decimalComma:
   }
   const nameHint = detectTechniqueFromName(fileName);
   const headerText = b.headerIndex >= 0 ? rows[b.headerIndex]!.join(' ') : '';
-  const fromFile = detectYUnit(trace.name) ?? (trace.group ? detectYUnit(trace.group) : undefined) ?? (headerText ? detectYUnit(headerText) : undefined) ?? detectYUnit(metaText);
+  const fromFile =
+    detectYUnit(trace.name) ??
+    (trace.group ? detectYUnit(trace.group) : undefined) ??
+    (headerText ? detectYUnit(headerText) : undefined) ??
+    detectYUnit(metaText);
   const yUnit =
     options.yUnit ??
     fromFile ??

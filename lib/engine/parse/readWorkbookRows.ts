@@ -19,7 +19,11 @@ function cellText(value: ExcelJS.CellValue): string {
   if (value instanceof Date) return value.toISOString();
   if (typeof value === 'object') {
     if ('result' in value) return cellText((value as ExcelJS.CellFormulaValue).result as ExcelJS.CellValue);
-    if ('richText' in value) return value.richText.map((r) => r.text).join('').trim();
+    if ('richText' in value)
+      return value.richText
+        .map((r) => r.text)
+        .join('')
+        .trim();
     if ('text' in value) return String(value.text).trim();
     if ('error' in value) return String(value.error);
   }
@@ -42,7 +46,10 @@ function sheetRows(ws: ExcelJS.Worksheet): string[][] {
 const hasNumericTable = (rows: string[][]) => {
   let run = 0;
   for (const r of rows) {
-    run = r.length >= 2 && r[0] !== '' && Number.isFinite(Number(r[0])) && r.slice(1).some((c) => c !== '' && Number.isFinite(Number(c))) ? run + 1 : 0;
+    run =
+      r.length >= 2 && r[0] !== '' && Number.isFinite(Number(r[0])) && r.slice(1).some((c) => c !== '' && Number.isFinite(Number(c)))
+        ? run + 1
+        : 0;
     if (run >= 3) return true;
   }
   return false;
@@ -53,7 +60,12 @@ const hasNumericTable = (rows: string[][]) => {
  * same table reader as delimited text. `sheet` is a name or a 1-based number; without it, the
  * first sheet holding a numeric table. The workbook is never treated as a zip of files.
  */
-export async function readWorkbookRows(fileName: string, bytes: Uint8Array, sheet: string | number | undefined, maxBytes: number): Promise<WorkbookTable> {
+export async function readWorkbookRows(
+  fileName: string,
+  bytes: Uint8Array,
+  sheet: string | number | undefined,
+  maxBytes: number,
+): Promise<WorkbookTable> {
   let expanded = 0;
   try {
     unzipSync(bytes, {
@@ -66,7 +78,10 @@ export async function readWorkbookRows(fileName: string, bytes: Uint8Array, shee
     throw new SpectrumFileError(fileName, 'is not a readable spreadsheet (.xlsx): the workbook is damaged; export the sheet as CSV');
   }
   if (expanded > MAX_EXPANSION * maxBytes) {
-    throw new SpectrumFileError(fileName, `spreadsheet expands to ${expanded} bytes, over ${MAX_EXPANSION} × the file limit; export the sheet as CSV`);
+    throw new SpectrumFileError(
+      fileName,
+      `spreadsheet expands to ${expanded} bytes, over ${MAX_EXPANSION} × the file limit; export the sheet as CSV`,
+    );
   }
   const workbook = new ExcelJS.Workbook();
   try {
@@ -80,11 +95,21 @@ export async function readWorkbookRows(fileName: string, bytes: Uint8Array, shee
   let ws: ExcelJS.Worksheet | undefined;
   if (sheet !== undefined) {
     const n = typeof sheet === 'number' ? sheet : /^\d+$/.test(sheet.trim()) ? Number(sheet) : undefined;
-    ws = n !== undefined ? workbook.worksheets[n - 1] : workbook.worksheets.find((w) => w.name === sheet || w.name.toLowerCase() === String(sheet).trim().toLowerCase());
-    if (!ws) throw new SpectrumFileError(fileName, `no sheet ${typeof sheet === 'number' ? sheet : `'${sheet}'`} (sheets: ${sheets.map((s) => `'${s}'`).join(', ')})`);
+    ws =
+      n !== undefined
+        ? workbook.worksheets[n - 1]
+        : workbook.worksheets.find((w) => w.name === sheet || w.name.toLowerCase() === String(sheet).trim().toLowerCase());
+    if (!ws)
+      throw new SpectrumFileError(
+        fileName,
+        `no sheet ${typeof sheet === 'number' ? sheet : `'${sheet}'`} (sheets: ${sheets.map((s) => `'${s}'`).join(', ')})`,
+      );
     const rows = sheetRows(ws);
     if (!hasNumericTable(rows)) {
-      throw new SpectrumFileError(fileName, `no numeric table found on sheet '${ws.name}'; export the sheet as CSV or choose another sheet`);
+      throw new SpectrumFileError(
+        fileName,
+        `no numeric table found on sheet '${ws.name}'; export the sheet as CSV or choose another sheet`,
+      );
     }
     return { rows, sheet: ws.name, sheets };
   }

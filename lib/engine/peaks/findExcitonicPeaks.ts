@@ -103,17 +103,19 @@ export function findExcitonicPeaks(
     if (significance < minSig) continue;
     const fwhm = widths[k]! * step;
     const eRefined = refine(energy, smoothed, i);
-    peaks.push(excitonicPeak({
-      index: i,
-      kind: 'maximum',
-      energyEv: eRefined,
-      wavelengthNm: HC_EV_NM / eRefined,
-      height: smoothed[i]!,
-      amplitude: prominences[k]!,
-      fwhmMeV: fwhm * 1000,
-      area: prominences[k]! * fwhm * 1.0644670194312262,
-      significance,
-    }));
+    peaks.push(
+      excitonicPeak({
+        index: i,
+        kind: 'maximum',
+        energyEv: eRefined,
+        wavelengthNm: HC_EV_NM / eRefined,
+        height: smoothed[i]!,
+        amplitude: prominences[k]!,
+        fwhmMeV: fwhm * 1000,
+        area: prominences[k]! * fwhm * 1.0644670194312262,
+        significance,
+      }),
+    );
   }
   // shoulders: minima of y'' with y'' < 0. For each point, the nearest index at or before
   // (after) it where y'' ≥ 0 (or the end), found in one pass each way.
@@ -155,7 +157,7 @@ export function findExcitonicPeaks(
     const fwhm = sigmaEv * FWHM_PER_SIGMA;
     // same band as a maximum already found?
     const dup = peaks.some(
-      (p) => p.kind === 'maximum' && Math.abs(p.energyEv - energy[i]!) < Math.max(0.5 * (p.fwhmMeV ?? 0) / 1000, 3 * step),
+      (p) => p.kind === 'maximum' && Math.abs(p.energyEv - energy[i]!) < Math.max((0.5 * (p.fwhmMeV ?? 0)) / 1000, 3 * step),
     );
     if (dup) continue;
     const amplitude = -d * sigmaEv * sigmaEv;
@@ -164,17 +166,19 @@ export function findExcitonicPeaks(
     const significance = -d / (sigD * (loc ? loc(i) : 1));
     if (significance < minSig) continue;
     const e = refine(energy, secondDerivative, i, true);
-    peaks.push(excitonicPeak({
-      index: i,
-      kind: 'shoulder',
-      energyEv: e,
-      wavelengthNm: HC_EV_NM / e,
-      height: smoothed[i]!,
-      amplitude,
-      fwhmMeV: fwhm * 1000,
-      area: amplitude * fwhm * 1.0644670194312262,
-      significance,
-    }));
+    peaks.push(
+      excitonicPeak({
+        index: i,
+        kind: 'shoulder',
+        energyEv: e,
+        wavelengthNm: HC_EV_NM / e,
+        height: smoothed[i]!,
+        amplitude,
+        fwhmMeV: fwhm * 1000,
+        area: amplitude * fwhm * 1.0644670194312262,
+        significance,
+      }),
+    );
   }
   peaks.sort((a, b) => a.energyEv - b.energyEv);
   return peaks;
@@ -197,7 +201,8 @@ function localNoiseFactor(
   halfWidth: number,
 ): (i: number) => number {
   const n = smoothed.length;
-  if (!(local.smoothingGain > 0) || local.raw.length !== n) throw new RangeError('local noise needs raw data on the same grid and a positive smoothing gain');
+  if (!(local.smoothingGain > 0) || local.raw.length !== n)
+    throw new RangeError('local noise needs raw data on the same grid and a positive smoothing gain');
   const raw = local.raw instanceof Float64Array ? local.raw : Float64Array.from(local.raw);
   const h = Math.max(MIN_LOCAL_HALF_WIDTH, Math.round(halfWidth));
   const cache = new Map<number, number>();

@@ -61,6 +61,12 @@ function sweep(y: Float64Array, n: number, dir: 1 | -1, segMin: Float64Array, se
 
 // Work arrays reused between calls (single-threaded; only per-peak results leave a call).
 function makeWork(n: number) {
-  return { leftMin: new Float64Array(n), leftArg: new Int32Array(n), rightMin: new Float64Array(n), rightArg: new Int32Array(n), stack: new Int32Array(n) };
+  return {
+    leftMin: new Float64Array(n),
+    leftArg: new Int32Array(n),
+    rightMin: new Float64Array(n),
+    rightArg: new Int32Array(n),
+    stack: new Int32Array(n),
+  };
 }
 let work = makeWork(0);

@@ -4,11 +4,7 @@
  * common practice), widened 1.5× when the signal-to-noise ratio is below 30, and capped at a
  * quarter of the data so that features are not flattened.
  */
-export function chooseSmoothingWindow(
-  n: number,
-  stepEv: number,
-  options: { targetSpanEv?: number; signalToNoise?: number } = {},
-): number {
+export function chooseSmoothingWindow(n: number, stepEv: number, options: { targetSpanEv?: number; signalToNoise?: number } = {}): number {
   if (!(n >= 5)) throw new RangeError('at least 5 points are needed');
   if (!(stepEv > 0)) throw new RangeError('stepEv must be positive');
   let span = options.targetSpanEv ?? 0.025;

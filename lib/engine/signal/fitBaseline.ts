@@ -26,7 +26,11 @@ export function fitBaseline(
     return out;
   }
   // scatter: a + b E^4 by linear least squares
-  let s1 = 0, sx = 0, sxx = 0, sy = 0, sxy = 0;
+  let s1 = 0,
+    sx = 0,
+    sxx = 0,
+    sy = 0,
+    sxy = 0;
   for (let k = 0; k < count; k++) {
     const i = idx[k]!;
     const u = energy[i]! ** 4;

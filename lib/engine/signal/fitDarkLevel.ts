@@ -20,7 +20,8 @@ export function fitDarkLevel(
   const jacobian = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const e = energy[i]!;
-    jacobian[i] = o.xUnit === 'nm' ? HC_EV_NM / (e * e) : o.xUnit === 'um' ? (HC_EV_NM / (e * e)) * 1e-3 : o.xUnit === 'cm-1' ? CM1_PER_EV : 1;
+    jacobian[i] =
+      o.xUnit === 'nm' ? HC_EV_NM / (e * e) : o.xUnit === 'um' ? (HC_EV_NM / (e * e)) * 1e-3 : o.xUnit === 'cm-1' ? CM1_PER_EV : 1;
   }
   const excluded = (e: number) => o.exclude.some(([lo, hi]) => e >= lo && e <= hi);
   const g = Math.max(0, Math.round(o.edgeGuard));
@@ -47,7 +48,11 @@ export function fitDarkLevel(
     m++;
   }
   if (m < 16 || !(sjj > 0)) {
-    return { level: null, jacobian, reason: `dark level not subtracted: fewer than 16 points lie more than 3 FWHM (${(3 * fwhm * 1000).toFixed(0)} meV) from the emission maximum` };
+    return {
+      level: null,
+      jacobian,
+      reason: `dark level not subtracted: fewer than 16 points lie more than 3 FWHM (${(3 * fwhm * 1000).toFixed(0)} meV) from the emission maximum`,
+    };
   }
   return { level: syj / sjj, jacobian, reason: '' };
 }

@@ -44,7 +44,14 @@ export function savitzkyGolayFilter(y: ArrayLike<number>, step: number, options:
   const yy = y instanceof Float64Array ? y : Float64Array.from(y);
   const scale = 1 / Math.pow(step, derivative);
   if (quadraticEquivalent(polynomial, derivative)) {
-    savitzkyGolayQuadraticInterior(yy, windowSize, step, derivative === 0 ? out : null, derivative === 1 ? out : null, derivative === 2 ? out : null);
+    savitzkyGolayQuadraticInterior(
+      yy,
+      windowSize,
+      step,
+      derivative === 0 ? out : null,
+      derivative === 1 ? out : null,
+      derivative === 2 ? out : null,
+    );
   } else {
     convolveInterior(yy, savitzkyGolayWeights(windowSize, polynomial, derivative), scale, out);
   }
@@ -75,7 +82,11 @@ export function savitzkyGolayQuadraticBank(
   const secondDerivative = new Float64Array(n);
   savitzkyGolayQuadraticInterior(y, windowSize, step, smoothed, polynomial === 2 ? firstDerivative : null, secondDerivative);
   if (polynomial === 3) convolveInterior(y, savitzkyGolayWeights(windowSize, 3, 1), 1 / step, firstDerivative);
-  for (const [d, out] of [[0, smoothed], [1, firstDerivative], [2, secondDerivative]] as const) {
+  for (const [d, out] of [
+    [0, smoothed],
+    [1, firstDerivative],
+    [2, secondDerivative],
+  ] as const) {
     fitEdge(y, 0, windowSize, polynomial, d, step, out, 0, half);
     fitEdge(y, n - windowSize, windowSize, polynomial, d, step, out, n - half, n);
   }
@@ -94,7 +105,10 @@ function convolveInterior(y: Float64Array, c: Float64Array, scale: number, out: 
   const m = y.length - 2 * half;
   let i = 0;
   for (; i + 3 < m; i += 4) {
-    let a0 = 0, a1 = 0, a2 = 0, a3 = 0;
+    let a0 = 0,
+      a1 = 0,
+      a2 = 0,
+      a3 = 0;
     for (let l = 0; l < w; l++) {
       const cl = c[l]!;
       const b = i + l;
@@ -114,7 +128,6 @@ function convolveInterior(y: Float64Array, c: Float64Array, scale: number, out: 
     out[i + half] = a * scale;
   }
 }
-
 
 /** Fits a polynomial to y[start..start+w) and writes its derivative at indices [from, to). */
 function fitEdge(

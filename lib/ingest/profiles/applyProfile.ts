@@ -30,7 +30,8 @@ export async function applyProfile(
   const needSignature = options.wantSignature || (requested === "" && (await projectHasProfiles(projectId)));
   const signature = needSignature ? await headerSignature(file.fileName, file.bytes, technique, maxBytes) : null;
   if (requested.toLowerCase() === "none") return { fields, profile: null, signature };
-  const profile = requested !== "" ? await profileByName(projectId, requested) : signature ? await profileForSignature(projectId, signature) : null;
+  const profile =
+    requested !== "" ? await profileByName(projectId, requested) : signature ? await profileForSignature(projectId, signature) : null;
   if (!profile) return { fields, profile: null, signature };
   const merged: Record<string, unknown> = { ...fields };
   for (const [k, v] of Object.entries(profileFields(profileChoiceSchema.parse(profile.choice)))) if (blank(merged[k])) merged[k] = v;

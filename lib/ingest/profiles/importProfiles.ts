@@ -8,15 +8,21 @@ import { profileChoiceSchema, saveProfileSchema, type ProfileChoice } from "./pr
 export type ImportProfileView = { id: string; name: string; choice: ProfileChoice; signature: string; updatedAt: string };
 
 const view = (p: ImportProfile): ImportProfileView => ({
-  id: p.id, name: p.name, choice: profileChoiceSchema.parse(p.choice), signature: p.signature, updatedAt: p.updatedAt.toISOString(),
+  id: p.id,
+  name: p.name,
+  choice: profileChoiceSchema.parse(p.choice),
+  signature: p.signature,
+  updatedAt: p.updatedAt.toISOString(),
 });
 
 /** The project, when the actor may add spectra to it (profiles belong to people who upload). */
 export async function writableProject(actor: Actor, projectId: string): Promise<Project> {
   models();
   const project = /^[0-9a-f-]{36}$/i.test(projectId) ? await Project.findByPk(projectId) : null;
-  if (!project || !(await canReadProject(actor, project))) throw new Refusal(404, "not-found", `project ${projectId} was not found`, "projectId");
-  if (!canWrite(actor, project.groupId)) throw new Refusal(403, "forbidden", `you may not add spectra or import profiles to project "${project.name}"`, "projectId");
+  if (!project || !(await canReadProject(actor, project)))
+    throw new Refusal(404, "not-found", `project ${projectId} was not found`, "projectId");
+  if (!canWrite(actor, project.groupId))
+    throw new Refusal(403, "forbidden", `you may not add spectra or import profiles to project "${project.name}"`, "projectId");
   return project;
 }
 
@@ -33,7 +39,11 @@ function firstIssue(error: { issues: { path: PropertyKey[]; message: string }[] 
 }
 
 /** Saves a named profile (saving a name again replaces it), audited. */
-export async function saveImportProfile(actor: Actor, projectId: string, input: unknown): Promise<{ profile: ImportProfileView; created: boolean }> {
+export async function saveImportProfile(
+  actor: Actor,
+  projectId: string,
+  input: unknown,
+): Promise<{ profile: ImportProfileView; created: boolean }> {
   const parsed = saveProfileSchema.safeParse(input);
   if (!parsed.success) throw firstIssue(parsed.error);
   const project = await writableProject(actor, projectId);
@@ -45,8 +55,13 @@ export async function saveImportProfile(actor: Actor, projectId: string, input: 
       : await ImportProfile.create({ projectId: project.id, name, choice, signature, createdBy: actor.id }, { transaction });
     await recordAudit(
       {
-        actorId: actor.id, actorLabel: actor.email, groupId: project.groupId, action: existing ? "import-profile.replace" : "import-profile.create",
-        targetType: "import-profile", targetId: profile.id, details: { projectId: project.id, name, choice },
+        actorId: actor.id,
+        actorLabel: actor.email,
+        groupId: project.groupId,
+        action: existing ? "import-profile.replace" : "import-profile.create",
+        targetType: "import-profile",
+        targetId: profile.id,
+        details: { projectId: project.id, name, choice },
       },
       transaction,
     );
@@ -56,14 +71,21 @@ export async function saveImportProfile(actor: Actor, projectId: string, input: 
 
 export async function deleteImportProfile(actor: Actor, projectId: string, profileId: string): Promise<void> {
   const project = await writableProject(actor, projectId);
-  const profile = /^[0-9a-f-]{36}$/i.test(profileId) ? await ImportProfile.findOne({ where: { id: profileId, projectId: project.id } }) : null;
+  const profile = /^[0-9a-f-]{36}$/i.test(profileId)
+    ? await ImportProfile.findOne({ where: { id: profileId, projectId: project.id } })
+    : null;
   if (!profile) throw new Refusal(404, "not-found", `import profile ${profileId} was not found in this project`);
   await models().transaction(async (transaction) => {
     await profile.destroy({ transaction });
     await recordAudit(
       {
-        actorId: actor.id, actorLabel: actor.email, groupId: project.groupId, action: "import-profile.delete",
-        targetType: "import-profile", targetId: profile.id, details: { projectId: project.id, name: profile.name, choice: profile.choice },
+        actorId: actor.id,
+        actorLabel: actor.email,
+        groupId: project.groupId,
+        action: "import-profile.delete",
+        targetType: "import-profile",
+        targetId: profile.id,
+        details: { projectId: project.id, name: profile.name, choice: profile.choice },
       },
       transaction,
     );
@@ -81,7 +103,13 @@ export async function profileByName(projectId: string, name: string): Promise<Im
 /** The profile matching a file's header signature: the most recently saved of those with the same signature. */
 export async function profileForSignature(projectId: string, signature: string): Promise<ImportProfile | null> {
   models();
-  return ImportProfile.findOne({ where: { projectId, signature }, order: [["updatedAt", "DESC"], ["name", "ASC"]] });
+  return ImportProfile.findOne({
+    where: { projectId, signature },
+    order: [
+      ["updatedAt", "DESC"],
+      ["name", "ASC"],
+    ],
+  });
 }
 
 export async function projectHasProfiles(projectId: string): Promise<boolean> {

@@ -13,7 +13,11 @@ export default async function NewSamplePage() {
   const actor = await requireActor("/samples/new");
   const groups = writerMemberships(actor).map((m) => ({ id: m.groupId, name: m.groupName }));
   if (groups.length === 0) {
-    return <EmptyState title="Registering samples needs a spectroscopist or group-lead role">Ask your group lead to change your role.</EmptyState>;
+    return (
+      <EmptyState title="Registering samples needs a spectroscopist or group-lead role">
+        Ask your group lead to change your role.
+      </EmptyState>
+    );
   }
   const [samples, projects] = await Promise.all([listSampleChoices(actor), listProjectChoices(actor, "write")]);
   return (

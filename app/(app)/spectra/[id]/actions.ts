@@ -9,7 +9,8 @@ import { Refusal, refuse } from "@/lib/errors";
 /** Re-runs the analysis of one spectrum with changed parameters; earlier runs are kept for provenance. */
 export const rerunAnalysis = protectedAction(rerunFormSchema, async (input, actor) => {
   const changes = toReanalysisChanges(input);
-  if (Object.keys(changes).length === 0) throw refuse(400, "Change at least one parameter; an unchanged run would repeat the last one.", "form");
+  if (Object.keys(changes).length === 0)
+    throw refuse(400, "Change at least one parameter; an unchanged run would repeat the last one.", "form");
   try {
     const result = await requestReanalysis(input.spectrumId, changes, actor);
     revalidatePath(`/spectra/${input.spectrumId}`);

@@ -20,28 +20,61 @@ export default async function HoldsPage() {
   const lifted = holds.filter((h) => h.liftedAt);
   return (
     <>
-      <PageHeader title="Holds" subtitle="A hold (for a legal matter, a dispute or a publication under review) keeps a project, series, sample or spectrum, and everything within it, from being deleted by anyone or by any policy until you lift it." />
+      <PageHeader
+        title="Holds"
+        subtitle="A hold (for a legal matter, a dispute or a publication under review) keeps a project, series, sample or spectrum, and everything within it, from being deleted by anyone or by any policy until you lift it."
+      />
       <section className="mb-6 rounded-lg border border-stone-200 bg-white p-4">
         <h2 className="text-base font-semibold">Place a hold</h2>
-        <ActionForm action={placeHold} submit="Place hold" pendingLabel="Placing…" className="mt-3 flex flex-wrap items-end gap-3" label="Place hold">
+        <ActionForm
+          action={placeHold}
+          submit="Place hold"
+          pendingLabel="Placing…"
+          className="mt-3 flex flex-wrap items-end gap-3"
+          label="Place hold"
+        >
           <HoldTargetPicker options={options} />
-          <label className="min-w-72 flex-1 text-sm font-medium">Reason
-            <input name="reason" required maxLength={1000} placeholder="e.g. patent filing, keep until the examiner decides" className={`${inputClass} mt-1`} />
+          <label className="min-w-72 flex-1 text-sm font-medium">
+            Reason
+            <input
+              name="reason"
+              required
+              maxLength={1000}
+              placeholder="e.g. patent filing, keep until the examiner decides"
+              className={`${inputClass} mt-1`}
+            />
           </label>
         </ActionForm>
       </section>
       <h2 className="mb-2 text-base font-semibold">Holds in force ({active.length})</h2>
-      {active.length === 0 ? <p className="mb-6 text-sm text-ink-soft">No holds in force.</p> : (
+      {active.length === 0 ? (
+        <p className="mb-6 text-sm text-ink-soft">No holds in force.</p>
+      ) : (
         <div className="mb-6 overflow-hidden rounded-lg border border-stone-200 bg-white">
           <table className="w-full text-sm" data-testid="holds-table">
-            <thead className="bg-stone-100 text-left text-xs text-ink-soft"><tr><th className="px-3 py-2">On</th><th className="px-3 py-2">Reason</th><th className="px-3 py-2">Placed</th><th /></tr></thead>
+            <thead className="bg-stone-100 text-left text-xs text-ink-soft">
+              <tr>
+                <th className="px-3 py-2">On</th>
+                <th className="px-3 py-2">Reason</th>
+                <th className="px-3 py-2">Placed</th>
+                <th />
+              </tr>
+            </thead>
             <tbody>
               {active.map((h) => (
                 <tr key={h.id} className="border-t border-stone-100 align-top">
-                  <td className="px-3 py-1.5"><span className="text-xs text-ink-soft">{h.targetType}</span> <span className="font-medium">{h.targetLabel}</span></td>
+                  <td className="px-3 py-1.5">
+                    <span className="text-xs text-ink-soft">{h.targetType}</span> <span className="font-medium">{h.targetLabel}</span>
+                  </td>
                   <td className="px-3 py-1.5">{h.reason}</td>
-                  <td className="whitespace-nowrap px-3 py-1.5 text-ink-soft">{formatDay(h.placedAt)} · {h.placedBy}</td>
-                  <td className="px-3 py-1.5 text-right"><ActionForm action={liftHold} submit="Lift" danger className="inline-flex flex-wrap items-center gap-2"><input type="hidden" name="id" value={h.id} /></ActionForm></td>
+                  <td className="whitespace-nowrap px-3 py-1.5 text-ink-soft">
+                    {formatDay(h.placedAt)} · {h.placedBy}
+                  </td>
+                  <td className="px-3 py-1.5 text-right">
+                    <ActionForm action={liftHold} submit="Lift" danger className="inline-flex flex-wrap items-center gap-2">
+                      <input type="hidden" name="id" value={h.id} />
+                    </ActionForm>
+                  </td>
                 </tr>
               ))}
             </tbody>
@@ -52,7 +85,12 @@ export default async function HoldsPage() {
         <details className="text-sm">
           <summary className="cursor-pointer text-ink-soft">Lifted holds ({lifted.length})</summary>
           <ul className="mt-2 space-y-1">
-            {lifted.map((h) => <li key={h.id}><span className="text-xs text-ink-soft">{h.targetType}</span> {h.targetLabel}: {h.reason} — lifted {formatDay(h.liftedAt)} by {h.liftedBy}</li>)}
+            {lifted.map((h) => (
+              <li key={h.id}>
+                <span className="text-xs text-ink-soft">{h.targetType}</span> {h.targetLabel}: {h.reason} — lifted {formatDay(h.liftedAt)}{" "}
+                by {h.liftedBy}
+              </li>
+            ))}
           </ul>
         </details>
       )}

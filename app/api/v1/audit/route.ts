@@ -9,7 +9,12 @@ export const dynamic = "force-dynamic";
 
 const formatSchema = z.object({
   format: z.enum(["csv", "json"], { error: "format: use csv or json." }).default("json"),
-  limit: z.coerce.number({ error: "limit: a whole number." }).int("limit: a whole number.").min(1, "limit: at least 1.").max(AUDIT_API_MAX_PAGE, `limit: at most ${AUDIT_API_MAX_PAGE}.`).default(AUDIT_PAGE_SIZE),
+  limit: z.coerce
+    .number({ error: "limit: a whole number." })
+    .int("limit: a whole number.")
+    .min(1, "limit: at least 1.")
+    .max(AUDIT_API_MAX_PAGE, `limit: at most ${AUDIT_API_MAX_PAGE}.`)
+    .default(AUDIT_PAGE_SIZE),
 });
 
 /**

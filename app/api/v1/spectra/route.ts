@@ -27,7 +27,8 @@ export const GET = withActor(async (request, { actor }) => {
       items: page.rows.map((r) => ({ ...r, url: `/api/v1/spectra/${r.id}` })),
       count: page.count,
       next: page.next,
-      nextUrl: nextQuery === null ? null : `/api/v1/spectra?${nextQuery}${search.limit === SEARCH_PAGE_SIZE ? "" : `&limit=${search.limit}`}`,
+      nextUrl:
+        nextQuery === null ? null : `/api/v1/spectra?${nextQuery}${search.limit === SEARCH_PAGE_SIZE ? "" : `&limit=${search.limit}`}`,
     },
     { headers: { "Cache-Control": "no-store" } },
   );
@@ -39,7 +40,7 @@ export const GET = withActor(async (request, { actor }) => {
  */
 export const POST = withActor(async (request, { actor }) => {
   if (mediaTypeOf(request) !== "multipart/form-data") {
-    throw new Refusal(415, "unsupported-media-type", "send the files as multipart/form-data (field \"file\")");
+    throw new Refusal(415, "unsupported-media-type", 'send the files as multipart/form-data (field "file")');
   }
   const limits = ingestLimits();
   const requestLimit = Number(process.env.UPLOAD_REQUEST_MAX_BYTES ?? limits.maxFileBytes * 5);

@@ -18,8 +18,12 @@ export const GET = withActor(async (request, { actor }) => {
   if (queue.next) nextParams.set("after", queue.next);
   return NextResponse.json(
     {
-      items: queue.items, total: queue.total, totalExact: queue.totalExact, pageSize: queue.pageSize,
-      next: queue.next, nextUrl: queue.next ? `/api/v1/review/queue?${nextParams.toString()}` : null,
+      items: queue.items,
+      total: queue.total,
+      totalExact: queue.totalExact,
+      pageSize: queue.pageSize,
+      next: queue.next,
+      nextUrl: queue.next ? `/api/v1/review/queue?${nextParams.toString()}` : null,
     },
     { headers: { "Cache-Control": "no-store" } },
   );

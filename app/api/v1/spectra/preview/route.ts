@@ -17,11 +17,12 @@ const KNOWN_FIELDS = new Set<string>(["file", ...PREVIEW_FIELDS]);
  */
 export const POST = withActor(async (request, { actor }) => {
   if (!(request.headers.get("content-type") ?? "").toLowerCase().startsWith("multipart/form-data")) {
-    throw new Refusal(415, "unsupported-media-type", "send the file as multipart/form-data (field \"file\")");
+    throw new Refusal(415, "unsupported-media-type", 'send the file as multipart/form-data (field "file")');
   }
   const { maxFileBytes } = ingestLimits();
   const length = Number(request.headers.get("content-length") ?? "0");
-  if (length > maxFileBytes + 64 * 1024) throw new Refusal(413, "too-large", `the request is ${length} bytes, over the ${maxFileBytes}-byte limit for one file`);
+  if (length > maxFileBytes + 64 * 1024)
+    throw new Refusal(413, "too-large", `the request is ${length} bytes, over the ${maxFileBytes}-byte limit for one file`);
   let form: FormData;
   try {
     form = await request.formData();
@@ -38,7 +39,7 @@ export const POST = withActor(async (request, { actor }) => {
     } else if (typeof value === "string") fields[name] = value;
     else throw new Refusal(400, "invalid", `${name}: must be text, not a file`, name);
   }
-  if (!file) throw new Refusal(400, "no-file", "no file was sent (use the form field \"file\")", "file");
+  if (!file) throw new Refusal(400, "no-file", 'no file was sent (use the form field "file")', "file");
   const preview = await previewFile(actor, file.name || "unnamed", new Uint8Array(await file.arrayBuffer()), fields, maxFileBytes);
   return NextResponse.json(preview);
 });

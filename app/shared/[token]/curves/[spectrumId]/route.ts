@@ -17,12 +17,19 @@ export const dynamic = "force-dynamic";
 // and the spectrum within it (its series or project, or a supernatant of a shared point);
 // anything else is the same 404 as the raw route. No analysis report, no review state.
 
-const PRIVATE = { "Cache-Control": "private, no-store", "X-Robots-Tag": "noindex, nofollow", "Referrer-Policy": "no-referrer", "X-Content-Type-Options": "nosniff" };
+const PRIVATE = {
+  "Cache-Control": "private, no-store",
+  "X-Robots-Tag": "noindex, nofollow",
+  "Referrer-Policy": "no-referrer",
+  "X-Content-Type-Options": "nosniff",
+};
 
 const querySchema = z.object({
   format: z.enum(["binary", "csv", "jcamp"], { error: "format must be binary, csv or jcamp" }).default("binary"),
   axis: z.enum(DISPLAY_AXES, { error: "axis must be nm, ev or cm-1" }).default("nm"),
-  series: z.enum(["raw", "smoothed", "reference", "difference"], { error: "series must be raw, smoothed, reference or difference" }).default("smoothed"),
+  series: z
+    .enum(["raw", "smoothed", "reference", "difference"], { error: "series must be raw, smoothed, reference or difference" })
+    .default("smoothed"),
 });
 
 function refused(status: number, code: string, message: string): Response {
@@ -37,21 +44,39 @@ export async function GET(request: Request, { params }: { params: Promise<{ toke
   try {
     const link = await resolveShareLink(token);
     const spectrum = link ? await spectrumThroughLink(link, spectrumId) : null;
-    if (!spectrum) return refused(404, "not_found", "This link is not valid for that spectrum: it was revoked, it expired, it never existed, or the spectrum is not part of what it shares.");
+    if (!spectrum)
+      return refused(
+        404,
+        "not_found",
+        "This link is not valid for that spectrum: it was revoked, it expired, it never existed, or the spectrum is not part of what it shares.",
+      );
     models();
     const run = await AnalysisRun.findOne({
-      where: { spectrumId: spectrum.id, status: "done" }, order: [["createdAt", "DESC"]],
+      where: { spectrumId: spectrum.id, status: "done" },
+      order: [["createdAt", "DESC"]],
       attributes: ["id", "status", "parameters", "referenceSpectrumId", "engineVersion", "errorMessage"],
     });
     if (!run) return refused(409, "not-ready", "This spectrum has no finished analysis.");
     if (query.format === "binary") {
       const { body } = await dataPayload(spectrum, run, query.axis, "binary");
-      return new Response(body as Uint8Array<ArrayBuffer>, { status: 200, headers: { ...PRIVATE, "Content-Type": COLUMNS_MEDIA_TYPE, "Content-Length": String(body.length) } });
+      return new Response(body as Uint8Array<ArrayBuffer>, {
+        status: 200,
+        headers: { ...PRIVATE, "Content-Type": COLUMNS_MEDIA_TYPE, "Content-Length": String(body.length) },
+      });
     }
     const file = exportFile({
-      format: query.format, spectrum, runId: run.id, report: await getRunReport(run.id), axis: query.axis, series: query.series, view: await viewArraysOf(spectrum, run),
+      format: query.format,
+      spectrum,
+      runId: run.id,
+      report: await getRunReport(run.id),
+      axis: query.axis,
+      series: query.series,
+      view: await viewArraysOf(spectrum, run),
     });
-    return new Response(file.body, { status: 200, headers: { ...PRIVATE, "Content-Type": file.contentType, "Content-Disposition": file.disposition } });
+    return new Response(file.body, {
+      status: 200,
+      headers: { ...PRIVATE, "Content-Type": file.contentType, "Content-Disposition": file.disposition },
+    });
   } catch (error) {
     if (error instanceof Refusal) return refused(error.status, error.code, error.message);
     console.error("shared curves failed:", error instanceof Error ? error.message : error);

@@ -10,7 +10,12 @@ export const dynamic = "force-dynamic";
 // else is the same 404, so nothing says whether a token or a spectrum exists.
 
 const SAFE_TYPES = new Set(["text/plain", "text/csv", "text/tab-separated-values", "chemical/x-jcamp-dx", "application/zip"]);
-const PRIVATE = { "Cache-Control": "private, no-store", "X-Robots-Tag": "noindex, nofollow", "Referrer-Policy": "no-referrer", "X-Content-Type-Options": "nosniff" };
+const PRIVATE = {
+  "Cache-Control": "private, no-store",
+  "X-Robots-Tag": "noindex, nofollow",
+  "Referrer-Policy": "no-referrer",
+  "X-Content-Type-Options": "nosniff",
+};
 
 function contentDisposition(fileName: string): string {
   const base = fileName.split("/").pop() || "spectrum";
@@ -27,7 +32,12 @@ export async function GET(_request: Request, { params }: { params: Promise<{ tok
   try {
     const link = await resolveShareLink(token);
     const spectrum = link ? await spectrumThroughLink(link, spectrumId) : null;
-    if (!spectrum) return refused(404, "not_found", "This link is not valid for that file: it was revoked, it expired, it never existed, or the file is not part of what it shares.");
+    if (!spectrum)
+      return refused(
+        404,
+        "not_found",
+        "This link is not valid for that file: it was revoked, it expired, it never existed, or the file is not part of what it shares.",
+      );
     const bytes = await getObjectBytes(spectrum.objectKey);
     return new Response(new Blob([bytes as Uint8Array<ArrayBuffer>]), {
       status: 200,

@@ -27,9 +27,19 @@ export const GET = withActor<{ params: Promise<{ type: string; id: string }> }>(
   }
   const bundle = await streamBundle({ type, id }, actor.email);
   // the zip is written while it is sent (lib/stewardship/exportBundle.ts); the audit event follows its last byte
-  void bundle.done.then(({ manifest, bytes }) =>
-    recordAudit({ actorId: actor.id, actorLabel: actor.email, groupId, action: "exported", targetType: type, targetId: id, details: { files: manifest.files.length, bytes } }),
-  ).catch(() => {});
+  void bundle.done
+    .then(({ manifest, bytes }) =>
+      recordAudit({
+        actorId: actor.id,
+        actorLabel: actor.email,
+        groupId,
+        action: "exported",
+        targetType: type,
+        targetId: id,
+        details: { files: manifest.files.length, bytes },
+      }),
+    )
+    .catch(() => {});
   const chunks = bundle.chunks;
   const body = new ReadableStream<Uint8Array>({
     async pull(controller) {

@@ -30,7 +30,7 @@ export const POST = withActor<Ctx>(async (request, { actor, params }) => {
   if (!isUuid(id)) throw notFound(`series ${id.slice(0, 80)}`);
   await seriesForLinking(actor, id);
   if (!isJson(request)) {
-    throw new Refusal(415, "unsupported-media-type", "Send JSON: {\"supernatantSpectrumId\": \"…\", \"pointSpectrumId\": \"…\" | null}.");
+    throw new Refusal(415, "unsupported-media-type", 'Send JSON: {"supernatantSpectrumId": "…", "pointSpectrumId": "…" | null}.');
   }
   let body: unknown;
   try {

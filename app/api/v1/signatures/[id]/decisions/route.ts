@@ -9,7 +9,9 @@ import { decisionSchema } from "@/lib/review/schemas";
 import { z } from "zod";
 import { isUuid } from "@/lib/ids";
 
-const undoBodySchema = z.object({ undo: z.string().trim().uuid("undo must be the id (UUID) of a decision in this signature's history") }).strict();
+const undoBodySchema = z
+  .object({ undo: z.string().trim().uuid("undo must be the id (UUID) of a decision in this signature's history") })
+  .strict();
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
@@ -21,7 +23,10 @@ export const GET = withActor<Ctx>(async (_request, { actor, params }) => {
   const { id } = await params;
   const review = isUuid(id) ? await getSignatureReview(actor, id) : null;
   if (!review) throw notFound(`signature ${id.slice(0, 80)}`);
-  return NextResponse.json({ id: review.id, reviewState: review.reviewState, supersededBy: review.supersededBy, history: review.history }, { headers: { "Cache-Control": "no-store" } });
+  return NextResponse.json(
+    { id: review.id, reviewState: review.reviewState, supersededBy: review.supersededBy, history: review.history },
+    { headers: { "Cache-Control": "no-store" } },
+  );
 });
 
 /**
@@ -35,11 +40,16 @@ export const POST = withActor<Ctx>(async (request, { actor, params }) => {
   const review = isUuid(id) ? await getSignatureReview(actor, id) : null;
   if (!review) throw notFound(`signature ${id.slice(0, 80)}`);
   if (review.supersededBy) {
-    throw new Refusal(409, "conflict", `This flag was replaced by a newer analysis (run ${review.supersededBy.runId.slice(0, 8)}); decide on ${review.supersededBy.matchId ? `signature ${review.supersededBy.matchId}` : "the newer run's flags"}.`);
+    throw new Refusal(
+      409,
+      "conflict",
+      `This flag was replaced by a newer analysis (run ${review.supersededBy.runId.slice(0, 8)}); decide on ${review.supersededBy.matchId ? `signature ${review.supersededBy.matchId}` : "the newer run's flags"}.`,
+    );
   }
-  if (!review.mayDecide) throw new Refusal(403, "forbidden", "Only a lead of the group that owns the spectrum can confirm or dismiss its signatures.");
+  if (!review.mayDecide)
+    throw new Refusal(403, "forbidden", "Only a lead of the group that owns the spectrum can confirm or dismiss its signatures.");
   if (!isJson(request)) {
-    throw new Refusal(415, "unsupported-media-type", "Send the decision as JSON: {\"decision\": \"confirmed\" | \"dismissed\", \"comment\": \"…\"}.");
+    throw new Refusal(415, "unsupported-media-type", 'Send the decision as JSON: {"decision": "confirmed" | "dismissed", "comment": "…"}.');
   }
   let body: unknown;
   try {
@@ -49,7 +59,8 @@ export const POST = withActor<Ctx>(async (request, { actor, params }) => {
   }
   const undo = undoBodySchema.safeParse(body ?? {});
   if (undo.success) {
-    if (!review.history.some((h) => h.id === undo.data.undo)) throw new Refusal(404, "not-found", `decision ${undo.data.undo} of signature ${id} was not found`, "undo");
+    if (!review.history.some((h) => h.id === undo.data.undo))
+      throw new Refusal(404, "not-found", `decision ${undo.data.undo} of signature ${id} was not found`, "undo");
     const { outcomes, mailed } = await undoDecisions(actor, [undo.data.undo]);
     revalidatePath("/review", "layout");
     const o = outcomes[0]!;

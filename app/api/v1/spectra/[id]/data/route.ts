@@ -19,5 +19,8 @@ export const GET = withActor<{ params: Promise<{ id: string }> }>(async (request
   if (request.headers.get("if-none-match") === etag) return new Response(null, { status: 304, headers });
   const { body, cache } = await dataPayload(spectrum, run, query.axis, query.format);
   const contentType = query.format === "binary" ? COLUMNS_MEDIA_TYPE : "application/json; charset=utf-8";
-  return new Response(body as Uint8Array<ArrayBuffer>, { status: 200, headers: { ...headers, "Content-Type": contentType, "Content-Length": String(body.length), "X-Bandkeep-Cache": cache } });
+  return new Response(body as Uint8Array<ArrayBuffer>, {
+    status: 200,
+    headers: { ...headers, "Content-Type": contentType, "Content-Length": String(body.length), "X-Bandkeep-Cache": cache },
+  });
 });

@@ -10,7 +10,9 @@ export const dynamic = "force-dynamic";
 const exportQuerySchema = z.object({
   format: z.enum(["csv", "jcamp", "json"], { error: "format must be csv, jcamp or json" }),
   axis: z.enum(DISPLAY_AXES, { error: "axis must be nm, ev or cm-1" }).default("nm"),
-  series: z.enum(["raw", "smoothed", "reference", "difference"], { error: "series must be raw, smoothed, reference or difference" }).default("smoothed"),
+  series: z
+    .enum(["raw", "smoothed", "reference", "difference"], { error: "series must be raw, smoothed, reference or difference" })
+    .default("smoothed"),
   run: z.string().uuid("run must be an analysis run id (UUID)").optional(),
 });
 
@@ -26,7 +28,15 @@ export const GET = withActor<{ params: Promise<{ id: string }> }>(async (request
   const file =
     query.format === "json"
       ? exportFile({ format: "json", spectrum, runId: run.id, report })
-      : exportFile({ format: query.format, spectrum, runId: run.id, report, axis: query.axis, series: query.series, view: await viewArraysOf(spectrum, run) });
+      : exportFile({
+          format: query.format,
+          spectrum,
+          runId: run.id,
+          report,
+          axis: query.axis,
+          series: query.series,
+          view: await viewArraysOf(spectrum, run),
+        });
   return new Response(file.body, {
     status: 200,
     headers: {
