@@ -14,6 +14,8 @@ log "type-check"
 node node_modules/typescript/bin/tsc --noEmit -p .
 log "lint"
 node node_modules/eslint/bin/eslint.js --max-warnings=0 .
+log "format check (npm run format fixes it)"
+node node_modules/prettier/bin/prettier.cjs --check --log-level=warn .
 
 stop_all
 wipe_postgres
