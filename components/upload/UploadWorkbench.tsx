@@ -1,7 +1,7 @@
 "use client";
 
 import { useCallback, useEffect, useMemo, useRef, useState } from "react";
-import { ingestMetadataSchema } from "@/lib/ingest/metadata";
+import { PREVIEW_FIELDS, ingestMetadataSchema } from "@/lib/ingest/metadata";
 import type { UploadChoices } from "@/lib/queries/spectrum-status";
 import { LIGHT_CAUTION, usesUvOrLaserLight } from "@/lib/hazards";
 import { formatBytes } from "@/lib/format/bytes";
@@ -30,20 +30,8 @@ type Item = {
   previewKey?: string;
 };
 
-/** The batch fields that change how a file is read (and so its preview). */
-const READ_KEYS = [
-  "projectId",
-  "technique",
-  "excitationNm",
-  "column",
-  "xUnit",
-  "yKind",
-  "block",
-  "pair",
-  "sheet",
-  "split",
-  "profile",
-] as const;
+/** The batch fields that change how a file is read (and so its preview): the preview endpoint's fields. */
+const READ_KEYS = PREVIEW_FIELDS;
 
 function readFieldsFor(values: BatchValues, overrides: FileOverrides): Record<string, string> {
   const fields: Record<string, string> = {};
