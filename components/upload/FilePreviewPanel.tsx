@@ -5,7 +5,9 @@ import { useState } from "react";
 import type { PreviewAnswer } from "./requestPreview";
 
 /** What a person may change for one file before it is stored. */
-export type FileOverrides = { column?: string; xUnit?: string; split?: boolean };
+/** Per trace of a split file: a series value typed over the header's, or left out. */
+export type TraceChoice = { seriesValue?: string; skip?: boolean };
+export type FileOverrides = { column?: string; xUnit?: string; split?: boolean; traces?: Record<string, TraceChoice> };
 
 const LAYOUT_WORDS = { "x-then-y": "X then Y columns", pairs: "X,Y pairs side by side", blocks: "blocks one after another" } as const;
 const SOURCE_WORDS = { file: "stated in the file", values: "inferred from the values", chosen: "chosen" } as const;
@@ -193,6 +195,42 @@ export function FilePreviewPanel({ fileName, preview, overrides, disabled, onCha
             />
             Split into {preview.traces.length} spectra (one per column)
           </label>
+        )}
+        {preview.ok && preview.split !== null && (
+          <fieldset className="mt-1 rounded border border-stone-200 p-2" data-testid="preview-traces">
+            <legend className="px-1 text-ink-soft">Spectra this file will become</legend>
+            {preview.traces.map((t, i) => {
+              const choice = overrides.traces?.[t.label] ?? {};
+              const set = (next: TraceChoice) =>
+                onChange({ ...overrides, traces: { ...overrides.traces, [t.label]: { ...choice, ...next } } });
+              return (
+                <div key={t.label} data-trace={t.label} className="flex flex-wrap items-center gap-2 py-0.5">
+                  <span className="min-w-[6rem]">{t.label}</span>
+                  <label htmlFor={id(`trace-value-${i}`)} className="text-ink-soft">
+                    series value
+                  </label>
+                  <input
+                    id={id(`trace-value-${i}`)}
+                    inputMode="decimal"
+                    value={choice.seriesValue ?? ""}
+                    placeholder={t.seriesValue ? `${t.seriesValue.value} (from the header)` : "none"}
+                    disabled={disabled || choice.skip}
+                    onChange={(e) => set({ seriesValue: e.target.value || undefined })}
+                    className="w-36 rounded border border-stone-300 px-1 py-0.5"
+                  />
+                  <label className="flex items-center gap-1">
+                    <input
+                      type="checkbox"
+                      checked={choice.skip ?? false}
+                      disabled={disabled}
+                      onChange={(e) => set({ skip: e.target.checked || undefined })}
+                    />
+                    leave out
+                  </label>
+                </div>
+              );
+            })}
+          </fieldset>
         )}
         <button
           type="button"

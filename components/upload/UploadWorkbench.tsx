@@ -33,6 +33,18 @@ type Item = {
 /** The batch fields that change how a file is read (and so its preview): the preview endpoint's fields. */
 const READ_KEYS = PREVIEW_FIELDS;
 
+/**
+ * The per-trace choices of a split file as the upload's `assignments` field (docs/api.md); a typed
+ * series value that is not a number goes as null, and the server's refusal names the field.
+ */
+function assignmentsFor(values: BatchValues, overrides: FileOverrides): Record<string, string> {
+  if (!(overrides.split ?? values.split === "all")) return {};
+  const assignments = Object.entries(overrides.traces ?? {})
+    .filter(([, c]) => c.skip || c.seriesValue)
+    .map(([trace, c]) => (c.skip ? { trace, skip: true } : { trace, seriesValue: Number(c.seriesValue!.replace(",", ".")) }));
+  return assignments.length > 0 ? { assignments: JSON.stringify(assignments) } : {};
+}
+
 function readFieldsFor(values: BatchValues, overrides: FileOverrides): Record<string, string> {
   const fields: Record<string, string> = {};
   for (const k of READ_KEYS) fields[k] = values[k];
@@ -171,7 +183,12 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
   /** Sends a file again asking to update the stored record's details with the ones sent (onDuplicate=update). */
   async function updateStored(item: Item) {
     update(item.key, { phase: "sending", progress: 0 });
-    const fields = { ...values, ...readFieldsFor(values, item.overrides), onDuplicate: "update" };
+    const fields = {
+      ...values,
+      ...readFieldsFor(values, item.overrides),
+      ...assignmentsFor(values, item.overrides),
+      onDuplicate: "update",
+    };
     const result = await sendFile(item.picked.file, item.picked.name, fields, (p) => update(item.key, { progress: p }));
     update(item.key, { phase: "done", progress: 1, outcomes: result.files });
   }
@@ -196,7 +213,7 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
       for (let item = queue.shift(); item && !controller.signal.aborted; item = queue.shift()) {
         const key = item.key;
         update(key, { phase: "sending", progress: 0 });
-        const fields = { ...values, ...readFieldsFor(values, item.overrides) };
+        const fields = { ...values, ...readFieldsFor(values, item.overrides), ...assignmentsFor(values, item.overrides) };
         const result = await sendFile(item.picked.file, item.picked.name, fields, (p) => update(key, { progress: p }), controller.signal);
         if (result.status === 400 && result.error?.field && result.error.field in values) {
           setErrors((e) => ({ ...e, [result.error!.field as keyof BatchValues]: [result.error!.message] }));
