@@ -230,6 +230,7 @@ export function FilePreviewPanel({ fileName, preview, overrides, disabled, onCha
                 </div>
               );
             })}
+            <LeftOutSummary total={preview.split.length} leftOut={preview.split.filter((t) => overrides.traces?.[t.label]?.skip).length} />
           </fieldset>
         )}
         <button
@@ -243,5 +244,16 @@ export function FilePreviewPanel({ fileName, preview, overrides, disabled, onCha
         {preview.ok && preview.signature && <SaveProfile idPrefix={id("save")} disabled={disabled} onSave={onSaveProfile} />}
       </div>
     </div>
+  );
+}
+
+function LeftOutSummary({ total, leftOut }: { total: number; leftOut: number }) {
+  if (leftOut === 0) return null;
+  return (
+    <p className={leftOut === total ? "pt-1 text-red-800" : "pt-1 text-ink-soft"} data-testid="preview-left-out">
+      {leftOut === total
+        ? "Every column is left out: this file would store nothing."
+        : `${total - leftOut} of ${total} will be stored; ${leftOut} left out.`}
+    </p>
   );
 }

@@ -34,15 +34,17 @@ type Item = {
 const READ_KEYS = PREVIEW_FIELDS;
 
 /**
- * The per-trace choices of a split file as the upload's `assignments` field (docs/api.md); a typed
- * series value that is not a number goes as null, and the server's refusal names the field.
+ * The per-trace choices of a split file as the upload's `assignments` field (docs/api.md), with
+ * split=all stated (the split may come from an import profile the server matches, and assignments
+ * need it); a typed series value that is not a number goes as null, and the server's refusal names the field.
  */
-function assignmentsFor(values: BatchValues, overrides: FileOverrides): Record<string, string> {
-  if (!(overrides.split ?? values.split === "all")) return {};
-  const assignments = Object.entries(overrides.traces ?? {})
-    .filter(([, c]) => c.skip || c.seriesValue)
+function assignmentsFor(item: Pick<Item, "overrides" | "preview">): Record<string, string> {
+  const preview = item.preview && item.preview !== "loading" && item.preview.ok ? item.preview : null;
+  if (!preview?.split) return {};
+  const assignments = Object.entries(item.overrides.traces ?? {})
+    .filter(([trace, c]) => (c.skip || c.seriesValue) && preview.split!.some((t) => t.label === trace))
     .map(([trace, c]) => (c.skip ? { trace, skip: true } : { trace, seriesValue: Number(c.seriesValue!.replace(",", ".")) }));
-  return assignments.length > 0 ? { assignments: JSON.stringify(assignments) } : {};
+  return assignments.length > 0 ? { split: "all", assignments: JSON.stringify(assignments) } : {};
 }
 
 function readFieldsFor(values: BatchValues, overrides: FileOverrides): Record<string, string> {
@@ -186,7 +188,7 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
     const fields = {
       ...values,
       ...readFieldsFor(values, item.overrides),
-      ...assignmentsFor(values, item.overrides),
+      ...assignmentsFor(item),
       onDuplicate: "update",
     };
     const result = await sendFile(item.picked.file, item.picked.name, fields, (p) => update(item.key, { progress: p }));
@@ -213,7 +215,7 @@ export function UploadWorkbench({ choices, maxBytes }: { choices: UploadChoices;
       for (let item = queue.shift(); item && !controller.signal.aborted; item = queue.shift()) {
         const key = item.key;
         update(key, { phase: "sending", progress: 0 });
-        const fields = { ...values, ...readFieldsFor(values, item.overrides), ...assignmentsFor(values, item.overrides) };
+        const fields = { ...values, ...readFieldsFor(values, item.overrides), ...assignmentsFor(item) };
         const result = await sendFile(item.picked.file, item.picked.name, fields, (p) => update(key, { progress: p }), controller.signal);
         if (result.status === 400 && result.error?.field && result.error.field in values) {
           setErrors((e) => ({ ...e, [result.error!.field as keyof BatchValues]: [result.error!.message] }));

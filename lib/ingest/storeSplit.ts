@@ -45,8 +45,10 @@ export function splitParts(
     let seriesValue: number | null = null;
     let unit: string | null = null;
     if (context.series) {
-      if (a?.seriesValue !== undefined) seriesValue = a.seriesValue;
-      else if (trace.seriesValue) {
+      if (a?.seriesValue !== undefined) {
+        seriesValue = a.seriesValue;
+        unit = seriesUnit || null;
+      } else if (trace.seriesValue) {
         if (seriesUnit && unitWord(seriesUnit) !== unitWord(trace.seriesValue.unit)) {
           throw new Refusal(
             400,

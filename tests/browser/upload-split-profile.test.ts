@@ -1,5 +1,6 @@
 import { expect, it, describe } from "vitest";
-import { Series, Spectrum, models } from "@/models";
+import { Op } from "sequelize";
+import { ImportProfile, Series, Spectrum, models } from "@/models";
 import { DEMO, url } from "../helpers/app";
 import { demoBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 import { syntheticAbsorptionCsv } from "../helpers/spectra";
@@ -27,6 +28,8 @@ describe("splitting a file and saving an import profile on the upload page", () 
   it("changes unit and column, splits into three series points, warns about a parent, saves a profile and reads the next file with it", async () => {
     models();
     const seed = Date.now() % 1e6;
+    // profiles an earlier run of this test saved would match the same header: start without them
+    await ImportProfile.destroy({ where: { projectId: suite.ids.project.id, name: { [Op.like]: "Plate reader %" } } });
     const series = await Series.create({
       projectId: suite.ids.project.id,
       name: `Browser split ${seed}`,
@@ -108,10 +111,12 @@ describe("splitting a file and saving an import profile on the upload page", () 
     const traces = next.getByTestId("preview-traces");
     await traces.locator('[data-trace="2 eq"]').getByLabel("series value").fill("4");
     await traces.locator('[data-trace="1 eq"]').getByLabel("leave out").check();
+    expect(await traces.getByTestId("preview-left-out").textContent()).toBe("2 of 3 will be stored; 1 left out.");
     await screenshot(page, "upload-profile-matched");
     await page.getByTestId("start-upload").click();
     await expect.poll(async () => (await list.textContent())!.match(/Read with profile/g)?.length ?? 0, { timeout: 60_000 }).toBe(2);
     await expect.poll(async () => (await list.textContent())!.match(/analysed/g)?.length ?? 0, { timeout: 120_000 }).toBe(2);
+    await expect.poll(() => list.getByTestId("outcome-name").allTextContents()).toEqual(["0.5 eq → 0.5 eq", "2 eq → 4 eq"]);
     await screenshot(page, "upload-profile-stored");
 
     const points = await Spectrum.findAll({

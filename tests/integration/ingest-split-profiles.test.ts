@@ -211,9 +211,9 @@ describe("one file, many spectra", () => {
     const { status, body } = await upload(lab.token, [{ fileName: "dilution.csv", bytes: enc(text) }], fields);
     expect(status).toBe(201);
     const outs = okOutcomes(body);
-    expect(outs.map((o) => [o.trace, o.seriesValue])).toEqual([
-      ["10 µM", 10],
-      ["20 µM", 21.5],
+    expect(outs.map((o) => [o.trace, o.seriesValue, o.seriesUnit])).toEqual([
+      ["10 µM", 10, "µM"],
+      ["20 µM", 21.5, "µM"],
     ]);
     const second = (await Spectrum.findByPk(outs[1]!.spectrumId))!;
     expect(second.sampleId).toBe(sample.id);
