@@ -1,5 +1,6 @@
 import type { Role } from "@/models/Membership";
 import type { Actor } from "@/lib/auth/actor";
+import { rolesHeld } from "@/lib/auth/access";
 
 export type NavItem = { href: string; label: string; hint: string; roles: readonly Role[] };
 
@@ -19,7 +20,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
 ];
 
 export function navFor(actor: Actor): NavItem[] {
-  const roles = new Set(actor.memberships.map((m) => m.role));
+  const roles = rolesHeld(actor);
   return NAV_ITEMS.filter((item) => item.roles.some((r) => roles.has(r)));
 }
 

@@ -6,8 +6,8 @@ import { initialActionState } from "@/lib/actions/protected-state";
 import { inputClass } from "@/components/forms/Field";
 import { ActionForm } from "@/components/forms/ActionForm";
 import { formatWhen } from "@/lib/format/dates";
+import type { ShareTargetOption as Target } from "./memberRoles";
 
-type Target = { type: "project" | "series"; id: string; label: string };
 type LinkRow = {
   id: string;
   prefix: string;

@@ -1,5 +1,5 @@
 import { Op } from "sequelize";
-import { Project, Sample, Series, Share, Spectrum, models } from "@/models";
+import { Project, Sample, Series, Share, Spectrum } from "@/models";
 import type { Role } from "@/models/Membership";
 import type { Actor } from "./actor";
 
@@ -38,6 +38,11 @@ export function writesSomewhere(actor: Actor): boolean {
   return writerGroupIds(actor).length > 0;
 }
 
+/** Every role the actor holds in some group (what the navigation rail offers follows it). */
+export function rolesHeld(actor: Actor): ReadonlySet<Role> {
+  return new Set(actor.memberships.map((m) => m.role));
+}
+
 /** Groups in which the actor is the group lead (and so reviews signatures). */
 export function leadGroupIds(actor: Actor): string[] {
   return actor.memberships.filter((m) => m.role === "lead").map((m) => m.groupId);
@@ -57,7 +62,6 @@ export type SharedTargets = { projectIds: string[]; seriesIds: string[] };
 
 /** Projects and series shared with this person directly and still in force. */
 export async function sharedTargets(actor: Actor): Promise<SharedTargets> {
-  models();
   const rows = await Share.findAll({
     where: {
       granteeUserId: actor.id,
@@ -79,7 +83,6 @@ export type ReadableScope = { memberProjectIds: string[]; sharedProjectIds: stri
  * shared with it, and the series shared with it one by one.
  */
 export async function readableScope(actor: Actor): Promise<ReadableScope> {
-  models();
   const groupIds = memberGroupIds(actor);
   const [members, shared] = await Promise.all([
     groupIds.length ? Project.findAll({ where: { groupId: { [Op.in]: groupIds } }, attributes: ["id"] }) : Promise.resolve([]),
@@ -94,7 +97,6 @@ export async function canReadProject(actor: Actor, project: Project): Promise<bo
 }
 
 export async function canReadSeries(actor: Actor, series: Series): Promise<boolean> {
-  models();
   const project = await Project.findByPk(series.projectId);
   if (project && (await canReadProject(actor, project))) return true;
   return (await sharedTargets(actor)).seriesIds.includes(series.id);
@@ -106,7 +108,6 @@ export async function canReadSeries(actor: Actor, series: Series): Promise<boole
  * measurement, though not itself a point of the series).
  */
 export async function canReadSpectrum(actor: Actor, spectrum: Spectrum): Promise<boolean> {
-  models();
   const project = await Project.findByPk(spectrum.projectId);
   if (!project) return false;
   if (memberGroupIds(actor).includes(project.groupId)) return true;
@@ -119,7 +120,6 @@ export async function canReadSpectrum(actor: Actor, spectrum: Spectrum): Promise
 
 /** The group a spectrum belongs to, for write and review checks. */
 export async function groupOfSpectrum(spectrum: Spectrum): Promise<string | null> {
-  models();
   const project = await Project.findByPk(spectrum.projectId, { attributes: ["groupId"] });
   return project?.groupId ?? null;
 }
@@ -136,6 +136,11 @@ export function canManageMembers(actor: Actor, groupId: string): boolean {
   return hasRole(actor, groupId, ["lead", "steward"]);
 }
 
+/** The actor's memberships in groups whose members they manage (for the people page). */
+export function managedMemberships(actor: Actor): Actor["memberships"] {
+  return actor.memberships.filter((m) => canManageMembers(actor, m.groupId));
+}
+
 /** Who may delete a spectrum of a group (legal holds still refuse it). */
 export function canDeleteInGroup(actor: Actor, groupId: string): boolean {
   return hasRole(actor, groupId, ["spectroscopist", "lead", "steward"]);
@@ -143,7 +148,6 @@ export function canDeleteInGroup(actor: Actor, groupId: string): boolean {
 
 /** The group owning a project, series, sample or spectrum, or null when there is none. */
 export async function groupOfTarget(targetType: "project" | "series" | "sample" | "spectrum", targetId: string): Promise<string | null> {
-  models();
   if (targetType === "project") return (await Project.findByPk(targetId, { attributes: ["groupId"] }))?.groupId ?? null;
   if (targetType === "series") {
     const series = await Series.findByPk(targetId, { attributes: ["projectId"] });

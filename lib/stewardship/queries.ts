@@ -1,9 +1,9 @@
 import { Op } from "sequelize";
 import type { Actor } from "@/lib/auth/actor";
-import { canManageMembers, stewardGroupIds } from "@/lib/auth/access";
+import { managedMemberships, stewardGroupIds } from "@/lib/auth/access";
 import { selectRows } from "@/lib/db";
 import { listProjectChoices } from "@/lib/queries/projects";
-import { Invitation, LegalHold, Membership, RetentionPolicy, Share, User, models } from "@/models";
+import { Invitation, LegalHold, Membership, RetentionPolicy, Share, User } from "@/models";
 import { describeProtection, planSweep } from "./planSweep";
 import { loadSnapshot } from "./snapshot";
 import { DAY_MS, type DataClass, type PolicyRule, type SweepPlan } from "./types";
@@ -111,7 +111,6 @@ export async function targetLabels(pairs: { targetType: string; targetId: string
 }
 
 export async function listHolds(actor: Actor): Promise<HoldRow[]> {
-  models();
   const groups = stewardGroupIds(actor);
   if (!groups.length) return [];
   const rows = await LegalHold.findAll({ where: { groupId: { [Op.in]: groups } }, order: [["placedAt", "DESC"]], limit: 300 });
@@ -244,13 +243,8 @@ export type ShareRow = {
   createdAt: string;
 };
 
-export function managedGroups(actor: Actor) {
-  return actor.memberships.filter((m) => canManageMembers(actor, m.groupId));
-}
-
 export async function listMembers(actor: Actor): Promise<MemberRow[]> {
-  models();
-  const groups = managedGroups(actor);
+  const groups = managedMemberships(actor);
   if (!groups.length) return [];
   const names = new Map(groups.map((g) => [g.groupId, g.groupName]));
   const rows = await Membership.findAll({
@@ -277,8 +271,7 @@ export async function listMembers(actor: Actor): Promise<MemberRow[]> {
 }
 
 export async function listInvitations(actor: Actor): Promise<InvitationRow[]> {
-  models();
-  const groups = managedGroups(actor);
+  const groups = managedMemberships(actor);
   if (!groups.length) return [];
   const names = new Map(groups.map((g) => [g.groupId, g.groupName]));
   const rows = await Invitation.findAll({ where: { groupId: { [Op.in]: [...names.keys()] } }, order: [["createdAt", "DESC"]], limit: 100 });
@@ -298,7 +291,6 @@ export async function listInvitations(actor: Actor): Promise<InvitationRow[]> {
 }
 
 export async function listShares(actor: Actor): Promise<ShareRow[]> {
-  models();
   const groups = stewardGroupIds(actor);
   if (!groups.length) return [];
   const rows = await Share.findAll({
@@ -323,7 +315,7 @@ export async function listShares(actor: Actor): Promise<ShareRow[]> {
 }
 
 export async function shareTargetOptions(actor: Actor): Promise<{ type: "project" | "series"; id: string; label: string }[]> {
-  const groups = managedGroups(actor).map((g) => g.groupId);
+  const groups = managedMemberships(actor).map((g) => g.groupId);
   if (!groups.length) return [];
   return selectRows(
     `SELECT 'project' AS type, p.id, p.name AS label FROM projects p WHERE p.group_id IN (:groups)
