@@ -45,13 +45,12 @@ const require = createRequire(import.meta.url);
 const autocannon = require("autocannon") as Autocannon;
 const { randomBytes } = await import("node:crypto");
 const bcrypt = (await import("bcryptjs")).default;
-const { ApiToken, Group, Membership, Project, Spectrum, User, models } = await import("@/models");
+const { ApiToken, Group, Membership, Project, Spectrum, User } = await import("@/models");
 const { closeDb } = await import("@/lib/db");
 const { issueApiToken } = await import("@/lib/api-tokens");
 const { syntheticAbsorptionCsv } = await import("@/tests/helpers/spectra");
 
 async function benchAccount() {
-  models();
   const [group] = await Group.findOrCreate({
     where: { slug: "api-bench-lab" },
     defaults: { name: "API bench lab", slug: "api-bench-lab" },

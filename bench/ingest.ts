@@ -57,7 +57,7 @@ process.env.NEXTAUTH_URL = `http://127.0.0.1:${BENCH_PORT}`;
 process.env.APP_URL = process.env.NEXTAUTH_URL;
 execFileSync(process.execPath, ["--import", "tsx", "scripts/migrate.ts", "up"], { cwd: ROOT, stdio: "inherit" });
 
-const { models, Project, Spectrum } = await import("@/models");
+const { Project, Spectrum } = await import("@/models");
 const { closeDb } = await import("@/lib/db");
 const { newRawObjectKey, putObject, sha256Hex } = await import("@/lib/storage");
 const { analysisQueue } = await import("@/lib/queue");
@@ -181,7 +181,6 @@ try {
   );
   await waitHttp(`http://127.0.0.1:${BENCH_PORT}/api/v1/projects`, 60_000);
 
-  models();
   const lab = await createLab("spectroscopist");
   const bareProject = await Project.create({ groupId: lab.group.id, name: `Bare storage path ${randomBytes(3).toString("hex")}` });
   const files = Array.from({ length: FILES }, (_, i) => ({

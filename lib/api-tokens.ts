@@ -1,6 +1,6 @@
 import { randomBytes } from "node:crypto";
 import { hashToken } from "@/lib/auth/actor";
-import { ApiToken, models } from "@/models";
+import { ApiToken } from "@/models";
 
 /** How long a new token may live: the choices of the settings form (days; "never" is null). */
 export const TOKEN_LIFETIMES = { never: null, "30": 30, "90": 90, "365": 365 } as const satisfies Record<string, number | null>;
@@ -12,7 +12,6 @@ export async function issueApiToken(
   name: string,
   lifetime: TokenLifetime = "never",
 ): Promise<{ id: string; secret: string }> {
-  models();
   const secret = `bk_${randomBytes(24).toString("base64url")}`;
   const days = TOKEN_LIFETIMES[lifetime];
   const expiresAt = days === null ? null : new Date(Date.now() + days * 86_400_000);
@@ -29,7 +28,6 @@ export async function issueApiToken(
 }
 
 export async function listApiTokens(userId: string) {
-  models();
   const rows = await ApiToken.findAll({ where: { userId }, order: [["createdAt", "DESC"]] });
   return rows.map((t) => ({
     id: t.id,

@@ -1,6 +1,6 @@
 import type { Transaction } from "sequelize";
 import type { AuditAction } from "@/lib/auditTrail/eventKinds";
-import { AuditEvent, models } from "@/models";
+import { AuditEvent } from "@/models";
 
 export type AuditInput = {
   actorId: string | null;
@@ -15,7 +15,6 @@ export type AuditInput = {
 
 /** Appends one event to the audit trail; there is no edit or delete path. */
 export async function recordAudit(input: AuditInput, transaction?: Transaction): Promise<void> {
-  models();
   await AuditEvent.create(
     {
       actorId: input.actorId,

@@ -42,11 +42,14 @@ export {
 };
 export { ImportProfile, Invitation, RetentionFlag, Tombstone };
 
-/** Binds every model to the process's Sequelize instance, once; returns that instance. */
-export function models() {
+/**
+ * Binds every model to the process's Sequelize instance (lib/db.ts). It runs once, when this module
+ * is first imported, so code that imports a model can use it at once; each copy of this module that
+ * a bundler loads binds its own classes.
+ */
+function bindModels() {
   const db = sequelize();
-  // Checked on the class itself: bundlers may load this module more than once per process.
-  if (User.sequelize === db) return db;
+  if (User.sequelize === db) return;
   for (const m of [
     User,
     Group,
@@ -93,5 +96,6 @@ export function models() {
   Signature.belongsTo(Spectrum, { foreignKey: "spectrumId" });
   Signature.hasMany(Review, { foreignKey: "signatureId" });
   Review.belongsTo(User, { as: "reviewer", foreignKey: "reviewerId" });
-  return db;
 }
+
+bindModels();

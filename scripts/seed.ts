@@ -3,19 +3,19 @@
 // through the same ingest path as real files so the worker analyses them.
 import bcrypt from "bcryptjs";
 import { loadActor, type Actor } from "../lib/auth/actor";
-import { closeDb, selectRows } from "../lib/db";
+import { closeDb, selectRows, sequelize } from "../lib/db";
 import { absorptionCsv, emissionCsv, leadChalcogenideCsv, midIrCsv, supernatantCsv } from "../lib/demo/synthetic";
 import { dotExtinction } from "../lib/fits/dotExtinction";
 import { hazardClassOf } from "../lib/hazards";
 import { ingestFiles } from "../lib/ingest";
 import { analysisQueue } from "../lib/queue";
 import { setSupernatantLink } from "../lib/series/supernatantLinks";
-import { Group, Membership, Project, Sample, SampleParent, Series, Share, Spectrum, User, models } from "../models";
+import { Group, Membership, Project, Sample, SampleParent, Series, Share, Spectrum, User } from "../models";
 import type { Role } from "../models/Membership";
 
 export const DEMO_PASSWORD = "bandkeep-demo";
 
-const db = models();
+const db = sequelize();
 
 const E1 = 2.148; // first exciton of the demo CdSe, near 577 nm
 

@@ -1,6 +1,6 @@
 import { UnrecoverableError, type Job } from "bullmq";
 import { z } from "zod";
-import { models } from "@/models";
+
 import { getObjectBytes } from "@/lib/storage";
 import type { AnalysisJob } from "@/lib/queue";
 import { ENGINE_VERSION, SpectrumFileError, analyzeSpectrum, type AnalysisOptions, type ParsedSpectrum } from "@/lib/engine";
@@ -67,7 +67,6 @@ export async function processAnalysis(job: Job<AnalysisJob>): Promise<JobSummary
   const payload = payloadSchema.safeParse(job.data);
   if (!payload.success) throw new UnrecoverableError(`job ${job.id}: payload is not {spectrumId, runId}`);
   const { spectrumId, runId } = payload.data;
-  models();
   const run = await loadRun(runId);
   if (!run || run.spectrumId !== spectrumId)
     throw new UnrecoverableError(`job ${job.id}: run ${runId} of spectrum ${spectrumId} does not exist`);

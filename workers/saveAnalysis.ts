@@ -1,6 +1,6 @@
 import { Op, QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "@/lib/db";
-import { AnalysisRun, Spectrum, models } from "@/models";
+import { AnalysisRun, Spectrum } from "@/models";
 import type { AnalysisReport } from "@/lib/engine";
 import { applyCarry, planCarry, type CarryPlan } from "@/lib/review/carryDecisions";
 import { bandWidthAt } from "@/lib/review/matchSignatures";
@@ -168,7 +168,7 @@ export async function saveAnalysis(input: SaveInput): Promise<boolean> {
  * class, "could not be read" on its page).
  */
 export async function saveFailure(runId: string, message: string, durationMs?: number): Promise<boolean> {
-  const db = models();
+  const db = sequelize();
   const text = message.replace(/[\r\n]+/g, " ").slice(0, 1000);
   return db.transaction(async (transaction) => {
     const run = await AnalysisRun.findByPk(runId, { lock: transaction.LOCK.UPDATE, transaction });

@@ -1,5 +1,5 @@
 import { Op } from "sequelize";
-import { AnalysisRun, models } from "@/models";
+import { AnalysisRun } from "@/models";
 import { enqueueRun } from "@/lib/ingest/enqueueRun";
 import { analysisJobId, analysisQueue } from "@/lib/queue";
 
@@ -11,7 +11,6 @@ const LIVE_STATES = new Set(["waiting", "active", "delayed", "prioritized", "wai
  * keyed by the run and the processor skips finished runs. Returns how many were queued.
  */
 export async function sweepWaitingRuns(olderThanMs: number, limit = 500): Promise<number> {
-  models();
   const runs = await AnalysisRun.findAll({
     where: { status: ["queued", "running"], updatedAt: { [Op.lt]: new Date(Date.now() - olderThanMs) } },
     attributes: ["id", "spectrumId"],

@@ -3,7 +3,7 @@ import { redirect } from "next/navigation";
 import { Op } from "sequelize";
 import { selectRows } from "@/lib/db";
 import { sha256Hex } from "@/lib/hash";
-import { ApiToken, models } from "@/models";
+import { ApiToken } from "@/models";
 import type { Role } from "@/models/Membership";
 import { authOptions } from "./options";
 import { FORGET_ALL, onTokenRevoked, revocationEpoch } from "./tokenRevocations";
@@ -94,7 +94,6 @@ async function actorFromToken(token: string): Promise<Actor | null> {
   if (cached && cached.until > Date.now()) return cached.actor;
   if (TOKEN_CACHE_MS > 0) listenForRevocations();
   const epoch = TOKEN_CACHE_MS > 0 ? revocationEpoch() : null;
-  models();
   const row = await ApiToken.findOne({
     where: { tokenHash, revokedAt: null, [Op.or]: [{ expiresAt: null }, { expiresAt: { [Op.gt]: new Date() } }] },
   });

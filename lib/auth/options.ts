@@ -2,7 +2,7 @@ import bcrypt from "bcryptjs";
 import type { NextAuthOptions } from "next-auth";
 import CredentialsImport from "next-auth/providers/credentials";
 import { z } from "zod";
-import { User, models } from "@/models";
+import { User } from "@/models";
 import { recordAudit } from "@/lib/audit";
 import { config } from "@/lib/config";
 import { sendMail } from "@/lib/mail";
@@ -71,7 +71,6 @@ async function authorize(raw: unknown, headers: HeaderBag) {
   const address = clientAddressOf(headers);
   const gate = await signInGate(email, address);
   if (!gate.allowed) throw new SignInRefused(gate.code);
-  models();
   const user = await User.findOne({ where: { email } });
   const ok = await bcrypt.compare(password, user?.passwordHash ?? (await hashForUnknownAccount()));
   if (!user || !ok) {

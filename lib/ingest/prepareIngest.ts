@@ -1,4 +1,4 @@
-import { Project, Sample, Series, Spectrum, models } from "@/models";
+import { Project, Sample, Series, Spectrum } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadProject, canWrite } from "@/lib/auth/access";
 import { ingestMetadataSchema, type IngestMetadata, type IngestMetadataInput } from "./metadata";
@@ -37,7 +37,6 @@ export async function prepareIngest(actor: Actor, input: IngestMetadataInput | R
   const parsed = ingestMetadataSchema.safeParse(input);
   if (!parsed.success) throw firstIssue(parsed.error);
   const metadata = parsed.data;
-  models();
   const project = await Project.findByPk(metadata.projectId);
   if (!project || !(await canReadProject(actor, project))) {
     throw new Refusal(404, "not-found", `project ${metadata.projectId} was not found`, "projectId");

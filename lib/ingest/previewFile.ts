@@ -11,7 +11,7 @@ import {
   type ReadChoice,
   type TraceInfo,
 } from "@/lib/engine";
-import { Project, models } from "@/models";
+import { Project } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadProject, canWrite } from "@/lib/auth/access";
 import { looksLikeZip } from "./expandZip";
@@ -114,7 +114,6 @@ export async function previewFile(
     throw new Refusal(400, "invalid", issue.message, String(issue.path[0] ?? "file"));
   }
   // The same access as an upload into the project: previews are for people who may store files there.
-  models();
   const project = await Project.findByPk(parsedFields.data.projectId);
   if (!project || !(await canReadProject(actor, project))) {
     throw new Refusal(404, "not-found", `project ${parsedFields.data.projectId} was not found`, "projectId");

@@ -1,5 +1,5 @@
 import { Op } from "sequelize";
-import { AnalysisRun, Project, Spectrum, models } from "@/models";
+import { AnalysisRun, Project, Spectrum } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadSpectrum, canWrite } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
@@ -8,6 +8,7 @@ import { enqueueRun } from "./enqueueRun";
 import { storedReadOptions } from "./insertUpload";
 import { mergeParameters, parameterHash, reanalysisSchema, type AnalysisParameters, type ReanalysisInput } from "./parameters";
 import { Refusal } from "@/lib/errors";
+import { sequelize } from "@/lib/db";
 
 export type ReanalysisResult = { runId: string; status: AnalysisRun["status"]; created: boolean; queued: boolean };
 
@@ -30,7 +31,7 @@ export async function requestReanalysis(
     const field = issue?.path.map(String).join(".") || undefined;
     throw new Refusal(400, "invalid", `${field ? `${field}: ` : ""}${issue?.message ?? "invalid parameters"}`, field);
   }
-  const db = models();
+  const db = sequelize();
   const spectrum = await Spectrum.findByPk(spectrumId);
   if (!spectrum || !(await canReadSpectrum(actor, spectrum))) throw new Refusal(404, "not-found", `spectrum ${spectrumId} was not found`);
   const project = await Project.findByPk(spectrum.projectId, { attributes: ["id", "groupId"] });

@@ -1,7 +1,7 @@
 import { Refusal } from "@/lib/errors";
 import { UniqueConstraintError } from "sequelize";
 import { fileNameProblem } from "@/lib/text/plainText";
-import { AnalysisRun, Spectrum, models } from "@/models";
+import { AnalysisRun, Spectrum } from "@/models";
 import { recordAudit } from "@/lib/audit";
 import { deleteObject, newRawObjectKey, putObject, sha256Hex } from "@/lib/storage";
 import { enqueueRun } from "./enqueueRun";
@@ -210,7 +210,6 @@ export async function storeFile(
   maxBytes: number,
 ): Promise<StoredFile> {
   const fileName = checkedFile(file, maxBytes);
-  models();
   const sha256 = sha256Hex(file.bytes);
   const contentType = cleanContentType(file.contentType);
   const traceKey = await resolveTraceKey(fileName, file.bytes, context.parameters.technique, readChoiceOf(context.parameters), maxBytes);

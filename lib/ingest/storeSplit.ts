@@ -1,6 +1,6 @@
 import { SpectrumFileError, type TraceInfo } from "@/lib/engine";
 import { normaliseSeriesUnit } from "@/lib/engine/parse/readSeriesValue";
-import { Sample, Series, models } from "@/models";
+import { Sample, Series } from "@/models";
 import { sha256Hex } from "@/lib/storage";
 import { Refusal } from "@/lib/errors";
 import type { TraceAssignment } from "./metadata";
@@ -101,7 +101,6 @@ export async function storeSplit(
   maxBytes: number,
 ): Promise<StoredFile[]> {
   const fileName = checkedFile(file, maxBytes);
-  models();
   const choice = readChoiceOf(context.parameters);
   let traces: TraceInfo[];
   let sheet: string | null;

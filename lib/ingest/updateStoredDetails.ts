@@ -1,11 +1,12 @@
 import { DatabaseError } from "sequelize";
-import { Spectrum, models } from "@/models";
+import { Spectrum } from "@/models";
 import { recordAudit } from "@/lib/audit";
 import type { DetailDifference, DetailField } from "./detailDifferences";
 import { Refusal } from "@/lib/errors";
 import type { IngestContext } from "./prepareIngest";
 import { requestReanalysis } from "./requestReanalysis";
 import type { ReanalysisInput } from "./parameters";
+import { sequelize } from "@/lib/db";
 
 /** Details that enter the analysis: changing one asks for a new run (earlier runs are kept). */
 const ANALYSIS_INPUTS = new Set<DetailField>([
@@ -48,7 +49,7 @@ export async function updateStoredDetails(
   if (change.referenceSpectrumId === spectrum.id)
     throw new Refusal(400, "invalid", `${fileName}: a spectrum cannot be its own reference`, "referenceSpectrumId");
   try {
-    await models().transaction(async (transaction) => {
+    await sequelize().transaction(async (transaction) => {
       await spectrum.update(change, { transaction });
       await recordAudit(
         {

@@ -3,7 +3,6 @@ import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
 import { memberGroupIds } from "@/lib/auth/access";
 import { CURRENT_SIGNATURE, awaitingReviewCounts } from "@/lib/review/counts";
-import { models } from "@/models";
 
 export type Overview = {
   spectraByStatus: Record<string, number>;
@@ -14,7 +13,6 @@ export type Overview = {
 };
 
 export async function getOverview(actor: Actor): Promise<Overview | null> {
-  models();
   const groupIds = memberGroupIds(actor);
   if (groupIds.length === 0) return null;
   const replacements = { groupIds };

@@ -7,7 +7,6 @@ import { fastCount, type CountSql } from "@/lib/search/fastCount";
 import { cursorAtSql, decodeSortedCursor, encodeSortedCursor } from "@/lib/search/keysetCursor";
 import type { QueueQuery } from "@/lib/review/schemas";
 import { CURRENT_SIGNATURE } from "@/lib/review/counts";
-import { models } from "@/models";
 
 export type ReviewItem = {
   id: string;
@@ -115,7 +114,6 @@ function toItem(r: Row): ReviewItem {
  * groups the actor leads, filtered, sorted and paged as the query says.
  */
 export async function listReviewQueue(actor: Actor, q: QueueQuery): Promise<ReviewQueue> {
-  models();
   const groupIds = leadGroupIds(actor);
   const empty = { items: [], total: 0, totalExact: true, pageSize: q.pageSize, next: null, projects: [], samples: [] };
   if (groupIds.length === 0) return empty;
@@ -258,7 +256,6 @@ export type SignatureReview = ReviewItem & {
 
 /** One signature with its decision history, for members of the owning group; null otherwise. */
 export async function getSignatureReview(actor: Actor, id: string): Promise<SignatureReview | null> {
-  models();
   const [r] = await selectRows<
     Row & {
       group_id: string;

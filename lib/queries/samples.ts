@@ -3,7 +3,7 @@ import { Op } from "sequelize";
 import type { Actor } from "@/lib/auth/actor";
 import { memberGroupIds } from "@/lib/auth/access";
 import { hazardsOf, type HazardFlag } from "@/lib/hazards";
-import { Group, Project, Sample, SampleParent, Spectrum, models } from "@/models";
+import { Group, Project, Sample, SampleParent, Spectrum } from "@/models";
 import { fastCount, type CountSql, type FastCount } from "@/lib/search/fastCount";
 import { cursorAtSql, decodeCursor, encodeCursor } from "@/lib/search/keysetCursor";
 import { containsPattern } from "@/lib/search/spectrumFilterSql";
@@ -81,7 +81,6 @@ export function samplePageSql(groupIds: string[], options: { q?: string; after?:
 
 /** One page of the samples of the actor's groups, newest first, with a count that stays fast. */
 export async function listSamples(actor: Actor, options: { q?: string; after?: string } = {}): Promise<SamplePage> {
-  models();
   const groupIds = memberGroupIds(actor);
   if (groupIds.length === 0) return { rows: [], next: null, count: { value: 0, exact: true } };
   const { listSql, count: countSql, params, limit } = samplePageSql(groupIds, options);
@@ -151,7 +150,6 @@ export type SampleDetail = SampleRow & {
 
 /** One sample the actor may read as a member, or null (never reveals another group's sample). */
 export async function getSample(actor: Actor, id: string): Promise<SampleDetail | null> {
-  models();
   const sample = await Sample.findByPk(id);
   if (!sample || !memberGroupIds(actor).includes(sample.groupId)) return null;
   const [group, project, parentLinks, childLinks, spectra] = await Promise.all([
@@ -213,7 +211,6 @@ export async function getSample(actor: Actor, id: string): Promise<SampleDetail 
 
 /** Samples the actor may pick as parents or attach spectra to, grouped by group. */
 export async function listSampleChoices(actor: Actor): Promise<{ id: string; name: string; groupId: string }[]> {
-  models();
   const groupIds = memberGroupIds(actor);
   if (groupIds.length === 0) return [];
   const rows = await Sample.findAll({

@@ -4,7 +4,7 @@ import { selectRows } from "@/lib/db";
 import { isMaterialName } from "@/lib/engine/derived/materials";
 import type { MaterialName } from "@/lib/engine/types";
 import { materialFromText } from "@/lib/ingest/parameters";
-import { Project, models } from "@/models";
+import { Project } from "@/models";
 import type { SeriesDetail } from "./series-detail";
 
 export type PureCandidate = {
@@ -42,7 +42,6 @@ const LIMIT = 200;
  * points only).
  */
 export async function getDepletionSetup(actor: Actor, series: SeriesDetail, projectId: string): Promise<DepletionSetupView> {
-  models();
   const project = await Project.findByPk(projectId);
   const readsProject = project ? await canReadProject(actor, project) : false;
   const [linked, candidates, linkable, references] = await Promise.all([

@@ -5,7 +5,7 @@ import type { AnalysisReport } from "@/lib/engine";
 import { analyseSeries, type SeriesFits } from "@/lib/series/analyseSeries";
 import { pointMetrics } from "@/lib/series/pointMetrics";
 import { CURRENT_SIGNATURE } from "@/lib/review/counts";
-import { Project, Series, models } from "@/models";
+import { Project, Series } from "@/models";
 
 export type SeriesPoint = {
   spectrumId: string;
@@ -76,7 +76,6 @@ export async function getSeriesPoints(seriesId: string, options: { withReview: b
 
 /** A series with one row per spectrum (numbers from each spectrum's latest run), ordered by the variable, and its fits. */
 export async function getSeriesDetail(actor: Actor, id: string): Promise<SeriesDetail | null> {
-  models();
   const series = await Series.findByPk(id);
   if (!series || !(await canReadSeries(actor, series))) return null;
   const project = await Project.findByPk(series.projectId);

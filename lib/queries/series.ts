@@ -2,7 +2,7 @@ import { selectRows } from "@/lib/db";
 import { Op } from "sequelize";
 import type { Actor } from "@/lib/auth/actor";
 import { readableScope } from "@/lib/auth/access";
-import { Project, Series, models } from "@/models";
+import { Project, Series } from "@/models";
 
 export type SeriesRow = {
   id: string;
@@ -16,7 +16,6 @@ export type SeriesRow = {
 
 /** Series the actor reads: those of member projects, of shared projects, and shared one by one. */
 export async function listSeries(actor: Actor): Promise<SeriesRow[]> {
-  models();
   const scope = await readableScope(actor);
   const projectIds = [...scope.memberProjectIds, ...scope.sharedProjectIds];
   const or = [];

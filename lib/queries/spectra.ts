@@ -7,7 +7,6 @@ import { fastCount, type CountSql, type FastCount } from "@/lib/search/fastCount
 import { cursorAtSql, decodeCursor, encodeCursor } from "@/lib/search/keysetCursor";
 import { spectrumFilterSql } from "@/lib/search/spectrumFilterSql";
 import type { SpectrumSearch } from "@/lib/search/spectrumSearchQuery";
-import { models } from "@/models";
 
 export type SpectrumRow = {
   id: string;
@@ -119,7 +118,6 @@ const EMPTY: SpectrumPage = { rows: [], next: null, count: { value: 0, exact: tr
  * shared as a project; answered as not found).
  */
 export async function listSpectra(actor: Actor, search: SpectrumSearch): Promise<SpectrumPage | null> {
-  models();
   const scope = await readableScope(actor);
   const readable = [...new Set([...scope.memberProjectIds, ...scope.sharedProjectIds])];
   const seriesIds = scope.sharedSeriesIds;

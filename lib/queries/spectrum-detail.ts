@@ -5,7 +5,7 @@ import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadSpectrum, canWrite, groupOfSpectrum, memberGroupIds } from "@/lib/auth/access";
 import { hazardsOf, type HazardFlag } from "@/lib/hazards";
-import { AnalysisRun, Peak, Project, Sample, Signature, Spectrum, User, models } from "@/models";
+import { AnalysisRun, Peak, Project, Sample, Signature, Spectrum, User } from "@/models";
 
 export type RunSummary = {
   id: string;
@@ -147,7 +147,6 @@ function reportParameters(report: Record<string, unknown> | null): ReportParamet
 }
 
 export async function getSpectrumDetail(actor: Actor, id: string): Promise<SpectrumDetail | null> {
-  models();
   const spectrum = await Spectrum.findByPk(id);
   if (!spectrum || !(await canReadSpectrum(actor, spectrum))) return null;
   const [project, sample, reference, runs, groupId, point] = await Promise.all([

@@ -2,7 +2,7 @@ import { listParentCandidates, parentSampleIds } from "@/lib/queries/parentChoic
 import { listProjectChoices, type ProjectChoice } from "@/lib/queries/projects";
 import type { ParentCandidate } from "@/lib/parents/orderParentChoices";
 import { Op } from "sequelize";
-import { AnalysisRun, Peak, Sample, Series, Signature, Spectrum, models } from "@/models";
+import { AnalysisRun, Peak, Sample, Series, Signature, Spectrum } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadSeries, canReadSpectrum, groupOfSpectrum, memberGroupIds } from "@/lib/auth/access";
 import type { AnalysisReport } from "@/lib/engine";
@@ -153,7 +153,6 @@ async function analysisView(run: AnalysisRun, showReview: boolean): Promise<Anal
 /** A spectrum the actor may read, with its latest analysis and the list of its runs; null when not found or not readable. */
 export async function getSpectrumStatus(actor: Actor, id: string) {
   if (!isUuid(id)) return null;
-  models();
   const spectrum = await Spectrum.findByPk(id);
   if (!spectrum || !(await canReadSpectrum(actor, spectrum))) return null;
   const runs = await AnalysisRun.findAll({ where: { spectrumId: id }, order: [["createdAt", "DESC"]] });
@@ -173,7 +172,6 @@ export async function getSpectrumStatus(actor: Actor, id: string) {
 /** The spectrum row for a raw download, when the actor may read it. */
 export async function getReadableSpectrum(actor: Actor, id: string): Promise<Spectrum | null> {
   if (!isUuid(id)) return null;
-  models();
   const spectrum = await Spectrum.findByPk(id);
   return spectrum && (await canReadSpectrum(actor, spectrum)) ? spectrum : null;
 }
@@ -187,7 +185,6 @@ function strongest(report: AnalysisReport | null, kind: string) {
 /** A series the actor may read, with each spectrum's status and key numbers from its latest analysis. */
 export async function getSeriesStatus(actor: Actor, id: string) {
   if (!isUuid(id)) return null;
-  models();
   const series = await Series.findByPk(id);
   if (!series || !(await canReadSeries(actor, series))) return null;
   const spectra = await Spectrum.findAll({

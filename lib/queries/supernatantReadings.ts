@@ -11,7 +11,7 @@ import type { ParsedSpectrum } from "@/lib/engine/types";
 import type { ReadChoice } from "@/lib/engine";
 import { getReadableSpectrum } from "@/lib/queries/spectrum-status";
 import { parsedRawFile, storedReadChoice } from "@/lib/rawSpectra";
-import { Series, models } from "@/models";
+import { Series } from "@/models";
 import { ABSORBANCE_READING, readAbsorbanceAt } from "@/lib/series/readAbsorbanceAt";
 import type { AbsorbanceReading, ReadingsQuery, SupernatantReadings } from "@/lib/series/supernatantSchemas";
 import { Refusal } from "@/lib/errors";
@@ -88,7 +88,6 @@ async function pureSpectrum(actor: Actor, id: string | undefined, field: "pureA"
  * spectrum the actor may not read is a 404 naming its field).
  */
 export async function getSupernatantReadings(actor: Actor, seriesId: string, query: ReadingsQuery): Promise<SupernatantReadings | null> {
-  models();
   const series = await Series.findByPk(seriesId);
   if (!series || !(await canReadSeries(actor, series))) return null;
   const [pureA, pureX] = await Promise.all([pureSpectrum(actor, query.pureA, "pureA"), pureSpectrum(actor, query.pureX, "pureX")]);

@@ -3,8 +3,8 @@ import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Actor } from "@/lib/auth/actor";
 import { canReview, roleIn } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
-import { selectRows } from "@/lib/db";
-import { Review, Signature, models } from "@/models";
+import { selectRows, sequelize } from "@/lib/db";
+import { Review, Signature } from "@/models";
 import type { ReviewState } from "@/models/Signature";
 import { shortRunId } from "./carryDecisions";
 import { addNotices, scheduleNotices, type Notice } from "./notices";
@@ -108,7 +108,7 @@ export async function decideSignatures(
   decision: Decision,
   comment: string,
 ): Promise<{ outcomes: DecisionOutcome[]; mailed: number }> {
-  const db = models();
+  const db = sequelize();
   const ids = [...new Set(signatureIds)];
   if (ids.length === 0) throw refuse(400, "choose at least one signature", "signatureIds");
   const byId = await loadTargets(actor, ids);
@@ -164,7 +164,7 @@ export async function decideSignatures(
  * followed, or one recorded before undo was possible, is refused (409).
  */
 export async function undoDecisions(actor: Actor, reviewIds: string[]): Promise<{ outcomes: DecisionOutcome[]; mailed: number }> {
-  const db = models();
+  const db = sequelize();
   const wanted = [...new Set(reviewIds)];
   if (wanted.length === 0) throw refuse(400, "name at least one decision to undo", "reviewIds");
   const reviews = await Review.findAll({ where: { id: { [Op.in]: wanted } } });

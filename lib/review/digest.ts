@@ -4,7 +4,6 @@ import { selectRows, sequelize } from "@/lib/db";
 import { sendMail } from "@/lib/mail";
 import { KIND_LABELS, type FlagKind } from "@/lib/registry/flagKinds";
 import { CURRENT_SIGNATURE, awaitingReviewCounts } from "./counts";
-import { models } from "@/models";
 
 export type DigestSummary = { groups: number; signatures: number; mailed: number };
 
@@ -28,7 +27,6 @@ type Pending = {
  * The mail states how many await review in all, from the same count as the queue and Overview.
  */
 export async function runReviewDigest(): Promise<DigestSummary> {
-  models();
   const groups = await selectRows<{ group_id: string; group_name: string }>(
     `SELECT DISTINCT p.group_id, gr.name AS group_name FROM signatures g JOIN spectra s ON s.id = g.spectrum_id
      JOIN projects p ON p.id = s.project_id JOIN groups gr ON gr.id = p.group_id WHERE g.digested_at IS NULL`,

@@ -1,7 +1,7 @@
 import { toEnergyAxis } from "@/lib/engine";
 import { TECHNIQUE_SPECS } from "@/lib/registry/techniques";
 import { parsedRawFile, storedReadChoice } from "@/lib/rawSpectra";
-import { Spectrum, models } from "@/models";
+import { Spectrum } from "@/models";
 
 export type Evidence = {
   /** Energy axis of the window, eV, ascending. */
@@ -52,7 +52,6 @@ export async function loadEvidence(
   centreEv: number | null,
   halfWidthEv = 0.3,
 ): Promise<Evidence> {
-  models();
   const spectrum = await Spectrum.findByPk(spectrumId);
   const reference = referenceSpectrumId ? await Spectrum.findByPk(referenceSpectrumId) : null;
   const base = { centreEv, halfWidthEv, sampleName: spectrum?.fileName ?? "", referenceName: reference?.fileName ?? null };

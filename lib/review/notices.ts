@@ -4,7 +4,7 @@ import { selectRows, sequelize } from "@/lib/db";
 import { sendMail } from "@/lib/mail";
 import { noticeQueue } from "@/lib/queue";
 import { KIND_LABELS, type FlagKind } from "@/lib/registry/flagKinds";
-import { User, models } from "@/models";
+import { User } from "@/models";
 import { countOf } from "@/lib/format/quantity";
 
 // Decision mail to uploaders, coalesced per person: each decision adds a notice row in the
@@ -108,7 +108,6 @@ export function composeNotice(name: string, rows: readonly PendingRow[], base: s
  * retry. Notices that arrived meanwhile are scheduled again. Returns the number of messages sent.
  */
 export async function sendPendingNotices(recipientId: string): Promise<number> {
-  models();
   const base = config().APP_URL.replace(/\/$/, "");
   const sent = await sequelize().transaction(async (transaction) => {
     const rows = await sequelize().query<PendingRow>(

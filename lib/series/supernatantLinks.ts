@@ -2,9 +2,10 @@ import { DatabaseError, UniqueConstraintError } from "sequelize";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadSeries, canWrite } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
-import { Project, Series, Spectrum, models } from "@/models";
+import { Project, Series, Spectrum } from "@/models";
 import type { LinkBody } from "./supernatantSchemas";
 import { refuse } from "@/lib/errors";
+import { sequelize } from "@/lib/db";
 
 /** A refused link or unlink, with the HTTP status it maps to and the field it concerns. */
 export type LinkOutcome = {
@@ -24,7 +25,6 @@ export type LinkOutcome = {
  */
 /** The series and its group when the actor may link supernatants in it; else the refusal (404 before 403). */
 export async function seriesForLinking(actor: Actor, seriesId: string): Promise<{ series: Series; groupId: string }> {
-  models();
   const series = await Series.findByPk(seriesId);
   if (!series || !(await canReadSeries(actor, series))) throw refuse(404, `series ${seriesId} was not found`);
   const project = await Project.findByPk(series.projectId, { attributes: ["id", "groupId"] });
@@ -35,7 +35,7 @@ export async function seriesForLinking(actor: Actor, seriesId: string): Promise<
 }
 
 export async function setSupernatantLink(actor: Actor, seriesId: string, input: LinkBody): Promise<LinkOutcome> {
-  const db = models();
+  const db = sequelize();
   const { series, groupId } = await seriesForLinking(actor, seriesId);
   const supernatant = await Spectrum.findByPk(input.supernatantSpectrumId);
   if (!supernatant || supernatant.projectId !== series.projectId) {

@@ -14,7 +14,7 @@ import type { ReadChoice } from "@/lib/engine";
 import { getReadableSpectrum } from "@/lib/queries/spectrum-status";
 import { redis } from "@/lib/redis";
 import { parsedRawFile, storedReadChoice } from "@/lib/rawSpectra";
-import { AnalysisRun, Spectrum, models } from "@/models";
+import { AnalysisRun, Spectrum } from "@/models";
 import { DISPLAY_AXES, type DisplayAxis } from "./axis";
 import { deriveViewArrays, type ViewArrays } from "./deriveViewArrays";
 import { SizedLru } from "@/lib/lruCache";
@@ -71,7 +71,6 @@ export async function findViewRun(actor: Actor, spectrumId: string, runId?: stri
 }
 
 async function lookupRun(spectrumId: string, runId?: string): Promise<ViewRun | null> {
-  models();
   const attributes = ["id", "status", "parameters", "referenceSpectrumId", "engineVersion", "errorMessage"];
   return runId
     ? await AnalysisRun.findOne({ where: { id: runId, spectrumId }, attributes })
@@ -92,7 +91,6 @@ function checkedRun(spectrum: Spectrum, run: ViewRun | null, runId?: string): { 
 }
 
 export async function getRunReport(runId: string): Promise<AnalysisReport> {
-  models();
   const row = await AnalysisRun.findByPk(runId, { attributes: ["id", "report"] });
   if (!row?.report) throw new Refusal(409, "not-ready", "this analysis run has no stored report.");
   return row.report as AnalysisReport;

@@ -1,14 +1,14 @@
 import bcrypt from "bcryptjs";
 import { hashToken } from "@/lib/auth/actor";
 import { recordAudit } from "@/lib/audit";
-import { Group, Invitation, Membership, Share, User, models } from "@/models";
+import { Group, Invitation, Membership, Share, User } from "@/models";
 import { refuse } from "@/lib/errors";
+import { sequelize } from "@/lib/db";
 
 export type InvitationView = { email: string; groupName: string; role: string; accountExists: boolean };
 
 /** The invitation behind a token if it can still be used; otherwise a Refusal saying why. */
 export async function usableInvitation(token: string): Promise<{ invitation: Invitation; view: InvitationView }> {
-  models();
   if (!/^[A-Za-z0-9_-]{20,100}$/.test(token)) throw refuse(400, "This invitation link is not valid.");
   const invitation = await Invitation.findOne({ where: { tokenHash: hashToken(token) } });
   if (!invitation) throw refuse(400, "This invitation link is not valid.");
@@ -30,7 +30,7 @@ export async function acceptInvitation(
   token: string,
   who: { signedInUserId: string | null; name?: string; password?: string },
 ): Promise<{ userId: string; created: boolean }> {
-  const db = models();
+  const db = sequelize();
   const { invitation } = await usableInvitation(token);
   const passwordHash = who.password ? await bcrypt.hash(who.password, 10) : null;
   return db.transaction(async (transaction) => {

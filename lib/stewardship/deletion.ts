@@ -4,10 +4,11 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { config } from "@/lib/config";
 import { recordAudit } from "@/lib/audit";
 import { deleteObject, s3 } from "@/lib/storage";
-import { Tombstone, models } from "@/models";
+import { Tombstone } from "@/models";
 import type { DeletionCause } from "@/models/Tombstone";
 import type { DataClass } from "./types";
 import { Refusal } from "@/lib/errors";
+import { sequelize } from "@/lib/db";
 
 // Deleting a stored spectrum or an analysis run, safely against crashes:
 //   1. one transaction re-checks holds and dependents and writes a *pending* tombstone;
@@ -55,7 +56,7 @@ export async function holdCoveringSpectrum(
   spectrumId: string,
   transaction?: Transaction,
 ): Promise<{ reason: string; targetType: string } | null> {
-  const db = models();
+  const db = sequelize();
   const rows = await db.query<{ reason: string; target_type: string }>(
     `SELECT h.reason, h.target_type FROM spectra s JOIN legal_holds h ON h.lifted_at IS NULL AND (
         (h.target_type = 'project' AND h.target_id = s.project_id)
@@ -72,7 +73,7 @@ export function holdMessage(hold: { reason: string; targetType: string }): strin
 }
 
 async function dependentOf(spectrumId: string, transaction: Transaction): Promise<string | null> {
-  const rows = await models().query<{ file_name: string }>("SELECT file_name FROM spectra WHERE reference_spectrum_id = :id LIMIT 1", {
+  const rows = await sequelize().query<{ file_name: string }>("SELECT file_name FROM spectra WHERE reference_spectrum_id = :id LIMIT 1", {
     replacements: { id: spectrumId },
     type: QueryTypes.SELECT,
     transaction,
@@ -93,7 +94,7 @@ export async function objectExists(key: string): Promise<boolean> {
 
 /** Step 1: re-check and journal the deletion of a spectrum. Throws a Refusal (see DeletionRefusalCode). */
 export async function beginSpectrumDeletion(spectrumId: string, request: DeleteRequest): Promise<Tombstone> {
-  const db = models();
+  const db = sequelize();
   return db.transaction(async (transaction) => {
     const [row] = await db.query<SpectrumRow>(
       `SELECT s.id, s.project_id, p.group_id, s.series_id, s.sample_id, s.file_name, s.object_key, s.sha256, s.size_bytes, s.status
@@ -143,7 +144,7 @@ export async function completeTombstone(
   tombstoneId: string,
   request: Pick<DeleteRequest, "pauseMs"> = {},
 ): Promise<"done" | "cancelled" | "skipped"> {
-  const db = models();
+  const db = sequelize();
   return db.transaction(async (transaction) => {
     const t = await Tombstone.findOne({
       where: { id: tombstoneId, state: "pending" },
@@ -223,7 +224,7 @@ export async function deleteSpectrum(spectrumId: string, request: DeleteRequest)
 
 /** Deletes one analysis run (no object in storage) in one transaction, with its tombstone. */
 export async function deleteAnalysisRun(runId: string, request: DeleteRequest & { dataClass?: DataClass }): Promise<void> {
-  const db = models();
+  const db = sequelize();
   await db.transaction(async (transaction) => {
     const [run] = await db.query<{
       id: string;
@@ -295,7 +296,6 @@ export async function deleteAnalysisRun(runId: string, request: DeleteRequest & 
 
 /** Completes every deletion an earlier, interrupted run left pending. */
 export async function finishPending(): Promise<number> {
-  models();
   const pending = await Tombstone.findAll({ where: { state: "pending" }, order: [["createdAt", "ASC"]], attributes: ["id"] });
   let n = 0;
   for (const t of pending) if ((await completeTombstone(t.id)) === "done") n++;

@@ -7,7 +7,7 @@ import { selectRows } from "@/lib/db";
 import { ENGINE_VERSION, type ParsedSpectrum } from "@/lib/engine";
 import { hazardsOf } from "@/lib/hazards";
 import { parseRawBytes, storedRawBytes, storedReadChoice } from "@/lib/rawSpectra";
-import { AnalysisRun, Group, Project, Sample, Series, Spectrum, models } from "@/models";
+import { AnalysisRun, Group, Project, Sample, Series, Spectrum } from "@/models";
 import { TECHNIQUE_SPECS } from "@/lib/registry/techniques";
 import { countOf } from "@/lib/format/quantity";
 
@@ -134,7 +134,6 @@ export type BundleStream = {
  * spectrum). The caller has checked read access.
  */
 export async function streamBundle(target: { type: "project" | "series"; id: string }, createdBy: string): Promise<BundleStream> {
-  models();
   let project: Project | null;
   let seriesList: Series[];
   let spectrumIds: string[];

@@ -2,7 +2,7 @@ import { randomBytes } from "node:crypto";
 import { hashToken } from "@/lib/auth/actor";
 import { config } from "@/lib/config";
 import { sendMail } from "@/lib/mail";
-import { Invitation, models } from "@/models";
+import { Invitation } from "@/models";
 import type { Role } from "@/models/Membership";
 
 export const INVITATION_DAYS = 7;
@@ -16,7 +16,6 @@ export async function sendInvitation(input: {
   invitedBy: { id: string; name: string };
   share?: { type: "project" | "series"; id: string; label: string } | null;
 }): Promise<{ invitation: Invitation; link: string }> {
-  models();
   const token = randomBytes(32).toString("base64url");
   const invitation = await Invitation.create({
     groupId: input.groupId,

@@ -4,9 +4,9 @@ import type { Actor } from "@/lib/auth/actor";
 import { hashToken } from "@/lib/auth/actor";
 import { canSteward, groupOfTarget, stewardGroupIds } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
-import { selectRows } from "@/lib/db";
+import { selectRows, sequelize } from "@/lib/db";
 import { hazardsOf, usesUvOrLaserLight, type HazardFlag } from "@/lib/hazards";
-import { Group, Project, Series, Share, Spectrum, models } from "@/models";
+import { Group, Project, Series, Share, Spectrum } from "@/models";
 import { isUuid } from "@/lib/ids";
 import { refuse } from "@/lib/errors";
 
@@ -55,7 +55,6 @@ export function checkLinkExpiry(expiresAt: Date | null, now: Date): Date | null 
 const NOT_FOUND = "shareTarget: not a project or series of a group you steward.";
 
 async function targetName(type: LinkTargetType, id: string): Promise<string> {
-  models();
   if (type === "project") return (await Project.findByPk(id, { attributes: ["name"] }))?.name ?? "";
   const series = await Series.findByPk(id, { attributes: ["name", "projectId"] });
   if (!series) return "";
@@ -79,7 +78,6 @@ export async function createShareLink(
   input: { targetType: LinkTargetType; targetId: string; expiresAt: Date | null },
   now = new Date(),
 ): Promise<CreatedLink> {
-  models();
   if (input.targetType !== "project" && input.targetType !== "series")
     throw refuse(400, "shareTarget: choose a project or series.", "shareTarget");
   if (!isUuid(input.targetId)) throw refuse(404, NOT_FOUND, "shareTarget");
@@ -90,7 +88,7 @@ export async function createShareLink(
   const token = newLinkToken();
   const prefix = token.slice(0, LINK_PREFIX_LENGTH);
   const label = await targetName(input.targetType, input.targetId);
-  const share = await models().transaction(async (transaction) => {
+  const share = await sequelize().transaction(async (transaction) => {
     const row = await Share.create(
       {
         groupId,
@@ -123,9 +121,8 @@ export async function createShareLink(
 
 /** A data steward of the owning group revokes a link; the next request through it is refused. */
 export async function revokeShareLink(actor: Actor, shareId: string): Promise<void> {
-  models();
   if (!isUuid(shareId)) throw refuse(400, "id: not a valid id.", "id");
-  await models().transaction(async (transaction) => {
+  await sequelize().transaction(async (transaction) => {
     const share = await Share.findByPk(shareId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!share || share.linkTokenHash === null || !canSteward(actor, share.groupId))
       throw refuse(404, "Not found, or not a link of a group you steward.");
@@ -158,7 +155,6 @@ export type ResolvedLink = {
 /** The target of a link in force at `now`, or null when the token is unknown, revoked or expired. */
 export async function resolveShareLink(token: string, now = new Date()): Promise<ResolvedLink | null> {
   if (typeof token !== "string" || !looksLikeLinkToken(token)) return null;
-  models();
   const share = await Share.findOne({ where: { linkTokenHash: hashToken(token), granteeUserId: null } });
   if (!share || linkStateAt(share, now) !== "in force") return null;
   const group = await Group.findByPk(share.groupId, { attributes: ["name"] });
@@ -179,7 +175,6 @@ export async function resolveShareLink(token: string, now = new Date()): Promise
  */
 export async function spectrumThroughLink(link: ResolvedLink, spectrumId: string): Promise<Spectrum | null> {
   if (!isUuid(spectrumId)) return null;
-  models();
   if (link.targetType === "project") return Spectrum.findOne({ where: { id: spectrumId, projectId: link.targetId } });
   const spectrum = await Spectrum.findByPk(spectrumId);
   if (!spectrum) return null;
@@ -199,7 +194,6 @@ export type LinkedProject = {
 
 /** Series names and spectra (names and states only) of a shared project. */
 export async function linkedProject(projectId: string): Promise<LinkedProject | null> {
-  models();
   const project = await Project.findByPk(projectId, { attributes: ["name"] });
   if (!project) return null;
   const series = await selectRows<{ id: string; name: string; kind: string; spectra: string }>(
@@ -262,7 +256,6 @@ export type ShareLinkRow = {
 
 /** Links of the groups the actor stewards, newest first. The prefix comes from the creation's audit event. */
 export async function listShareLinks(actor: Actor, now = new Date()): Promise<ShareLinkRow[]> {
-  models();
   const groups = stewardGroupIds(actor);
   if (!groups.length) return [];
   const rows = await Share.findAll({

@@ -1,7 +1,7 @@
 import { selectRows } from "@/lib/db";
 import type { FlagKind } from "@/lib/registry/flagKinds";
 import type { Technique } from "@/lib/registry/techniques";
-import { AnalysisRun, Peak, Signature, type Spectrum, models } from "@/models";
+import { AnalysisRun, Peak, Signature, type Spectrum } from "@/models";
 import type { ResolvedLink } from "./shareLinks";
 
 // What a read-only share link shows of one spectrum: its latest finished analysis, the fitted
@@ -32,7 +32,6 @@ export type SharedSpectrumView = {
 };
 
 export async function sharedSpectrumView(spectrum: Spectrum): Promise<SharedSpectrumView> {
-  models();
   const run = await AnalysisRun.findOne({
     where: { spectrumId: spectrum.id, status: "done" },
     order: [["createdAt", "DESC"]],

@@ -1,5 +1,5 @@
 import { recordAudit } from "@/lib/audit";
-import { RetentionFlag, Project, models } from "@/models";
+import { RetentionFlag, Project } from "@/models";
 import { deleteAnalysisRun, deleteSpectrum, finishPending } from "./deletion";
 import { planSweep } from "./planSweep";
 import { loadSnapshot } from "./snapshot";
@@ -33,7 +33,6 @@ export async function planFor(projectIds?: string[], now = new Date()): Promise<
 
 /** One retention sweep: finish interrupted deletions, then flag and delete what expired. */
 export async function runSweep(options: SweepOptions = {}): Promise<SweepSummary> {
-  models();
   const recovered = await finishPending();
   const plan = await planFor(options.projectIds, options.now ?? new Date());
   const groupOf = new Map((await Project.findAll({ attributes: ["id", "groupId"] })).map((p) => [p.id, p.groupId]));

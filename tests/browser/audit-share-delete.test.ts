@@ -3,7 +3,7 @@ import type { Browser } from "playwright-core";
 import { loadActor } from "@/lib/auth/actor";
 import { closeDb } from "@/lib/db";
 import { createShareLink } from "@/lib/stewardship/shareLinks";
-import { User, models } from "@/models";
+import { User } from "@/models";
 import { DEMO, url } from "../helpers/app";
 import { demoIds } from "../helpers/demo-ids";
 import { createLab } from "../helpers/fixtures";
@@ -16,7 +16,6 @@ import { storedSpectrum } from "../integration/stewardship-fixtures";
 let browser: Browser;
 let ids: Awaited<ReturnType<typeof demoIds>>;
 beforeAll(async () => {
-  models();
   ids = await demoIds();
   browser = await launchBrowser();
 });

@@ -2,7 +2,7 @@ import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, selectRows } from "@/lib/db";
 import { absorptionCsv } from "@/lib/demo/synthetic";
-import { AnalysisRun, models } from "@/models";
+import { AnalysisRun } from "@/models";
 import { settled, upload } from "../helpers/api";
 import { url } from "../helpers/app";
 import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
@@ -28,7 +28,6 @@ const currentBleach = async () =>
   )[0];
 
 beforeAll(async () => {
-  models();
   browser = await launchBrowser();
   lab = await createLab("lead");
   const spectroscopist = await addMember(lab, "spectroscopist");

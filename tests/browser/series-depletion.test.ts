@@ -1,7 +1,7 @@
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { Op } from "sequelize";
-import { Spectrum, models } from "@/models";
+import { Spectrum } from "@/models";
 import { DEMO, url } from "../helpers/app";
 import { SCREENSHOT_DIR, demoBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 
@@ -49,7 +49,6 @@ describe("composition from supernatant depletion", () => {
     await expect.poll(async () => panel.getByTestId("depletion-errors").textContent()).toContain("Points, line 2: give four numbers");
 
     // A supernatant's own page says whose supernatant it is and links back to the series.
-    models();
     const points = await Spectrum.findAll({ where: { seriesId: demo.ids.sharedSeries.id }, attributes: ["id"] });
     const supernatant = await Spectrum.findOne({ where: { supernatantOfSpectrumId: { [Op.in]: points.map((p) => p.id) } } });
     const point = await Spectrum.findByPk(supernatant!.supernatantOfSpectrumId!);

@@ -1,7 +1,7 @@
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/lib/db";
-import { User, models } from "@/models";
+import { User } from "@/models";
 import { url } from "../helpers/app";
 import { createLab } from "../helpers/fixtures";
 import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
@@ -13,7 +13,6 @@ import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser
 let browser: Browser;
 beforeAll(async () => {
   browser = await launchBrowser();
-  models();
 });
 afterAll(async () => {
   await browser?.close();

@@ -1,7 +1,7 @@
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/lib/db";
-import { AnalysisRun, Spectrum, models } from "@/models";
+import { AnalysisRun, Spectrum } from "@/models";
 import { DEMO, url } from "../helpers/app";
 import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 
@@ -18,7 +18,6 @@ async function demoSpectrumId(fileName: string): Promise<string> {
   return spectrum.id;
 }
 beforeAll(async () => {
-  models();
   spectrumId = await demoSpectrumId("cdse-0412-n-abs.csv");
   // a repeat of the parent that no other test reads, so its new run changes nothing they check
   repeatId = await demoSpectrumId("cdse-0412-repeat.csv");

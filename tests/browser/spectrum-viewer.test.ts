@@ -1,7 +1,7 @@
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/lib/db";
-import { Spectrum, models } from "@/models";
+import { Spectrum } from "@/models";
 import { DEMO, url } from "../helpers/app";
 import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 
@@ -15,7 +15,6 @@ let browser: Browser;
 let flaggedId: string;
 let plId: string;
 beforeAll(async () => {
-  models();
   flaggedId = (await Spectrum.findOne({ where: { fileName: "cdse-0412-n-abs.csv" } }))!.id;
   plId = (await Spectrum.findOne({ where: { fileName: "pl-quench-10uM.csv" } }))!.id;
   browser = await launchBrowser();

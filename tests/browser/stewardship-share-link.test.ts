@@ -1,7 +1,7 @@
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, expect, it } from "vitest";
 import { closeDb } from "@/lib/db";
-import { type Series, type Spectrum, models } from "@/models";
+import { type Series, type Spectrum } from "@/models";
 import { url } from "../helpers/app";
 import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 import { createLab, createSample, createSeries, type Lab } from "../helpers/fixtures";
@@ -20,7 +20,6 @@ let lab: Lab;
 let series: Series;
 let spectra: Spectrum[];
 beforeAll(async () => {
-  models();
   browser = await launchBrowser();
   lab = await createLab("steward");
   const sample = await createSample(lab, "CdSe/ZnS");

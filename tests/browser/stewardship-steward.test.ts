@@ -1,7 +1,7 @@
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, expect, it } from "vitest";
 import { closeDb } from "@/lib/db";
-import { LegalHold, RetentionPolicy, Spectrum, models } from "@/models";
+import { LegalHold, RetentionPolicy, Spectrum } from "@/models";
 import { url } from "../helpers/app";
 import { launchBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 import { createLab, type Lab } from "../helpers/fixtures";
@@ -17,7 +17,6 @@ let browser: Browser;
 let lab: Lab;
 let old: Spectrum[];
 beforeAll(async () => {
-  models();
   browser = await launchBrowser();
   lab = await createLab("steward");
   old = [await storedSpectrum(lab, { ageDays: 400 }), await storedSpectrum(lab, { ageDays: 200 })];

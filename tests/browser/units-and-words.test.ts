@@ -1,7 +1,7 @@
 import type { Page } from "playwright-core";
 import { Op } from "sequelize";
 import { beforeAll, describe, expect, it } from "vitest";
-import { Signature, Spectrum, models } from "@/models";
+import { Signature, Spectrum } from "@/models";
 import { DEMO, url } from "../helpers/app";
 import { demoBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 
@@ -15,7 +15,6 @@ const demo = demoBrowser();
 const ids: Record<string, string> = {};
 
 beforeAll(async () => {
-  models();
   for (const [key, fileName] of [
     ["pl", "pl-quench-10uM.csv"],
     ["ir", "cdse-0412-n-midir.csv"],

@@ -1,6 +1,6 @@
 import { expect, it, describe } from "vitest";
 import { Op } from "sequelize";
-import { ImportProfile, Series, Spectrum, models } from "@/models";
+import { ImportProfile, Series, Spectrum } from "@/models";
 import { DEMO, url } from "../helpers/app";
 import { demoBrowser, screenshot, signInThroughForm } from "../helpers/browser";
 import { syntheticAbsorptionCsv } from "../helpers/spectra";
@@ -26,7 +26,6 @@ function threeColumnFile(seed: number): Buffer {
 
 describe("splitting a file and saving an import profile on the upload page", () => {
   it("changes unit and column, splits into three series points, warns about a parent, saves a profile and reads the next file with it", async () => {
-    models();
     const seed = Date.now() % 1e6;
     // profiles an earlier run of this test saved would match the same header: start without them
     await ImportProfile.destroy({ where: { projectId: suite.ids.project.id, name: { [Op.like]: "Plate reader %" } } });

@@ -1,9 +1,8 @@
 import { Op } from "sequelize";
-import { Project, Series, Signature, Spectrum, models } from "@/models";
+import { Project, Series, Signature, Spectrum } from "@/models";
 
 /** Ids of records from the demo scenario (scripts/seed.ts), looked up by their names. */
 export async function demoIds() {
-  models();
   const byName = async <T>(finder: Promise<T | null>, what: string): Promise<T> => {
     const row = await finder;
     if (!row) throw new Error(`demo scenario is missing ${what}: did scripts/seed.ts run?`);

@@ -1,7 +1,7 @@
 // Test people, groups, projects and API tokens, created directly with the models.
 import { randomBytes } from "node:crypto";
 import bcrypt from "bcryptjs";
-import { ApiToken, Group, Membership, Project, Sample, Series, User, models } from "@/models";
+import { ApiToken, Group, Membership, Project, Sample, Series, User } from "@/models";
 import type { Role } from "@/models/Membership";
 import { hashToken, loadActor, type Actor } from "@/lib/auth/actor";
 
@@ -17,7 +17,6 @@ export type Lab = {
 
 /** A user with an API token. */
 export async function createUser(label = "tester"): Promise<{ user: User; token: string }> {
-  models();
   const u = uniq();
   const user = await User.create({
     email: `${label}-${u}@example.test`,
@@ -38,7 +37,6 @@ export async function createUser(label = "tester"): Promise<{ user: User; token:
 
 /** A fresh group with one project and one member of the given role, holding an API token. */
 export async function createLab(role: Role = "spectroscopist"): Promise<Lab> {
-  models();
   const u = uniq();
   const group = await Group.create({ name: `Test lab ${u}`, slug: `test-lab-${u}` });
   const project = await Project.create({ groupId: group.id, name: `Doping study ${u}` });

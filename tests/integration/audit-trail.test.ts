@@ -4,7 +4,7 @@ import { AUDIT_EVENT_KINDS } from "@/lib/auditTrail/eventKinds";
 import { plainText } from "@/lib/auditTrail/sentenceParts";
 import { closeDb, selectRows } from "@/lib/db";
 import { listAuditJson, listAuditPage, type AuditFilter, type AuditLine } from "@/lib/queries/audit";
-import { Membership, models } from "@/models";
+import { Membership } from "@/models";
 import { url } from "../helpers/app";
 import { createLab, createUser, type Lab } from "../helpers/fixtures";
 import { sessionCookie } from "../helpers/session";
@@ -37,7 +37,6 @@ async function allPages(f: Partial<AuditFilter>, limit: number): Promise<AuditLi
 }
 
 beforeAll(async () => {
-  models();
   lab = await createLab("steward");
   other = await createLab("steward");
   const { user } = await createUser("member");

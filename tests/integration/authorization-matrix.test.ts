@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/lib/db";
-import { Membership, models } from "@/models";
+import { Membership } from "@/models";
 import { APP_ORIGIN, DEMO, DEMO_PASSWORD, url } from "../helpers/app";
 import { demoIds } from "../helpers/demo-ids";
 import { createLab, createUser } from "../helpers/fixtures";
@@ -251,7 +251,6 @@ let ids: Ids;
 const cookies: Partial<Record<Persona, string>> = {};
 
 beforeAll(async () => {
-  models();
   ids = await demoIds();
   cookies.collaboratorShared = await sessionCookie(DEMO.collaborator, DEMO_PASSWORD);
   cookies.spectroscopist = await sessionCookie(DEMO.spectroscopist, DEMO_PASSWORD);

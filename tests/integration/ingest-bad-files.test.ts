@@ -2,7 +2,7 @@
 // clear error (4xx naming the file or field, or the spectrum failed with the engine's
 // message), never a 500; accepted raw files stay in storage; the worker keeps going.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { AnalysisRun, Spectrum, models } from "@/models";
+import { AnalysisRun, Spectrum } from "@/models";
 import { closeDb } from "@/lib/db";
 import { config } from "@/lib/config";
 import { getObjectBytes } from "@/lib/storage";
@@ -17,7 +17,6 @@ import { enc, syntheticAbsorptionCsv } from "../helpers/spectra";
 let lab: Lab;
 
 beforeAll(async () => {
-  models();
   lab = await createLab();
 });
 afterAll(async () => {

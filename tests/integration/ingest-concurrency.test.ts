@@ -1,7 +1,7 @@
 // 50 uploads at once through the running app: nothing is lost, nothing stored twice.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { Op } from "sequelize";
-import { AnalysisRun, Spectrum, models } from "@/models";
+import { AnalysisRun, Spectrum } from "@/models";
 import { closeDb } from "@/lib/db";
 import { createLab, type Lab } from "../helpers/fixtures";
 import { upload } from "../helpers/api";
@@ -14,7 +14,6 @@ import { waitFor } from "../helpers/waitFor";
 let lab: Lab;
 
 beforeAll(async () => {
-  models();
   lab = await createLab();
 });
 afterAll(async () => {

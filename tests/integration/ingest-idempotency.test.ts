@@ -6,7 +6,7 @@ const QUEUE = `ingest-idem-${randomBytes(4).toString("hex")}`;
 process.env.BANDKEEP_QUEUE = QUEUE; // this file's own queue: the shared worker never sees these jobs
 
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { AnalysisRun, Peak, Signature, Spectrum, models } from "@/models";
+import { AnalysisRun, Peak, Signature, Spectrum } from "@/models";
 import { closeDb } from "@/lib/db";
 import { analysisQueue, connectionOptions } from "@/lib/queue";
 import { ingestFiles } from "@/lib/ingest";
@@ -23,7 +23,6 @@ let lab: Lab;
 const workers: Owned[] = [];
 
 beforeAll(async () => {
-  models();
   lab = await createLab();
 });
 afterAll(async () => {

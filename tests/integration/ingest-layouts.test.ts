@@ -8,7 +8,7 @@ import { readFileSync } from "node:fs";
 import path from "node:path";
 import ExcelJS from "exceljs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { AnalysisRun, AuditEvent, Spectrum, models } from "@/models";
+import { AnalysisRun, AuditEvent, Spectrum } from "@/models";
 import { closeDb } from "@/lib/db";
 import { analyzeSpectrum, parseSpectrumFile } from "@/lib/engine";
 import { createLab, type Lab } from "../helpers/fixtures";
@@ -33,7 +33,6 @@ const plainPeaks = () => {
 
 let lab: Lab;
 beforeAll(async () => {
-  models();
   lab = await createLab("spectroscopist");
 });
 afterAll(async () => {

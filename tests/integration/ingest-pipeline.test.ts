@@ -1,6 +1,6 @@
 // Upload through the running app, analysis by the running worker, read back through the API.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { AnalysisRun, AuditEvent, Peak, Signature, Spectrum, models } from "@/models";
+import { AnalysisRun, AuditEvent, Peak, Signature, Spectrum } from "@/models";
 import { closeDb } from "@/lib/db";
 import { getObjectBytes } from "@/lib/storage";
 import { addMember, appUrl, createLab, createSample, createSeries, createUser, type Lab } from "../helpers/fixtures";
@@ -14,7 +14,6 @@ let lab: Lab;
 let fields: Record<string, string>;
 
 beforeAll(async () => {
-  models();
   lab = await createLab("spectroscopist");
   fields = { projectId: lab.project.id, technique: "absorption" };
 });

@@ -9,7 +9,7 @@ process.env.BANDKEEP_QUEUE = QUEUE;
 
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { Op } from "sequelize";
-import { AnalysisRun, Spectrum, models } from "@/models";
+import { AnalysisRun, Spectrum } from "@/models";
 import { closeDb } from "@/lib/db";
 import { analysisQueue } from "@/lib/queue";
 import { ingestFiles } from "@/lib/ingest";
@@ -24,7 +24,6 @@ let worker: Owned | null = null;
 
 beforeAll(async () => {
   await redisServer.start();
-  models();
   lab = await createLab();
 });
 afterAll(async () => {

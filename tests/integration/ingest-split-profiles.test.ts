@@ -4,7 +4,7 @@
 // the generated files are their own truth (tests/helpers/spectra.ts writes a Gaussian first
 // exciton at the given wavelength); E = hc/λ with hc = 1239.841984 eV·nm (CODATA 2018).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { AnalysisRun, AuditEvent, Series, Spectrum, models } from "@/models";
+import { AnalysisRun, AuditEvent, Series, Spectrum } from "@/models";
 import { closeDb } from "@/lib/db";
 import { analyzeSpectrum, parseSpectrumFile } from "@/lib/engine";
 import { getUploadChoices } from "@/lib/queries/spectrum-status";
@@ -19,7 +19,6 @@ const HC_EV_NM = 1239.841984;
 
 let lab: Lab;
 beforeAll(async () => {
-  models();
   lab = await createLab("spectroscopist");
 });
 afterAll(async () => {

@@ -7,7 +7,7 @@ process.env.BANDKEEP_QUEUE = QUEUE;
 
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { Op } from "sequelize";
-import { AnalysisRun, Peak, Spectrum, models } from "@/models";
+import { AnalysisRun, Peak, Spectrum } from "@/models";
 import { closeDb } from "@/lib/db";
 import { analysisQueue } from "@/lib/queue";
 import { ingestFiles } from "@/lib/ingest";
@@ -22,7 +22,6 @@ let worker: Owned | null = null;
 const workerEnv = { BANDKEEP_QUEUE: QUEUE, WORKER_CONCURRENCY: "2", WORKER_LOCK_MS: "4000" };
 
 beforeAll(async () => {
-  models();
   lab = await createLab();
 });
 afterAll(async () => {

@@ -3,7 +3,7 @@
 // at a wavelength, and the stored bleach and factor are checked against computations that do
 // not use the engine.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { AnalysisRun, Signature, Spectrum, models } from "@/models";
+import { AnalysisRun, Signature, Spectrum } from "@/models";
 import { closeDb } from "@/lib/db";
 import { absorptionCsv } from "@/lib/demo/synthetic";
 import { appUrl, createLab, createSample, type Lab } from "../helpers/fixtures";
@@ -73,7 +73,6 @@ function trueAbsorbance(model: Parameters<typeof absorptionCsv>[0], nm: number):
 }
 
 beforeAll(async () => {
-  models();
   lab = await createLab("spectroscopist");
   const sample = await createSample(lab, "CdSe");
   // A fixed noise seed (the lab, and so the project, is new on every run): the check below is one

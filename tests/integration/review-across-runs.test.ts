@@ -10,7 +10,7 @@ import { absorptionCsv } from "@/lib/demo/synthetic";
 import { getOverview } from "@/lib/queries/overview";
 import { awaitingReviewCounts } from "@/lib/review/counts";
 import { runReviewDigest } from "@/lib/review/digest";
-import { AnalysisRun, User, models } from "@/models";
+import { AnalysisRun, User } from "@/models";
 import { getJson, settled, upload } from "../helpers/api";
 import { addMember, appUrl, createLab, createSample, type Lab } from "../helpers/fixtures";
 import { sessionCookie } from "../helpers/session";
@@ -104,7 +104,6 @@ type History = {
 const historyOf = async (id: string) => (await getJson<History>(lab.token, `/api/v1/signatures/${id}/decisions`)).body;
 
 beforeAll(async () => {
-  models();
   lab = await createLab("lead");
   uploader = await addMember(lab, "spectroscopist");
   const sample = await createSample(lab, "CdSe");

@@ -5,7 +5,7 @@ import { closeDb, selectRows } from "@/lib/db";
 import { decodeColumns } from "@/lib/spectrum-view/columnsFormat";
 import { payloadFromColumns } from "@/lib/spectrum-view/payload";
 import { createShareLink, revokeShareLink } from "@/lib/stewardship/shareLinks";
-import { User, models } from "@/models";
+import { User } from "@/models";
 import { DEMO, DEMO_PASSWORD, url } from "../helpers/app";
 import { demoIds } from "../helpers/demo-ids";
 import { sessionCookie } from "../helpers/session";
@@ -27,7 +27,6 @@ let points: { id: string; file_name: string }[] = [];
 const get = (path: string, headers: Record<string, string> = {}) => fetch(url(path), { redirect: "manual", headers });
 
 beforeAll(async () => {
-  models();
   ids = await demoIds();
   const steward = await User.findOne({ where: { email: DEMO.steward } });
   const created = await createShareLink((await loadActor(steward!.id, "session"))!, {

@@ -5,7 +5,7 @@ import { closeDb } from "@/lib/db";
 import { redis } from "@/lib/redis";
 import { redeemUnlockToken, signInLimits } from "@/lib/auth/rate-limit";
 import { SIGN_IN_REFUSALS } from "@/lib/auth/signInRefusals";
-import { AuditEvent, User, models } from "@/models";
+import { AuditEvent, User } from "@/models";
 import { DEMO, DEMO_PASSWORD, url } from "../helpers/app";
 import { signInOverHttp } from "../helpers/session";
 import { waitFor } from "../helpers/waitFor";
@@ -19,9 +19,7 @@ const probe = async (label: string, cost = 4) => {
 };
 
 describe("sign-in", () => {
-  beforeAll(() => {
-    models();
-  });
+  beforeAll(() => {});
   afterAll(async () => {
     redis().disconnect();
     await closeDb();

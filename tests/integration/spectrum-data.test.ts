@@ -4,7 +4,7 @@ import { closeDb } from "@/lib/db";
 import { parseSpectrumFile } from "@/lib/engine";
 import { COLUMNS_MEDIA_TYPE, decodeColumns } from "@/lib/spectrum-view/columnsFormat";
 import { payloadFromColumns } from "@/lib/spectrum-view/payload";
-import { AnalysisRun, Spectrum, models } from "@/models";
+import { AnalysisRun, Spectrum } from "@/models";
 import { upload, settled } from "../helpers/api";
 import { DEMO, DEMO_PASSWORD, url } from "../helpers/app";
 import { createLab, type Lab } from "../helpers/fixtures";
@@ -36,7 +36,6 @@ let lab: Lab;
 const get = (path: string, headers: Record<string, string> = {}) => fetch(url(path), { headers, redirect: "manual" });
 
 beforeAll(async () => {
-  models();
   cookie = await sessionCookie(DEMO.spectroscopist, DEMO_PASSWORD);
   other.collaborator = await sessionCookie(DEMO.collaborator, DEMO_PASSWORD);
   other.otherGroup = await sessionCookie(DEMO.otherGroup, DEMO_PASSWORD);

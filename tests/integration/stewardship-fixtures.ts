@@ -1,10 +1,10 @@
 // Stored spectra and analyses for the stewardship tests, written straight to the
 // database and the storage fake (no analysis is queued, so nothing is "busy").
 import { createHash, randomUUID } from "node:crypto";
-import { AnalysisRun, Spectrum, models } from "@/models";
+import { AnalysisRun, Spectrum } from "@/models";
 import { newRawObjectKey, putObject } from "@/lib/storage";
 import { objectExists } from "@/lib/stewardship/deletion";
-import { selectRows } from "@/lib/db";
+import { selectRows, sequelize } from "@/lib/db";
 import type { Lab } from "../helpers/fixtures";
 import { syntheticAbsorptionCsv } from "../helpers/spectra";
 
@@ -19,7 +19,6 @@ export async function storedSpectrum(
     seriesValue?: number;
   } = {},
 ): Promise<Spectrum> {
-  models();
   const bytes = new TextEncoder().encode(`${syntheticAbsorptionCsv({ points: 200 })}# ${randomUUID()}\n`);
   const sha256 = createHash("sha256").update(bytes).digest("hex");
   const key = newRawObjectKey();
@@ -49,7 +48,7 @@ export async function storedSpectrum(
     uploadedBy: lab.user.id,
   });
   if (o.ageDays)
-    await models().query("UPDATE spectra SET created_at = now() - make_interval(days => :d) WHERE id = :id", {
+    await sequelize().query("UPDATE spectra SET created_at = now() - make_interval(days => :d) WHERE id = :id", {
       replacements: { d: o.ageDays, id: s.id },
     });
   return s;
@@ -72,7 +71,7 @@ export async function storedRun(spectrum: Spectrum, ageDays = 0): Promise<Analys
     durationMs: 5,
   });
   if (ageDays)
-    await models().query("UPDATE analysis_runs SET created_at = now() - make_interval(days => :d) WHERE id = :id", {
+    await sequelize().query("UPDATE analysis_runs SET created_at = now() - make_interval(days => :d) WHERE id = :id", {
       replacements: { d: ageDays, id: run.id },
     });
   return run;

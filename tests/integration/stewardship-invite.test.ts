@@ -4,7 +4,7 @@ import { loadActor } from "@/lib/auth/actor";
 import { closeDb } from "@/lib/db";
 import { acceptInvitation, usableInvitation } from "@/lib/stewardship/acceptInvitation";
 import { sendInvitation } from "@/lib/stewardship/invitations";
-import { Invitation, Membership, Share, User, models } from "@/models";
+import { Invitation, Membership, Share, User } from "@/models";
 import { createLab, createSeries, uniq } from "../helpers/fixtures";
 import { waitFor } from "../helpers/waitFor";
 import { Refusal } from "@/lib/errors";
@@ -35,7 +35,6 @@ async function linkFor(email: string): Promise<string> {
 }
 
 it("invites a collaborator by e-mail: one-time link, account, membership, share; revocation takes effect at once", async () => {
-  models();
   const lab = await createLab("steward");
   const series = await createSeries(lab);
   const email = `guest-${uniq()}@partner.test`;

@@ -2,7 +2,7 @@ import { spawn } from "node:child_process";
 import { afterAll, expect, it } from "vitest";
 import { closeDb } from "@/lib/db";
 import { runSweep } from "@/lib/stewardship/sweep";
-import { RetentionPolicy, Spectrum, Tombstone, models } from "@/models";
+import { RetentionPolicy, Spectrum, Tombstone } from "@/models";
 import { createLab } from "../helpers/fixtures";
 import { consistency, storedSpectrum } from "./stewardship-fixtures";
 
@@ -14,7 +14,6 @@ import { consistency, storedSpectrum } from "./stewardship-fixtures";
 afterAll(closeDb);
 
 it("a sweep killed half way leaves rows and objects consistent after the next run", async () => {
-  models();
   const lab = await createLab("steward");
   const spectra = [];
   for (let i = 0; i < 6; i++) spectra.push(await storedSpectrum(lab, { ageDays: 50 }));

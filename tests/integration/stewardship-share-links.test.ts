@@ -3,7 +3,7 @@ import { hashToken } from "@/lib/auth/actor";
 import { closeDb, selectRows } from "@/lib/db";
 import { getObjectBytes, sha256Hex } from "@/lib/storage";
 import { createShareLink, listShareLinks, resolveShareLink, revokeShareLink } from "@/lib/stewardship/shareLinks";
-import { Project, Share, type Series, type Spectrum, models } from "@/models";
+import { Project, Share, type Series, type Spectrum } from "@/models";
 import { url } from "../helpers/app";
 import { addMember, createLab, createSample, createSeries, type Lab } from "../helpers/fixtures";
 import { storedSpectrum } from "./stewardship-fixtures";
@@ -25,7 +25,6 @@ let elsewhere: Spectrum; // same group, another project
 let foreign: Spectrum; // another group
 
 beforeAll(async () => {
-  models();
   lab = await createLab("steward");
   const sample = await createSample(lab, "CdSe/ZnS");
   seriesA = await createSeries(lab);

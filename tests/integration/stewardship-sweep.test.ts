@@ -5,7 +5,7 @@ import { deleteSpectrum } from "@/lib/stewardship/deletion";
 import { buildBundle } from "@/lib/stewardship/exportBundle";
 import { previewPolicy } from "@/lib/stewardship/queries";
 import { runSweep } from "@/lib/stewardship/sweep";
-import { LegalHold, RetentionFlag, RetentionPolicy, Spectrum, Tombstone, models } from "@/models";
+import { LegalHold, RetentionFlag, RetentionPolicy, Spectrum, Tombstone } from "@/models";
 import { createLab, createSample, createSeries, type Lab } from "../helpers/fixtures";
 import { consistency, storedRun, storedSpectrum } from "./stewardship-fixtures";
 import { Refusal } from "@/lib/errors";
@@ -19,7 +19,6 @@ const exists = async (id: string) => (await Spectrum.count({ where: { id } })) =
 
 describe("retention sweep on the real database and storage", () => {
   it("deletes expired free spectra with tombstone and audit; keeps held, referenced and unexpired ones", async () => {
-    models();
     const lab = await createLab("steward");
     const sample = await createSample(lab);
     const series = await createSeries(lab);

@@ -3,7 +3,7 @@ import { afterAll, describe, expect, it } from "vitest";
 import { hashToken } from "@/lib/auth/actor";
 import { issueApiToken } from "@/lib/api-tokens";
 import { closeDb } from "@/lib/db";
-import { ApiToken, models } from "@/models";
+import { ApiToken } from "@/models";
 import { url } from "../helpers/app";
 import { createUser } from "../helpers/fixtures";
 
@@ -17,7 +17,6 @@ const projects = (token: string) => fetch(url("/api/v1/projects"), { headers: { 
 
 describe("API token expiry", () => {
   it("a token with a lifetime works until it ends, then is refused even by a process that cached it", async () => {
-    models();
     const { user } = await createUser("expiry");
     const secret = `bk_${randomBytes(24).toString("base64url")}`;
     await ApiToken.create({

@@ -4,7 +4,7 @@ import { hashToken } from "@/lib/auth/actor";
 import { announceTokenRevoked } from "@/lib/auth/tokenRevocations";
 import { closeDb } from "@/lib/db";
 import { redis } from "@/lib/redis";
-import { ApiToken, models } from "@/models";
+import { ApiToken } from "@/models";
 import { url } from "../helpers/app";
 import { createLab } from "../helpers/fixtures";
 
@@ -29,7 +29,6 @@ function statusOnNewConnection(path: string, token: string): Promise<number> {
 
 describe("revoking an API token", () => {
   it("is refused by every app process at once, however warm their caches are", async () => {
-    models();
     const lab = await createLab("spectroscopist");
     const warm = await Promise.all(Array.from({ length: 24 }, () => statusOnNewConnection("/api/v1/projects", lab.token)));
     expect(new Set(warm)).toEqual(new Set([200]));

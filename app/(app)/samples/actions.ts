@@ -8,8 +8,9 @@ import { protectedAction } from "@/lib/actions/protected";
 import { canWrite } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
 import { hazardClassOf } from "@/lib/hazards";
-import { Project, Sample, SampleParent, models } from "@/models";
+import { Project, Sample, SampleParent } from "@/models";
 import { refuse } from "@/lib/errors";
+import { sequelize } from "@/lib/db";
 
 const text = (max: number) => z.string().trim().max(max, `At most ${max} characters.`);
 
@@ -32,7 +33,7 @@ const sampleSchema = z.object({
 export const registerSample = protectedAction(sampleSchema, async (input, actor) => {
   if (!canWrite(actor, input.groupId))
     throw refuse(400, "Only spectroscopists and group leads of this group can register samples.", "groupId");
-  const db = models();
+  const db = sequelize();
   if (input.projectId) {
     const project = await Project.findByPk(input.projectId);
     if (!project || project.groupId !== input.groupId) throw refuse(400, "That project is not in the chosen group.", "projectId");

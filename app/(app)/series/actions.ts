@@ -9,7 +9,7 @@ import type { Actor } from "@/lib/auth/actor";
 import { canWrite } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
 import { setSupernatantLink } from "@/lib/series/supernatantLinks";
-import { Project, Series, models } from "@/models";
+import { Project, Series } from "@/models";
 import { SERIES_KINDS } from "@/models/Series";
 import { refuse } from "@/lib/errors";
 
@@ -30,7 +30,6 @@ const seriesSchema = z.object({
 
 /** Creates a series (spectroscopists and leads of the project's group). */
 export const createSeries = protectedAction(seriesSchema, async (input, actor) => {
-  models();
   const project = await Project.findByPk(input.projectId);
   if (!project || !canWrite(actor, project.groupId)) throw refuse(400, "Choose a project of a group where you may add data.", "projectId");
   let id: string;

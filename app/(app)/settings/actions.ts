@@ -7,7 +7,7 @@ import { TOKEN_LIFETIMES, issueApiToken, type TokenLifetime } from "@/lib/api-to
 import { forgetApiToken } from "@/lib/auth/actor";
 import { announceTokenRevoked } from "@/lib/auth/tokenRevocations";
 import { recordAudit } from "@/lib/audit";
-import { ApiToken, User, models } from "@/models";
+import { ApiToken, User } from "@/models";
 import { refuse } from "@/lib/errors";
 
 export const createApiToken = protectedAction(
@@ -33,7 +33,6 @@ export const createApiToken = protectedAction(
 );
 
 export const revokeApiToken = protectedAction(z.object({ id: z.string().uuid() }), async ({ id }, actor) => {
-  models();
   const token = await ApiToken.findByPk(id);
   if (!token || token.userId !== actor.id) throw refuse(400, "That token is not yours.");
   if (!token.revokedAt) await token.update({ revokedAt: new Date() });
@@ -52,7 +51,6 @@ const checkbox = z
   .transform((v) => v === "on");
 
 export const saveNotifications = protectedAction(z.object({ notifyDigest: checkbox, notifyDecisions: checkbox }), async (input, actor) => {
-  models();
   await User.update(input, { where: { id: actor.id } });
   revalidatePath("/settings");
   return { ok: true, message: "Saved." };

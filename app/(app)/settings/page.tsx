@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { requireActor } from "@/lib/auth/actor";
 import { listApiTokens } from "@/lib/api-tokens";
 import { listOutbox, type OutboxMessage } from "@/lib/queries/outbox";
-import { User, models } from "@/models";
+import { User } from "@/models";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { ApiTokenPanel } from "@/components/settings/ApiTokenPanel";
 import { NotificationForm } from "@/components/settings/NotificationForm";
@@ -22,7 +22,6 @@ function Section({ title, children, hint }: { title: string; hint?: string; chil
 
 export default async function SettingsPage() {
   const actor = await requireActor("/settings");
-  models();
   const [user, tokens] = await Promise.all([User.findByPk(actor.id), listApiTokens(actor.id)]);
   let outbox: OutboxMessage[] | null = null;
   let outboxError: string | null = null;

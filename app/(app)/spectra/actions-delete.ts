@@ -6,7 +6,7 @@ import { protectedAction } from "@/lib/actions/protected";
 import { canDeleteInGroup, canSteward, groupOfSpectrum } from "@/lib/auth/access";
 import { deleteSpectrum } from "@/lib/stewardship/deletion";
 import { deleteSpectrumInput } from "@/lib/stewardship/deleteConfirm";
-import { Spectrum, models } from "@/models";
+import { Spectrum } from "@/models";
 import { refuse } from "@/lib/errors";
 
 /**
@@ -16,7 +16,6 @@ import { refuse } from "@/lib/errors";
  * the spectra list then shows what was deleted, read from the tombstone.
  */
 export const deleteSpectrumAction = protectedAction(deleteSpectrumInput, async (input, actor) => {
-  models();
   const spectrum = await Spectrum.findByPk(input.spectrumId);
   const groupId = spectrum ? await groupOfSpectrum(spectrum) : null;
   if (!spectrum || !groupId || !canDeleteInGroup(actor, groupId)) throw refuse(400, "Spectrum not found.", "spectrumId");

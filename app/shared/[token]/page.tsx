@@ -8,7 +8,7 @@ import { sharedSpectrumView, sharedSupernatants, type SharedSupernatant } from "
 import { SharedSpectrumPanel } from "@/components/shared/SharedSpectrumPanel";
 import { HazardNotice } from "@/components/ui/HazardNotice";
 import { StatusBadge } from "@/components/ui/StatusBadge";
-import { Project, Series, models } from "@/models";
+import { Project, Series } from "@/models";
 import { formatWhen } from "@/lib/format/dates";
 import { countOf } from "@/lib/format/quantity";
 
@@ -117,7 +117,6 @@ export default async function SharedPage({
   const asked = typeof askedRaw === "string" && /^[0-9a-f-]{36}$/i.test(askedRaw) ? askedRaw : undefined;
   const link = await resolveShareLink(token);
   if (!link) notFound();
-  models();
 
   if (link.targetType === "series") {
     const series = await Series.findByPk(link.targetId);

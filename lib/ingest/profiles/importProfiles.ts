@@ -1,9 +1,10 @@
-import { ImportProfile, Project, models } from "@/models";
+import { ImportProfile, Project } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { canReadProject, canWrite } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
 import { Refusal } from "@/lib/errors";
 import { profileChoiceSchema, saveProfileSchema, type ProfileChoice } from "./profileChoice";
+import { sequelize } from "@/lib/db";
 
 export type ImportProfileView = { id: string; name: string; choice: ProfileChoice; signature: string; updatedAt: string };
 
@@ -17,7 +18,6 @@ const view = (p: ImportProfile): ImportProfileView => ({
 
 /** The project, when the actor may add spectra to it (profiles belong to people who upload). */
 export async function writableProject(actor: Actor, projectId: string): Promise<Project> {
-  models();
   const project = /^[0-9a-f-]{36}$/i.test(projectId) ? await Project.findByPk(projectId) : null;
   if (!project || !(await canReadProject(actor, project)))
     throw new Refusal(404, "not-found", `project ${projectId} was not found`, "projectId");
@@ -48,7 +48,7 @@ export async function saveImportProfile(
   if (!parsed.success) throw firstIssue(parsed.error);
   const project = await writableProject(actor, projectId);
   const { name, choice, signature } = parsed.data;
-  return models().transaction(async (transaction) => {
+  return sequelize().transaction(async (transaction) => {
     const existing = await ImportProfile.findOne({ where: { projectId: project.id, name }, lock: transaction.LOCK.UPDATE, transaction });
     const profile = existing
       ? await existing.update({ choice, signature, updatedAt: new Date() }, { transaction })
@@ -75,7 +75,7 @@ export async function deleteImportProfile(actor: Actor, projectId: string, profi
     ? await ImportProfile.findOne({ where: { id: profileId, projectId: project.id } })
     : null;
   if (!profile) throw new Refusal(404, "not-found", `import profile ${profileId} was not found in this project`);
-  await models().transaction(async (transaction) => {
+  await sequelize().transaction(async (transaction) => {
     await profile.destroy({ transaction });
     await recordAudit(
       {
@@ -94,7 +94,6 @@ export async function deleteImportProfile(actor: Actor, projectId: string, profi
 
 /** A profile named explicitly; an unknown name is refused on the `profile` field. */
 export async function profileByName(projectId: string, name: string): Promise<ImportProfile> {
-  models();
   const profile = await ImportProfile.findOne({ where: { projectId, name } });
   if (!profile) throw new Refusal(400, "invalid", `profile: no import profile named "${name}" in this project`, "profile");
   return profile;
@@ -102,7 +101,6 @@ export async function profileByName(projectId: string, name: string): Promise<Im
 
 /** The profile matching a file's header signature: the most recently saved of those with the same signature. */
 export async function profileForSignature(projectId: string, signature: string): Promise<ImportProfile | null> {
-  models();
   return ImportProfile.findOne({
     where: { projectId, signature },
     order: [
@@ -113,6 +111,5 @@ export async function profileForSignature(projectId: string, signature: string):
 }
 
 export async function projectHasProfiles(projectId: string): Promise<boolean> {
-  models();
   return (await ImportProfile.count({ where: { projectId } })) > 0;
 }

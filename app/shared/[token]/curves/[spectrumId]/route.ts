@@ -5,7 +5,7 @@ import { COLUMNS_MEDIA_TYPE } from "@/lib/spectrum-view/columnsFormat";
 import { exportFile } from "@/lib/spectrum-view/exportFile";
 import { dataPayload, getRunReport, viewArraysOf } from "@/lib/spectrum-view/viewData";
 import { resolveShareLink, spectrumThroughLink } from "@/lib/stewardship/shareLinks";
-import { AnalysisRun, models } from "@/models";
+import { AnalysisRun } from "@/models";
 
 export const runtime = "nodejs";
 export const dynamic = "force-dynamic";
@@ -50,7 +50,6 @@ export async function GET(request: Request, { params }: { params: Promise<{ toke
         "not_found",
         "This link is not valid for that spectrum: it was revoked, it expired, it never existed, or the spectrum is not part of what it shares.",
       );
-    models();
     const run = await AnalysisRun.findOne({
       where: { spectrumId: spectrum.id, status: "done" },
       order: [["createdAt", "DESC"]],

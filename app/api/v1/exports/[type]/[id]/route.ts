@@ -2,7 +2,7 @@ import { notFound, withActor } from "@/lib/http/respond";
 import { canReadProject, canReadSeries } from "@/lib/auth/access";
 import { recordAudit } from "@/lib/audit";
 import { streamBundle } from "@/lib/stewardship/exportBundle";
-import { Project, Series, models } from "@/models";
+import { Project, Series } from "@/models";
 import { isUuid } from "@/lib/ids";
 import { Refusal } from "@/lib/errors";
 
@@ -14,7 +14,6 @@ export const GET = withActor<{ params: Promise<{ type: string; id: string }> }>(
   const { type, id } = await params;
   if (type !== "project" && type !== "series") throw new Refusal(400, "invalid", "type: use project or series.", "type");
   if (!isUuid(id)) throw notFound(`${type} ${id.slice(0, 80)}`);
-  models();
   let groupId: string;
   if (type === "series") {
     const series = await Series.findByPk(id);
