@@ -6,7 +6,7 @@ import { getOverview } from "@/lib/queries/overview";
 import { listSeries } from "@/lib/queries/series";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
-import { KIND_LABELS } from "@/lib/registry/flagKinds";
+import { kindLabel } from "@/lib/registry/flagKinds";
 import { listSavedSearches } from "@/lib/queries/savedSearches";
 import { SavedSearchList } from "@/components/spectra/SavedSearchList";
 import { countOf } from "@/lib/format/quantity";
@@ -91,7 +91,7 @@ export default async function OverviewPage() {
               {overview.recentSignatures.map((s) => (
                 <li key={s.id} className="flex items-center justify-between px-4 py-2 text-sm">
                   <span>
-                    <span className="font-medium">{KIND_LABELS[s.kind]}</span> in{" "}
+                    <span className="font-medium">{kindLabel(s.kind, s.technique)}</span> in{" "}
                     <Link prefetch={false} className="text-glow-deep hover:underline" href={`/spectra/${s.spectrumId}`}>
                       {s.fileName}
                     </Link>

@@ -4,7 +4,7 @@ import { useMemo } from "react";
 import { LinePlot, type PlotCurve } from "@/components/charts/LinePlot";
 import { CURVE_STYLES } from "@/components/charts/theme";
 import { CM1_PER_EV } from "@/lib/engine/constants";
-import { FLAG_COLOURS, KIND_LABELS, type FlagKind } from "@/lib/registry/flagKinds";
+import { FLAG_COLOURS, kindLabel, type FlagKind } from "@/lib/registry/flagKinds";
 import { TECHNIQUE_SPECS, type Technique } from "@/lib/registry/techniques";
 import { yUnitLabel } from "@/lib/format/unitLabels";
 
@@ -51,7 +51,7 @@ export function EvidenceChart({
   const markers =
     centreEv === null
       ? []
-      : [{ id: "flag", at: wavenumber ? centreEv * CM1_PER_EV : centreEv, label: KIND_LABELS[kind], colour: FLAG_COLOURS[kind] }];
+      : [{ id: "flag", at: wavenumber ? centreEv * CM1_PER_EV : centreEv, label: kindLabel(kind, technique), colour: FLAG_COLOURS[kind] }];
   return (
     <LinePlot
       x={x}

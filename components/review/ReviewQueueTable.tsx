@@ -5,7 +5,7 @@ import { useActionState, useOptimistic, useState } from "react";
 import { decideAction, undoAction } from "@/app/(app)/review/actions";
 import { initialActionState } from "@/lib/actions/protected-state";
 import type { ReviewItem } from "@/lib/queries/review";
-import { KIND_LABELS } from "@/lib/registry/flagKinds";
+import { kindLabel } from "@/lib/registry/flagKinds";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { formatFlagMagnitude } from "@/lib/format/quantity";
 import { TECHNIQUE_SPECS } from "@/lib/registry/techniques";
@@ -133,14 +133,14 @@ export function ReviewQueueTable({ items, headers }: { items: ReviewItem[]; head
                       type="checkbox"
                       name="signatureIds"
                       value={i.id}
-                      aria-label={`Select ${KIND_LABELS[i.kind]} in ${i.fileName}`}
+                      aria-label={`Select ${kindLabel(i.kind, i.technique)} in ${i.fileName}`}
                       checked={selected.includes(i.id)}
                       onChange={(e) => setSelected((s) => (e.target.checked ? [...s, i.id] : s.filter((x) => x !== i.id)))}
                     />
                   </td>
                   <td className="whitespace-nowrap px-2 py-1.5 font-medium">
                     <Link prefetch={false} className="text-glow-deep hover:underline" href={`/review/${i.id}`}>
-                      {KIND_LABELS[i.kind]}
+                      {kindLabel(i.kind, i.technique)}
                     </Link>
                   </td>
                   <td className="px-2 py-1.5">{i.significance.toFixed(1)}σ</td>

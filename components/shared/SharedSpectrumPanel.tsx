@@ -5,7 +5,7 @@ import useSWR from "swr";
 import { SpectrumChart } from "@/components/spectrum/SpectrumChart";
 import type { Marker } from "@/components/spectrum/types";
 import { formatFlagMagnitude } from "@/lib/format/quantity";
-import { FLAG_COLOURS, KIND_LABELS } from "@/lib/registry/flagKinds";
+import { FLAG_COLOURS, kindLabel } from "@/lib/registry/flagKinds";
 import { BAND_ROLE_LABELS, TECHNIQUE_SPECS } from "@/lib/registry/techniques";
 import { AXIS_LABELS, DISPLAY_AXES, energyToAxis, type DisplayAxis } from "@/lib/spectrum-view/axis";
 import { decodeColumns } from "@/lib/spectrum-view/columnsFormat";
@@ -52,7 +52,7 @@ export function SharedSpectrumPanel({ token, view }: { token: string; view: Shar
           group: "flag" as const,
           kind: f.kind,
           energyEv: f.energyEv!,
-          label: `${KIND_LABELS[f.kind]} at ${position(f.energyEv, axis)}, ${formatFlagMagnitude(f)}`,
+          label: `${kindLabel(f.kind, view.technique)} at ${position(f.energyEv, axis)}, ${formatFlagMagnitude(f)}`,
         })),
       ...view.peaks.map((p) => ({
         id: p.id,
@@ -178,7 +178,7 @@ export function SharedSpectrumPanel({ token, view }: { token: string; view: Shar
                         style={{ background: FLAG_COLOURS[f.kind] }}
                         aria-hidden
                       />
-                      {KIND_LABELS[f.kind]}
+                      {kindLabel(f.kind, view.technique)}
                     </td>
                     <td className="px-4 py-1.5">{position(f.energyEv, axis)}</td>
                     <td className="px-4 py-1.5">{formatFlagMagnitude(f, { withUncertainty: true })}</td>

@@ -4,7 +4,7 @@ import { useCallback, useMemo, useState } from "react";
 import useSWR from "swr";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { countOf, formatFlagMagnitude, formatQuantity } from "@/lib/format/quantity";
-import { FLAG_COLOURS, KIND_LABELS } from "@/lib/registry/flagKinds";
+import { FLAG_COLOURS, kindLabel } from "@/lib/registry/flagKinds";
 import { BAND_ROLE_LABELS, BAND_ROLE_PLURALS, TECHNIQUE_SPECS, type Technique, type TechniqueSpec } from "@/lib/registry/techniques";
 import { CM1_PER_EV } from "@/lib/engine/constants";
 import { AXIS_LABELS, DISPLAY_AXES, formatPosition, type DisplayAxis } from "@/lib/spectrum-view/axis";
@@ -109,7 +109,7 @@ export function SpectrumViewer({
           group: "flag" as const,
           kind: f.kind,
           energyEv: f.energyEv!,
-          label: `${KIND_LABELS[f.kind]} at ${position(f.energyEv, axis)}, ${magnitude(f)}, ${num(f.significance, 1)}σ`,
+          label: `${kindLabel(f.kind, technique)} at ${position(f.energyEv, axis)}, ${magnitude(f)}, ${num(f.significance, 1)}σ`,
         })),
       ...peaks.map((p) => ({
         id: p.id,
@@ -272,7 +272,7 @@ export function SpectrumViewer({
                       style={{ background: FLAG_COLOURS[f.kind] }}
                       aria-hidden
                     />
-                    {KIND_LABELS[f.kind]}
+                    {kindLabel(f.kind, technique)}
                     {f.intraband ? " (intraband)" : ""}
                   </td>
                   <td className="px-4 py-1.5">{position(f.energyEv, axis)}</td>

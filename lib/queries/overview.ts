@@ -9,7 +9,15 @@ export type Overview = {
   awaitingSignatures: number;
   samples: number;
   series: number;
-  recentSignatures: { id: string; kind: FlagKind; significance: number; spectrumId: string; fileName: string; createdAt: string }[];
+  recentSignatures: {
+    id: string;
+    kind: FlagKind;
+    technique: string;
+    significance: number;
+    spectrumId: string;
+    fileName: string;
+    createdAt: string;
+  }[];
 };
 
 export async function getOverview(actor: Actor): Promise<Overview | null> {
@@ -28,8 +36,16 @@ export async function getOverview(actor: Actor): Promise<Overview | null> {
          (SELECT count(*) FROM series r JOIN projects p ON p.id = r.project_id WHERE p.group_id IN (:groupIds)) AS series`,
       replacements,
     ),
-    selectRows<{ id: string; kind: FlagKind; significance: number; spectrum_id: string; file_name: string; created_at: Date }>(
-      `SELECT g.id, g.kind, g.significance, g.spectrum_id, s.file_name, g.created_at
+    selectRows<{
+      id: string;
+      kind: FlagKind;
+      technique: string;
+      significance: number;
+      spectrum_id: string;
+      file_name: string;
+      created_at: Date;
+    }>(
+      `SELECT g.id, g.kind, s.technique, g.significance, g.spectrum_id, s.file_name, g.created_at
        FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
        WHERE p.group_id IN (:groupIds) AND ${CURRENT_SIGNATURE} ORDER BY g.created_at DESC LIMIT 8`,
       replacements,
@@ -44,6 +60,7 @@ export async function getOverview(actor: Actor): Promise<Overview | null> {
     recentSignatures: recent.map((r) => ({
       id: r.id,
       kind: r.kind,
+      technique: r.technique,
       significance: r.significance,
       spectrumId: r.spectrum_id,
       fileName: r.file_name,

@@ -4,6 +4,7 @@
 // Plain data and pure functions only: the engine (lib/engine) imports this module.
 
 import { keysOf, mapOf, thresholdDefaultsOf, thresholdSpecsOf, type KeyOf, type ThresholdNameOf } from "./derive";
+import type { Technique } from "./techniques";
 
 /** Units of a flag's magnitude as the engine reports it. */
 export const FLAG_UNITS = ["fraction", "meV", "signal", "ratio"] as const;
@@ -25,8 +26,10 @@ export interface ThresholdSpec {
 }
 
 export interface KindSpec {
-  /** What the review queue, the viewer and mails call the kind. */
+  /** What the review queue, the viewer and mails call the kind when the technique is not known (filters, lists of kinds). */
   label: string;
+  /** The kind's name on a spectrum of one technique, where the trade says it otherwise ("Emission shift" in PL). */
+  labelByTechnique?: Partial<Record<Technique, string>>;
   /** Marker and swatch colour in the viewer (our own palette). */
   colour: string;
   /** Unit of the magnitude the engine reports for this kind. */
@@ -83,7 +86,8 @@ export const FLAG_KIND_SPECS = {
     description: "the integrated emission fell by a fraction, after the absorbed-light and inner-filter corrections",
   },
   shift: {
-    label: "Exciton shift",
+    label: "Shift",
+    labelByTechnique: { absorption: "Exciton shift", pl: "Emission shift", ir: "Band shift" },
     colour: "#0e7490",
     unit: "meV",
     signed: true,
@@ -93,6 +97,7 @@ export const FLAG_KIND_SPECS = {
   },
   broadening: {
     label: "Broadening",
+    labelByTechnique: { absorption: "Exciton broadening", pl: "Emission broadening", ir: "Band broadening" },
     colour: "#be185d",
     unit: "meV",
     signed: true,
@@ -151,12 +156,15 @@ export function flagKindRegistry<G extends Record<string, ThresholdSpec>, S exte
     DEFAULT_THRESHOLDS: Object.freeze(thresholdDefaultsOf(thresholdSpecs)) as Readonly<Record<Name, number>>,
     KIND_LABELS: mapOf(specs, "label") as Readonly<Record<Kind, string>>,
     FLAG_COLOURS: mapOf(specs, "colour") as Readonly<Record<Kind, string>>,
+    /** The kind's name on a spectrum of `technique` (its general name when the technique is unknown). */
+    kindLabel: (kind: Kind, technique?: string | null): string => {
+      const spec: KindSpec = specs[kind];
+      return (technique && spec.labelByTechnique?.[technique as Technique]) || spec.label;
+    },
     /** Narrows a stored or received kind; unknown text is not a kind. */
     isFlagKind: (k: string): k is Kind => Object.hasOwn(specs, k),
   };
 }
 
-export const { FLAG_KINDS, THRESHOLD_SPECS, THRESHOLD_NAMES, DEFAULT_THRESHOLDS, KIND_LABELS, FLAG_COLOURS, isFlagKind } = flagKindRegistry(
-  GENERAL_THRESHOLDS,
-  FLAG_KIND_SPECS,
-);
+export const { FLAG_KINDS, THRESHOLD_SPECS, THRESHOLD_NAMES, DEFAULT_THRESHOLDS, KIND_LABELS, FLAG_COLOURS, kindLabel, isFlagKind } =
+  flagKindRegistry(GENERAL_THRESHOLDS, FLAG_KIND_SPECS);

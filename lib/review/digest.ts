@@ -2,7 +2,7 @@ import { config } from "@/lib/config";
 import { QueryTypes } from "sequelize";
 import { selectRows, sequelize } from "@/lib/db";
 import { sendMail } from "@/lib/mail";
-import { KIND_LABELS, type FlagKind } from "@/lib/registry/flagKinds";
+import { kindLabel, type FlagKind } from "@/lib/registry/flagKinds";
 import { CURRENT_SIGNATURE, awaitingReviewCounts } from "./counts";
 
 export type DigestSummary = { groups: number; signatures: number; mailed: number };
@@ -15,6 +15,7 @@ type Pending = {
   review_state: string;
   superseded: boolean;
   file_name: string;
+  technique: string;
   project_name: string;
 };
 
@@ -36,7 +37,7 @@ export async function runReviewDigest(): Promise<DigestSummary> {
   for (const group of groups) {
     await sequelize().transaction(async (transaction) => {
       const rows = await sequelize().query<Pending>(
-        `SELECT g.id, g.kind, g.significance, g.energy_ev, g.review_state, NOT (${CURRENT_SIGNATURE}) AS superseded, s.file_name, p.name AS project_name
+        `SELECT g.id, g.kind, g.significance, g.energy_ev, g.review_state, NOT (${CURRENT_SIGNATURE}) AS superseded, s.file_name, s.technique, p.name AS project_name
          FROM signatures g JOIN spectra s ON s.id = g.spectrum_id JOIN projects p ON p.id = s.project_id
          WHERE g.digested_at IS NULL AND p.group_id = :groupId
          ORDER BY g.significance DESC LIMIT 500 FOR UPDATE OF g SKIP LOCKED`,
@@ -53,7 +54,7 @@ export async function runReviewDigest(): Promise<DigestSummary> {
         );
         const lines = awaiting.map(
           (r) =>
-            `- ${KIND_LABELS[r.kind]}${r.energy_ev !== null ? ` at ${r.energy_ev.toFixed(3)} eV` : ""}, ${r.significance.toFixed(1)}σ, in ${r.file_name} (${r.project_name})\n  ${base}/review/${r.id}`,
+            `- ${kindLabel(r.kind, r.technique)}${r.energy_ev !== null ? ` at ${r.energy_ev.toFixed(3)} eV` : ""}, ${r.significance.toFixed(1)}σ, in ${r.file_name} (${r.project_name})\n  ${base}/review/${r.id}`,
         );
         const { total } = await awaitingReviewCounts([group.group_id]);
         for (const lead of leads) {

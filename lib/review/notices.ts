@@ -3,7 +3,7 @@ import { config } from "@/lib/config";
 import { selectRows, sequelize } from "@/lib/db";
 import { sendMail } from "@/lib/mail";
 import { noticeQueue } from "@/lib/queue";
-import { KIND_LABELS, type FlagKind } from "@/lib/registry/flagKinds";
+import { kindLabel, type FlagKind } from "@/lib/registry/flagKinds";
 import { User } from "@/models";
 import { countOf } from "@/lib/format/quantity";
 
@@ -64,6 +64,7 @@ type PendingRow = {
   energy_ev: number | null;
   significance: number;
   file_name: string;
+  technique: string;
 };
 
 const STATE_TEXT: Record<string, string> = { awaiting: "awaiting review", confirmed: "confirmed", dismissed: "dismissed" };
@@ -74,7 +75,7 @@ export function composeNotice(name: string, rows: readonly PendingRow[], base: s
   for (const r of rows) bySignature.set(r.signature_id, [...(bySignature.get(r.signature_id) ?? []), r]);
   const changed = [...bySignature.values()].filter((list) => (list[0]!.previous_state ?? "awaiting") !== list[0]!.current_state);
   if (changed.length === 0) return null;
-  const label = (r: PendingRow) => KIND_LABELS[r.kind];
+  const label = (r: PendingRow) => kindLabel(r.kind, r.technique);
   const lines = changed.flatMap((list) => {
     const first = list[0]!;
     const head =
@@ -112,7 +113,7 @@ export async function sendPendingNotices(recipientId: string): Promise<number> {
   const sent = await sequelize().transaction(async (transaction) => {
     const rows = await sequelize().query<PendingRow>(
       `SELECT n.id, n.signature_id, n.reviewer_name, v.decision, v.previous_state, v.comment, v.origin,
-              g.review_state AS current_state, g.kind, g.energy_ev, g.significance, s.file_name
+              g.review_state AS current_state, g.kind, g.energy_ev, g.significance, s.file_name, s.technique
          FROM decision_notices n JOIN reviews v ON v.id = n.review_id JOIN signatures g ON g.id = n.signature_id
          JOIN spectra s ON s.id = g.spectrum_id
         WHERE n.recipient_id = :recipientId AND n.sent_at IS NULL

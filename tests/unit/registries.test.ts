@@ -1,6 +1,7 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { DEFAULT_THRESHOLDS, FLAG_KIND_SPECS, FLAG_KINDS, THRESHOLD_SPECS } from "@/lib/registry/flagKinds";
+import { DEFAULT_THRESHOLDS, FLAG_KIND_SPECS, FLAG_KINDS, THRESHOLD_SPECS, kindLabel } from "@/lib/registry/flagKinds";
+import { TECHNIQUES } from "@/lib/registry/techniques";
 import { BAND_ROLE_LABELS, TECHNIQUE_SPECS } from "@/lib/registry/techniques";
 import { inCheck, valuesOfCheck } from "@/lib/registry/sqlChecks";
 
@@ -17,6 +18,20 @@ describe("flag-kind registry", () => {
   it("gives each kind its own marker colour, so two kinds never look alike on the chart", () => {
     const colours = FLAG_KINDS.map((k) => FLAG_KIND_SPECS[k].colour.toLowerCase());
     expect(new Set(colours).size).toBe(colours.length);
+  });
+
+  it("names a kind in the words of the spectrum's technique: an emission shift in PL, never an exciton's", () => {
+    expect(kindLabel("shift", "pl")).toBe("Emission shift");
+    expect(kindLabel("shift", "absorption")).toBe("Exciton shift");
+    expect(kindLabel("broadening", "ir")).toBe("Band broadening");
+    // a filter that spans techniques uses the general word
+    expect(kindLabel("shift")).toBe("Shift");
+    // the bleach is measured on absorption only (lib/engine/compare/compareSpectra.ts)
+    for (const k of FLAG_KINDS.filter((kind) => kind !== "bleach")) {
+      expect(kindLabel(k, "pl"), k).not.toMatch(/exciton/i);
+      expect(kindLabel(k, "ir"), k).not.toMatch(/exciton/i);
+    }
+    for (const t of TECHNIQUES) expect(kindLabel("pl-quench", t)).toBe("PL quench");
   });
 
   it("states the defaults docs/analysis-json.md states", () => {

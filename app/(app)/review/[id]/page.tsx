@@ -5,7 +5,7 @@ import { notFound } from "next/navigation";
 import { requireActor } from "@/lib/auth/actor";
 import { getSignatureReview, type ReviewHistoryEntry } from "@/lib/queries/review";
 import { loadEvidence } from "@/lib/review/loadEvidence";
-import { KIND_LABELS } from "@/lib/registry/flagKinds";
+import { kindLabel } from "@/lib/registry/flagKinds";
 import { DecisionForm } from "@/components/review/DecisionForm";
 import { EvidenceChart } from "@/components/review/EvidenceChart";
 import { formatFlagMagnitude, formatFlagUncertainty } from "@/lib/format/quantity";
@@ -31,7 +31,7 @@ export default async function SignaturePage({ params }: { params: Promise<{ id: 
   const sig = isUuid(id) ? await getSignatureReview(actor, id) : null;
   if (!sig) notFound();
   const evidence = await loadEvidence(sig.spectrumId, sig.referenceSpectrumId, sig.energyEv);
-  const label = KIND_LABELS[sig.kind];
+  const label = kindLabel(sig.kind, sig.technique);
   const latest = sig.history[0];
   const undoableReviewId = latest && latest.origin === "decision" && latest.previousState !== null ? latest.id : null;
   const facts: [string, string][] = [
