@@ -70,3 +70,12 @@ export function ActionForm({
     </form>
   );
 }
+
+/** A one-button form that sends a row's id to a server action (remove, revoke, lift), shown in red. */
+export function RowActionButton({ action, id, submit }: { action: ServerAction; id: string; submit: string }) {
+  return (
+    <ActionForm action={action} submit={submit} danger className="inline-flex flex-wrap items-center gap-2">
+      <input type="hidden" name="id" value={id} />
+    </ActionForm>
+  );
+}

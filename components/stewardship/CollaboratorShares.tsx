@@ -1,9 +1,11 @@
 import { revokeShare, shareWithCollaborator } from "@/app/(app)/stewardship/actions";
-import { ActionForm } from "@/components/forms/ActionForm";
+import { ActionForm, RowActionButton } from "@/components/forms/ActionForm";
 import { inputClass } from "@/components/forms/Field";
 import { formatDay, ISO_DAY_PATTERN } from "@/lib/format/dates";
 import type { ShareRow } from "@/lib/stewardship/queries";
 import type { ShareTargetOption } from "./memberRoles";
+import { CardTable } from "@/components/ui/CardTable";
+import { ShareTargetOptions } from "./ShareTargetOptions";
 
 /** Read-only shares with named collaborators: the form to share a project or series and the shares given, each revocable. */
 export function CollaboratorShares({ shares, targets }: { shares: ShareRow[]; targets: ShareTargetOption[] }) {
@@ -28,11 +30,7 @@ export function CollaboratorShares({ shares, targets }: { shares: ShareRow[]; ta
               <option value="" disabled>
                 Choose a project or series…
               </option>
-              {targets.map((t) => (
-                <option key={t.id} value={`${t.type}:${t.id}`}>
-                  {t.type === "series" ? "Series" : "Project"}: {t.label}
-                </option>
-              ))}
+              <ShareTargetOptions targets={targets} />
             </select>
           </label>
           <label className="text-sm font-medium">
@@ -51,38 +49,19 @@ export function CollaboratorShares({ shares, targets }: { shares: ShareRow[]; ta
         {shares.length === 0 ? (
           <p className="text-sm text-ink-soft">Nothing is shared outside the group.</p>
         ) : (
-          <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
-            <table className="w-full text-sm" data-testid="shares-table">
-              <thead className="bg-stone-100 text-left text-xs text-ink-soft">
-                <tr>
-                  <th className="px-3 py-2">What</th>
-                  <th className="px-3 py-2">With</th>
-                  <th className="px-3 py-2">Until</th>
-                  <th className="px-3 py-2">State</th>
-                  <th />
-                </tr>
-              </thead>
-              <tbody>
-                {shares.map((s) => (
-                  <tr key={s.id} className="border-t border-stone-100">
-                    <td className="px-3 py-1.5">
-                      <span className="text-xs text-ink-soft">{s.targetType}</span> {s.targetLabel}
-                    </td>
-                    <td className="px-3 py-1.5">{s.grantee}</td>
-                    <td className="px-3 py-1.5">{s.expiresAt ? formatDay(s.expiresAt) : "no end date"}</td>
-                    <td className="px-3 py-1.5">{s.revokedAt ? "revoked" : s.live ? "in force" : "expired"}</td>
-                    <td className="px-3 py-1.5 text-right">
-                      {s.live && (
-                        <ActionForm action={revokeShare} submit="Revoke" danger className="inline-flex flex-wrap items-center gap-2">
-                          <input type="hidden" name="id" value={s.id} />
-                        </ActionForm>
-                      )}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <CardTable headers={["What", "With", "Until", "State", ""]} testId="shares-table">
+            {shares.map((s) => (
+              <tr key={s.id} className="border-t border-stone-100">
+                <td className="px-3 py-1.5">
+                  <span className="text-xs text-ink-soft">{s.targetType}</span> {s.targetLabel}
+                </td>
+                <td className="px-3 py-1.5">{s.grantee}</td>
+                <td className="px-3 py-1.5">{s.expiresAt ? formatDay(s.expiresAt) : "no end date"}</td>
+                <td className="px-3 py-1.5">{s.revokedAt ? "revoked" : s.live ? "in force" : "expired"}</td>
+                <td className="px-3 py-1.5 text-right">{s.live && <RowActionButton action={revokeShare} id={s.id} submit="Revoke" />}</td>
+              </tr>
+            ))}
+          </CardTable>
         )}
       </section>
     </>

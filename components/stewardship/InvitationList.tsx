@@ -1,5 +1,5 @@
 import { revokeInvitation } from "@/app/(app)/stewardship/actions";
-import { ActionForm } from "@/components/forms/ActionForm";
+import { RowActionButton } from "@/components/forms/ActionForm";
 import { formatDay } from "@/lib/format/dates";
 import { ROLE_LABELS } from "@/lib/navigation";
 import type { InvitationRow } from "@/lib/stewardship/queries";
@@ -23,11 +23,7 @@ export function InvitationList({ invitations }: { invitations: InvitationRow[] }
                   {i.state === "open" ? ` until ${formatDay(i.expiresAt)}` : ""}
                 </span>
               </span>
-              {i.state === "open" && (
-                <ActionForm action={revokeInvitation} submit="Revoke" danger className="inline-flex flex-wrap items-center gap-2">
-                  <input type="hidden" name="id" value={i.id} />
-                </ActionForm>
-              )}
+              {i.state === "open" && <RowActionButton action={revokeInvitation} id={i.id} submit="Revoke" />}
             </li>
           ))}
         </ul>

@@ -3,6 +3,7 @@ import { ActionForm } from "@/components/forms/ActionForm";
 import { inputClass } from "@/components/forms/Field";
 import { ROLE_LABELS } from "@/lib/navigation";
 import { MEMBER_ROLES, type ShareTargetOption } from "./memberRoles";
+import { ShareTargetOptions } from "./ShareTargetOptions";
 
 /** Invites someone to a group by e-mail, as a member or as a collaborator who reads one project or series. */
 export function InviteForm({ groups, targets }: { groups: { groupId: string; groupName: string }[]; targets: ShareTargetOption[] }) {
@@ -49,11 +50,7 @@ export function InviteForm({ groups, targets }: { groups: { groupId: string; gro
             Shared with a collaborator
             <select name="shareTarget" defaultValue="" className={`${inputClass} mt-1 w-64`}>
               <option value="">— (members read everything)</option>
-              {targets.map((t) => (
-                <option key={t.id} value={`${t.type}:${t.id}`}>
-                  {t.type === "series" ? "Series" : "Project"}: {t.label}
-                </option>
-              ))}
+              <ShareTargetOptions targets={targets} />
             </select>
           </label>
         </ActionForm>

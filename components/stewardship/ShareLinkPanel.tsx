@@ -7,6 +7,8 @@ import { inputClass } from "@/components/forms/Field";
 import { ActionForm } from "@/components/forms/ActionForm";
 import { formatWhen } from "@/lib/format/dates";
 import type { ShareTargetOption as Target } from "./memberRoles";
+import { CardTable } from "@/components/ui/CardTable";
+import { ShareTargetOptions } from "./ShareTargetOptions";
 
 type LinkRow = {
   id: string;
@@ -93,11 +95,7 @@ export function ShareLinkPanel({ targets, links }: { targets: Target[]; links: L
             <option value="" disabled>
               Choose a project or series…
             </option>
-            {targets.map((t) => (
-              <option key={t.id} value={`${t.type}:${t.id}`}>
-                {t.type === "series" ? "Series" : "Project"}: {t.label}
-              </option>
-            ))}
+            <ShareTargetOptions targets={targets} />
           </select>
         </label>
         <label className="text-sm font-medium">
@@ -126,55 +124,41 @@ export function ShareLinkPanel({ targets, links }: { targets: Target[]; links: L
       {links.length === 0 ? (
         <p className="text-sm text-ink-soft">No share links yet.</p>
       ) : (
-        <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
-          <table className="w-full text-sm" data-testid="share-links-table">
-            <thead className="bg-stone-100 text-left text-xs text-ink-soft">
-              <tr>
-                <th className="px-3 py-2">Link</th>
-                <th className="px-3 py-2">What</th>
-                <th className="px-3 py-2">Created</th>
-                <th className="px-3 py-2">Expires</th>
-                <th className="px-3 py-2">State</th>
-                <th />
-              </tr>
-            </thead>
-            <tbody>
-              {links.map((l) => (
-                <tr key={l.id} className="border-t border-stone-100" data-testid="share-link-row">
-                  <td className="whitespace-nowrap px-3 py-1.5">
-                    <code className="text-xs text-ink-soft">/shared/{l.prefix || "?"}…</code>
-                  </td>
-                  <td className="px-3 py-1.5">
-                    <span className="text-xs text-ink-soft">{l.targetType}</span> {l.targetLabel}
-                  </td>
-                  <td className="px-3 py-1.5">
-                    {formatWhen(l.createdAt)}
-                    {l.createdBy && <span className="block text-xs text-ink-soft">{l.createdBy}</span>}
-                  </td>
-                  <td className="px-3 py-1.5">{l.expiresAt ? formatWhen(l.expiresAt) : "until revoked"}</td>
-                  <td className="whitespace-nowrap px-3 py-1.5">
-                    <span className={`rounded-full px-2 py-0.5 text-xs font-medium ${STATE_CLASS[l.state]}`}>{l.state}</span>
-                  </td>
-                  <td className="px-3 py-1.5 text-right">
-                    {l.state === "in force" && (
-                      <ActionForm
-                        action={shareLinkAction}
-                        submit="Revoke"
-                        pendingLabel="Revoking…"
-                        danger
-                        className="inline-flex flex-wrap items-center justify-end gap-2"
-                        label={`Revoke link ${l.prefix}`}
-                      >
-                        <input type="hidden" name="intent" value="revoke" />
-                        <input type="hidden" name="id" value={l.id} />
-                      </ActionForm>
-                    )}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <CardTable headers={["Link", "What", "Created", "Expires", "State", ""]} testId="share-links-table">
+          {links.map((l) => (
+            <tr key={l.id} className="border-t border-stone-100" data-testid="share-link-row">
+              <td className="whitespace-nowrap px-3 py-1.5">
+                <code className="text-xs text-ink-soft">/shared/{l.prefix || "?"}…</code>
+              </td>
+              <td className="px-3 py-1.5">
+                <span className="text-xs text-ink-soft">{l.targetType}</span> {l.targetLabel}
+              </td>
+              <td className="px-3 py-1.5">
+                {formatWhen(l.createdAt)}
+                {l.createdBy && <span className="block text-xs text-ink-soft">{l.createdBy}</span>}
+              </td>
+              <td className="px-3 py-1.5">{l.expiresAt ? formatWhen(l.expiresAt) : "until revoked"}</td>
+              <td className="whitespace-nowrap px-3 py-1.5">
+                <span className={`rounded-full px-2 py-0.5 text-xs font-medium ${STATE_CLASS[l.state]}`}>{l.state}</span>
+              </td>
+              <td className="px-3 py-1.5 text-right">
+                {l.state === "in force" && (
+                  <ActionForm
+                    action={shareLinkAction}
+                    submit="Revoke"
+                    pendingLabel="Revoking…"
+                    danger
+                    className="inline-flex flex-wrap items-center justify-end gap-2"
+                    label={`Revoke link ${l.prefix}`}
+                  >
+                    <input type="hidden" name="intent" value="revoke" />
+                    <input type="hidden" name="id" value={l.id} />
+                  </ActionForm>
+                )}
+              </td>
+            </tr>
+          ))}
+        </CardTable>
       )}
     </div>
   );

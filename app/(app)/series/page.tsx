@@ -5,6 +5,7 @@ import { writesSomewhere } from "@/lib/auth/access";
 import { listSeries } from "@/lib/queries/series";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
+import { CardTable } from "@/components/ui/CardTable";
 
 export const metadata: Metadata = { title: "Series" };
 
@@ -31,35 +32,22 @@ export default async function SeriesPage() {
           upload.
         </EmptyState>
       ) : (
-        <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
-          <table className="w-full text-sm">
-            <thead className="bg-stone-100 text-left text-xs text-ink-soft">
-              <tr>
-                <th className="px-3 py-2">Series</th>
-                <th className="px-3 py-2">Kind</th>
-                <th className="px-3 py-2">Variable</th>
-                <th className="px-3 py-2">Project</th>
-                <th className="px-3 py-2">Spectra</th>
-              </tr>
-            </thead>
-            <tbody>
-              {series.map((s) => (
-                <tr key={s.id} className="border-t border-stone-100 hover:bg-stone-50">
-                  <td className="px-3 py-2">
-                    <Link prefetch={false} className="font-medium text-glow-deep hover:underline" href={`/series/${s.id}`}>
-                      {s.name}
-                    </Link>
-                    {s.shared && <span className="ml-2 rounded bg-stone-100 px-1.5 text-xs text-ink-soft">shared with you</span>}
-                  </td>
-                  <td className="px-3 py-2">{s.kind}</td>
-                  <td className="px-3 py-2">{s.variable}</td>
-                  <td className="px-3 py-2 text-ink-soft">{s.projectName}</td>
-                  <td className="tabular px-3 py-2">{s.spectrumCount}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <CardTable headers={["Series", "Kind", "Variable", "Project", "Spectra"]}>
+          {series.map((s) => (
+            <tr key={s.id} className="border-t border-stone-100 hover:bg-stone-50">
+              <td className="px-3 py-2">
+                <Link prefetch={false} className="font-medium text-glow-deep hover:underline" href={`/series/${s.id}`}>
+                  {s.name}
+                </Link>
+                {s.shared && <span className="ml-2 rounded bg-stone-100 px-1.5 text-xs text-ink-soft">shared with you</span>}
+              </td>
+              <td className="px-3 py-2">{s.kind}</td>
+              <td className="px-3 py-2">{s.variable}</td>
+              <td className="px-3 py-2 text-ink-soft">{s.projectName}</td>
+              <td className="tabular px-3 py-2">{s.spectrumCount}</td>
+            </tr>
+          ))}
+        </CardTable>
       )}
     </>
   );

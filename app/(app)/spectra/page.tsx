@@ -15,6 +15,7 @@ import { SpectrumSearchForm } from "@/components/spectra/SpectrumSearchForm";
 import { formatWhen } from "@/lib/format/dates";
 import { getDeletionNotice } from "@/lib/queries/deletions";
 import { DeletedBanner } from "@/components/stewardship/DeletedBanner";
+import { CardTable } from "@/components/ui/CardTable";
 
 export const metadata: Metadata = { title: "Spectra" };
 
@@ -53,47 +54,42 @@ export default async function SpectraPage({ searchParams }: { searchParams: Prom
           {filtered ? "Loosen the search." : "Upload UV-Vis-NIR absorption, PL or mid-IR exports (CSV, text or JCAMP-DX)."}
         </EmptyState>
       ) : (
-        <div className="overflow-x-auto rounded-lg border border-stone-200 bg-white">
-          <table className="w-full text-sm">
-            <thead className="bg-stone-100 text-left text-xs text-ink-soft">
-              <tr>
-                <th className="px-3 py-2">File</th>
-                <th className="px-3 py-2">Technique</th>
-                <th className="px-3 py-2">Sample</th>
-                <th className="px-3 py-2">Project</th>
-                <th className="px-3 py-2 text-right">1st exciton</th>
-                <th className="px-3 py-2 text-right">Size</th>
-                <th className="px-3 py-2">State</th>
-                <th className="px-3 py-2">Stored</th>
-              </tr>
-            </thead>
-            <tbody>
-              {page.rows.map((s) => (
-                <tr key={s.id} className="border-t border-stone-100 hover:bg-stone-50">
-                  <td className="max-w-xs truncate px-3 py-2">
-                    <Link prefetch={false} className="font-medium text-glow-deep hover:underline" href={`/spectra/${s.id}`}>
-                      {s.fileName}
-                    </Link>
-                    {s.errorMessage && (
-                      <div className="truncate text-xs text-red-700" title={s.errorMessage}>
-                        {s.errorMessage}
-                      </div>
-                    )}
-                  </td>
-                  <td className="px-3 py-2">{TECHNIQUE_SHORT_LABELS[s.technique]}</td>
-                  <td className="px-3 py-2">{s.sampleName ?? "—"}</td>
-                  <td className="px-3 py-2 text-ink-soft">{s.projectName}</td>
-                  <td className="tabular px-3 py-2 text-right">{s.firstExcitonNm === null ? "—" : `${s.firstExcitonNm.toFixed(0)} nm`}</td>
-                  <td className="tabular px-3 py-2 text-right">{s.diameterNm === null ? "—" : `${s.diameterNm.toFixed(1)} nm`}</td>
-                  <td className="px-3 py-2">
-                    <StatusBadge status={s.status} />
-                  </td>
-                  <td className="tabular px-3 py-2 text-ink-soft">{formatWhen(s.createdAt)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <CardTable
+          headers={[
+            "File",
+            "Technique",
+            "Sample",
+            "Project",
+            { label: "1st exciton", right: true },
+            { label: "Size", right: true },
+            "State",
+            "Stored",
+          ]}
+        >
+          {page.rows.map((s) => (
+            <tr key={s.id} className="border-t border-stone-100 hover:bg-stone-50">
+              <td className="max-w-xs truncate px-3 py-2">
+                <Link prefetch={false} className="font-medium text-glow-deep hover:underline" href={`/spectra/${s.id}`}>
+                  {s.fileName}
+                </Link>
+                {s.errorMessage && (
+                  <div className="truncate text-xs text-red-700" title={s.errorMessage}>
+                    {s.errorMessage}
+                  </div>
+                )}
+              </td>
+              <td className="px-3 py-2">{TECHNIQUE_SHORT_LABELS[s.technique]}</td>
+              <td className="px-3 py-2">{s.sampleName ?? "—"}</td>
+              <td className="px-3 py-2 text-ink-soft">{s.projectName}</td>
+              <td className="tabular px-3 py-2 text-right">{s.firstExcitonNm === null ? "—" : `${s.firstExcitonNm.toFixed(0)} nm`}</td>
+              <td className="tabular px-3 py-2 text-right">{s.diameterNm === null ? "—" : `${s.diameterNm.toFixed(1)} nm`}</td>
+              <td className="px-3 py-2">
+                <StatusBadge status={s.status} />
+              </td>
+              <td className="tabular px-3 py-2 text-ink-soft">{formatWhen(s.createdAt)}</td>
+            </tr>
+          ))}
+        </CardTable>
       )}
       {search && (search.after || page.next) && (
         <nav aria-label="Pages" className="mt-3 flex items-center gap-4 text-sm">

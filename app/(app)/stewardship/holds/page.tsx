@@ -2,13 +2,14 @@ import type { Metadata } from "next";
 import { requireActor } from "@/lib/auth/actor";
 import { stewardGroupIds } from "@/lib/auth/access";
 import { holdTargetOptions, listHolds } from "@/lib/stewardship/queries";
-import { ActionForm } from "@/components/forms/ActionForm";
+import { ActionForm, RowActionButton } from "@/components/forms/ActionForm";
 import { HoldTargetPicker } from "@/components/stewardship/HoldTargetPicker";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
 import { formatDay } from "@/lib/format/dates";
 import { inputClass } from "@/components/forms/Field";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { liftHold, placeHold } from "../actions";
+import { CardTable } from "@/components/ui/CardTable";
 
 export const metadata: Metadata = { title: "Holds · Data care" };
 
@@ -50,36 +51,22 @@ export default async function HoldsPage() {
       {active.length === 0 ? (
         <p className="mb-6 text-sm text-ink-soft">No holds in force.</p>
       ) : (
-        <div className="mb-6 overflow-hidden rounded-lg border border-stone-200 bg-white">
-          <table className="w-full text-sm" data-testid="holds-table">
-            <thead className="bg-stone-100 text-left text-xs text-ink-soft">
-              <tr>
-                <th className="px-3 py-2">On</th>
-                <th className="px-3 py-2">Reason</th>
-                <th className="px-3 py-2">Placed</th>
-                <th />
-              </tr>
-            </thead>
-            <tbody>
-              {active.map((h) => (
-                <tr key={h.id} className="border-t border-stone-100 align-top">
-                  <td className="px-3 py-1.5">
-                    <span className="text-xs text-ink-soft">{h.targetType}</span> <span className="font-medium">{h.targetLabel}</span>
-                  </td>
-                  <td className="px-3 py-1.5">{h.reason}</td>
-                  <td className="whitespace-nowrap px-3 py-1.5 text-ink-soft">
-                    {formatDay(h.placedAt)} · {h.placedBy}
-                  </td>
-                  <td className="px-3 py-1.5 text-right">
-                    <ActionForm action={liftHold} submit="Lift" danger className="inline-flex flex-wrap items-center gap-2">
-                      <input type="hidden" name="id" value={h.id} />
-                    </ActionForm>
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <CardTable headers={["On", "Reason", "Placed", ""]} testId="holds-table" className="mb-6">
+          {active.map((h) => (
+            <tr key={h.id} className="border-t border-stone-100 align-top">
+              <td className="px-3 py-1.5">
+                <span className="text-xs text-ink-soft">{h.targetType}</span> <span className="font-medium">{h.targetLabel}</span>
+              </td>
+              <td className="px-3 py-1.5">{h.reason}</td>
+              <td className="whitespace-nowrap px-3 py-1.5 text-ink-soft">
+                {formatDay(h.placedAt)} · {h.placedBy}
+              </td>
+              <td className="px-3 py-1.5 text-right">
+                <RowActionButton action={liftHold} id={h.id} submit="Lift" />
+              </td>
+            </tr>
+          ))}
+        </CardTable>
       )}
       {lifted.length > 0 && (
         <details className="text-sm">

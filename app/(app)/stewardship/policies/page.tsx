@@ -4,13 +4,14 @@ import { requireActor } from "@/lib/auth/actor";
 import { stewardGroupIds } from "@/lib/auth/access";
 import { listProjectChoices } from "@/lib/queries/projects";
 import { DATA_CLASS_LABELS, listPolicies, previewPolicy, type PolicyPreview } from "@/lib/stewardship/queries";
-import { ActionForm } from "@/components/forms/ActionForm";
+import { ActionForm, RowActionButton } from "@/components/forms/ActionForm";
 import { StewardOnly } from "@/components/stewardship/StewardOnly";
 import { formatBytes } from "@/lib/format/bytes";
 import { formatDay } from "@/lib/format/dates";
 import { inputClass } from "@/components/forms/Field";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { deletePolicy, savePolicy } from "../actions";
+import { CardTable } from "@/components/ui/CardTable";
 
 export const metadata: Metadata = { title: "Keep rules · Data care" };
 
@@ -186,36 +187,20 @@ export default async function PoliciesPage({ searchParams }: { searchParams: Pro
         {policies.length === 0 ? (
           <p className="text-sm text-ink-soft">No policies yet: everything is kept.</p>
         ) : (
-          <div className="overflow-hidden rounded-lg border border-stone-200 bg-white">
-            <table className="w-full text-sm" data-testid="policies-table">
-              <thead className="bg-stone-100 text-left text-xs text-ink-soft">
-                <tr>
-                  <th className="px-3 py-2">Project</th>
-                  <th className="px-3 py-2">Class</th>
-                  <th className="px-3 py-2">Keep</th>
-                  <th className="px-3 py-2">At the end</th>
-                  <th className="px-3 py-2">Changed</th>
-                  <th />
-                </tr>
-              </thead>
-              <tbody>
-                {policies.map((p) => (
-                  <tr key={p.id} className="border-t border-stone-100">
-                    <td className="px-3 py-1.5 font-medium">{p.projectName}</td>
-                    <td className="px-3 py-1.5">{DATA_CLASS_LABELS[p.dataClass]}</td>
-                    <td className="tabular px-3 py-1.5">{p.keepDays} days</td>
-                    <td className="px-3 py-1.5">{p.onExpiry === "delete" ? "Delete" : "Ask first"}</td>
-                    <td className="px-3 py-1.5 text-ink-soft">{formatDay(p.updatedAt)}</td>
-                    <td className="px-3 py-1.5 text-right">
-                      <ActionForm action={deletePolicy} submit="Remove" danger className="inline-flex flex-wrap items-center gap-2">
-                        <input type="hidden" name="id" value={p.id} />
-                      </ActionForm>
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <CardTable headers={["Project", "Class", "Keep", "At the end", "Changed", ""]} testId="policies-table">
+            {policies.map((p) => (
+              <tr key={p.id} className="border-t border-stone-100">
+                <td className="px-3 py-1.5 font-medium">{p.projectName}</td>
+                <td className="px-3 py-1.5">{DATA_CLASS_LABELS[p.dataClass]}</td>
+                <td className="tabular px-3 py-1.5">{p.keepDays} days</td>
+                <td className="px-3 py-1.5">{p.onExpiry === "delete" ? "Delete" : "Ask first"}</td>
+                <td className="px-3 py-1.5 text-ink-soft">{formatDay(p.updatedAt)}</td>
+                <td className="px-3 py-1.5 text-right">
+                  <RowActionButton action={deletePolicy} id={p.id} submit="Remove" />
+                </td>
+              </tr>
+            ))}
+          </CardTable>
         )}
       </section>
     </>
