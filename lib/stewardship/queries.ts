@@ -346,31 +346,50 @@ export async function storageOverview(actor: Actor, now = new Date()): Promise<S
   if (!projects.length) return [];
   const snapshot = await loadSnapshot(projects.map((p) => p.id));
   const at = (days: number) => planSweep(snapshot.items, snapshot.policies, snapshot.holds, new Date(now.getTime() + days * DAY_MS));
-  const horizons = { freeNow: at(0), free30: at(30), free365: at(365) };
+  const keyOf = (projectId: string, dataClass: DataClass) => `${projectId}:${dataClass}`;
+  // one pass over the items and one over each plan, summed by project and class
+  const byKey = new Map<string, { items: number; bytes: number; nextExpiry: number; freeNow: number; free30: number; free365: number }>();
+  const entry = (key: string) => {
+    let e = byKey.get(key);
+    if (!e) byKey.set(key, (e = { items: 0, bytes: 0, nextExpiry: Infinity, freeNow: 0, free30: 0, free365: 0 }));
+    return e;
+  };
+  const policies = new Map(snapshot.policies.map((x) => [keyOf(x.projectId, x.dataClass), x]));
+  for (const item of snapshot.items) {
+    const key = keyOf(item.projectId, item.dataClass);
+    const e = entry(key);
+    e.items += 1;
+    e.bytes += item.sizeBytes;
+    const policy = policies.get(key);
+    if (policy) {
+      const expiry = item.createdAt.getTime() + policy.keepDays * DAY_MS;
+      if (expiry > now.getTime() && expiry < e.nextExpiry) e.nextExpiry = expiry;
+    }
+  }
+  for (const [field, days] of [
+    ["freeNow", 0],
+    ["free30", 30],
+    ["free365", 365],
+  ] as const) {
+    for (const a of at(days).toDelete) entry(keyOf(a.item.projectId, a.item.dataClass))[field] += a.item.sizeBytes;
+  }
   const rows: StorageRow[] = [];
   for (const p of projects) {
     for (const dataClass of ["raw", "processed", "drafts"] as const) {
-      const items = snapshot.items.filter((i) => i.projectId === p.id && i.dataClass === dataClass);
-      const policy = snapshot.policies.find((x) => x.projectId === p.id && x.dataClass === dataClass);
-      const freed = (plan: SweepPlan) =>
-        plan.toDelete.filter((a) => a.item.projectId === p.id && a.item.dataClass === dataClass).reduce((s, a) => s + a.item.sizeBytes, 0);
-      const upcoming = policy
-        ? items
-            .map((i) => i.createdAt.getTime() + policy.keepDays * DAY_MS)
-            .filter((t) => t > now.getTime())
-            .sort((a, b) => a - b)[0]
-        : undefined;
+      const key = keyOf(p.id, dataClass);
+      const e = entry(key);
+      const policy = policies.get(key);
       rows.push({
         projectId: p.id,
         projectName: p.name,
         dataClass,
-        items: items.length,
-        bytes: items.reduce((s, i) => s + i.sizeBytes, 0),
+        items: e.items,
+        bytes: e.bytes,
         policy: policy ? `${policy.onExpiry === "delete" ? "delete" : "flag"} after ${policy.keepDays} days` : null,
-        freeNow: freed(horizons.freeNow),
-        free30: freed(horizons.free30),
-        free365: freed(horizons.free365),
-        nextExpiry: upcoming ? new Date(upcoming).toISOString() : null,
+        freeNow: e.freeNow,
+        free30: e.free30,
+        free365: e.free365,
+        nextExpiry: Number.isFinite(e.nextExpiry) ? new Date(e.nextExpiry).toISOString() : null,
       });
     }
   }

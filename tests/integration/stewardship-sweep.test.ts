@@ -3,7 +3,7 @@ import { afterAll, describe, expect, it } from "vitest";
 import { closeDb, selectRows } from "@/lib/db";
 import { deleteSpectrum } from "@/lib/stewardship/deletion";
 import { buildBundle } from "@/lib/stewardship/exportBundle";
-import { previewPolicy } from "@/lib/stewardship/queries";
+import { previewPolicy, storageOverview } from "@/lib/stewardship/queries";
 import { runSweep } from "@/lib/stewardship/sweep";
 import { LegalHold, RetentionFlag, RetentionPolicy, Spectrum, Tombstone } from "@/models";
 import { createLab, createSample, createSeries, type Lab } from "../helpers/fixtures";
@@ -18,6 +18,44 @@ afterAll(closeDb);
 const exists = async (id: string) => (await Spectrum.count({ where: { id } })) === 1;
 
 describe("retention sweep on the real database and storage", () => {
+  it("the storage overview sums use and what the policy frees now, within 30 days and within a year, net of holds and references", async () => {
+    const lab = await createLab("steward");
+    const sample = await createSample(lab);
+    const now = Date.now();
+    const ref = await storedSpectrum(lab, { ageDays: 100 });
+    await storedSpectrum(lab, { ageDays: 5, ref: ref.id }); // keeps its reference for now; itself frees within a year
+    const old = await storedSpectrum(lab, { ageDays: 100 });
+    const held = await storedSpectrum(lab, { ageDays: 100, sampleId: sample.id });
+    const soon = await storedSpectrum(lab, { ageDays: 75 }); // 90-day policy: expires in 15 days
+    const failed = await storedSpectrum(lab, { ageDays: 100, failed: true }); // drafts: no policy
+    await RetentionPolicy.create({ projectId: lab.project.id, dataClass: "raw", keepDays: 90, onExpiry: "delete", createdBy: lab.user.id });
+    await LegalHold.create({
+      groupId: lab.group.id,
+      targetType: "sample",
+      targetId: sample.id,
+      reason: "audit",
+      placedBy: lab.user.id,
+      liftedAt: null,
+      liftedBy: null,
+    });
+    const raw = await Spectrum.findAll({ where: { projectId: lab.project.id, status: "analysed" } });
+    const size = (x: Spectrum) => Number(x.sizeBytes);
+    const rows = (await storageOverview(lab.actor)).filter((r) => r.projectId === lab.project.id);
+    const rawRow = rows.find((r) => r.dataClass === "raw")!;
+    expect(rawRow.items).toBe(raw.length);
+    expect(rawRow.bytes).toBe(raw.reduce((t, x) => t + size(x), 0));
+    expect(rawRow.policy).toBe("delete after 90 days");
+    // now: only the free old one (the reference has a young dependent, the held one a hold)
+    expect(rawRow.freeNow).toBe(size(old));
+    expect(rawRow.free30).toBe(size(old) + size(soon));
+    // within a year the dependent expires too, and its reference may go with it; the held one never
+    expect(rawRow.free365).toBe(raw.filter((x) => x.id !== held.id).reduce((t, x) => t + size(x), 0));
+    // the next expiry still ahead: the 75-day-old one, 15 days from now (to the minute)
+    expect(Math.abs(Date.parse(rawRow.nextExpiry!) - (now + 15 * 86_400_000))).toBeLessThan(60_000);
+    const drafts = rows.find((r) => r.dataClass === "drafts")!;
+    expect([drafts.items, drafts.bytes, drafts.policy, drafts.freeNow]).toEqual([1, size(failed), null, 0]);
+  });
+
   it("deletes expired free spectra with tombstone and audit; keeps held, referenced and unexpired ones", async () => {
     const lab = await createLab("steward");
     const sample = await createSample(lab);
