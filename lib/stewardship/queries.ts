@@ -48,7 +48,8 @@ export type PolicyPreview = { toDelete: PreviewRow[]; toFlag: PreviewRow[]; prot
 
 /** The dry run: what this policy, if saved now, would delete, flag and keep in its project. */
 export async function previewPolicy(rule: Omit<PolicyRule, "id">, now = new Date()): Promise<PolicyPreview> {
-  const snapshot = await loadSnapshot([rule.projectId]);
+  // a policy on raw files or drafts concerns spectra only: analyses need not be read
+  const snapshot = await loadSnapshot([rule.projectId], { spectraOnly: rule.dataClass !== "processed" });
   const policies = [
     ...snapshot.policies.filter((p) => !(p.projectId === rule.projectId && p.dataClass === rule.dataClass)),
     { ...rule, id: "preview" },

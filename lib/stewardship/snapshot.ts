@@ -33,8 +33,12 @@ type RunRow = {
   flagged: boolean;
 };
 
-/** Spectra, analyses, policies and active holds of the given projects (all projects when omitted). */
-export async function loadSnapshot(projectIds?: readonly string[]): Promise<Snapshot> {
+/**
+ * Spectra, analyses, policies and active holds of the given projects (all projects when omitted).
+ * `spectraOnly` leaves the analyses out, for a question about raw files or drafts alone (what a
+ * spectrum's fate depends on — holds, references, decisions — is all on spectrum rows).
+ */
+export async function loadSnapshot(projectIds?: readonly string[], options: { spectraOnly?: boolean } = {}): Promise<Snapshot> {
   const scoped = projectIds !== undefined;
   const ids = projectIds && projectIds.length > 0 ? [...projectIds] : ["00000000-0000-0000-0000-000000000000"];
   const scope = (col: string) => (scoped ? `${col} IN (:ids)` : "TRUE");
@@ -52,15 +56,17 @@ export async function loadSnapshot(projectIds?: readonly string[]): Promise<Snap
         AND NOT EXISTS (SELECT 1 FROM tombstones t WHERE t.target_type = 'spectrum' AND t.target_id = s.id AND t.state = 'pending')`,
     { ids },
   );
-  const runs = await selectRows<RunRow>(
-    `SELECT r.id, r.spectrum_id, s.project_id, COALESCE(s.series_id, point.series_id) AS series_id, s.sample_id, r.created_at, octet_length(r.report::text) AS size_bytes, s.file_name,
+  const runs = options.spectraOnly
+    ? []
+    : await selectRows<RunRow>(
+        `SELECT r.id, r.spectrum_id, s.project_id, COALESCE(s.series_id, point.series_id) AS series_id, s.sample_id, r.created_at, octet_length(r.report::text) AS size_bytes, s.file_name,
             r.status IN ('queued', 'running') AS busy, f.decision, (f.id IS NOT NULL AND f.decision IS NULL) AS flagged
        FROM analysis_runs r JOIN spectra s ON s.id = r.spectrum_id
        LEFT JOIN spectra point ON point.id = s.supernatant_of_spectrum_id
        LEFT JOIN retention_flags f ON f.target_type = 'analysis-run' AND f.target_id = r.id
       WHERE ${scope("s.project_id")}`,
-    { ids },
-  );
+        { ids },
+      );
   const policies = await selectRows<{
     id: string;
     project_id: string;
