@@ -15,6 +15,10 @@ const connect = (url: string, poolMax: number) =>
     logging: false,
     pool: { max: poolMax, min: 0, idle: 10_000 },
     define: { underscored: true },
+    // No JIT compilation: the app's queries are short, and at 10⁵ rows compiling a plan took
+    // 200 ms of a 280 ms scan (docs/benchmarks.md); PostgreSQL's own guidance is to use JIT for
+    // long analytical queries.
+    dialectOptions: { options: "-c jit=off" },
   });
 
 /** The app's connection, as the least-privilege app role (DATABASE_URL). */

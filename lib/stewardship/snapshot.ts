@@ -34,6 +34,12 @@ type RunRow = {
 };
 
 /**
+ * A spectrum's series; a supernatant belongs to its point's series (holds and policies on the
+ * series cover it). A lookup by primary key for the few supernatants, not a second scan of spectra.
+ */
+const SERIES_OF_SPECTRUM = `COALESCE(s.series_id, (SELECT point.series_id FROM spectra point WHERE point.id = s.supernatant_of_spectrum_id))`;
+
+/**
  * Spectra, analyses, policies and active holds of the given projects (all projects when omitted).
  * `spectraOnly` leaves the analyses out, for a question about raw files or drafts alone (what a
  * spectrum's fate depends on — holds, references, decisions — is all on spectrum rows).
@@ -43,12 +49,10 @@ export async function loadSnapshot(projectIds?: readonly string[], options: { sp
   const ids = projectIds && projectIds.length > 0 ? [...projectIds] : ["00000000-0000-0000-0000-000000000000"];
   const scope = (col: string) => (scoped ? `${col} IN (:ids)` : "TRUE");
   const spectra = await selectRows<SpectrumRow>(
-    `SELECT s.id, s.project_id, COALESCE(s.series_id, point.series_id) AS series_id, s.sample_id, s.reference_spectrum_id, s.created_at, s.size_bytes, s.file_name, s.status,
+    `SELECT s.id, s.project_id, ${SERIES_OF_SPECTRUM} AS series_id, s.sample_id, s.reference_spectrum_id, s.created_at, s.size_bytes, s.file_name, s.status,
             (s.status IN ('queued', 'analysing') OR EXISTS (SELECT 1 FROM analysis_runs r WHERE r.spectrum_id = s.id AND r.status IN ('queued', 'running'))) AS busy,
             f.decision, (f.id IS NOT NULL AND f.decision IS NULL) AS flagged
        FROM spectra s
-       -- a supernatant belongs to its point's series (holds and policies on the series cover it)
-       LEFT JOIN spectra point ON point.id = s.supernatant_of_spectrum_id
        LEFT JOIN retention_flags f ON f.target_type = 'spectrum' AND f.target_id = s.id
       WHERE (${scope("s.project_id")}
              -- spectra elsewhere that depend on a spectrum in scope: they stay, and protect it
@@ -59,10 +63,9 @@ export async function loadSnapshot(projectIds?: readonly string[], options: { sp
   const runs = options.spectraOnly
     ? []
     : await selectRows<RunRow>(
-        `SELECT r.id, r.spectrum_id, s.project_id, COALESCE(s.series_id, point.series_id) AS series_id, s.sample_id, r.created_at, octet_length(r.report::text) AS size_bytes, s.file_name,
+        `SELECT r.id, r.spectrum_id, s.project_id, ${SERIES_OF_SPECTRUM} AS series_id, s.sample_id, r.created_at, octet_length(r.report::text) AS size_bytes, s.file_name,
             r.status IN ('queued', 'running') AS busy, f.decision, (f.id IS NOT NULL AND f.decision IS NULL) AS flagged
        FROM analysis_runs r JOIN spectra s ON s.id = r.spectrum_id
-       LEFT JOIN spectra point ON point.id = s.supernatant_of_spectrum_id
        LEFT JOIN retention_flags f ON f.target_type = 'analysis-run' AND f.target_id = r.id
       WHERE ${scope("s.project_id")}`,
         { ids },
