@@ -1,6 +1,7 @@
 "use client";
 
 import { signIn } from "next-auth/react";
+import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
 import { safeReturnPath } from "@/lib/auth/returnPath";
 import { SIGN_IN_REFUSALS, type SignInRefusal } from "@/lib/auth/signInRefusals";
@@ -8,6 +9,7 @@ import { SIGN_IN_REFUSALS, type SignInRefusal } from "@/lib/auth/signInRefusals"
 export function SignInForm({ returnTo }: { returnTo: string }) {
   const [error, setError] = useState<string | null>(null);
   const [pending, setPending] = useState(false);
+  const router = useRouter();
 
   async function onSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
@@ -19,8 +21,8 @@ export function SignInForm({ returnTo }: { returnTo: string }) {
       password: String(form.get("password") ?? ""),
       redirect: false,
     });
-    setPending(false);
     if (!result || result.error) {
+      setPending(false);
       // Only our own refusal codes are shown; anything else (an outage's raw message) stays in the server log.
       const code = result?.error ?? "CredentialsSignin";
       setError(
@@ -32,7 +34,10 @@ export function SignInForm({ returnTo }: { returnTo: string }) {
       );
       return;
     }
-    window.location.assign(safeReturnPath(returnTo));
+    // a client navigation: the page's scripts are already loaded, only the signed-in page is fetched
+    // (the refresh drops anything the router kept from before the session existed)
+    router.refresh();
+    router.replace(safeReturnPath(returnTo));
   }
 
   return (
