@@ -30,13 +30,28 @@ export type AppConfig = z.infer<typeof schema>;
 
 let cached: AppConfig | undefined;
 
-export function config(): AppConfig {
-  if (cached) return cached;
-  const parsed = schema.safeParse(process.env);
+/** Parses the environment with a schema; a missing or malformed variable is named, all at once. */
+function readEnvironment<S extends z.ZodType>(shape: S): z.infer<S> {
+  const parsed = shape.safeParse(process.env);
   if (!parsed.success) {
     const names = parsed.error.issues.map((i) => `${i.path.join(".")} (${i.message})`).join(", ");
     throw new Error(`Bandkeep is missing or cannot read these environment variables: ${names}. See README.md, "Configuration".`);
   }
-  cached = parsed.data;
+  return parsed.data;
+}
+
+export function config(): AppConfig {
+  cached ??= readEnvironment(schema);
   return cached;
+}
+
+const databaseSchema = schema.pick({ DATABASE_URL: true, MIGRATION_DATABASE_URL: true });
+
+/**
+ * The database addresses alone, read without filling config()'s cache: the models bind to the
+ * connection when they are first imported, and a process (a test) may set its other variables
+ * after its imports have run.
+ */
+export function databaseConfig(): z.infer<typeof databaseSchema> {
+  return readEnvironment(databaseSchema);
 }

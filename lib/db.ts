@@ -1,6 +1,6 @@
 import pg from "pg";
 import { QueryTypes, Sequelize } from "sequelize";
-import { config } from "./config";
+import { databaseConfig } from "./config";
 import { processSlot } from "./processSingleton";
 
 // The one Sequelize instance of a process. Created lazily so that importing a model
@@ -23,14 +23,14 @@ const connect = (url: string, poolMax: number) =>
 
 /** The app's connection, as the least-privilege app role (DATABASE_URL). */
 export function sequelize(): Sequelize {
-  const open = appDb.get() ?? connect(config().DATABASE_URL, Number(process.env.DB_POOL_MAX ?? 10));
+  const open = appDb.get() ?? connect(databaseConfig().DATABASE_URL, Number(process.env.DB_POOL_MAX ?? 10));
   appDb.set(open);
   return open;
 }
 
 /** The migrations' connection, as the schema owner (MIGRATION_DATABASE_URL, else DATABASE_URL for a one-role set-up). */
 export function migrationSequelize(): Sequelize {
-  const open = migrationDb.get() ?? connect(config().MIGRATION_DATABASE_URL ?? config().DATABASE_URL, 2);
+  const open = migrationDb.get() ?? connect(databaseConfig().MIGRATION_DATABASE_URL ?? databaseConfig().DATABASE_URL, 2);
   migrationDb.set(open);
   return open;
 }
