@@ -27,9 +27,6 @@ export function CollaboratorShares({ shares, targets }: { shares: ShareRow[]; ta
           <label className="text-sm font-medium">
             What
             <select name="shareTarget" required defaultValue="" className={`${inputClass} mt-1 w-72`}>
-              <option value="" disabled>
-                Choose a project or series…
-              </option>
               <ShareTargetOptions targets={targets} />
             </select>
           </label>

@@ -49,8 +49,7 @@ export function InviteForm({ groups, targets }: { groups: { groupId: string; gro
           <label className="text-sm font-medium">
             Shared with a collaborator
             <select name="shareTarget" defaultValue="" className={`${inputClass} mt-1 w-64`}>
-              <option value="">— (members read everything)</option>
-              <ShareTargetOptions targets={targets} />
+              <ShareTargetOptions targets={targets} none="— (members read everything)" />
             </select>
           </label>
         </ActionForm>

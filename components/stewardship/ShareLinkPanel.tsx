@@ -92,9 +92,6 @@ export function ShareLinkPanel({ targets, links }: { targets: Target[]; links: L
             aria-invalid={!!errors.shareTarget}
             className={`${inputClass} mt-1 w-72`}
           >
-            <option value="" disabled>
-              Choose a project or series…
-            </option>
             <ShareTargetOptions targets={targets} />
           </select>
         </label>

@@ -12,7 +12,8 @@ import { storedSpectrum } from "./stewardship-fixtures";
 
 // The audit trail on the real database: a fresh group whose events the test writes through
 // recordAudit (the app's one writer), another group whose events must never show, and the
-// steward's and a member's personal sign-ins. Truth is what the test wrote.
+// steward's and a member's personal sign-ins. Truth is what the test wrote (its own source of
+// the expected counts; no outside reference applies to bookkeeping of this kind).
 
 let lab: Lab; // the steward's group
 let other: Lab; // another group

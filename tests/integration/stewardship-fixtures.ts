@@ -1,7 +1,7 @@
 // Stored spectra and analyses for the stewardship tests, written straight to the
 // database and the storage fake (no analysis is queued, so nothing is "busy").
 import { createHash, randomUUID } from "node:crypto";
-import { AnalysisRun, Spectrum } from "@/models";
+import { AnalysisRun, LegalHold, Spectrum } from "@/models";
 import { newRawObjectKey, putObject } from "@/lib/storage";
 import { objectExists } from "@/lib/stewardship/deletion";
 import { selectRows, sequelize } from "@/lib/db";
@@ -52,6 +52,17 @@ export async function storedSpectrum(
       replacements: { d: o.ageDays, id: s.id },
     });
   return s;
+}
+
+/** A legal hold in force on a project, series, sample or spectrum of the lab's group. */
+export function placedHold(
+  lab: Lab,
+  targetType: "project" | "series" | "sample" | "spectrum",
+  targetId: string,
+  reason: string,
+  placedBy: string | null = lab.user.id,
+): Promise<LegalHold> {
+  return LegalHold.create({ groupId: lab.group.id, targetType, targetId, reason, placedBy, liftedAt: null, liftedBy: null });
 }
 
 export async function storedRun(spectrum: Spectrum, ageDays = 0): Promise<AnalysisRun> {

@@ -5,13 +5,15 @@ import { deleteSpectrum } from "@/lib/stewardship/deletion";
 import { buildBundle } from "@/lib/stewardship/exportBundle";
 import { previewPolicy, storageOverview } from "@/lib/stewardship/queries";
 import { runSweep } from "@/lib/stewardship/sweep";
-import { LegalHold, RetentionFlag, RetentionPolicy, Spectrum, Tombstone } from "@/models";
+import { RetentionFlag, RetentionPolicy, Spectrum, Tombstone } from "@/models";
 import { createLab, createSample, createSeries, type Lab } from "../helpers/fixtures";
-import { consistency, storedRun, storedSpectrum } from "./stewardship-fixtures";
+import { consistency, placedHold, storedRun, storedSpectrum } from "./stewardship-fixtures";
 import { Refusal } from "@/lib/errors";
 
 // The retention sweep against the real PostgreSQL and storage fake, on projects made
-// here (every sweep is scoped to them, so the demo scenario is never touched).
+// here (every sweep is scoped to them, so the demo scenario is never touched). The expected
+// values are the fixtures' own (their ages, sizes, holds and policies); no outside source is
+// involved in bookkeeping of this kind.
 
 afterAll(closeDb);
 
@@ -29,15 +31,7 @@ describe("retention sweep on the real database and storage", () => {
     const soon = await storedSpectrum(lab, { ageDays: 75 }); // 90-day policy: expires in 15 days
     const failed = await storedSpectrum(lab, { ageDays: 100, failed: true }); // drafts: no policy
     await RetentionPolicy.create({ projectId: lab.project.id, dataClass: "raw", keepDays: 90, onExpiry: "delete", createdBy: lab.user.id });
-    await LegalHold.create({
-      groupId: lab.group.id,
-      targetType: "sample",
-      targetId: sample.id,
-      reason: "audit",
-      placedBy: lab.user.id,
-      liftedAt: null,
-      liftedBy: null,
-    });
+    await placedHold(lab, "sample", sample.id, "audit");
     const raw = await Spectrum.findAll({ where: { projectId: lab.project.id, status: "analysed" } });
     const size = (x: Spectrum) => Number(x.sizeBytes);
     const rows = (await storageOverview(lab.actor)).filter((r) => r.projectId === lab.project.id);
@@ -68,24 +62,8 @@ describe("retention sweep on the real database and storage", () => {
     const young = await storedSpectrum(lab, { ageDays: 10 });
     const run = await storedRun(old, 100);
     await RetentionPolicy.create({ projectId: lab.project.id, dataClass: "raw", keepDays: 30, onExpiry: "delete", createdBy: lab.user.id });
-    await LegalHold.create({
-      groupId: lab.group.id,
-      targetType: "sample",
-      targetId: sample.id,
-      reason: "journal inquiry",
-      placedBy: lab.user.id,
-      liftedAt: null,
-      liftedBy: null,
-    });
-    await LegalHold.create({
-      groupId: lab.group.id,
-      targetType: "series",
-      targetId: series.id,
-      reason: "patent",
-      placedBy: lab.user.id,
-      liftedAt: null,
-      liftedBy: null,
-    });
+    await placedHold(lab, "sample", sample.id, "journal inquiry");
+    await placedHold(lab, "series", series.id, "patent");
 
     const preview = await previewPolicy({ projectId: lab.project.id, dataClass: "raw", keepDays: 30, onExpiry: "delete" });
     expect(preview.toDelete.map((r) => r.id)).toEqual([old.id]);
@@ -157,15 +135,7 @@ describe("retention sweep on the real database and storage", () => {
     await supernatant.update({ supernatantOfSpectrumId: point.id });
     const free = await storedSpectrum(lab, { ageDays: 100 });
     await RetentionPolicy.create({ projectId: lab.project.id, dataClass: "raw", keepDays: 30, onExpiry: "delete", createdBy: lab.user.id });
-    await LegalHold.create({
-      groupId: lab.group.id,
-      targetType: "series",
-      targetId: series.id,
-      reason: "titration under review",
-      placedBy: lab.user.id,
-      liftedAt: null,
-      liftedBy: null,
-    });
+    await placedHold(lab, "series", series.id, "titration under review");
 
     const preview = await previewPolicy({ projectId: lab.project.id, dataClass: "raw", keepDays: 30, onExpiry: "delete" });
     expect(preview.toDelete.map((r) => r.id)).toEqual([free.id]);
@@ -186,15 +156,7 @@ describe("retention sweep on the real database and storage", () => {
   it("refuses a person's delete under hold, with the reason", async () => {
     const lab = await createLab("spectroscopist");
     const s = await storedSpectrum(lab);
-    await LegalHold.create({
-      groupId: lab.group.id,
-      targetType: "project",
-      targetId: lab.project.id,
-      reason: "audit by the funder",
-      placedBy: null,
-      liftedAt: null,
-      liftedBy: null,
-    });
+    await placedHold(lab, "project", lab.project.id, "audit by the funder", null);
     const attempt = deleteSpectrum(s.id, { cause: "owner", actorId: lab.user.id, actorLabel: lab.user.email });
     await expect(attempt).rejects.toBeInstanceOf(Refusal);
     await expect(deleteSpectrum(s.id, { cause: "owner", actorId: lab.user.id, actorLabel: lab.user.email })).rejects.toThrow(
@@ -259,15 +221,13 @@ describe("retention sweep on the real database and storage", () => {
           const holdTarget =
             w.hold === "series" ? series.id : w.hold === "sample" ? sample.id : w.hold === "first-spectrum" ? made[0]!.s.id : null;
           if (holdTarget)
-            await LegalHold.create({
-              groupId: lab.group.id,
-              targetType: w.hold === "first-spectrum" ? "spectrum" : (w.hold as "series" | "sample"),
-              targetId: holdTarget,
-              reason: "property test",
-              placedBy: null,
-              liftedAt: null,
-              liftedBy: null,
-            });
+            await placedHold(
+              lab,
+              w.hold === "first-spectrum" ? "spectrum" : (w.hold as "series" | "sample"),
+              holdTarget,
+              "property test",
+              null,
+            );
           await runSweep({ projectIds: [lab.project.id] });
 
           const kept = new Set<string>();
